@@ -1,0 +1,3 @@
+module edgewise
+
+go 1.26

@@ -1,0 +1,176 @@
+// Package problem holds the resolved mathematical problem that every solver
+// in edgewise works on: a rectangle 0 <= x <= W, 0 <= y <= H with
+// conductivity Kx, Ky, a uniform volumetric source, and one condition on each
+// of its four edges. The project file (package solver) is decoded and its
+// formulas compiled into this form; the series engine and the
+// finite-difference cross-check both read it and never see JSON or text.
+//
+// The governing equation is
+//
+//	Kx u_xx + Ky u_yy = -Source
+//
+// and every flux is the flux ENTERING the region per unit edge length and
+// unit depth:
+//
+//	bottom (y = 0):  -Ky du/dy     top   (y = H):  +Ky du/dy
+//	left   (x = 0):  -Kx du/dx     right (x = W):  +Kx du/dx
+//
+// so that, at steady state, the inflows through the four edges plus
+// Source*W*H add up to zero.
+//
+// Edge kinds:
+//
+//	Value       u = F(s)                              (Dirichlet)
+//	Flux        entering flux = F(s)                  (Neumann; 0 = insulated)
+//	Convection  entering flux = Hc * (F(s) - u)        (Robin; F is the ambient)
+//
+// The coordinate s runs along the edge: bottom and top from the left end
+// (s = x), left and right from the bottom end (s = y).
+package problem
+
+import "fmt"
+
+// Kind is the kind of condition held on an edge.
+type Kind int
+
+const (
+	Value      Kind = iota // prescribed field value (Dirichlet)
+	Flux                   // prescribed entering flux (Neumann)
+	Convection             // entering flux = Hc (ambient - u) (Robin)
+)
+
+var kindNames = [...]string{Value: "value", Flux: "flux", Convection: "convection"}
+
+func (k Kind) String() string {
+	if k < 0 || int(k) >= len(kindNames) {
+		return fmt.Sprintf("Kind(%d)", int(k))
+	}
+	return kindNames[k]
+}
+
+// Side names one edge of the rectangle. The order is counter-clockwise
+// starting at the bottom, so that Side+1 (mod 4) is the next edge
+// counter-clockwise.
+type Side int
+
+const (
+	Bottom Side = iota // y = 0, s = x
+	Right              // x = W, s = y
+	Top                // y = H, s = x
+	Left               // x = 0, s = y
+)
+
+// Sides lists the four edges in their fixed order.
+var Sides = [4]Side{Bottom, Right, Top, Left}
+
+var sideNames = [...]string{Bottom: "bottom", Right: "right", Top: "top", Left: "left"}
+
+func (s Side) String() string {
+	if s < 0 || int(s) >= len(sideNames) {
+		return fmt.Sprintf("Side(%d)", int(s))
+	}
+	return sideNames[s]
+}
+
+// Edge is the condition held on one edge.
+type Edge struct {
+	Kind Kind
+	// F is the edge data as a function of s: the value for Value, the
+	// entering flux for Flux, the ambient value for Convection. F must be
+	// safe for concurrent use and must not be nil. It may return a
+	// non-finite number for bad user data; solvers check what they get
+	// (see Check) and report it as a *NonFiniteError.
+	F func(s float64) float64
+	// Hc is the convection coefficient (>= 0) for Convection; unused
+	// otherwise.
+	Hc float64
+}
+
+// Problem is a steady field problem on a rectangle.
+type Problem struct {
+	W, H   float64 // extent in x and y, > 0
+	Kx, Ky float64 // conductivity along x and y, > 0
+	Source float64 // uniform volumetric source
+	Edges  [4]Edge // indexed by Side
+}
+
+// Length returns the length of the given edge.
+func (p *Problem) Length(s Side) float64 {
+	if s == Bottom || s == Top {
+		return p.W
+	}
+	return p.H
+}
+
+// Point returns the coordinates of the point at distance s along edge e.
+func (p *Problem) Point(e Side, s float64) (x, y float64) {
+	switch e {
+	case Bottom:
+		return s, 0
+	case Top:
+		return s, p.H
+	case Left:
+		return 0, s
+	case Right:
+		return p.W, s
+	}
+	panic("problem: bad side " + e.String())
+}
+
+// NonFiniteError reports edge data that evaluated to NaN or an infinity.
+type NonFiniteError struct {
+	Side Side
+	S    float64 // where along the edge
+}
+
+func (e *NonFiniteError) Error() string {
+	return fmt.Sprintf("%v: not a finite number at s = %.6g", e.Side, e.S)
+}
+
+// Eval returns F(s) for edge e, or a *NonFiniteError if it is not finite.
+func (p *Problem) Eval(e Side, s float64) (float64, error) {
+	v := p.Edges[e].F(s)
+	if v-v != 0 { // NaN or ±Inf
+		return 0, &NonFiniteError{Side: e, S: s}
+	}
+	return v, nil
+}
+
+// Validate checks the parts of a problem that are not functions. It returns
+// an error naming the offending part; the caller (the project decoder) has
+// normally reported these already with field paths.
+func (p *Problem) Validate() error {
+	pos := func(name string, v float64) error {
+		if !(v > 0) || v-v != 0 {
+			return fmt.Errorf("problem: %s must be a positive finite number, got %g", name, v)
+		}
+		return nil
+	}
+	for _, c := range []struct {
+		n string
+		v float64
+	}{{"W", p.W}, {"H", p.H}, {"Kx", p.Kx}, {"Ky", p.Ky}} {
+		if err := pos(c.n, c.v); err != nil {
+			return err
+		}
+	}
+	if p.Source-p.Source != 0 {
+		return fmt.Errorf("problem: Source must be finite, got %g", p.Source)
+	}
+	for _, s := range Sides {
+		e := p.Edges[s]
+		if e.F == nil {
+			return fmt.Errorf("problem: %v edge has no data function", s)
+		}
+		if e.Kind < Value || e.Kind > Convection {
+			return fmt.Errorf("problem: %v edge has bad kind %v", s, e.Kind)
+		}
+		if e.Kind == Convection && (e.Hc < 0 || e.Hc-e.Hc != 0) {
+			return fmt.Errorf("problem: %v edge convection coefficient must be >= 0, got %g", s, e.Hc)
+		}
+	}
+	return nil
+}
+
+// Const returns an edge data function that is the constant v.
+func Const(v float64) func(float64) float64 { return func(float64) float64 { return v } }
