@@ -1,0 +1,98 @@
+package contour
+
+import "math"
+
+// Lines appends to dst the isoline segments of the field u at the given
+// level, four numbers x0, y0, x1, y1 per segment, and returns the extended
+// slice (nil dst allocates; pass dst[:0] to reuse a buffer). u holds the
+// (nx+1)*(ny+1) node values described in the package comment, on a
+// rectangle w by h. Lines panics if nx or ny is below 1 or u has the wrong
+// length (caller bugs).
+func Lines(dst []float64, u []float64, nx, ny int, w, h float64, level float64) []float64 {
+	if nx < 1 || ny < 1 {
+		panic("contour: grid needs nx, ny >= 1")
+	}
+	if len(u) != (nx+1)*(ny+1) {
+		panic("contour: len(u) != (nx+1)*(ny+1)")
+	}
+	if math.IsNaN(level) {
+		return dst
+	}
+	fx, fy := w/float64(nx), h/float64(ny)
+	stride := nx + 1
+	for j := range ny {
+		y0 := float64(j) * fy
+		y1 := float64(j+1) * fy
+		row, up := u[j*stride:(j+1)*stride], u[(j+1)*stride:(j+2)*stride]
+		for i := range nx {
+			v00, v10, v11, v01 := row[i], row[i+1], up[i+1], up[i]
+			var idx int
+			if v00 >= level {
+				idx |= 1
+			}
+			if v10 >= level {
+				idx |= 2
+			}
+			if v11 >= level {
+				idx |= 4
+			}
+			if v01 >= level {
+				idx |= 8
+			}
+			if idx == 0 || idx == 15 {
+				continue // includes cells whose NaN corners all compare false
+			}
+			if v00 != v00 || v10 != v10 || v11 != v11 || v01 != v01 {
+				continue // NaN corner
+			}
+			x0 := float64(i) * fx
+			x1 := float64(i+1) * fx
+			// Crossing points on the four edges, interpolated from the
+			// lower-index node: bottom (00-10), right (10-11), top (01-11),
+			// left (00-01).
+			var ex, ey [4]float64
+			if (idx^idx>>1)&1 != 0 {
+				ex[0], ey[0] = x0+(level-v00)/(v10-v00)*(x1-x0), y0
+			}
+			if (idx>>1^idx>>2)&1 != 0 {
+				ex[1], ey[1] = x1, y0+(level-v10)/(v11-v10)*(y1-y0)
+			}
+			if (idx>>3^idx>>2)&1 != 0 {
+				ex[2], ey[2] = x0+(level-v01)/(v11-v01)*(x1-x0), y1
+			}
+			if (idx^idx>>3)&1 != 0 {
+				ex[3], ey[3] = x0, y0+(level-v00)/(v01-v00)*(y1-y0)
+			}
+			switch idx {
+			case 5, 10: // saddle: cut off the corners unlike the centre
+				centreHigh := 0.25*(v00+v10+v11+v01) >= level
+				if (idx == 5) == centreHigh {
+					// cut corners 10 (edges 0,1) and 01 (edges 2,3)
+					dst = seg(dst, ex[0], ey[0], ex[1], ey[1])
+					dst = seg(dst, ex[2], ey[2], ex[3], ey[3])
+				} else {
+					// cut corners 00 (edges 3,0) and 11 (edges 1,2)
+					dst = seg(dst, ex[3], ey[3], ex[0], ey[0])
+					dst = seg(dst, ex[1], ey[1], ex[2], ey[2])
+				}
+			default:
+				a, b := cut[idx][0], cut[idx][1]
+				dst = seg(dst, ex[a], ey[a], ex[b], ey[b])
+			}
+		}
+	}
+	return dst
+}
+
+// cut lists, for every non-saddle case, the two edges the line crosses.
+var cut = [16][2]uint8{
+	1: {3, 0}, 2: {0, 1}, 3: {3, 1}, 4: {1, 2}, 6: {0, 2}, 7: {3, 2},
+	8: {2, 3}, 9: {2, 0}, 11: {2, 1}, 12: {1, 3}, 13: {1, 0}, 14: {0, 3},
+}
+
+func seg(dst []float64, x0, y0, x1, y1 float64) []float64 {
+	if x0 == x1 && y0 == y1 {
+		return dst // a line through a node gives zero-length pieces
+	}
+	return append(dst, x0, y0, x1, y1)
+}
