@@ -1,0 +1,95 @@
+# edgewise: build, run and test. `make run` and `make test` are the two
+# commands that matter; see README.md.
+
+SHELL     := /bin/bash
+GO        ?= go
+GOROOT    := $(shell $(GO) env GOROOT)
+PORT      ?= 8080
+CHROMIUM  ?= $(shell command -v chromium 2>/dev/null || echo /usr/bin/chromium)
+WASMEXEC  := $(GOROOT)/lib/wasm/wasm_exec.js
+GOJSEXEC  := $(GOROOT)/lib/wasm/go_js_wasm_exec
+FUZZTIME  ?= 10s
+NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
+
+.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist bench bench-browser fuzz clean
+
+all: build
+
+## build: the engine as WebAssembly next to the page, with the matching wasm_exec.js
+build: site/app.wasm site/wasm_exec.js
+
+site/app.wasm: $(shell find solver wasm -name '*.go' -not -name '*_test.go') go.mod go.sum
+	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-s -w' -o $@ ./wasm
+
+site/wasm_exec.js: $(WASMEXEC)
+	cp $< $@
+
+## run: build and serve the page on localhost with the demo project
+run: build
+	$(GO) run ./scripts/serve -addr 127.0.0.1:$(PORT) -dir site
+
+## test: everything: vet, native tests with -race, short fuzzing, wasm tests under Node, browser tests
+test: vet test-native test-fuzz test-wasm test-browser
+	@echo "make test: all suites passed"
+
+vet:
+	$(GO) vet ./...
+	GOOS=js GOARCH=wasm $(GO) vet ./wasm/...
+
+test-native:
+	$(GO) test -race -count=1 $(NATIVE)
+
+# Fuzz targets run their seed corpora in test-native; here each also runs
+# for a short time (FUZZTIME) to look for new crashes.
+test-fuzz:
+	@set -e; for pkg in $$($(GO) list ./solver/...); do \
+	  for f in $$($(GO) test -list '^Fuzz' $$pkg | grep '^Fuzz' || true); do \
+	    echo "fuzz $$pkg $$f ($(FUZZTIME))"; \
+	    $(GO) test -run='^$$' -fuzz="^$$f$$" -fuzztime=$(FUZZTIME) $$pkg; \
+	  done; \
+	done
+
+test-wasm:
+	GOOS=js GOARCH=wasm $(GO) test -count=1 -exec "$(GOJSEXEC)" ./wasm/...
+
+## test-browser: the page in headless chromium (installed from Debian when missing and root)
+test-browser: build dist chromium
+	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -v -timeout 20m ./scripts/e2e/ 2>&1 | tee /tmp/edgewise-e2e.log | grep -E '^(=== RUN|--- |PASS|FAIL|ok|panic)|_test.go' ; \
+	  exit $${PIPESTATUS[0]}
+
+chromium:
+	@if [ -x "$(CHROMIUM)" ]; then exit 0; fi; \
+	if [ "$$(id -u)" = 0 ]; then \
+	  echo "chromium is missing: installing Debian's package"; \
+	  apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium >/dev/null; \
+	else \
+	  echo "The browser tests need Debian's chromium. Install it with:"; \
+	  echo "  sudo apt-get update && sudo apt-get install -y chromium"; \
+	  exit 1; \
+	fi
+
+## dist: dist/site/ for any static server, dist/edgewise.html for offline use
+dist: build
+	rm -rf dist/site && mkdir -p dist/site
+	cp site/*.html site/*.js site/*.css site/*.json site/app.wasm dist/site/
+	$(GO) run ./scripts/bundle -site site -o dist/edgewise.html
+	@wasm=$$(stat -c %s site/app.wasm); html=$$(stat -c %s dist/edgewise.html); \
+	  awk -v w=$$wasm -v h=$$html 'BEGIN { \
+	    printf "size: app.wasm %.2f MiB (target <= 3.5 MiB)\n", w/1048576; \
+	    printf "size: edgewise.html %.2f MiB (target <= 1.5 MiB)\n", h/1048576; \
+	    if (w > 3.5*1048576 || h > 1.5*1048576) { print "size: over target"; exit 1 } }'
+
+## bench: the Go benchmarks
+bench:
+	$(GO) test -run='^$$' -bench=. -benchmem ./solver/...
+
+## bench-browser: edit-to-picture time in headless chromium
+bench-browser: build chromium
+	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -run='^$$' -bench=. -benchtime=20x ./scripts/e2e/
+
+## fuzz: longer fuzzing on demand (FUZZTIME=10m make fuzz)
+fuzz: FUZZTIME=2m
+fuzz: test-fuzz
+
+clean:
+	rm -rf dist site/app.wasm site/wasm_exec.js

@@ -1,0 +1,166 @@
+// Command bundle builds the single-file edgewise: one HTML file that works
+// opened straight from disk (file://) with no network and nothing installed.
+//
+// Usage:
+//
+//	go run ./scripts/bundle [-site site] [-o dist/edgewise.html]
+//
+// It reads the built site folder (index.html with its stylesheets and
+// scripts, worker.js, wasm_exec.js, app.wasm, demo.json) and writes one file
+// in which
+//
+//   - every <link rel="stylesheet" href="X"> becomes an inline <style>, and
+//     every <script src="X"></script> an inline <script>;
+//   - the worker's source (wasm_exec.js then worker.js) sits in
+//     <script type="text/plain" id="ew-worker">, and the page starts the
+//     worker from a Blob URL made from it;
+//   - the engine sits gzip-compressed and base64-encoded in
+//     <script type="application/octet-stream" id="ew-wasm">, which the page
+//     decodes with DecompressionStream("gzip");
+//   - the demo project sits in <script type="application/json" id="ew-demo">;
+//   - the Content-Security-Policy meta tag is replaced by one that allows
+//     exactly the inline scripts and styles by their SHA-256 hashes, the
+//     worker from blob:, WebAssembly, and nothing from any address.
+//
+// index.html must write its stylesheet links and script tags in exactly the
+// forms above (one per line is fine); the bundler fails loudly otherwise.
+package main
+
+import (
+	"bytes"
+	"compress/gzip"
+	"crypto/sha256"
+	"encoding/base64"
+	"flag"
+	"fmt"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+)
+
+func main() {
+	site := flag.String("site", "site", "built site folder")
+	out := flag.String("o", "dist/edgewise.html", "output file")
+	flag.Parse()
+	page, err := Bundle(*site)
+	if err != nil {
+		fmt.Fprintln(os.Stderr, "bundle:", err)
+		os.Exit(1)
+	}
+	if err := os.MkdirAll(filepath.Dir(*out), 0o755); err != nil {
+		fmt.Fprintln(os.Stderr, "bundle:", err)
+		os.Exit(1)
+	}
+	if err := os.WriteFile(*out, page, 0o644); err != nil {
+		fmt.Fprintln(os.Stderr, "bundle:", err)
+		os.Exit(1)
+	}
+	fmt.Printf("bundle: %s (%.2f MiB)\n", *out, float64(len(page))/(1<<20))
+}
+
+var (
+	linkRE   = regexp.MustCompile(`<link rel="stylesheet" href="([^"]+)">`)
+	scriptRE = regexp.MustCompile(`<script src="([^"]+)"></script>`)
+	cspRE    = regexp.MustCompile(`<meta http-equiv="Content-Security-Policy" content="[^"]*">`)
+)
+
+// Bundle returns the single-file page for the built site in dir.
+func Bundle(dir string) ([]byte, error) {
+	read := func(name string) (string, error) {
+		b, err := os.ReadFile(filepath.Join(dir, name))
+		return string(b), err
+	}
+	html, err := read("index.html")
+	if err != nil {
+		return nil, err
+	}
+	if !cspRE.MatchString(html) {
+		return nil, fmt.Errorf("index.html has no Content-Security-Policy meta tag to replace")
+	}
+	var scriptHashes, styleHashes []string
+	var ferr error
+	html = linkRE.ReplaceAllStringFunc(html, func(tag string) string {
+		css, err := read(linkRE.FindStringSubmatch(tag)[1])
+		if err != nil {
+			ferr = err
+			return tag
+		}
+		css = strings.ReplaceAll(css, "</style", `<\/style`)
+		styleHashes = append(styleHashes, hash(css))
+		return "<style>" + css + "</style>"
+	})
+	html = scriptRE.ReplaceAllStringFunc(html, func(tag string) string {
+		js, err := read(scriptRE.FindStringSubmatch(tag)[1])
+		if err != nil {
+			ferr = err
+			return tag
+		}
+		js = escapeScript(js)
+		scriptHashes = append(scriptHashes, hash(js))
+		return "<script>" + js + "</script>"
+	})
+	if ferr != nil {
+		return nil, ferr
+	}
+	if strings.Contains(html, `<script src=`) || strings.Contains(html, `<link rel="stylesheet"`) {
+		return nil, fmt.Errorf("index.html has a script or stylesheet tag the bundler does not recognise")
+	}
+
+	execJS, err := read("wasm_exec.js")
+	if err != nil {
+		return nil, fmt.Errorf("%w (run make build first)", err)
+	}
+	workerJS, err := read("worker.js")
+	if err != nil {
+		return nil, err
+	}
+	wasm, err := os.ReadFile(filepath.Join(dir, "app.wasm"))
+	if err != nil {
+		return nil, fmt.Errorf("%w (run make build first)", err)
+	}
+	demo, err := read("demo.json")
+	if err != nil {
+		return nil, err
+	}
+	var gz bytes.Buffer
+	zw, _ := gzip.NewWriterLevel(&gz, gzip.BestCompression)
+	if _, err := zw.Write(wasm); err != nil {
+		return nil, err
+	}
+	if err := zw.Close(); err != nil {
+		return nil, err
+	}
+
+	var extra strings.Builder
+	extra.WriteString(`<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+workerJS) + "</script>\n")
+	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(demo) + "</script>\n")
+	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + base64.StdEncoding.EncodeToString(gz.Bytes()) + "</script>\n")
+	i := strings.LastIndex(html, "</body>")
+	if i < 0 {
+		return nil, fmt.Errorf("index.html has no </body>")
+	}
+	// the data blocks come before the page's own scripts, which read them
+	j := strings.Index(html, "<script>")
+	if j < 0 || j > i {
+		j = i
+	}
+	html = html[:j] + extra.String() + html[j:]
+
+	csp := "default-src 'none'; script-src " + strings.Join(scriptHashes, " ") + " 'wasm-unsafe-eval'; " +
+		"worker-src blob:; style-src " + strings.Join(styleHashes, " ") + "; img-src data: blob:; " +
+		"connect-src blob: data:; object-src 'none'; base-uri 'none'; form-action 'none'"
+	html = cspRE.ReplaceAllLiteralString(html, `<meta http-equiv="Content-Security-Policy" content="`+csp+`">`)
+	return []byte(html), nil
+}
+
+// escapeScript keeps inline text from closing its <script> element early.
+func escapeScript(s string) string {
+	s = strings.ReplaceAll(s, "</script", `<\/script`)
+	return strings.ReplaceAll(s, "<!--", `<\!--`)
+}
+
+func hash(s string) string {
+	h := sha256.Sum256([]byte(s))
+	return "'sha256-" + base64.StdEncoding.EncodeToString(h[:]) + "'"
+}

@@ -1,0 +1,412 @@
+package solver
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+)
+
+// Schema is the project-file schema this package reads and writes.
+const Schema = "edgewise/1"
+
+// Physics names what the field means. It changes labels, units and the
+// cautions, never the mathematics.
+const (
+	Heat          = "heat"
+	Electrostatic = "electrostatic"
+	Seepage       = "seepage"
+	Generic       = "generic"
+)
+
+// Project is a decoded project file.
+type Project struct {
+	Schema       string       `json:"schema"`
+	Title        string       `json:"title,omitempty"`
+	Physics      string       `json:"physics"`
+	Width        float64      `json:"width"`
+	Height       float64      `json:"height"`
+	Conductivity Conductivity `json:"conductivity"`
+	Source       float64      `json:"source"`
+	Edges        Edges        `json:"edges"`
+	Probes       []Probe      `json:"probes"`
+	Grid         *GridSize    `json:"grid,omitempty"`
+}
+
+// Conductivity is isotropic (X == Y) or orthotropic. It encodes as a single
+// number when isotropic.
+type Conductivity struct{ X, Y float64 }
+
+// MarshalJSON writes a number when isotropic, {"x": .., "y": ..} otherwise.
+func (c Conductivity) MarshalJSON() ([]byte, error) {
+	if c.X == c.Y {
+		return json.Marshal(c.X)
+	}
+	return json.Marshal(struct {
+		X float64 `json:"x"`
+		Y float64 `json:"y"`
+	}{c.X, c.Y})
+}
+
+// Edges holds the four edge conditions.
+type Edges struct {
+	Bottom EdgeSpec `json:"bottom"`
+	Top    EdgeSpec `json:"top"`
+	Left   EdgeSpec `json:"left"`
+	Right  EdgeSpec `json:"right"`
+}
+
+// EdgeSpec is one edge condition as the user wrote it.
+type EdgeSpec struct {
+	Kind    string  `json:"kind"`              // "value", "flux" or "convection"
+	Expr    string  `json:"expr,omitempty"`    // value or entering flux (value, flux)
+	H       float64 `json:"h,omitempty"`       // convection coefficient (convection)
+	Ambient string  `json:"ambient,omitempty"` // ambient value (convection)
+}
+
+// Probe is a point where the user wants the value, gradient and flux.
+type Probe struct {
+	X     float64 `json:"x"`
+	Y     float64 `json:"y"`
+	Label string  `json:"label"`
+}
+
+// GridSize is the output grid in intervals along x and y.
+type GridSize struct {
+	Nx int `json:"nx"`
+	Ny int `json:"ny"`
+}
+
+// Limits on what a project may ask for.
+const (
+	MaxGrid      = 1024 // intervals per side of the output grid
+	MaxProbes    = 100
+	MaxTextBytes = 4096 // title, labels and formulas
+	maxFileBytes = 1 << 20
+)
+
+// Error is a problem with one field of a project. Col is the 1-based byte
+// column within a formula, or 0.
+type Error struct {
+	Path string
+	Col  int
+	Msg  string
+}
+
+func (e *Error) Error() string {
+	if e.Col > 0 {
+		return fmt.Sprintf("%s: col %d: %s", e.Path, e.Col, e.Msg)
+	}
+	if e.Path == "" {
+		return e.Msg
+	}
+	return e.Path + ": " + e.Msg
+}
+
+func errorf(path, format string, args ...any) *Error {
+	return &Error{Path: path, Msg: fmt.Sprintf(format, args...)}
+}
+
+// Decode reads a project file strictly: unknown keys, missing required
+// fields, wrong types, non-finite or out-of-range numbers are errors that
+// name the field path. Formulas are checked by Compile, not here.
+func Decode(data []byte) (*Project, error) {
+	if len(data) > maxFileBytes {
+		return nil, errorf("", "project file is larger than %d bytes", maxFileBytes)
+	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	var v any
+	if err := dec.Decode(&v); err != nil {
+		return nil, errorf("", "not a project file: %s", jsonProblem(data, err))
+	}
+	if dec.More() {
+		return nil, errorf("", "not a project file: text after the closing }")
+	}
+	d := decoder{}
+	p := d.project(v)
+	if d.err != nil {
+		return nil, d.err
+	}
+	return p, nil
+}
+
+func jsonProblem(data []byte, err error) string {
+	var se *json.SyntaxError
+	if errors.As(err, &se) {
+		line, col := 1, 1
+		for _, b := range data[:min(int(se.Offset), len(data))] {
+			if b == '\n' {
+				line, col = line+1, 1
+			} else {
+				col++
+			}
+		}
+		return fmt.Sprintf("JSON syntax error at line %d, col %d: %s", line, col, strings.TrimPrefix(se.Error(), "invalid character "))
+	}
+	return err.Error()
+}
+
+// decoder walks the generic JSON tree; the first error sticks.
+type decoder struct{ err *Error }
+
+func (d *decoder) fail(path, format string, args ...any) {
+	if d.err == nil {
+		d.err = errorf(path, format, args...)
+	}
+}
+
+func (d *decoder) object(v any, path string, required []string, optional ...string) map[string]any {
+	m, ok := v.(map[string]any)
+	if !ok {
+		d.fail(path, "expected an object {...}, got %s", describe(v))
+		return nil
+	}
+	allowed := append(append([]string{}, required...), optional...)
+	var unknown []string
+	for k := range m {
+		if !contains(allowed, k) {
+			unknown = append(unknown, k)
+		}
+	}
+	if len(unknown) > 0 {
+		sort.Strings(unknown)
+		d.fail(join(path, unknown[0]), "unknown key (allowed here: %s)", strings.Join(allowed, ", "))
+		return nil
+	}
+	for _, k := range required {
+		if _, ok := m[k]; !ok {
+			d.fail(join(path, k), "missing")
+			return nil
+		}
+	}
+	return m
+}
+
+func (d *decoder) number(v any, path string) float64 {
+	switch t := v.(type) {
+	case json.Number:
+		f, err := t.Float64()
+		if err != nil || math.IsInf(f, 0) || math.IsNaN(f) {
+			d.fail(path, "%s is not a finite number", t)
+			return 0
+		}
+		return f
+	case string:
+		if strings.Contains(t, ",") {
+			d.fail(path, "expected a number, got the text %q (use a decimal point, not a comma)", t)
+		} else {
+			d.fail(path, "expected a number, got the text %q", t)
+		}
+	default:
+		d.fail(path, "expected a number, got %s", describe(v))
+	}
+	return 0
+}
+
+func (d *decoder) positive(v any, path string) float64 {
+	f := d.number(v, path)
+	if d.err == nil && !(f > 0) {
+		d.fail(path, "must be greater than zero, got %g", f)
+	}
+	return f
+}
+
+func (d *decoder) text(v any, path string) string {
+	s, ok := v.(string)
+	if !ok {
+		d.fail(path, "expected text in quotes, got %s", describe(v))
+		return ""
+	}
+	if len(s) > MaxTextBytes {
+		d.fail(path, "text is longer than %d bytes", MaxTextBytes)
+	}
+	return s
+}
+
+// formula accepts a formula as text, or a plain JSON number.
+func (d *decoder) formula(v any, path string) string {
+	if n, ok := v.(json.Number); ok {
+		d.number(n, path)
+		return n.String()
+	}
+	s := d.text(v, path)
+	if d.err == nil && strings.TrimSpace(s) == "" {
+		d.fail(path, "empty formula (write 0 for zero)")
+	}
+	return s
+}
+
+func (d *decoder) integer(v any, path string, lo, hi int) int {
+	f := d.number(v, path)
+	if d.err != nil {
+		return 0
+	}
+	if f != math.Trunc(f) || f < float64(lo) || f > float64(hi) {
+		d.fail(path, "must be a whole number from %d to %d, got %g", lo, hi, f)
+		return 0
+	}
+	return int(f)
+}
+
+func (d *decoder) project(v any) *Project {
+	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
+		"title", "source", "probes", "grid")
+	if m == nil {
+		return nil
+	}
+	p := &Project{}
+	p.Schema = d.text(m["schema"], "schema")
+	if d.err == nil && p.Schema != Schema {
+		d.fail("schema", "expected %q, got %q (not an edgewise project, or a newer version)", Schema, p.Schema)
+	}
+	if t, ok := m["title"]; ok {
+		p.Title = d.text(t, "title")
+	}
+	p.Physics = d.text(m["physics"], "physics")
+	if d.err == nil && !contains([]string{Heat, Electrostatic, Seepage, Generic}, p.Physics) {
+		d.fail("physics", "unknown physics %q (use heat, electrostatic, seepage or generic)", p.Physics)
+	}
+	p.Width = d.positive(m["width"], "width")
+	p.Height = d.positive(m["height"], "height")
+	if d.err == nil {
+		if r := p.Width / p.Height; r > 1e3 || r < 1e-3 {
+			d.fail("width", "the aspect ratio width/height = %g is outside 1e-3 .. 1e3", r)
+		}
+	}
+	p.Conductivity = d.conductivity(m["conductivity"], "conductivity")
+	if s, ok := m["source"]; ok {
+		p.Source = d.number(s, "source")
+	}
+	em := d.object(m["edges"], "edges", []string{"bottom", "top", "left", "right"})
+	if em != nil {
+		p.Edges.Bottom = d.edge(em["bottom"], "edges.bottom")
+		p.Edges.Top = d.edge(em["top"], "edges.top")
+		p.Edges.Left = d.edge(em["left"], "edges.left")
+		p.Edges.Right = d.edge(em["right"], "edges.right")
+	}
+	if pv, ok := m["probes"]; ok {
+		p.Probes = d.probes(pv, p)
+	}
+	if g, ok := m["grid"]; ok {
+		gm := d.object(g, "grid", []string{"nx", "ny"})
+		if gm != nil {
+			p.Grid = &GridSize{Nx: d.integer(gm["nx"], "grid.nx", 2, MaxGrid), Ny: d.integer(gm["ny"], "grid.ny", 2, MaxGrid)}
+		}
+	}
+	return p
+}
+
+func (d *decoder) conductivity(v any, path string) Conductivity {
+	if _, ok := v.(map[string]any); ok {
+		m := d.object(v, path, []string{"x", "y"})
+		if m == nil {
+			return Conductivity{}
+		}
+		return Conductivity{X: d.positive(m["x"], path+".x"), Y: d.positive(m["y"], path+".y")}
+	}
+	k := d.positive(v, path)
+	return Conductivity{X: k, Y: k}
+}
+
+func (d *decoder) edge(v any, path string) EdgeSpec {
+	m, ok := v.(map[string]any)
+	if !ok {
+		d.fail(path, "expected an object {\"kind\": ..}, got %s", describe(v))
+		return EdgeSpec{}
+	}
+	if _, ok := m["kind"]; !ok {
+		d.fail(path+".kind", "missing (use value, flux or convection)")
+		return EdgeSpec{}
+	}
+	kind := d.text(m["kind"], path+".kind")
+	e := EdgeSpec{Kind: kind}
+	switch kind {
+	case "value", "flux":
+		if m = d.object(v, path, []string{"kind", "expr"}); m != nil {
+			e.Expr = d.formula(m["expr"], path+".expr")
+		}
+	case "convection":
+		if m = d.object(v, path, []string{"kind", "h", "ambient"}); m != nil {
+			e.H = d.number(m["h"], path+".h")
+			if d.err == nil && e.H < 0 {
+				d.fail(path+".h", "convection coefficient must be zero or more, got %g", e.H)
+			}
+			e.Ambient = d.formula(m["ambient"], path+".ambient")
+		}
+	default:
+		d.fail(path+".kind", "unknown edge kind %q (use value, flux or convection)", kind)
+	}
+	return e
+}
+
+func (d *decoder) probes(v any, p *Project) []Probe {
+	list, ok := v.([]any)
+	if !ok {
+		d.fail("probes", "expected a list [...], got %s", describe(v))
+		return nil
+	}
+	if len(list) > MaxProbes {
+		d.fail("probes", "at most %d probes, got %d", MaxProbes, len(list))
+		return nil
+	}
+	out := make([]Probe, 0, len(list))
+	for i, pv := range list {
+		path := fmt.Sprintf("probes[%d]", i)
+		m := d.object(pv, path, []string{"x", "y"}, "label")
+		if m == nil {
+			return nil
+		}
+		pr := Probe{X: d.number(m["x"], path+".x"), Y: d.number(m["y"], path+".y")}
+		if l, ok := m["label"]; ok {
+			pr.Label = d.text(l, path+".label")
+		} else {
+			pr.Label = fmt.Sprintf("P%d", i+1)
+		}
+		if d.err == nil && (pr.X < 0 || pr.X > p.Width) {
+			d.fail(path+".x", "%g is outside the rectangle (0 .. %g)", pr.X, p.Width)
+		}
+		if d.err == nil && (pr.Y < 0 || pr.Y > p.Height) {
+			d.fail(path+".y", "%g is outside the rectangle (0 .. %g)", pr.Y, p.Height)
+		}
+		out = append(out, pr)
+	}
+	return out
+}
+
+func describe(v any) string {
+	switch t := v.(type) {
+	case nil:
+		return "null"
+	case bool:
+		return fmt.Sprint(t)
+	case json.Number:
+		return "the number " + t.String()
+	case string:
+		return fmt.Sprintf("the text %q", t)
+	case []any:
+		return "a list"
+	case map[string]any:
+		return "an object"
+	}
+	return fmt.Sprintf("%T", v)
+}
+
+func join(path, key string) string {
+	if path == "" {
+		return key
+	}
+	return path + "." + key
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}

@@ -1,0 +1,186 @@
+package solver
+
+import (
+	"math"
+
+	"edgewise/solver/problem"
+)
+
+// Options controls a solve.
+type Options struct {
+	// Nx, Ny are the output grid in intervals; zero takes the project's
+	// grid or, failing that, DefaultGrid intervals along the longer side.
+	Nx, Ny int
+	// NoCrossCheck skips the finite-difference cross-check.
+	NoCrossCheck bool
+}
+
+// DefaultGrid is the number of output intervals along the longer side when
+// neither the project nor the caller says.
+const DefaultGrid = 200
+
+// Output is a result together with the field on the output grid. The
+// slices belong to the Solver and are overwritten by its next Solve.
+type Output struct {
+	Result Result
+	Nx, Ny int
+	// U, Ux, Uy hold the value and gradient at node j*(Nx+1)+i, at
+	// x = i*W/Nx, y = j*H/Ny.
+	U, Ux, Uy []float64
+}
+
+// field is what the engine provides.
+type field interface {
+	At(x, y float64) (u, ux, uy float64)
+	Grid(nx, ny int, u, ux, uy []float64)
+	Flow(e problem.Side) (flow float64, finite bool)
+	Mean() float64
+	Terms() int
+	ErrorEstimate() float64
+	Warnings() []string
+}
+
+// A Solver keeps work buffers between solves (WebAssembly memory never
+// shrinks, so the page reuses one Solver). It is not safe for concurrent use.
+type Solver struct {
+	u, ux, uy []float64
+}
+
+// GridFor returns the output grid for a project: the options' grid, the
+// project's, or DefaultGrid intervals along the longer side with the other
+// in proportion (at least 2).
+func GridFor(p *Project, opt Options) (nx, ny int) {
+	switch {
+	case opt.Nx > 0 && opt.Ny > 0:
+		return opt.Nx, opt.Ny
+	case p.Grid != nil:
+		return p.Grid.Nx, p.Grid.Ny
+	}
+	return Proportional(p.Width, p.Height, DefaultGrid)
+}
+
+// Proportional returns n intervals along the longer side of a w x h
+// rectangle and the shorter side in proportion, at least 2 each.
+func Proportional(w, h float64, n int) (nx, ny int) {
+	if w >= h {
+		return n, max(2, int(math.Round(float64(n)*h/w)))
+	}
+	return max(2, int(math.Round(float64(n)*w/h))), n
+}
+
+// Solve solves a decoded project.
+func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
+	pr, err := Compile(p)
+	if err != nil {
+		return nil, err
+	}
+	f, err := solveSeries(pr)
+	if err != nil {
+		return nil, wrapEngineError(pr, err)
+	}
+	nx, ny := GridFor(p, opt)
+	if nx > MaxGrid || ny > MaxGrid {
+		return nil, errorf("grid", "at most %d intervals per side", MaxGrid)
+	}
+	n := (nx + 1) * (ny + 1)
+	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
+	f.Grid(nx, ny, s.u, s.ux, s.uy)
+	out := &Output{Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
+	out.Result = report(p, pr, f, out)
+	if !opt.NoCrossCheck {
+		crossCheck(pr, f, &out.Result)
+	}
+	for _, v := range out.U {
+		if v-v != 0 {
+			return nil, errorf("", "the solution is not finite; please report this project")
+		}
+	}
+	return out, nil
+}
+
+func grow(b []float64, n int) []float64 {
+	if cap(b) < n {
+		return make([]float64, n)
+	}
+	return b[:n]
+}
+
+// wrapEngineError puts the project path on errors the engine reports about
+// edge data.
+func wrapEngineError(pr *problem.Problem, err error) error {
+	if nf, ok := err.(*problem.NonFiniteError); ok {
+		return errorf(exprPath(pr, nf.Side), "not a finite number at s = %.6g", nf.S)
+	}
+	if _, ok := err.(*Error); ok {
+		return err
+	}
+	return errorf("edges", "%v", err)
+}
+
+// report computes the result numbers from the solved field.
+func report(p *Project, pr *problem.Problem, f field, out *Output) Result {
+	r := Result{
+		Schema:   ResultSchema,
+		Probes:   []ProbeResult{},
+		Warnings: append([]string{}, f.Warnings()...),
+		Cautions: []string{},
+		Grid:     GridSize{Nx: out.Nx, Ny: out.Ny},
+		Mean:     f.Mean(),
+	}
+	for _, q := range p.Probes {
+		u, gx, gy := f.At(q.X, q.Y)
+		r.Probes = append(r.Probes, ProbeResult{
+			Label: q.Label, X: q.X, Y: q.Y, Value: u,
+			Gradient: [2]float64{gx, gy},
+			Flux:     [2]float64{-pr.Kx * gx, -pr.Ky * gy},
+		})
+	}
+	r.SourceTotal = pr.Source * pr.W * pr.H
+	sum, finite := r.SourceTotal, true
+	for _, side := range problem.Sides {
+		q, ok := f.Flow(side)
+		ef := EdgeFlow{Finite: ok}
+		if ok {
+			ef.Flow = &q
+			sum += q
+		} else {
+			finite = false
+		}
+		switch side {
+		case problem.Bottom:
+			r.Edges.Bottom = ef
+		case problem.Top:
+			r.Edges.Top = ef
+		case problem.Left:
+			r.Edges.Left = ef
+		case problem.Right:
+			r.Edges.Right = ef
+		}
+	}
+	if finite {
+		r.Balance = &sum
+	}
+	r.Min, r.Max = extremes(pr, f, out)
+	r.Accuracy.Terms = f.Terms()
+	r.Accuracy.Estimate = f.ErrorEstimate()
+	return r
+}
+
+// extremes finds the smallest and largest values on the output grid.
+func extremes(pr *problem.Problem, f field, out *Output) (lo, hi Extreme) {
+	nx, ny := out.Nx, out.Ny
+	ilo, ihi := 0, 0
+	for k, v := range out.U {
+		if v < out.U[ilo] {
+			ilo = k
+		}
+		if v > out.U[ihi] {
+			ihi = k
+		}
+	}
+	at := func(k int) Extreme {
+		i, j := k%(nx+1), k/(nx+1)
+		return Extreme{Value: out.U[k], X: float64(i) * pr.W / float64(nx), Y: float64(j) * pr.H / float64(ny)}
+	}
+	return at(ilo), at(ihi)
+}

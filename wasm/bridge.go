@@ -1,0 +1,111 @@
+//go:build js && wasm
+
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"unsafe"
+
+	"edgewise/solver"
+
+	"github.com/hack-pad/safejs"
+)
+
+// engine keeps its buffers between solves: wasm memory never shrinks.
+var engine solver.Solver
+
+// solveCall decodes the JavaScript arguments, solves and builds the reply.
+// It recovers its own panics.
+func solveCall(args []safejs.Value) (reply any) {
+	defer func() {
+		if r := recover(); r != nil {
+			reply = failure(fmt.Errorf("internal error in the engine: %v (please report this project)", r))
+		}
+	}()
+	if len(args) < 1 {
+		return failure(errors.New("edgewiseSolve needs the project JSON"))
+	}
+	text, err := args[0].String()
+	if err != nil {
+		return failure(fmt.Errorf("project must be JSON text: %w", err))
+	}
+	opt := solver.Options{}
+	if len(args) >= 3 {
+		nx, err1 := args[1].Int()
+		ny, err2 := args[2].Int()
+		if err1 == nil && err2 == nil && nx > 0 && ny > 0 {
+			opt.Nx, opt.Ny = nx, ny
+		}
+	}
+	return solveText(text, opt)
+}
+
+// solveText is the part of a call that does not read JavaScript arguments.
+func solveText(text string, opt solver.Options) any {
+	p, err := solver.Decode([]byte(text))
+	if err != nil {
+		return failure(err)
+	}
+	out, err := engine.Solve(p, opt)
+	if err != nil {
+		return failure(err)
+	}
+	res, err := json.Marshal(&out.Result)
+	if err != nil {
+		return failure(fmt.Errorf("encoding the result: %w", err))
+	}
+	reply := map[string]any{"ok": true, "result": string(res), "nx": out.Nx, "ny": out.Ny}
+	for name, s := range map[string][]float64{"u": out.U, "ux": out.Ux, "uy": out.Uy} {
+		arr, err := float64Array(s)
+		if err != nil {
+			return failure(err)
+		}
+		reply[name] = arr
+	}
+	return reply
+}
+
+// failure is the reply for an error, with the field path and column when
+// the error has them.
+func failure(err error) map[string]any {
+	r := map[string]any{"ok": false, "error": err.Error(), "path": "", "col": 0}
+	var fe *solver.Error
+	if errors.As(err, &fe) {
+		r["path"], r["col"] = fe.Path, fe.Col
+	}
+	return r
+}
+
+// float64Array copies s into a new JavaScript Float64Array in one block copy.
+func float64Array(s []float64) (safejs.Value, error) {
+	ctor, err := safejs.Global().Get("Float64Array")
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	arr, err := ctor.New(len(s))
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	if len(s) == 0 {
+		return arr, nil
+	}
+	buf, err := arr.Get("buffer")
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	u8ctor, err := safejs.Global().Get("Uint8Array")
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	view, err := u8ctor.New(buf)
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	raw := unsafe.Slice((*byte)(unsafe.Pointer(unsafe.SliceData(s))), len(s)*8)
+	if _, err := safejs.CopyBytesToJS(view, raw); err != nil {
+		return safejs.Value{}, err
+	}
+	return arr, nil
+}
