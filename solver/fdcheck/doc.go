@@ -1,0 +1,73 @@
+// Package fdcheck is the independent finite-difference cross-check of the
+// series engine. It solves the problem of package problem,
+//
+//	Kx u_xx + Ky u_yy = -Source
+//
+// on a node-centred grid of Nx x Ny intervals that includes the boundary
+// nodes, x_i = i W/Nx, y_j = j H/Ny, by a second-order finite-volume
+// (equivalently ghost-node) scheme:
+//
+//   - every node owns the cell [x_i - hx/2, x_i + hx/2] x [y_j - hy/2, y_j + hy/2]
+//     clipped to the rectangle, so boundary nodes own half cells and corner
+//     nodes quarter cells; the cell widths wx_i, wy_j are the trapezoid
+//     weights of the grid;
+//
+//   - the balance of a node is
+//
+//     sum over its faces of K (u_nb - u) / h * (face length)
+//
+//   - (inflow through its boundary segments) + Source * wx_i * wy_j = 0
+//
+//     which in the interior is the 5-point stencil times the cell area, and on
+//     a flux or convection edge is the ghost-node scheme with a central
+//     difference for the normal derivative, times the half (or quarter) cell
+//     area;
+//
+//   - a Flux edge contributes F(s) * (segment length); a Convection edge
+//     Hc (F(s) - u) * (segment length), so Hc = 0 is an insulated edge;
+//
+//   - a Value edge fixes its nodes. At a corner touching a Value edge the
+//     value edge wins; where two Value edges meet, the corner node takes the
+//     mean of their two end values.
+//
+// Written this way the matrix is symmetric and positive (semi)definite; it is
+// stored as a band matrix (numbering the nodes along the shorter side, so the
+// bandwidth is min(Nx, Ny) + 1) and solved by gonum's band Cholesky (the
+// lapack64 Pbtrf/Pbtrs pair that mat.BandCholesky wraps, without its
+// condition estimate, which costs more than the solve). The cost is about (Nx+1)(Ny+1) (min(Nx,Ny)+1)^2
+// operations; grids up to about 64 x 64 intervals are cheap, larger ones are
+// not meant for this package.
+//
+// The scheme is exact for every quadratic u (the 5-point stencil and the
+// central boundary difference are), so its error falls like h^2 for smooth
+// solutions, and Richardson extrapolation (4 u_h/2 - u_h)/3 removes the
+// leading term.
+//
+// # All-flux problems
+//
+// When no edge is Value and no edge is Convection with Hc > 0, the system is
+// singular: a steady state exists only if the discrete inflows (edge data
+// times the same segment lengths as above) plus Source*W*H add up to zero.
+// If the sum is not zero to a relative 1e-9 of the largest single term (one
+// node's inflow or the source total), Solve returns an *ImbalanceError.
+// Otherwise the free constant is fixed by the rule
+//
+//	area mean of u = 0   (trapezoid weights wx_i wy_j)
+//
+// which is the rule the series engine uses as well.
+//
+// # Edge flows
+//
+// Grid.Inflow holds the discrete flow entering through each edge per unit
+// depth: the data times segment length on Flux and Convection edges, and the
+// reaction (the residual of the node balance) at the fixed nodes of Value
+// edges. A corner node between a Value edge and another edge gives the other
+// edge its own data term and the Value edge the rest; a corner between two
+// Value edges is split in proportion to the two half segments. So the four
+// inflows plus the source total balance to round-off for any solution.
+//
+// Errors: bad user data (a non-finite edge value, an unbalanced all-flux
+// problem, a problem that fails Validate) is returned as an error; a grid
+// smaller than 2 x 2 intervals is a caller bug and panics with the prefix
+// "fdcheck: ".
+package fdcheck

@@ -1,0 +1,508 @@
+package fdcheck
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack/lapack64"
+
+	"edgewise/solver/problem"
+)
+
+// Grid holds node values u[j*(Nx+1)+i] at x = i*W/Nx, y = j*H/Ny.
+type Grid struct {
+	Nx, Ny int
+	W, H   float64
+	U      []float64
+
+	// Inflow is the discrete flow entering through each edge per unit
+	// depth, indexed by problem.Side (see the package comment for how
+	// corners are shared).
+	Inflow [4]float64
+	// SourceTotal is Source*W*H, so that the four inflows plus SourceTotal
+	// add up to zero to round-off.
+	SourceTotal float64
+}
+
+// At returns the bilinear interpolation of the node values at (x, y).
+// Points outside the rectangle are clamped to its nearest edge.
+func (g *Grid) At(x, y float64) float64 {
+	i, tx := locate(x, g.W, g.Nx)
+	j, ty := locate(y, g.H, g.Ny)
+	row := g.Nx + 1
+	u00 := g.U[j*row+i]
+	u10 := g.U[j*row+i+1]
+	u01 := g.U[(j+1)*row+i]
+	u11 := g.U[(j+1)*row+i+1]
+	return (1-ty)*((1-tx)*u00+tx*u10) + ty*((1-tx)*u01+tx*u11)
+}
+
+// locate returns the interval index k in [0, n-1] holding v on [0, length]
+// split into n intervals, and the fraction t in [0, 1] of v across it.
+func locate(v, length float64, n int) (k int, t float64) {
+	f := v / length * float64(n)
+	switch {
+	case f <= 0:
+		return 0, 0
+	case f >= float64(n):
+		return n - 1, 1
+	case f != f: // NaN: let it propagate through the weights
+		return 0, f
+	}
+	k = int(f)
+	if k > n-1 {
+		k = n - 1
+	}
+	return k, f - float64(k)
+}
+
+// ImbalanceError reports an all-flux problem (no Value edge, no Convection
+// edge with Hc > 0) whose discrete inflows and source do not add up to
+// zero, so that it has no steady state.
+type ImbalanceError struct {
+	Inflow      float64 // sum of the discrete edge inflows, per unit depth
+	SourceTotal float64 // Source * W * H
+}
+
+func (e *ImbalanceError) Error() string {
+	return fmt.Sprintf("fdcheck: no steady state: no edge holds a value or convects, "+
+		"and the edge inflow %.6g plus the source %.6g leaves %.6g unbalanced",
+		e.Inflow, e.SourceTotal, e.Inflow+e.SourceTotal)
+}
+
+// balanceTol is the relative tolerance of the all-flux compatibility test,
+// relative to the largest single term of the sum.
+const balanceTol = 1e-9
+
+// Solve solves on an Nx x Ny interval grid (nx, ny >= 2).
+//
+// It returns the error of p.Validate, a *problem.NonFiniteError (unchanged
+// from p.Eval) for edge data that is not finite at a boundary node, an
+// *ImbalanceError for an unbalanced all-flux problem, or an error if the
+// system cannot be factorized. It panics if nx or ny is below 2.
+func Solve(p *problem.Problem, nx, ny int) (*Grid, error) {
+	if nx < 2 || ny < 2 {
+		panic(fmt.Sprintf("fdcheck: grid must have at least 2 x 2 intervals, got %d x %d", nx, ny))
+	}
+	if err := p.Validate(); err != nil {
+		return nil, err
+	}
+	s, err := newSystem(p, nx, ny)
+	if err != nil {
+		return nil, err
+	}
+	if err := s.assemble(); err != nil {
+		return nil, err
+	}
+	if err := s.solve(); err != nil {
+		return nil, err
+	}
+	g := &Grid{Nx: nx, Ny: ny, W: p.W, H: p.H, U: make([]float64, len(s.u)), SourceTotal: p.Source * p.W * p.H}
+	for j := 0; j <= ny; j++ {
+		for i := 0; i <= nx; i++ {
+			g.U[j*(nx+1)+i] = s.u[s.node(i, j)]
+		}
+	}
+	g.Inflow = s.inflows()
+	return g, nil
+}
+
+// Richardson solves on (nx, ny) and (2nx, 2ny) and returns the extrapolated values
+// (4 u_fine - u_coarse)/3 at the coarse nodes, plus the max |u_fine - u_coarse| as an
+// error indicator of the fine grid.
+//
+// The inflows of the returned grid are extrapolated the same way; where an
+// edge flow is infinite (a jump of value at a corner) they do not converge.
+func Richardson(p *problem.Problem, nx, ny int) (g *Grid, indicator float64, err error) {
+	coarse, err := Solve(p, nx, ny)
+	if err != nil {
+		return nil, 0, err
+	}
+	fine, err := Solve(p, 2*nx, 2*ny)
+	if err != nil {
+		return nil, 0, err
+	}
+	frow := 2*nx + 1
+	for j := 0; j <= ny; j++ {
+		for i := 0; i <= nx; i++ {
+			k := j*(nx+1) + i
+			uc, uf := coarse.U[k], fine.U[2*j*frow+2*i]
+			indicator = math.Max(indicator, math.Abs(uf-uc))
+			coarse.U[k] = (4*uf - uc) / 3
+		}
+	}
+	for e := range coarse.Inflow {
+		coarse.Inflow[e] = (4*fine.Inflow[e] - coarse.Inflow[e]) / 3
+	}
+	return coarse, indicator, nil
+}
+
+// Sizes picks (nx, ny) for a rectangle of aspect W/H so that the coarse grid has about n
+// intervals along the longer side and at least 2 along the shorter.
+//
+// The rule: the longer side gets max(n, 2) intervals, the shorter side
+// round(max(n, 2) * shorter/longer), but at least 2. So the grid never has
+// more than (n+1)^2 nodes, whatever the aspect; a very thin rectangle gets 2
+// intervals across and long, flat cells. For an orthotropic problem pass the
+// mapped height H*sqrt(Kx/Ky) to get cells that are square in the mapped
+// variables. It panics if w or h is not a positive finite number.
+func Sizes(w, h float64, n int) (nx, ny int) {
+	if !(w > 0) || !(h > 0) || math.IsInf(w, 1) || math.IsInf(h, 1) {
+		panic(fmt.Sprintf("fdcheck: Sizes needs positive finite sides, got %g x %g", w, h))
+	}
+	n = max(n, 2)
+	long, short := w, h
+	if h > w {
+		long, short = h, w
+	}
+	m := max(int(math.Round(float64(n)*(short/long))), 2)
+	if w >= h {
+		return n, m
+	}
+	return m, n
+}
+
+// system is the assembled grid system. Nodes are numbered along the shorter
+// side first so that the band is as narrow as it can be.
+type system struct {
+	p        *problem.Problem
+	nx, ny   int
+	hx, hy   float64
+	wx, wy   []float64 // cell widths: the trapezoid weights
+	si, sj   int       // index strides in i and j
+	k        int       // bandwidth
+	n        int       // number of nodes
+	band     []float64 // upper band, row-major, stride k+1
+	rhs      []float64
+	fixed    []bool // node value prescribed (Value edges, or the pinned node)
+	val      []float64
+	onValue  []bool       // node lies on a Value edge (not merely pinned)
+	data     [4][]float64 // edge data at the nodes of each edge, by s
+	singular bool         // all-flux: one node pinned, mean removed after
+	u        []float64
+}
+
+func newSystem(p *problem.Problem, nx, ny int) (*system, error) {
+	s := &system{p: p, nx: nx, ny: ny, hx: p.W / float64(nx), hy: p.H / float64(ny)}
+	if nx <= ny {
+		s.si, s.sj, s.k = 1, nx+1, nx+1
+	} else {
+		s.si, s.sj, s.k = ny+1, 1, ny+1
+	}
+	s.n = (nx + 1) * (ny + 1)
+	s.wx = weights(s.hx, nx)
+	s.wy = weights(s.hy, ny)
+	s.band = make([]float64, s.n*(s.k+1))
+	s.rhs = make([]float64, s.n)
+	s.fixed = make([]bool, s.n)
+	s.val = make([]float64, s.n)
+	s.onValue = make([]bool, s.n)
+	for _, e := range problem.Sides {
+		m := s.edgeNodes(e)
+		d := make([]float64, m+1)
+		length := p.Length(e)
+		for t := range d {
+			pos := float64(t) * length / float64(m)
+			if t == m {
+				pos = length
+			}
+			v, err := p.Eval(e, pos)
+			if err != nil {
+				return nil, err
+			}
+			d[t] = v
+		}
+		s.data[e] = d
+	}
+	return s, nil
+}
+
+// weights returns the cell widths of a grid of n intervals of width h.
+func weights(h float64, n int) []float64 {
+	w := make([]float64, n+1)
+	for i := range w {
+		w[i] = h
+	}
+	w[0], w[n] = h/2, h/2
+	return w
+}
+
+func (s *system) node(i, j int) int { return i*s.si + j*s.sj }
+
+// edgeNodes returns the number of intervals along edge e.
+func (s *system) edgeNodes(e problem.Side) int {
+	if e == problem.Bottom || e == problem.Top {
+		return s.nx
+	}
+	return s.ny
+}
+
+// edgeNode returns the node index and segment length of the t-th node of
+// edge e, counted along s.
+func (s *system) edgeNode(e problem.Side, t int) (a int, seg float64) {
+	switch e {
+	case problem.Bottom:
+		return s.node(t, 0), s.wx[t]
+	case problem.Top:
+		return s.node(t, s.ny), s.wx[t]
+	case problem.Left:
+		return s.node(0, t), s.wy[t]
+	default: // problem.Right
+		return s.node(s.nx, t), s.wy[t]
+	}
+}
+
+// eachFace calls f for every pair of neighbouring nodes with the
+// conductance of the face between their cells.
+func (s *system) eachFace(f func(a, b int, c float64)) {
+	kx, ky := s.p.Kx, s.p.Ky
+	for j := 0; j <= s.ny; j++ {
+		for i := 0; i <= s.nx; i++ {
+			a := s.node(i, j)
+			if i < s.nx {
+				f(a, a+s.si, kx*s.wy[j]/s.hx)
+			}
+			if j < s.ny {
+				f(a, a+s.sj, ky*s.wx[i]/s.hy)
+			}
+		}
+	}
+}
+
+// assemble builds the band matrix and right-hand side.
+func (s *system) assemble() error {
+	p := s.p
+	// Value edges fix their nodes; two value edges meeting at a corner
+	// give it the mean of their end values.
+	count := make([]int, s.n)
+	for _, e := range problem.Sides {
+		if p.Edges[e].Kind != problem.Value {
+			continue
+		}
+		for t, v := range s.data[e] {
+			a, _ := s.edgeNode(e, t)
+			s.val[a] += v
+			count[a]++
+		}
+	}
+	for a, c := range count {
+		if c > 0 {
+			s.fixed[a], s.onValue[a] = true, true
+			s.val[a] /= float64(c)
+		}
+	}
+	if err := s.checkBalance(); err != nil {
+		return err
+	}
+
+	stride := s.k + 1
+	s.eachFace(func(a, b int, c float64) {
+		s.band[a*stride] += c
+		s.band[b*stride] += c
+		switch {
+		case !s.fixed[a] && !s.fixed[b]:
+			s.band[a*stride+(b-a)] -= c // b > a always
+		case !s.fixed[a]:
+			s.rhs[a] += c * s.val[b]
+		case !s.fixed[b]:
+			s.rhs[b] += c * s.val[a]
+		}
+	})
+	for j, wy := range s.wy {
+		for i, wx := range s.wx {
+			s.rhs[s.node(i, j)] += p.Source * wx * wy
+		}
+	}
+	for _, e := range problem.Sides {
+		edge := p.Edges[e]
+		if edge.Kind == problem.Value {
+			continue
+		}
+		for t, v := range s.data[e] {
+			a, seg := s.edgeNode(e, t)
+			if s.fixed[a] {
+				continue
+			}
+			if edge.Kind == problem.Flux {
+				s.rhs[a] += v * seg
+			} else {
+				s.band[a*stride] += edge.Hc * seg
+				s.rhs[a] += edge.Hc * seg * v
+			}
+		}
+	}
+	for a, f := range s.fixed {
+		if f {
+			// Keep the natural diagonal as the scale of the row.
+			s.rhs[a] = s.band[a*stride] * s.val[a]
+		}
+	}
+	return nil
+}
+
+// checkBalance decides whether the problem is all-flux and, if so, checks
+// that the discrete inflows balance the source. A balanced all-flux problem
+// has its imbalance (at most balanceTol of the largest term) spread over
+// the cells by area, so that the system is exactly compatible, and node 0
+// pinned; solve removes the mean afterwards.
+func (s *system) checkBalance() error {
+	p := s.p
+	for _, e := range problem.Sides {
+		edge := p.Edges[e]
+		if edge.Kind == problem.Value || (edge.Kind == problem.Convection && edge.Hc > 0) {
+			return nil
+		}
+	}
+	source := p.Source * p.W * p.H
+	inflow, largest := 0.0, math.Abs(source)
+	for _, e := range problem.Sides {
+		if p.Edges[e].Kind != problem.Flux {
+			continue // convection with Hc = 0: insulated
+		}
+		for t, v := range s.data[e] {
+			_, seg := s.edgeNode(e, t)
+			inflow += v * seg
+			largest = math.Max(largest, math.Abs(v*seg))
+		}
+	}
+	imbalance := inflow + source
+	if math.Abs(imbalance) > balanceTol*largest {
+		return &ImbalanceError{Inflow: inflow, SourceTotal: source}
+	}
+	s.singular = true
+	area := p.W * p.H
+	for j, wy := range s.wy {
+		for i, wx := range s.wx {
+			s.rhs[s.node(i, j)] -= imbalance * wx * wy / area
+		}
+	}
+	s.fixed[0], s.val[0] = true, 0
+	return nil
+}
+
+// solve factorizes the system and solves it into s.u.
+//
+// It calls the band Cholesky routines under mat.BandCholesky (lapack64
+// Pbtrf and Pbtrs) directly: BandCholesky.Factorize also estimates the
+// condition number, which took most of the time of a whole solve. The
+// system is an M-matrix by construction, so a failed factorization or a
+// non-finite result means data far outside any physical range.
+func (s *system) solve() error {
+	a := blas64.SymmetricBand{Uplo: blas.Upper, N: s.n, K: s.k, Stride: s.k + 1, Data: s.band}
+	t, ok := lapack64.Pbtrf(a)
+	if !ok {
+		return fmt.Errorf("fdcheck: the %d x %d grid system is not positive definite", s.nx, s.ny)
+	}
+	lapack64.Pbtrs(t, blas64.General{Rows: s.n, Cols: 1, Stride: 1, Data: s.rhs})
+	for _, v := range s.rhs {
+		if v-v != 0 {
+			return fmt.Errorf("fdcheck: the %d x %d grid system gave a non-finite result (data out of range)", s.nx, s.ny)
+		}
+	}
+	s.u = s.rhs
+	if s.singular {
+		mean := 0.0
+		for j, wy := range s.wy {
+			for i, wx := range s.wx {
+				mean += wx * wy * s.u[s.node(i, j)]
+			}
+		}
+		mean /= s.p.W * s.p.H
+		for a := range s.u {
+			s.u[a] -= mean
+		}
+	}
+	return nil
+}
+
+// dataFlow returns the inflow through the segment of node a on the non-Value
+// edge e, from the edge's own data.
+func (s *system) dataFlow(e problem.Side, v, seg float64, a int) float64 {
+	edge := s.p.Edges[e]
+	if edge.Kind == problem.Flux {
+		return v * seg
+	}
+	return edge.Hc * seg * (v - s.u[a])
+}
+
+// inflows returns the discrete flow entering through each edge.
+func (s *system) inflows() [4]float64 {
+	p := s.p
+	// Reaction of the nodes on Value edges: what enters through their
+	// boundary segments so that their balance closes.
+	react := make([]float64, s.n)
+	s.eachFace(func(a, b int, c float64) {
+		if s.onValue[a] || s.onValue[b] {
+			d := c * (s.u[a] - s.u[b])
+			react[a] += d
+			react[b] -= d
+		}
+	})
+	for j, wy := range s.wy {
+		for i, wx := range s.wx {
+			react[s.node(i, j)] -= p.Source * wx * wy
+		}
+	}
+	var flow [4]float64
+	for _, e := range problem.Sides {
+		d := s.data[e]
+		m := len(d) - 1
+		if p.Edges[e].Kind != problem.Value {
+			for t, v := range d {
+				a, seg := s.edgeNode(e, t)
+				flow[e] += s.dataFlow(e, v, seg, a)
+			}
+			continue
+		}
+		for t := range d {
+			a, seg := s.edgeNode(e, t)
+			r := react[a]
+			if t == 0 || t == m {
+				r = s.cornerShare(e, t, a, seg, r)
+			}
+			flow[e] += r
+		}
+	}
+	return flow
+}
+
+// cornerShare returns the part of the reaction r of corner node a (the t-th
+// node of Value edge e) that belongs to e.
+func (s *system) cornerShare(e problem.Side, t, a int, seg, r float64) float64 {
+	o, ot := s.neighbour(e, t)
+	_, oseg := s.edgeNode(o, ot)
+	if s.p.Edges[o].Kind == problem.Value {
+		return r * seg / (seg + oseg)
+	}
+	return r - s.dataFlow(o, s.data[o][ot], oseg, a)
+}
+
+// neighbour returns the other edge meeting edge e at its t-th node (t = 0
+// or the last), and that corner's index along the other edge.
+func (s *system) neighbour(e problem.Side, t int) (problem.Side, int) {
+	first := t == 0
+	switch e {
+	case problem.Bottom:
+		if first {
+			return problem.Left, 0
+		}
+		return problem.Right, 0
+	case problem.Top:
+		if first {
+			return problem.Left, s.ny
+		}
+		return problem.Right, s.ny
+	case problem.Left:
+		if first {
+			return problem.Bottom, 0
+		}
+		return problem.Top, 0
+	default: // problem.Right
+		if first {
+			return problem.Bottom, s.nx
+		}
+		return problem.Top, s.nx
+	}
+}
