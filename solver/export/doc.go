@@ -1,0 +1,33 @@
+// Package export writes the text downloads of edgewise: the field and the
+// probes as CSV and a picture as a standalone SVG. They are made here, in
+// Go, so that they can be tested natively against golden files; the page
+// only saves the bytes it is given.
+//
+// CSV (RFC 4180): comma separated, CRLF line ends, text cells quoted when
+// they hold a comma, a quote or a line break (quotes doubled). The first
+// line names every column with its unit in square brackets. Numbers are
+// written with strconv 'g' and the shortest representation that reads back
+// exactly (precision -1); a missing value is written NaN. A text cell that
+// starts with = + - @ or a tab or carriage return gets a leading apostrophe,
+// so that a spreadsheet shows it as text instead of running it as a formula
+// (common practice against formula injection).
+//
+// Field CSV: one row per grid node, y outer and x inner (row j = 0 at the
+// bottom first), columns
+//
+//	x [L], y [L], <quantity> [U], grad_x [U/L], grad_y [U/L], flux_x [F], flux_y [F]
+//
+// with flux = -(Kx grad_x, Ky grad_y). Without gradients (Ux and Uy nil) the
+// last four columns are left out.
+//
+// Probes CSV: one row per probe, columns
+//
+//	label, x [L], y [L], <quantity> [U], grad_x [U/L], grad_y [U/L], flux_x [F], flux_y [F]
+//
+// SVG: a standalone SVG 1.1/2 document in the SVG namespace only (no other
+// URL, no script, no external reference). The rectangle is drawn to scale
+// (PixelW pixels wide, at most twice that tall), the field as an embedded
+// PNG raster (a data: URL) coloured through a colour map, the isolines as
+// paths with their values written along them, a legend bar with ticks and
+// unit, and the title. All user text passes through xml.EscapeText.
+package export

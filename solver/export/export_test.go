@@ -1,0 +1,405 @@
+package export
+
+import (
+	"bytes"
+	"encoding/base64"
+	"encoding/csv"
+	"encoding/xml"
+	"errors"
+	"flag"
+	"image/png"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"edgewise/solver/colour"
+	"edgewise/solver/contour"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files in testdata/export")
+
+const goldenDir = "../../testdata/export"
+
+// golden compares got with the named golden file, or rewrites it with
+// -update.
+func golden(t *testing.T, name string, got []byte) {
+	t.Helper()
+	path := filepath.Join(goldenDir, name)
+	if *update {
+		if err := os.WriteFile(path, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run go test -update to create it)", err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("%s differs from the golden file (%d vs %d bytes); rerun with -update if the change is intended", name, len(got), len(want))
+	}
+}
+
+// demoField is invented: a 4 x 3 grid on 0.4 m x 0.3 m holding the
+// harmonic field u = 20 + 50 x + 100 x y with its exact gradient
+// (50 + 100 y, 100 x) and k = 2 by 0.5.
+func demoField() *Field {
+	f := &Field{Nx: 4, Ny: 3, W: 0.4, H: 0.3, Kx: 2, Ky: 0.5,
+		Units: Units{Quantity: "temperature", Unit: "°C", FluxUnit: "W/m2", LengthUnit: "m"}}
+	for j := 0; j <= f.Ny; j++ {
+		for i := 0; i <= f.Nx; i++ {
+			x, y := f.x(i), f.y(j)
+			f.U = append(f.U, 20+50*x+100*x*y)
+			f.Ux = append(f.Ux, 50+100*y)
+			f.Uy = append(f.Uy, 100*x)
+		}
+	}
+	return f
+}
+
+func TestFieldCSV(t *testing.T) {
+	f := demoField()
+	var b bytes.Buffer
+	if err := FieldCSV(&b, f); err != nil {
+		t.Fatal(err)
+	}
+	golden(t, "field.csv", b.Bytes())
+	recs, err := csv.NewReader(bytes.NewReader(b.Bytes())).ReadAll()
+	if err != nil {
+		t.Fatalf("re-read: %v", err)
+	}
+	wantHead := []string{"x [m]", "y [m]", "temperature [°C]", "grad_x [°C/m]", "grad_y [°C/m]", "flux_x [W/m2]", "flux_y [W/m2]"}
+	if strings.Join(recs[0], "|") != strings.Join(wantHead, "|") {
+		t.Errorf("header %q, want %q", recs[0], wantHead)
+	}
+	if len(recs) != 1+(f.Nx+1)*(f.Ny+1) {
+		t.Fatalf("%d records, want header + %d rows", len(recs), (f.Nx+1)*(f.Ny+1))
+	}
+	// Every number reads back exactly (shortest round-trip formatting), and
+	// the flux is -k times the gradient: exact identities.
+	for r, rec := range recs[1:] {
+		i, j := r%(f.Nx+1), r/(f.Nx+1)
+		v := make([]float64, len(rec))
+		for c, s := range rec {
+			if v[c], err = strconv.ParseFloat(s, 64); err != nil {
+				t.Fatalf("row %d col %d: %v", r+1, c, err)
+			}
+		}
+		k := j*(f.Nx+1) + i
+		want := []float64{float64(i) * f.W / 4, float64(j) * f.H / 3, f.U[k], f.Ux[k], f.Uy[k], -2 * f.Ux[k], -0.5 * f.Uy[k]}
+		for c := range want {
+			if v[c] != want[c] {
+				t.Errorf("row %d col %d: %v, want %v", r+1, c, v[c], want[c])
+			}
+		}
+	}
+	if !bytes.Contains(b.Bytes(), []byte("\r\n")) || bytes.Count(b.Bytes(), []byte("\n")) != bytes.Count(b.Bytes(), []byte("\r\n")) {
+		t.Error("lines must end in CRLF (RFC 4180)")
+	}
+}
+
+func TestFieldCSVWithoutGradient(t *testing.T) {
+	f := demoField()
+	f.Ux, f.Uy = nil, nil
+	f.Units = Units{}
+	var b bytes.Buffer
+	if err := FieldCSV(&b, f); err != nil {
+		t.Fatal(err)
+	}
+	recs, err := csv.NewReader(&b).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := strings.Join(recs[0], ","); got != "x,y,value" {
+		t.Errorf("header %q, want x,y,value", got)
+	}
+	if len(recs) != 21 || len(recs[1]) != 3 {
+		t.Errorf("%d records of %d columns, want 21 of 3", len(recs), len(recs[1]))
+	}
+}
+
+func TestFieldErrors(t *testing.T) {
+	cases := []struct {
+		name string
+		edit func(f *Field)
+	}{
+		{"no cells", func(f *Field) { f.Nx = 0 }},
+		{"short U", func(f *Field) { f.U = f.U[:5] }},
+		{"zero width", func(f *Field) { f.W = 0 }},
+		{"NaN height", func(f *Field) { f.H = math.NaN() }},
+		{"one gradient", func(f *Field) { f.Uy = nil }},
+		{"short gradient", func(f *Field) { f.Ux = f.Ux[:3] }},
+	}
+	for _, c := range cases {
+		f := demoField()
+		c.edit(f)
+		if err := FieldCSV(io.Discard, f); err == nil || !strings.HasPrefix(err.Error(), "export: ") {
+			t.Errorf("%s: FieldCSV error %v, want an export: error", c.name, err)
+		}
+		if err := SVG(io.Discard, &Picture{Field: f}); err == nil {
+			t.Errorf("%s: SVG gave no error", c.name)
+		}
+	}
+	if err := FieldCSV(io.Discard, nil); err == nil {
+		t.Error("nil field: no error")
+	}
+}
+
+// hostile labels a user might type; each must come back unchanged from a
+// CSV reader (the formula one with the apostrophe guard in front).
+var hostile = []struct{ in, back string }{
+	{`P1`, `P1`},
+	{`He said "hot"`, `He said "hot"`},
+	{`left, lower`, `left, lower`},
+	{"two\nlines", "two\nlines"},
+	{`<script>alert("x")</script>`, `<script>alert("x")</script>`},
+	{`=HYPERLINK("x")`, `'=HYPERLINK("x")`},
+	{`-5 mm`, `'-5 mm`},
+	{` padded `, ` padded `},
+	{"", ""},
+}
+
+func TestProbesCSV(t *testing.T) {
+	var ps []Probe
+	for k, h := range hostile {
+		ps = append(ps, Probe{Label: h.in, X: 0.1 * float64(k), Y: 0.05, Value: 20 + float64(k), Gx: 1e-7, Gy: -3, Qx: -2e-7, Qy: 1.5})
+	}
+	ps[0].Value = math.NaN()
+	u := Units{Quantity: "temperature", Unit: "K", FluxUnit: "W/m2", LengthUnit: "m"}
+	var b bytes.Buffer
+	if err := ProbesCSV(&b, ps, u); err != nil {
+		t.Fatal(err)
+	}
+	golden(t, "probes.csv", b.Bytes())
+	recs, err := csv.NewReader(bytes.NewReader(b.Bytes())).ReadAll()
+	if err != nil {
+		t.Fatalf("re-read: %v", err)
+	}
+	want := "label|x [m]|y [m]|temperature [K]|grad_x [K/m]|grad_y [K/m]|flux_x [W/m2]|flux_y [W/m2]"
+	if got := strings.Join(recs[0], "|"); got != want {
+		t.Errorf("header %q, want %q", got, want)
+	}
+	if len(recs) != 1+len(ps) {
+		t.Fatalf("%d records, want %d", len(recs), 1+len(ps))
+	}
+	for k, h := range hostile {
+		rec := recs[k+1]
+		if rec[0] != h.back {
+			t.Errorf("label %q came back as %q, want %q", h.in, rec[0], h.back)
+		}
+		if x, _ := strconv.ParseFloat(rec[1], 64); x != ps[k].X {
+			t.Errorf("probe %d: x %q, want %v", k, rec[1], ps[k].X)
+		}
+	}
+	if recs[1][3] != "NaN" {
+		t.Errorf("missing value written %q, want NaN", recs[1][3])
+	}
+}
+
+type failWriter struct{}
+
+func (failWriter) Write([]byte) (int, error) { return 0, errors.New("disk full") }
+
+func TestWriteErrorsReturned(t *testing.T) {
+	if err := FieldCSV(failWriter{}, demoField()); err == nil {
+		t.Error("FieldCSV: write error lost")
+	}
+	if err := ProbesCSV(failWriter{}, []Probe{{Label: "a"}}, Units{}); err == nil {
+		t.Error("ProbesCSV: write error lost")
+	}
+	if err := SVG(failWriter{}, &Picture{Field: demoField()}); err == nil {
+		t.Error("SVG: write error lost")
+	}
+}
+
+func demoPicture() *Picture {
+	f := demoField()
+	return &Picture{
+		Field:      f,
+		Map:        colour.Sequential,
+		Levels:     contour.Levels(20, 52, 4),
+		Title:      `Plate <script>alert("x")</script> & "co"`,
+		LegendUnit: "temperature [°C] <b>",
+		PixelW:     200,
+	}
+}
+
+// svgElements parses the document with encoding/xml and returns the
+// element counts, the character data of every text element and the image
+// hrefs.
+func svgElements(t *testing.T, doc []byte) (count map[string]int, texts []string, hrefs []string) {
+	t.Helper()
+	count = map[string]int{}
+	d := xml.NewDecoder(bytes.NewReader(doc))
+	var cur *strings.Builder
+	for {
+		tok, err := d.Token()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			t.Fatalf("SVG does not parse: %v", err)
+		}
+		switch e := tok.(type) {
+		case xml.StartElement:
+			count[e.Name.Local]++
+			if e.Name.Space != "http://www.w3.org/2000/svg" {
+				t.Errorf("element %s in namespace %q", e.Name.Local, e.Name.Space)
+			}
+			if e.Name.Local == "text" || e.Name.Local == "title" {
+				cur = &strings.Builder{}
+			}
+			for _, a := range e.Attr {
+				if a.Name.Local == "href" {
+					hrefs = append(hrefs, a.Value)
+				}
+			}
+		case xml.CharData:
+			if cur != nil {
+				cur.Write(e)
+			}
+		case xml.EndElement:
+			if cur != nil && (e.Name.Local == "text" || e.Name.Local == "title") {
+				texts = append(texts, cur.String())
+				cur = nil
+			}
+		}
+	}
+	return count, texts, hrefs
+}
+
+func TestSVG(t *testing.T) {
+	p := demoPicture()
+	var b bytes.Buffer
+	if err := SVG(&b, p); err != nil {
+		t.Fatal(err)
+	}
+	doc := b.Bytes()
+	golden(t, "picture.svg", doc)
+	count, texts, hrefs := svgElements(t, doc)
+	if count["svg"] != 1 || count["image"] != 1 || count["linearGradient"] != 1 || count["title"] != 1 {
+		t.Errorf("elements %v: want one svg, image, linearGradient, title", count)
+	}
+	// One path per polyline: u = 20 + 50x + 100xy has one open isoline per level.
+	if count["path"] != len(p.Levels) {
+		t.Errorf("%d paths for %d levels", count["path"], len(p.Levels))
+	}
+	has := func(s string) bool {
+		for _, x := range texts {
+			if x == s {
+				return true
+			}
+		}
+		return false
+	}
+	for _, want := range []string{p.Title, p.LegendUnit, "W = 0.4 m", "H = 0.3 m", "20", "25", "50"} {
+		if !has(want) {
+			t.Errorf("no text %q in %q", want, texts)
+		}
+	}
+	if has("52") {
+		t.Error("legend end label 52 drawn 10 px from the tick 50")
+	}
+	if bytes.Contains(doc, []byte("<script")) || bytes.Contains(doc, []byte("<b>")) {
+		t.Error("user markup not escaped")
+	}
+	// No URL but the SVG namespace.
+	if n := bytes.Count(doc, []byte("://")); n != 1 || !bytes.Contains(doc, []byte(`xmlns="http://www.w3.org/2000/svg"`)) {
+		t.Errorf("%d URLs in the document, want only the SVG namespace", n)
+	}
+	// The raster decodes, has the drawing's size, and since u grows with x
+	// on every row its colours get lighter (luminance rises) to the right.
+	if len(hrefs) != 1 || !strings.HasPrefix(hrefs[0], "data:image/png;base64,") {
+		t.Fatalf("image href %.40q, want a PNG data URL", hrefs)
+	}
+	raw, err := base64.StdEncoding.DecodeString(strings.TrimPrefix(hrefs[0], "data:image/png;base64,"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(raw))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := img.Bounds().Size(); s.X != 200 || s.Y != 150 {
+		t.Errorf("raster %v, want 200 x 150 (drawn to scale)", s)
+	}
+	lum := func(x, y int) float64 {
+		r, g, b, _ := img.At(x, y).RGBA()
+		return 0.2126*colour.Decode(float64(r)/65535) + 0.7152*colour.Decode(float64(g)/65535) + 0.0722*colour.Decode(float64(b)/65535)
+	}
+	for _, y := range []int{0, 75, 149} {
+		if !(lum(0, y) < lum(100, y) && lum(100, y) < lum(199, y)) {
+			t.Errorf("row %d: luminance not rising with x", y)
+		}
+	}
+	// Corners: the smallest value (20, bottom left) gets the map's first
+	// colour, the largest (52, top right) its last.
+	for _, c := range []struct {
+		x, y int
+		t    float64
+	}{{0, 149, 0}, {199, 0, 1}} {
+		r, g, bb := colour.Sequential.At(c.t)
+		r2, g2, b2, _ := img.At(c.x, c.y).RGBA()
+		// pixel centres sit half a pixel inside the corner: allow 6/255 per channel
+		if d := math.Max(math.Abs(float64(r)-float64(r2>>8)), math.Max(math.Abs(float64(g)-float64(g2>>8)), math.Abs(float64(bb)-float64(b2>>8)))); d > 6 {
+			t.Errorf("corner (%d, %d): colour off the map's end by %g", c.x, c.y, d)
+		}
+	}
+}
+
+// A tall rectangle keeps its scale within the height cap, given lines and
+// a NaN hole give a well-formed document, and bad line sets are an error.
+func TestSVGShapesAndLines(t *testing.T) {
+	f := demoField()
+	f.W, f.H = 0.1, 1
+	f.U[7] = math.NaN()
+	levels := []float64{30}
+	lines := [][][]float64{contour.Join(contour.Lines(nil, f.U, f.Nx, f.Ny, f.W, f.H, 30))}
+	var b bytes.Buffer
+	if err := SVG(&b, &Picture{Field: f, Levels: levels, Lines: lines, PixelW: 100, Map: colour.Diverging}); err != nil {
+		t.Fatal(err)
+	}
+	count, _, hrefs := svgElements(t, b.Bytes())
+	if count["image"] != 1 {
+		t.Errorf("elements %v", count)
+	}
+	raw, _ := base64.StdEncoding.DecodeString(strings.TrimPrefix(hrefs[0], "data:image/png;base64,"))
+	img, err := png.Decode(bytes.NewReader(raw))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := img.Bounds().Size(); s.X != 20 || s.Y != 200 {
+		t.Errorf("tall raster %v, want 20 x 200 (height capped at 2 x PixelW, scale kept)", s)
+	}
+	if err := SVG(io.Discard, &Picture{Field: f, Levels: levels, Lines: nil}); err != nil {
+		t.Errorf("lines computed from levels: %v", err)
+	}
+	if err := SVG(io.Discard, &Picture{Field: f, Levels: levels, Lines: [][][]float64{}}); err == nil {
+		t.Error("0 line sets for 1 level: no error")
+	}
+}
+
+// BenchmarkSVG draws a 257 x 129 node field at the default width.
+func BenchmarkSVG(b *testing.B) {
+	f := &Field{Nx: 256, Ny: 128, W: 0.4, H: 0.2}
+	for j := 0; j <= f.Ny; j++ {
+		for i := 0; i <= f.Nx; i++ {
+			x, y := f.x(i), f.y(j)
+			f.U = append(f.U, math.Sin(15*x)*math.Exp(-10*y)+3*x*y)
+		}
+	}
+	lo, hi := finiteRange(f.U)
+	p := &Picture{Field: f, Levels: contour.Levels(lo, hi, 12), Title: "bench"}
+	var buf bytes.Buffer
+	for b.Loop() {
+		buf.Reset()
+		if err := SVG(&buf, p); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(buf.Len()), "bytes")
+}

@@ -1,0 +1,310 @@
+package export
+
+import (
+	"bytes"
+	"encoding/base64"
+	"encoding/xml"
+	"fmt"
+	"image"
+	"image/color"
+	"image/png"
+	"io"
+	"math"
+	"strconv"
+	"unicode/utf8"
+
+	"edgewise/solver/colour"
+	"edgewise/solver/contour"
+)
+
+// Picture is what SVG draws.
+type Picture struct {
+	Field *Field
+	// Map colours the field; nil means colour.Sequential. The map spans
+	// the smallest to the largest finite value of the field.
+	Map *colour.Map
+	// Levels are the isoline values; nil draws no isolines.
+	Levels []float64
+	// Lines are the isolines per level as polylines (x, y pairs in field
+	// coordinates, as contour.Join returns them). If nil they are computed
+	// from the field with contour.Lines and contour.Join.
+	Lines [][][]float64
+	// Title is written above the drawing (user text).
+	Title string
+	// LegendUnit labels the legend bar, e.g. "temperature [°C]" (user text).
+	LegendUnit string
+	// PixelW is the width of the field drawing in pixels; 0 means 640.
+	// A tall rectangle is drawn at most 2*PixelW high, narrower to keep
+	// the scale.
+	PixelW int
+}
+
+// Layout constants, in pixels.
+const (
+	margin      = 16.0
+	titleSpace  = 30.0
+	legendGap   = 24.0
+	legendBarW  = 16.0
+	legendSpace = 96.0 // bar, ticks and their labels
+	legendMinH  = 160.0
+	sizeSpace   = 22.0 // the width and height notes
+	maxRaster   = 1024 // longest side of the embedded PNG
+	labelMinLen = 70.0 // isolines shorter than this (pixels) get no label
+	minTickGap  = 14.0 // closest two legend labels may be (pixels)
+)
+
+// SVG writes the picture as a standalone SVG document. It returns an error
+// for a malformed field, a mismatch between Levels and Lines, or a failed
+// write.
+func SVG(w io.Writer, p *Picture) error {
+	if p == nil {
+		return fmt.Errorf("export: no picture")
+	}
+	f := p.Field
+	if err := f.check(); err != nil {
+		return err
+	}
+	if p.Lines != nil && len(p.Lines) != len(p.Levels) {
+		return fmt.Errorf("export: %d isoline sets for %d levels", len(p.Lines), len(p.Levels))
+	}
+	if p.PixelW < 0 {
+		return fmt.Errorf("export: negative picture width %d", p.PixelW)
+	}
+	m := p.Map
+	if m == nil {
+		m = colour.Sequential
+	}
+	pw := float64(p.PixelW)
+	if pw == 0 {
+		pw = 640
+	}
+	plotW, plotH := pw, pw*f.H/f.W
+	if plotH > 2*pw {
+		plotH = 2 * pw
+		plotW = plotH * f.W / f.H
+	}
+	top := margin
+	if p.Title != "" {
+		top += titleSpace
+	}
+	left := margin + sizeSpace
+	legendH := math.Max(plotH, legendMinH)
+	legendW := math.Max(legendSpace, textWidth(p.LegendUnit, 11))
+	totalW := left + plotW + legendGap + legendW + margin
+	totalW = math.Max(totalW, left+textWidth(p.Title, 16)+margin)
+	totalH := top + math.Max(plotH, legendH) + sizeSpace + margin
+	lo, hi := finiteRange(f.U)
+
+	var b bytes.Buffer
+	b.WriteString(`<?xml version="1.0" encoding="UTF-8"?>` + "\n")
+	fmt.Fprintf(&b, `<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="%s" height="%s" viewBox="0 0 %s %s">`+"\n",
+		num(totalW), num(totalH), num(totalW), num(totalH))
+	b.WriteString("<title>")
+	escape(&b, p.Title)
+	b.WriteString("</title>\n")
+	fmt.Fprintf(&b, `<rect width="%s" height="%s" fill="#ffffff"/>`+"\n", num(totalW), num(totalH))
+	if p.Title != "" {
+		fmt.Fprintf(&b, `<text x="%s" y="%s" font-family="sans-serif" font-size="16" fill="#1b1b1b">`, num(left), num(margin+16))
+		escape(&b, p.Title)
+		b.WriteString("</text>\n")
+	}
+
+	// The field raster.
+	rw := max(1, min(maxRaster, int(math.Round(plotW))))
+	rh := max(1, min(maxRaster, int(math.Round(plotH))))
+	pngData, err := raster(f, m, lo, hi, rw, rh)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(&b, `<image x="%s" y="%s" width="%s" height="%s" preserveAspectRatio="none" href="data:image/png;base64,%s"/>`+"\n",
+		num(left), num(top), num(plotW), num(plotH), base64.StdEncoding.EncodeToString(pngData))
+
+	// Isolines and their labels.
+	sx, sy := plotW/f.W, plotH/f.H
+	px := func(x float64) float64 { return left + x*sx }
+	py := func(y float64) float64 { return top + plotH - y*sy }
+	lines := p.Lines
+	if lines == nil && len(p.Levels) > 0 {
+		var segs []float64
+		lines = make([][][]float64, len(p.Levels))
+		for k, c := range p.Levels {
+			segs = contour.Lines(segs[:0], f.U, f.Nx, f.Ny, f.W, f.H, c)
+			lines[k] = contour.Join(segs)
+		}
+	}
+	if len(lines) > 0 {
+		b.WriteString(`<g fill="none" stroke="#202020" stroke-opacity="0.7" stroke-width="0.9" stroke-linejoin="round">` + "\n")
+		for _, set := range lines {
+			for _, l := range set {
+				if len(l) < 4 {
+					continue
+				}
+				b.WriteString(`<path d="M`)
+				for k := 0; k+1 < len(l); k += 2 {
+					if k > 0 {
+						b.WriteString(" L")
+					}
+					b.WriteString(num(px(l[k])) + " " + num(py(l[k+1])))
+				}
+				b.WriteString(`"/>` + "\n")
+			}
+		}
+		b.WriteString("</g>\n")
+		b.WriteString(`<g font-family="sans-serif" font-size="10" fill="#1b1b1b" text-anchor="middle" dominant-baseline="middle" stroke="#ffffff" stroke-width="2.5" stroke-opacity="0.8" paint-order="stroke">` + "\n")
+		for k, set := range lines {
+			label := strconv.FormatFloat(p.Levels[k], 'g', 6, 64)
+			for _, s := range contour.LabelSpots(set, labelMinLen/sx) {
+				fmt.Fprintf(&b, `<text transform="translate(%s %s) rotate(%s)">`, num(px(s.X)), num(py(s.Y)), num(-s.Angle*180/math.Pi))
+				escape(&b, label)
+				b.WriteString("</text>\n")
+			}
+		}
+		b.WriteString("</g>\n")
+	}
+	fmt.Fprintf(&b, `<rect x="%s" y="%s" width="%s" height="%s" fill="none" stroke="#1b1b1b" stroke-width="1"/>`+"\n",
+		num(left), num(top), num(plotW), num(plotH))
+
+	// Width and height notes.
+	fmt.Fprintf(&b, `<g font-family="sans-serif" font-size="11" fill="#1b1b1b" text-anchor="middle">`+"\n")
+	fmt.Fprintf(&b, `<text x="%s" y="%s">`, num(left+plotW/2), num(top+plotH+16))
+	escape(&b, "W = "+strconv.FormatFloat(f.W, 'g', 6, 64)+" "+f.LengthUnit)
+	b.WriteString("</text>\n")
+	fmt.Fprintf(&b, `<text transform="translate(%s %s) rotate(-90)">`, num(left-8), num(top+plotH/2))
+	escape(&b, "H = "+strconv.FormatFloat(f.H, 'g', 6, 64)+" "+f.LengthUnit)
+	b.WriteString("</text>\n</g>\n")
+
+	legend(&b, m, lo, hi, left+plotW+legendGap, top, legendH, p.LegendUnit)
+	b.WriteString("</svg>\n")
+	_, err = w.Write(b.Bytes())
+	return err
+}
+
+// legend draws the colour bar from lo (bottom) to hi (top) at (x, y).
+func legend(b *bytes.Buffer, m *colour.Map, lo, hi, x, y, h float64, unit string) {
+	const stops = 32
+	b.WriteString(`<defs><linearGradient id="edgewise-legend" x1="0" y1="1" x2="0" y2="0">` + "\n")
+	tab := m.Table(stops + 1)
+	for k := 0; k <= stops; k++ {
+		fmt.Fprintf(b, `<stop offset="%s" stop-color="#%02x%02x%02x"/>`+"\n",
+			num(float64(k)/stops), tab[3*k], tab[3*k+1], tab[3*k+2])
+	}
+	b.WriteString("</linearGradient></defs>\n")
+	// The unit sits above the bar, inside the top margin.
+	fmt.Fprintf(b, `<g font-family="sans-serif" font-size="11" fill="#1b1b1b">`+"\n")
+	fmt.Fprintf(b, `<text x="%s" y="%s">`, num(x), num(y-4))
+	escape(b, unit)
+	b.WriteString("</text>\n")
+	fmt.Fprintf(b, `<rect x="%s" y="%s" width="%s" height="%s" fill="url(#edgewise-legend)" stroke="#1b1b1b" stroke-width="0.8"/>`+"\n",
+		num(x), num(y), num(legendBarW), num(h))
+	// Round ticks, plus the two ends unless a round tick is too close to
+	// leave room for both labels.
+	ticks := contour.Levels(lo, hi, 5)
+	if hi > lo {
+		clear := func(v float64) bool {
+			for _, t := range ticks {
+				if math.Abs(t-v)/(hi-lo)*h < minTickGap {
+					return false
+				}
+			}
+			return true
+		}
+		if clear(lo) {
+			ticks = append([]float64{lo}, ticks...)
+		}
+		if clear(hi) {
+			ticks = append(ticks, hi)
+		}
+	} else if !math.IsNaN(lo) {
+		ticks = []float64{lo}
+	}
+	for _, v := range ticks {
+		ty := y + h/2
+		if hi > lo {
+			ty = y + h - (v-lo)/(hi-lo)*h
+		}
+		fmt.Fprintf(b, `<line x1="%s" y1="%s" x2="%s" y2="%s" stroke="#1b1b1b" stroke-width="0.8"/>`+"\n",
+			num(x+legendBarW), num(ty), num(x+legendBarW+5), num(ty))
+		fmt.Fprintf(b, `<text x="%s" y="%s" dominant-baseline="middle">`, num(x+legendBarW+8), num(ty))
+		escape(b, strconv.FormatFloat(v, 'g', 5, 64))
+		b.WriteString("</text>\n")
+	}
+	b.WriteString("</g>\n")
+}
+
+// raster renders the field at rw x rh pixels, sampling it bilinearly at
+// the pixel centres and colouring through a 256-entry table of m. NaN
+// nodes make their neighbourhood transparent.
+func raster(f *Field, m *colour.Map, lo, hi float64, rw, rh int) ([]byte, error) {
+	tab := m.Table(256)
+	img := image.NewNRGBA(image.Rect(0, 0, rw, rh))
+	span := hi - lo
+	for py := range rh {
+		// row 0 of the image is the top edge y = H
+		gy := (1 - (float64(py)+0.5)/float64(rh)) * float64(f.Ny)
+		j := min(int(gy), f.Ny-1)
+		ty := gy - float64(j)
+		for px := range rw {
+			gx := (float64(px) + 0.5) / float64(rw) * float64(f.Nx)
+			i := min(int(gx), f.Nx-1)
+			tx := gx - float64(i)
+			k := j*(f.Nx+1) + i
+			v := (1-ty)*((1-tx)*f.U[k]+tx*f.U[k+1]) + ty*((1-tx)*f.U[k+f.Nx+1]+tx*f.U[k+f.Nx+2])
+			if math.IsNaN(v) {
+				continue // transparent
+			}
+			t := 0.5
+			if span > 0 {
+				t = (v - lo) / span
+			}
+			c := int(math.Round(math.Max(0, math.Min(1, t)) * 255))
+			img.SetNRGBA(px, py, color.NRGBA{tab[3*c], tab[3*c+1], tab[3*c+2], 255})
+		}
+	}
+	var out bytes.Buffer
+	enc := png.Encoder{CompressionLevel: png.DefaultCompression}
+	if err := enc.Encode(&out, img); err != nil {
+		return nil, fmt.Errorf("export: png: %w", err)
+	}
+	return out.Bytes(), nil
+}
+
+// finiteRange returns the smallest and largest finite values (NaN, NaN if
+// there are none).
+func finiteRange(u []float64) (lo, hi float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, v := range u {
+		if v-v == 0 {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+	}
+	if lo > hi {
+		return math.NaN(), math.NaN()
+	}
+	return lo, hi
+}
+
+// textWidth estimates the width of text in a sans-serif font of the given
+// size: 0.6 em per character (common practice for layout estimates).
+func textWidth(s string, size float64) float64 {
+	return 0.6 * size * float64(utf8.RuneCountInString(s))
+}
+
+// num formats a drawing coordinate to 0.01 px without trailing zeros.
+func num(v float64) string {
+	s := strconv.FormatFloat(v, 'f', 2, 64)
+	for s[len(s)-1] == '0' {
+		s = s[:len(s)-1]
+	}
+	if s[len(s)-1] == '.' {
+		s = s[:len(s)-1]
+	}
+	if s == "-0" {
+		s = "0"
+	}
+	return s
+}
+
+// escape writes user text as XML character data.
+func escape(b *bytes.Buffer, s string) {
+	_ = xml.EscapeText(b, []byte(s)) // a bytes.Buffer never fails
+}
