@@ -219,11 +219,27 @@ func TestLevels(t *testing.T) {
 		{0, 1, 0, nil},
 		{math.NaN(), 1, 5, nil},
 		{0, math.Inf(1), 5, nil},
+		{-math.MaxFloat64, math.MaxFloat64, 5, nil}, // width overflows
 	}
 	for _, c := range cases {
 		got := Levels(c.min, c.max, c.n)
 		if fmt.Sprint(got) != fmt.Sprint(c.want) {
 			t.Errorf("Levels(%g, %g, %d) = %v, want %v", c.min, c.max, c.n, got, c.want)
+		}
+	}
+}
+
+// Ranges narrow for their magnitude: the spacing is near the float64
+// resolution. Levels must return (not loop forever) and whatever it
+// returns must be strictly inside and strictly increasing.
+func TestLevelsNarrowRanges(t *testing.T) {
+	for _, c := range [][2]float64{{1e17, 1e17 + 64}, {1, 1 + 1e-15}, {1e300, 1.0000000000001e300}, {-5e-324, 5e-324}} {
+		lv := Levels(c[0], c[1], 5)
+		for k, v := range lv {
+			if !(v > c[0] && v < c[1]) || (k > 0 && !(v > lv[k-1])) {
+				t.Errorf("Levels(%g, %g, 5) = %v", c[0], c[1], lv)
+				break
+			}
 		}
 	}
 }

@@ -10,7 +10,9 @@ var niceSteps = [...]int64{10, 20, 25, 50, 100}
 // multiples of a spacing of 1, 2, 2.5 or 5 times a power of ten, chosen so
 // the count is as close to n as possible (ties go to the larger spacing).
 // Levels are computed as k*spacing (never accumulated), so they print as
-// short decimals. It returns nil when n < 1, when min or max is not finite,
+// short decimals. It returns nil when the range is too narrow for its
+// magnitude to hold distinct round levels (spacing near the float64
+// resolution), and when n < 1, when min or max is not finite,
 // or when min >= max (a constant field has no isolines).
 func Levels(min, max float64, n int) []float64 {
 	if n < 1 || !(min < max) || math.IsInf(min, 0) || math.IsInf(max, 0) {
@@ -43,8 +45,8 @@ func levelsFor(min, max float64, mant int64, e, limit int) []float64 {
 	step := float64(mant) * math.Pow10(e)
 	k0 := math.Floor(min/step) + 1
 	k1 := math.Ceil(max/step) - 1
-	if k1-k0+1 > float64(limit) || k1 < k0 {
-		return nil
+	if k1-k0+1 > float64(limit) || k1 < k0 || math.Abs(k0) > 1<<52 || math.Abs(k1) > 1<<52 {
+		return nil // none, too many, or spacing below the numbers' resolution
 	}
 	val := func(k float64) float64 {
 		if e < 0 {
@@ -54,7 +56,7 @@ func levelsFor(min, max float64, mant int64, e, limit int) []float64 {
 	}
 	var lv []float64
 	for k := k0 - 1; k <= k1+1; k++ { // one spare each side: min/step may have rounded
-		if v := val(k); v > min && v < max {
+		if v := val(k); v > min && v < max && (len(lv) == 0 || v > lv[len(lv)-1]) {
 			lv = append(lv, v)
 		}
 	}

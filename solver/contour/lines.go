@@ -4,7 +4,8 @@ import "math"
 
 // Lines appends to dst the isoline segments of the field u at the given
 // level, four numbers x0, y0, x1, y1 per segment, and returns the extended
-// slice (nil dst allocates; pass dst[:0] to reuse a buffer). u holds the
+// slice (nil dst allocates; pass dst[:0] to reuse a buffer). Segments have
+// no particular orientation. u holds the
 // (nx+1)*(ny+1) node values described in the package comment, on a
 // rectangle w by h. Lines panics if nx or ny is below 1 or u has the wrong
 // length (caller bugs).
