@@ -48,7 +48,7 @@
         const m = ev.data;
         if (m.type === "ready") resolve(w);
         else if (m.type === "fatal") reject(new Error(m.error));
-        else if (m.type === "solved") settle(m);
+        else if (m.type === "reply") settle(m);
       };
       w.onerror = (e) => reject(new Error("the engine failed to start: " + (e.message || "unknown error")));
       w.postMessage({ type: "init", wasm: bytes }, bytes ? [bytes] : []);
@@ -59,22 +59,31 @@
     const p = pending.get(m.id);
     if (!p) return;
     pending.delete(m.id);
-    if (m.ok) p.resolve(m);
-    else {
-      const e = new Error(m.error);
-      e.path = m.path; e.col = m.col;
-      p.reject(e);
-    }
+    p.resolve(m);
   }
 
-  async function solve(text) {
+  // call runs the engine function edgewise_<fn> in the worker and resolves
+  // with {value, ms}.
+  async function call(fn, ...args) {
     if (!worker) worker = startWorker();
     const w = await worker;
     const id = nextId++;
     return new Promise((resolve, reject) => {
       pending.set(id, { resolve, reject });
-      w.postMessage({ type: "solve", id, project: text });
+      w.postMessage({ type: "call", id, fn, args });
     });
+  }
+
+  async function solve(text) {
+    const m = await call("solve", text, 0, 0);
+    const r = m.value;
+    if (!r.ok) {
+      const e = new Error(r.error);
+      e.path = r.path; e.col = r.col;
+      throw e;
+    }
+    r.ms = m.ms;
+    return r;
   }
 
   async function load(project) {
@@ -102,6 +111,9 @@
     show(result);
     setStatus("Solved in " + m.ms.toFixed(0) + " ms.");
     document.documentElement.dataset.solved = String(Number(document.documentElement.dataset.solved || 0) + 1);
+    document.dispatchEvent(new CustomEvent("edgewise:solved", {
+      detail: { project: obj, result, nx: m.nx, ny: m.ny, u: m.u, ux: m.ux, uy: m.uy },
+    }));
     return result;
   }
 
@@ -156,6 +168,17 @@
     project: () => (current ? JSON.parse(JSON.stringify(current)) : null),
     link: () => location.href.split("#")[0] + "#p=" + encodeURIComponent(JSON.stringify(current)),
   };
+  // For the page's other scripts (outputs.js): the engine and the demo.
+  window.edgewiseInternal = { call, demo };
 
-  demo().then(load).catch((e) => setStatus(e.message, true));
+  // Boot after the other scripts have run: window.edgewiseBoot, when one
+  // of them sets it, chooses the first project (share link, autosave, ...).
+  setTimeout(async () => {
+    try {
+      const first = (window.edgewiseBoot && (await window.edgewiseBoot())) || (await demo());
+      await load(first);
+    } catch (e) {
+      setStatus(e.message, true);
+    }
+  }, 0);
 })();

@@ -1,13 +1,16 @@
-// The edgewise worker: loads the Go engine (WebAssembly) and solves the
-// projects the page sends, so the page never freezes. Messages in:
+// The edgewise worker: loads the Go engine (WebAssembly) and runs its
+// functions for the page, so the page never freezes.
+//
+// Messages in:
 //   {type: "init", wasm: ArrayBuffer | null}   (null: fetch app.wasm next to this file)
-//   {type: "solve", id, project: string, nx, ny}
+//   {type: "call", id, fn, args}               runs the engine function edgewise_<fn>(...args)
 // Messages out:
 //   {type: "ready"} | {type: "fatal", error}
-//   {type: "solved", id, ok, result?, error?, path?, col?, nx, ny, u, ux, uy}
-// The field arrays are transferred, not copied.
+//   {type: "reply", id, value, ms}             value as the engine returned it
+// Typed arrays at the top level of a returned object are transferred to the
+// page, not copied.
 "use strict";
-/* global Go, edgewiseSolve */
+/* global Go */
 if (typeof Go === "undefined") {
   importScripts("wasm_exec.js");
 }
@@ -30,8 +33,19 @@ async function start(bytes) {
       module = await WebAssembly.instantiate(await resp.arrayBuffer(), go.importObject);
     }
   }
-  go.run(module.instance); // registers edgewiseSolve, then waits forever
-  if (typeof edgewiseSolve !== "function") throw new Error("the engine did not start");
+  go.run(module.instance); // registers the edgewise_* functions, then waits forever
+  if (typeof self.edgewise_solve !== "function") throw new Error("the engine did not start");
+}
+
+function transferables(value) {
+  const list = [];
+  if (value && typeof value === "object") {
+    for (const k of Object.keys(value)) {
+      const v = value[k];
+      if (ArrayBuffer.isView(v) && !list.includes(v.buffer)) list.push(v.buffer);
+    }
+  }
+  return list;
 }
 
 self.onmessage = async (ev) => {
@@ -42,22 +56,24 @@ self.onmessage = async (ev) => {
       await ready;
       self.postMessage({ type: "ready" });
     } catch (e) {
-      self.postMessage({ type: "fatal", error: String(e && e.message || e) });
+      self.postMessage({ type: "fatal", error: String((e && e.message) || e) });
     }
     return;
   }
-  if (msg.type === "solve") {
+  if (msg.type === "call") {
     await ready;
-    const t0 = performance.now();
-    const r = edgewiseSolve(msg.project, msg.nx || 0, msg.ny || 0);
-    const out = { type: "solved", id: msg.id, ok: r.ok, ms: performance.now() - t0 };
-    if (!r.ok) {
-      out.error = r.error; out.path = r.path; out.col = r.col;
-      self.postMessage(out);
+    const fn = self["edgewise_" + msg.fn];
+    if (typeof fn !== "function") {
+      self.postMessage({ type: "reply", id: msg.id, value: { ok: false, error: "no engine function " + msg.fn } });
       return;
     }
-    out.result = r.result; out.nx = r.nx; out.ny = r.ny;
-    out.u = r.u; out.ux = r.ux; out.uy = r.uy;
-    self.postMessage(out, [r.u.buffer, r.ux.buffer, r.uy.buffer]);
+    const t0 = performance.now();
+    let value;
+    try {
+      value = fn(...(msg.args || []));
+    } catch (e) {
+      value = { ok: false, error: "engine failure: " + String((e && e.message) || e) };
+    }
+    self.postMessage({ type: "reply", id: msg.id, value, ms: performance.now() - t0 }, transferables(value));
   }
 };

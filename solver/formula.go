@@ -1,17 +1,33 @@
 package solver
 
 import (
-	"strconv"
-	"strings"
+	"errors"
+
+	"edgewise/solver/expr"
 )
 
-// compileFormula turns the text of an edge formula into a function of the
-// distance s along the edge. (Constant formulas only, until the formula
-// language lands.)
-func compileFormula(src, path string, _ func(s float64) (x, y float64), _, _ float64) (func(float64) float64, error) {
-	v, err := strconv.ParseFloat(strings.TrimSpace(src), 64)
+// formulaVars are the names an edge formula may use, in the order Eval
+// takes their values.
+var formulaVars = []string{"x", "y", "s", "W", "H"}
+
+// compileFormula compiles the text of an edge formula into a function of
+// the distance s along the edge; point maps s to (x, y). Errors carry the
+// field path and the column.
+func compileFormula(src, path string, point func(s float64) (x, y float64), w, h float64) (func(float64) float64, error) {
+	e, err := expr.Compile(src, formulaVars...)
 	if err != nil {
-		return nil, errorf(path, "only plain numbers are accepted for now, got %q", src)
+		var xe *expr.Error
+		if errors.As(err, &xe) {
+			return nil, &Error{Path: path, Col: xe.Col, Msg: xe.Msg}
+		}
+		return nil, errorf(path, "%v", err)
 	}
-	return func(float64) float64 { return v }, nil
+	if v, ok := e.Const(); ok {
+		return func(float64) float64 { return v }, nil
+	}
+	return func(s float64) float64 {
+		x, y := point(s)
+		vals := [5]float64{x, y, s, w, h}
+		return e.Eval(vals[:])
+	}, nil
 }

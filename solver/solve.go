@@ -23,6 +23,7 @@ const DefaultGrid = 200
 // slices belong to the Solver and are overwritten by its next Solve.
 type Output struct {
 	Result Result
+	W, H   float64 // the rectangle
 	Nx, Ny int
 	// U, Ux, Uy hold the value and gradient at node j*(Nx+1)+i, at
 	// x = i*W/Nx, y = j*H/Ny.
@@ -85,7 +86,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	n := (nx + 1) * (ny + 1)
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
-	out := &Output{Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
+	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
 	out.Result = report(p, pr, f, out)
 	if !opt.NoCrossCheck {
 		crossCheck(pr, f, &out.Result)

@@ -25,7 +25,7 @@ func solveCall(args []safejs.Value) (reply any) {
 		}
 	}()
 	if len(args) < 1 {
-		return failure(errors.New("edgewiseSolve needs the project JSON"))
+		return failure(errors.New("edgewise_solve needs the project JSON"))
 	}
 	text, err := args[0].String()
 	if err != nil {

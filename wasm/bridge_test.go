@@ -23,7 +23,7 @@ func TestSolveThroughJS(t *testing.T) {
 	if err := register(); err != nil {
 		t.Fatal(err)
 	}
-	fn, err := safejs.Global().Get("edgewiseSolve")
+	fn, err := safejs.Global().Get("edgewise_solve")
 	if err != nil {
 		t.Fatal(err)
 	}

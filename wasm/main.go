@@ -4,7 +4,7 @@
 // runs inside the page's Web Worker, registers one JavaScript function and
 // never returns:
 //
-//	edgewiseSolve(projectJSON string, nx, ny number) -> reply
+//	edgewise_solve(projectJSON string, nx, ny number) -> reply
 //
 // A reply is a plain object: {ok: true, result: "<result JSON>", nx, ny,
 // u, ux, uy: Float64Array} on success, or {ok: false, error: "one line",
@@ -34,5 +34,5 @@ func register() error {
 	if err != nil {
 		return err
 	}
-	return safejs.Global().Set("edgewiseSolve", fn)
+	return safejs.Global().Set("edgewise_solve", fn)
 }
