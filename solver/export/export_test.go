@@ -403,3 +403,25 @@ func BenchmarkSVG(b *testing.B) {
 	}
 	b.ReportMetric(float64(buf.Len()), "bytes")
 }
+
+// BenchmarkFieldCSV writes a 513 x 513 node field with gradients.
+func BenchmarkFieldCSV(b *testing.B) {
+	const n = 512
+	f := &Field{Nx: n, Ny: n, W: 0.4, H: 0.15, Kx: 167, Ky: 167, Units: Units{Quantity: "temperature", Unit: "°C", FluxUnit: "W/m2", LengthUnit: "m"}}
+	for j := 0; j <= n; j++ {
+		for i := 0; i <= n; i++ {
+			x, y := f.x(i), f.y(j)
+			f.U = append(f.U, 35+145*math.Sin(7.85*x)*math.Exp(-7.85*y))
+			f.Ux = append(f.Ux, 145*7.85*math.Cos(7.85*x)*math.Exp(-7.85*y))
+			f.Uy = append(f.Uy, -145*7.85*math.Sin(7.85*x)*math.Exp(-7.85*y))
+		}
+	}
+	var buf bytes.Buffer
+	for b.Loop() {
+		buf.Reset()
+		if err := FieldCSV(&buf, f); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(buf.Len()), "bytes")
+}
