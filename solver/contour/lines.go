@@ -25,21 +25,24 @@ func Lines(dst []float64, u []float64, nx, ny int, w, h float64, level float64) 
 		y0 := float64(j) * fy
 		y1 := float64(j+1) * fy
 		row, up := u[j*stride:(j+1)*stride], u[(j+1)*stride:(j+2)*stride]
+		// Classes of the left corners carry over from the previous cell.
+		var left int
+		if row[0] >= level {
+			left |= 1
+		}
+		if up[0] >= level {
+			left |= 8
+		}
 		for i := range nx {
 			v00, v10, v11, v01 := row[i], row[i+1], up[i+1], up[i]
-			var idx int
-			if v00 >= level {
-				idx |= 1
-			}
+			idx := left
 			if v10 >= level {
 				idx |= 2
 			}
 			if v11 >= level {
 				idx |= 4
 			}
-			if v01 >= level {
-				idx |= 8
-			}
+			left = (idx>>1)&1 | (idx<<1)&8 // right corners become the next cell's left ones
 			if idx == 0 || idx == 15 {
 				continue // includes cells whose NaN corners all compare false
 			}
