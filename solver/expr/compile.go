@@ -25,6 +25,10 @@ const (
 	opRDivK              // x -> k/x
 	opPowK               // x -> x^k
 	opRPowK              // x -> k^x
+	opAddV               // a -> a+vals[n]
+	opSubV               // a -> a-vals[n]
+	opMulV               // a -> a*vals[n]
+	opDivV               // a -> a/vals[n]
 	opSquare             // x -> x*x
 	opFn1                // x -> fn1[n](x)
 	opAtan2              // y x -> atan2(y, x)
@@ -46,11 +50,17 @@ type instr struct {
 	k  float64
 }
 
+// readsVar reports whether the instruction reads vals[n].
+func (in instr) readsVar() bool {
+	return in.op == opVar || in.op >= opAddV && in.op <= opDivV
+}
+
 // effect is the change in stack height caused by each instruction.
 var effect = [...]int{
 	opConst: 1, opVar: 1, opNeg: 0,
 	opAdd: -1, opSub: -1, opMul: -1, opDiv: -1, opPow: -1,
 	opAddK: 0, opSubK: 0, opRSubK: 0, opMulK: 0, opDivK: 0, opRDivK: 0, opPowK: 0, opRPowK: 0,
+	opAddV: 0, opSubV: 0, opMulV: 0, opDivV: 0,
 	opSquare: 0, opFn1: 0, opAtan2: -1, opMin: -1, opMax: -1,
 	opLT: -1, opLE: -1, opGT: -1, opGE: -1, opSelect: -2, opRise: -2, opReadings: 0,
 }
@@ -81,7 +91,7 @@ func stackNeed(prog []instr) int {
 // fold replaces code that uses no variable by the constant it computes.
 func (c *compiler) fold(n *node, code []instr) []instr {
 	for _, in := range code {
-		if in.op == opVar {
+		if in.readsVar() {
 			return code
 		}
 	}
@@ -102,12 +112,12 @@ func constOf(code []instr) (float64, bool) {
 	return 0, false
 }
 
-var binOps = map[tokKind][3]op{ // plain, constant right, constant left
-	tPlus:  {opAdd, opAddK, opAddK},
-	tMinus: {opSub, opSubK, opRSubK},
-	tStar:  {opMul, opMulK, opMulK},
-	tSlash: {opDiv, opDivK, opRDivK},
-	tCaret: {opPow, opPowK, opRPowK},
+var binOps = map[tokKind][4]op{ // plain, constant right, constant left, variable right
+	tPlus:  {opAdd, opAddK, opAddK, opAddV},
+	tMinus: {opSub, opSubK, opRSubK, opSubV},
+	tStar:  {opMul, opMulK, opMulK, opMulV},
+	tSlash: {opDiv, opDivK, opRDivK, opDivV},
+	tCaret: {opPow, opPowK, opRPowK, opPow},
 }
 
 var cmpOps = map[tokKind]op{tLT: opLT, tLE: opLE, tGT: opGT, tGE: opGE}
@@ -142,6 +152,9 @@ func (c *compiler) binary(k tokKind, l, r []instr) []instr {
 	if a, ok := constOf(l); ok {
 		return append(r, instr{op: ops[2], k: a})
 	}
+	if len(r) == 1 && r[0].op == opVar && ops[3] != opPow {
+		return append(l, instr{op: ops[3], n: r[0].n})
+	}
 	return append(append(l, r...), instr{op: ops[0]})
 }
 
@@ -166,11 +179,7 @@ func (c *compiler) call(n *node) []instr {
 	args := n.args
 	switch n.fn.op {
 	case opFn1:
-		for i, m := range math1 {
-			if m.name == n.name {
-				return append(c.gen(args[0]), instr{op: opFn1, n: int32(i)})
-			}
-		}
+		return append(c.gen(args[0]), instr{op: opFn1, n: n.fn.fn1})
 	case opAtan2:
 		return append(append(c.gen(args[0]), c.gen(args[1])...), instr{op: opAtan2})
 	case opMin, opMax:
@@ -293,6 +302,14 @@ func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
 			st[sp] = math.Pow(st[sp], in.k)
 		case opRPowK:
 			st[sp] = math.Pow(in.k, st[sp])
+		case opAddV:
+			st[sp] += vals[in.n]
+		case opSubV:
+			st[sp] -= vals[in.n]
+		case opMulV:
+			st[sp] *= vals[in.n]
+		case opDivV:
+			st[sp] /= vals[in.n]
 		case opSquare:
 			st[sp] *= st[sp]
 		case opFn1:

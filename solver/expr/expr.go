@@ -41,7 +41,7 @@ func Compile(src string, vars ...string) (x *Expr, err error) {
 	e := &Expr{root: root, prog: prog, tabs: c.tabs, vars: slices.Clone(vars),
 		uses: make([]bool, len(vars)), small: need <= smallStack}
 	for _, in := range prog {
-		if in.op == opVar {
+		if in.readsVar() {
 			e.uses[in.n] = true
 		}
 	}

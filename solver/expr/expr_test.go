@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
+	"strconv"
 	"strings"
 	"sync"
 	"testing"
@@ -147,12 +148,12 @@ func TestErrors(t *testing.T) {
 		{"max()", `col 1: max needs at least 2 arguments`},
 		{"sin(1, 2)", `col 1: sin takes 1 argument, got 2`},
 		{"atan2(1)", `col 1: atan2 takes 2 arguments (y, x), got 1`},
-		{"when(x < 1, 2)", `col 1: when takes a condition, its value, then either the value otherwise or more condition-value pairs ending with the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b), got 2`},
-		{"when(x < 1, 2, 3, 4)", `col 1: when takes a condition, its value, then either the value otherwise or more condition-value pairs ending with the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b), got 4`},
+		{"when(x < 1, 2)", `col 1: when takes conditions and their values in pairs, then the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b), got 2`},
+		{"when(x < 1, 2, 3, 4)", `col 1: when takes conditions and their values in pairs, then the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b), got 4`},
 		{"rise(x)", `col 1: rise takes 2 or 3 arguments: rise(t, at) or rise(t, at, width), got 1`},
 		{"rise(x, 1, 0)", `col 12: the width of rise must be positive, got 0 (for a sharp step use rise(t, at))`},
-		{"readings(s, 0, 1, 1)", `col 1: readings takes the position and then pairs of numbers: readings(s, s1, v1, s2, v2, ...) with at least two pairs, got 4`},
-		{"readings(s, 0, 1)", `col 1: readings takes the position and then pairs of numbers: readings(s, s1, v1, s2, v2, ...) with at least two pairs, got 3`},
+		{"readings(s, 0, 1, 1)", `col 1: readings takes the position, then two or more points as pairs of numbers: readings(s, s1, v1, s2, v2, ...), got 4`},
+		{"readings(s, 0, 1)", `col 1: readings takes the position, then two or more points as pairs of numbers: readings(s, s1, v1, s2, v2, ...), got 3`},
 		{"readings(s, 0, 1, 0.5, 2, 0.5, 3)", `col 27: the positions in readings must increase: 0.5 comes after 0.5`},
 		{"readings(s, 0, 1, -1, 2)", `col 19: the positions in readings must increase: -1 comes after 0`},
 		{"readings(s, 0, 1, s, 2)", `col 19: the points of readings must be constant numbers (they may use pi and e, not variables)`},
@@ -284,8 +285,10 @@ func TestMathFunctions(t *testing.T) {
 	}
 }
 
+// formatExact prints x so that it reads back as exactly x (shortest
+// round-trip form), in parentheses when negative.
 func formatExact(x float64) string {
-	s := strings.Replace(strings.Replace(strings.TrimSpace(fmtG(x)), "e+", "e", 1), "+", "", 1)
+	s := strconv.FormatFloat(x, 'g', -1, 64)
 	if strings.HasPrefix(s, "-") {
 		return "(" + s + ")"
 	}

@@ -14,10 +14,10 @@ var constants = map[string]float64{
 // function describes one built-in function.
 type function struct {
 	name     string
-	min, max int                   // argument counts; max < 0 means no upper limit
-	f1       func(float64) float64 // one-argument functions
-	op       op                    // everything else: compiled specially
-	counts   string                // what checkCount says when the count is wrong
+	min, max int    // argument counts; max < 0 means no upper limit
+	fn1      int32  // opFn1: index into fn1
+	op       op     // everything else: compiled specially
+	counts   string // what checkCount says when the count is wrong
 }
 
 // math1 lists the one-argument functions and their Go math equivalents.
@@ -38,8 +38,8 @@ var fn1 []func(float64) float64
 var functions = map[string]*function{}
 
 func init() {
-	for _, m := range math1 {
-		functions[m.name] = &function{name: m.name, min: 1, max: 1, f1: m.f, op: opFn1, counts: "takes 1 argument"}
+	for i, m := range math1 {
+		functions[m.name] = &function{name: m.name, min: 1, max: 1, fn1: int32(i), op: opFn1, counts: "takes 1 argument"}
 		fn1 = append(fn1, m.f)
 	}
 	for _, f := range []*function{
@@ -47,11 +47,11 @@ func init() {
 		{name: "min", min: 2, max: -1, op: opMin, counts: "needs at least 2 arguments"},
 		{name: "max", min: 2, max: -1, op: opMax, counts: "needs at least 2 arguments"},
 		{name: "when", min: 3, max: -1, op: opSelect,
-			counts: "takes a condition, its value, then either the value otherwise or more condition-value pairs ending with the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b)"},
+			counts: "takes conditions and their values in pairs, then the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b)"},
 		{name: "rise", min: 2, max: 3, op: opRise,
 			counts: "takes 2 or 3 arguments: rise(t, at) or rise(t, at, width)"},
 		{name: "readings", min: 5, max: -1, op: opReadings,
-			counts: "takes the position and then pairs of numbers: readings(s, s1, v1, s2, v2, ...) with at least two pairs"},
+			counts: "takes the position, then two or more points as pairs of numbers: readings(s, s1, v1, s2, v2, ...)"},
 	} {
 		functions[f.name] = f
 	}

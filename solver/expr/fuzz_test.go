@@ -62,8 +62,8 @@ func FuzzParse(f *testing.F) {
 	})
 }
 
-// FuzzEval: evaluation never panics, agrees with Const for constant
-// formulas, and does not change when a variable that Uses says is unused
+// FuzzEval: evaluation never panics, agrees bit for bit with the reference
+// interpreter refEval, agrees with Const for constant formulas, and does not change when a variable that Uses says is unused
 // changes.
 func FuzzEval(f *testing.F) {
 	for i, s := range fuzzSeeds {
@@ -78,6 +78,9 @@ func FuzzEval(f *testing.F) {
 		}
 		vals := []float64{x, y, s, w, h}
 		v := e.Eval(vals)
+		if want := refEval(e.root, vals); !same(v, want) {
+			t.Fatalf("%q at %v: compiled %v, reference %v", src, vals, v, want)
+		}
 		if c, ok := e.Const(); ok && !same(c, v) {
 			t.Fatalf("%q: Const %v but Eval %v", src, c, v)
 		}

@@ -1,6 +1,7 @@
 package expr
 
 import (
+	"slices"
 	"strconv"
 	"strings"
 )
@@ -56,6 +57,11 @@ func precOf(k tokKind) int {
 }
 
 func isCmp(k tokKind) bool { return k >= tLT && k <= tGE }
+
+// standardVars are the variables the language defines; the engine offers
+// some or all of them to each formula. Naming one it does not offer gets a
+// message listing what is offered.
+var standardVars = []string{"x", "y", "s", "W", "H"}
 
 // parser builds the syntax tree with one token of look-ahead.
 type parser struct {
@@ -217,7 +223,7 @@ func (p *parser) unknown(t token) {
 	if s := suggest(t.text, known); s != "" {
 		failAt(t.pos, "unknown name %q (did you mean %s?)", t.text, s)
 	}
-	if strings.Contains("x y s W H", t.text) && len(t.text) == 1 {
+	if slices.Contains(standardVars, t.text) {
 		failAt(t.pos, "unknown name %q (this formula may use %s)", t.text, strings.Join(append(p.vars, "pi", "e"), ", "))
 	}
 	failAt(t.pos, "unknown name %q", t.text)
@@ -248,14 +254,7 @@ func (p *parser) parseCall(name token) *node {
 	return n
 }
 
-func (p *parser) isVar(name string) bool {
-	for _, v := range p.vars {
-		if v == name {
-			return true
-		}
-	}
-	return false
-}
+func (p *parser) isVar(name string) bool { return slices.Contains(p.vars, name) }
 
 // String prints the tree with the fewest parentheses that keep its meaning.
 // Compiling the printed form gives the same tree.
