@@ -62,9 +62,13 @@
 // depth: the data times segment length on Flux and Convection edges, and the
 // reaction (the residual of the node balance) at the fixed nodes of Value
 // edges. A corner node between a Value edge and another edge gives the other
-// edge its own data term and the Value edge the rest; a corner between two
-// Value edges is split in proportion to the two half segments. So the four
-// inflows plus the source total balance to round-off for any solution.
+// edge its own data term and the Value edge the rest; at a corner between
+// two Value edges each edge takes its flux extrapolated from its own inner
+// nodes (quadratic extrapolation from the three nearest; linear or constant
+// on edges of 3 or 2 intervals) over its half segment, and the two share the remainder
+// equally (second-order accurate for smooth solutions; meaningless, like
+// the flow itself, at a jump of value). So the four inflows plus the source total
+// balance to round-off for any solution.
 //
 // Errors: bad user data (a non-finite edge value, an unbalanced all-flux
 // problem, a problem that fails Validate) is returned as an error; a grid

@@ -219,7 +219,6 @@ func TestQuadraticExact(t *testing.T) {
 				}
 				exact := q.u
 				if k == (kinds{F, F, F, F}) {
-					m := 0.0
 					// The zero-mean rule: compare after removing the exact
 					// trapezoid mean of the quadratic on this grid.
 					gx := &Grid{Nx: g.Nx, Ny: g.Ny, W: g.W, H: g.H, U: make([]float64, len(g.U))}
@@ -228,7 +227,7 @@ func TestQuadraticExact(t *testing.T) {
 							gx.U[j*(g.Nx+1)+i] = q.u(float64(i)*g.W/float64(g.Nx), float64(j)*g.H/float64(g.Ny))
 						}
 					}
-					m = trapezoidMean(gx)
+					m := trapezoidMean(gx)
 					exact = func(x, y float64) float64 { return q.u(x, y) - m }
 					if mean := trapezoidMean(g); math.Abs(mean) > 1e-12*f0 {
 						t.Errorf("%s: area mean %g, want 0", name, mean)
@@ -238,11 +237,15 @@ func TestQuadraticExact(t *testing.T) {
 					t.Errorf("%s: node error %g", name, err)
 				}
 				checkBalance(t, name, g, 1e-10)
-				if k[0] == V && k[1] == V || k[1] == V && k[2] == V || k[2] == V && k[3] == V || k[3] == V && k[0] == V {
-					continue // value-value corners split their reaction by rule, not exactly
-				}
 				// The entering flux of a quadratic is linear along each edge,
-				// so the discrete flows equal the exact integrals L * q(L/2).
+				// so the discrete flows equal the exact integrals L * q(L/2)
+				// (the reactions on Value edges are exact node fluxes, and
+				// the corner extrapolation is exact for linear fluxes). A
+				// value-value corner on an edge of 2 intervals has one inner
+				// node to extrapolate from (a constant): skip that case.
+				if hasValueCorner(k) && min(size[0], size[1]) < 3 {
+					continue
+				}
 				for _, side := range problem.Sides {
 					x, y := p.Point(side, p.Length(side)/2)
 					var qn float64
@@ -264,6 +267,16 @@ func TestQuadraticExact(t *testing.T) {
 			}
 		}
 	}
+}
+
+// hasValueCorner reports whether two Value edges meet somewhere.
+func hasValueCorner(k kinds) bool {
+	for e := range k {
+		if k[e] == V && k[(e+1)%4] == V {
+			return true
+		}
+	}
+	return false
 }
 
 // checkBalance checks conservation (CHECKS.md: inflows + source = 0) to a
@@ -445,6 +458,81 @@ func TestConvergenceOrder(t *testing.T) {
 	}
 }
 
+// Edge flows of the smooth harmonic solution against its exact flows
+// (closed-form integrals of the entering flux; sinh and cosh from Go's math
+// package): the largest flow error falls like h^2 (order 1.8..2.2 between
+// grids 16, 32, 64), including the flows of Value edges from reactions and
+// the split of value-value corners. Richardson removes the h^2 term: its
+// flow error must fall by at least 12 per halving (16 for an h^4
+// remainder, 8 would betray an h^3 term such as a first-order corner
+// split; 6 where a value/flux corner leaves an h^3 term, observed 11) and
+// be at least 5 times below the fine grid's (observed 9 for the all-value
+// case at n = 32, far more for the others).
+func TestHarmonicFlows(t *testing.T) {
+	const w, h, kk = 1.0, 0.7, 2.0
+	f := harmonic(w, h)
+	k := math.Pi / w
+	sh, ch := math.Sinh(k*h), math.Cosh(k*h)
+	var exact [4]float64
+	exact[problem.Bottom] = -2 * kk / sh
+	exact[problem.Top] = 2 * kk * ch / sh
+	exact[problem.Left] = -kk * (ch - 1) / sh
+	exact[problem.Right] = -kk * (ch - 1) / sh
+	flowErr := func(g *Grid) float64 {
+		worst := 0.0
+		for e, v := range g.Inflow {
+			worst = math.Max(worst, math.Abs(v-exact[e]))
+		}
+		return worst
+	}
+	cases := []struct {
+		k     kinds
+		cubic bool // a value/flux top corner leaves an h^3 term (see TestConvergenceOrder)
+	}{
+		{kinds{V, V, V, V}, false},
+		{kinds{C, F, V, C}, true},
+		{kinds{V, V, F, C}, false},
+	}
+	for _, c := range cases {
+		kd := c.k
+		p := exactProblem(w, h, kk, kk, 0, f, kd, 3)
+		nx0, ny0 := Sizes(w, h, 16)
+		var errs []float64
+		for _, m := range []int{1, 2, 4} {
+			g, err := Solve(p, m*nx0, m*ny0)
+			if err != nil {
+				t.Fatal(err)
+			}
+			errs = append(errs, flowErr(g))
+		}
+		for i := 1; i < len(errs); i++ {
+			if order := math.Log2(errs[i-1] / errs[i]); order < 1.8 || order > 2.2 {
+				t.Errorf("kinds %v: flow error order %.3f between grids %d and %d (errors %.3g)", kd, order, i-1, i, errs)
+			}
+		}
+		rg1, _, err := Richardson(p, nx0, ny0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		rg, _, err := Richardson(p, 2*nx0, 2*ny0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		re1, re := flowErr(rg1), flowErr(rg)
+		if re > errs[2]/5 {
+			t.Errorf("kinds %v: Richardson flow error %.3g, fine grid %.3g", kd, re, errs[2])
+		}
+		minFall := 12.0
+		if c.cubic {
+			minFall = 6
+		}
+		if re1/re < minFall {
+			t.Errorf("kinds %v: Richardson flow error falls by only %.2f per halving", kd, re1/re)
+		}
+		t.Logf("kinds %v: flow errors %.3g, Richardson %.3g, %.3g", kd, errs, re1, re)
+	}
+}
+
 // Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, section 4.2
 // (formula recalled from memory; set-up of the worked problem read, value
 // recomputed from the series, as recorded in CHECKS.md): plate L = 2 wide,
@@ -502,18 +590,16 @@ func TestAllFlux(t *testing.T) {
 		t.Errorf("balanced: area mean %g, want 0", m)
 	}
 	checkBalance(t, "balanced", g, 1e-12)
-	// Exact solution up to a constant: u = -x/Kx*2 ... the x part is
-	// linear (flux 2 through Kx = 2: du/dx = -1), the y part carries the
-	// source to the bottom: Ky u_yy = -3, u_y(H) = 0 -> u_y = 1.5 (H - y),
-	// which is quadratic, so the scheme reproduces it up to the constant.
-	exact := func(x, y float64) float64 { return -x + 1.5*(0.5*y-y*y/2)/2*2/2 }
-	_ = exact
-	var ref Grid = *g
+	// Exact solution up to a constant: u = -x + 0.75 y - 0.75 y^2 (the x
+	// part carries 2 per unit length through Kx = 2; Ky u_yy = -3 with
+	// u_y(H) = 0 carries the source to the bottom). It is quadratic, so the
+	// scheme reproduces it to round-off (1e-12) once both means are removed.
+	ref := *g
 	ref.U = make([]float64, len(g.U))
 	for j := 0; j <= g.Ny; j++ {
 		for i := 0; i <= g.Nx; i++ {
 			x, y := float64(i)/10, 0.5*float64(j)/6
-			ref.U[j*11+i] = -x + (1.5*y-1.5*y*y)/2
+			ref.U[j*11+i] = -x + 0.75*y - 0.75*y*y
 		}
 	}
 	m := trapezoidMean(&ref)
@@ -592,6 +678,11 @@ func TestSizes(t *testing.T) {
 		{1e-3, 1, 32, 2, 32},
 		{1e3, 1, 48, 48, 2},
 		{1, 1, 1, 2, 2}, // n below 2 is raised to 2
+		// errors: bad sides give n x n and leave the report to Solve
+		{math.NaN(), 1, 16, 16, 16},
+		{1, -2, 16, 16, 16},
+		{math.Inf(1), 1, 8, 8, 8},
+		{0, 0, 8, 8, 8},
 	}
 	for _, tt := range tests {
 		if nx, ny := Sizes(tt.w, tt.h, tt.n); nx != tt.nx || ny != tt.ny {
