@@ -105,10 +105,15 @@ func TestErrors(t *testing.T) {
 		{"", `col 1: empty formula`},
 		{"   ", `col 1: empty formula`},
 		{"1 + sinn(x)", `col 5: unknown name "sinn" (did you mean sinh?)`},
+		{"sinn(x)", `col 1: unknown name "sinn" (did you mean sinh?)`}, // sin and sinh are both one edit away: same length wins
 		{"sinn", `col 1: unknown name "sinn" (did you mean sinh?)`},
 		{"2*Sin(x)", `col 3: unknown name "Sin" (did you mean sin?)`},
 		{"w", `col 1: unknown name "w" (did you mean W?)`},
 		{"q", `col 1: unknown name "q"`},
+		{"log(x)", `col 1: unknown name "log" (write ln for the natural logarithm or log10 for base 10)`},
+		{"if(x < 1, 2, 3)", `col 1: unknown name "if" (write when(condition, value, otherwise))`},
+		{"2*PI", `col 3: unknown name "PI" (write pi)`},
+		{"arctan(x)", `col 1: unknown name "arctan" (did you mean atan?)`},
 		{"(1+2", `col 5: missing ")" to close the "(" at col 1`},
 		{"sin(x", `col 6: missing ")" to close the "(" at col 4`},
 		{"(1 2)", `col 4: missing operator before number "2" (multiplication needs *)`},
@@ -158,12 +163,13 @@ func TestErrors(t *testing.T) {
 		{"readings(s, 0, 1, -1, 2)", `col 19: the positions in readings must increase: -1 comes after 0`},
 		{"readings(s, 0, 1, s, 2)", `col 19: the points of readings must be constant numbers (they may use pi and e, not variables)`},
 		{"readings(s, 0, 1, 1, 1/0)", `col 22: the points of readings must be finite numbers, got +Inf`},
-		{"when(1 < 2, 1, x < 1)", `col 18: a comparison (<) can only be the condition of when(...)`},
 		{strings.Repeat("(", MaxDepth+1) + "1" + strings.Repeat(")", MaxDepth+1), `col 41: formula nested too deeply (more than 40 levels)`},
 		{strings.Repeat("-", 100) + "1", `col 41: formula nested too deeply (more than 40 levels)`},
 		{strings.Repeat("1", MaxLen+1), `col 8193: formula longer than 8192 bytes`},
 		// fixed bugs
-		{"sinn(x)", `col 1: unknown name "sinn" (did you mean sinh?)`}, // tie between sin and sinh went to the shorter name
+		// A constant condition folded when(...) to one branch and skipped checking the other.
+		{"when(1 < 2, 1, x < 1)", `col 18: a comparison (<) can only be the condition of when(...)`},
+		{"when(2 < 1, x < 1, 1)", `col 15: a comparison (<) can only be the condition of when(...)`},
 	}
 	for _, tc := range tests {
 		_, err := Compile(tc.src, edgeVars...)

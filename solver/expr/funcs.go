@@ -1,9 +1,6 @@
 package expr
 
-import (
-	"fmt"
-	"math"
-)
+import "math"
 
 // constants are always available; a variable of the same name is a caller bug.
 var constants = map[string]float64{
@@ -17,6 +14,7 @@ type function struct {
 	min, max int    // argument counts; max < 0 means no upper limit
 	fn1      int32  // opFn1: index into fn1
 	op       op     // everything else: compiled specially
+	odd      bool   // the count must be odd: a first argument, then pairs
 	counts   string // what checkCount says when the count is wrong
 }
 
@@ -46,11 +44,11 @@ func init() {
 		{name: "atan2", min: 2, max: 2, op: opAtan2, counts: "takes 2 arguments (y, x)"},
 		{name: "min", min: 2, max: -1, op: opMin, counts: "needs at least 2 arguments"},
 		{name: "max", min: 2, max: -1, op: opMax, counts: "needs at least 2 arguments"},
-		{name: "when", min: 3, max: -1, op: opSelect,
+		{name: "when", min: 3, max: -1, odd: true, op: opSelect,
 			counts: "takes conditions and their values in pairs, then the value otherwise: when(c, a, b) or when(c1, a1, c2, a2, b)"},
 		{name: "rise", min: 2, max: 3, op: opRise,
 			counts: "takes 2 or 3 arguments: rise(t, at) or rise(t, at, width)"},
-		{name: "readings", min: 5, max: -1, op: opReadings,
+		{name: "readings", min: 5, max: -1, odd: true, op: opReadings,
 			counts: "takes the position, then two or more points as pairs of numbers: readings(s, s1, v1, s2, v2, ...)"},
 	} {
 		functions[f.name] = f
@@ -60,19 +58,13 @@ func init() {
 // checkCount reports a wrong number of arguments at the function name.
 func (f *function) checkCount(n *node) {
 	k := len(n.args)
-	ok := k >= f.min && (f.max < 0 || k <= f.max)
-	switch f.name {
-	case "when", "readings":
-		ok = ok && k%2 == 1
-	}
-	if ok {
+	if k >= f.min && (f.max < 0 || k <= f.max) && (!f.odd || k%2 == 1) {
 		return
 	}
-	msg := fmt.Sprintf("%s %s", f.name, f.counts)
-	if f.max >= 0 || f.name == "when" || f.name == "readings" {
-		failAt(n.pos, "%s, got %d", msg, k)
+	if f.max < 0 && !f.odd { // "needs at least 2 arguments" says it all
+		failAt(n.pos, "%s %s", f.name, f.counts)
 	}
-	failAt(n.pos, "%s", msg)
+	failAt(n.pos, "%s %s, got %d", f.name, f.counts, k)
 }
 
 // rise is the step from 0 to 1 at t = at: sharp (width 0) or smooth over

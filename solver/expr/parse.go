@@ -215,7 +215,21 @@ func (p *parser) resolve(t token) *node {
 	return nil
 }
 
+// hints answer names users often reach for that the language spells otherwise.
+var hints = map[string]string{
+	"log":  "write ln for the natural logarithm or log10 for base 10",
+	"pow":  "write a^b for powers",
+	"if":   "write when(condition, value, otherwise)",
+	"PI":   "write pi",
+	"Pi":   "write pi",
+	"step": "write rise(t, at) for a step",
+}
+
+// unknown reports a name that is neither a variable, a constant nor a function.
 func (p *parser) unknown(t token) {
+	if h, ok := hints[t.text]; ok {
+		failAt(t.pos, "unknown name %q (%s)", t.text, h)
+	}
 	known := append(append([]string{}, p.vars...), "pi", "e")
 	for name := range functions {
 		known = append(known, name)
