@@ -5,30 +5,30 @@
 //
 // on a node-centred grid of Nx x Ny intervals that includes the boundary
 // nodes, x_i = i W/Nx, y_j = j H/Ny, by a second-order finite-volume
-// (equivalently ghost-node) scheme:
+// (equivalently ghost-node) scheme. Every node owns the cell
+// [x_i - hx/2, x_i + hx/2] x [y_j - hy/2, y_j + hy/2] clipped to the
+// rectangle, so boundary nodes own half cells and corner nodes quarter
+// cells; the cell widths wx_i, wy_j are the trapezoid weights of the grid.
+// The balance of a node is
 //
-//   - every node owns the cell [x_i - hx/2, x_i + hx/2] x [y_j - hy/2, y_j + hy/2]
-//     clipped to the rectangle, so boundary nodes own half cells and corner
-//     nodes quarter cells; the cell widths wx_i, wy_j are the trapezoid
-//     weights of the grid;
+//	sum over faces  K (u_nb - u)/h * (face length)
+//	  + inflow through its boundary segments
+//	  + Source * wx_i * wy_j  =  0
 //
-//   - the balance of a node is
+// which in the interior is the 5-point stencil times the cell area, and on a
+// flux or convection edge is the ghost-node scheme with a central difference
+// for the normal derivative, times the half (or quarter) cell area. On the
+// edges:
 //
-//     sum over its faces of K (u_nb - u) / h * (face length)
-//
-//   - (inflow through its boundary segments) + Source * wx_i * wy_j = 0
-//
-//     which in the interior is the 5-point stencil times the cell area, and on
-//     a flux or convection edge is the ghost-node scheme with a central
-//     difference for the normal derivative, times the half (or quarter) cell
-//     area;
-//
-//   - a Flux edge contributes F(s) * (segment length); a Convection edge
-//     Hc (F(s) - u) * (segment length), so Hc = 0 is an insulated edge;
-//
+//   - a Flux edge contributes F(s) * (segment length);
+//   - a Convection edge contributes Hc (F(s) - u) * (segment length), so
+//     Hc = 0 is an insulated edge;
 //   - a Value edge fixes its nodes. At a corner touching a Value edge the
 //     value edge wins; where two Value edges meet, the corner node takes the
 //     mean of their two end values.
+//
+// Edge data is evaluated at every boundary node, corners included, even
+// where a Value edge wins the corner (the edge flows need it).
 //
 // Written this way the matrix is symmetric and positive (semi)definite; it is
 // stored as a band matrix (numbering the nodes along the shorter side, so the
