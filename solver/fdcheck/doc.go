@@ -41,7 +41,10 @@
 // The scheme is exact for every quadratic u (the 5-point stencil and the
 // central boundary difference are), so its error falls like h^2 for smooth
 // solutions, and Richardson extrapolation (4 u_h/2 - u_h)/3 removes the
-// leading term.
+// leading term. Where a Value edge meets a flux or convection edge at a
+// corner, the ghost-node closure leaves an h^3 term (observed in the
+// tests), so near such corners the extrapolated error falls like h^3
+// rather than h^4.
 //
 // # All-flux problems
 //
