@@ -88,6 +88,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
 	out.Result = report(p, pr, f, out)
+	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	if !opt.NoCrossCheck {
 		crossCheck(pr, f, &out.Result)
 	}

@@ -1,0 +1,207 @@
+package solver
+
+import (
+	"encoding/json"
+	"errors"
+	"os"
+	"strings"
+	"testing"
+)
+
+const baseProject = `{
+  "schema": "edgewise/1", "title": "test plate", "physics": "heat",
+  "width": 0.4, "height": 0.2, "conductivity": 50, "source": 0,
+  "edges": {
+    "bottom": {"kind": "value", "expr": "100"},
+    "top": {"kind": "convection", "h": 10, "ambient": "20"},
+    "left": {"kind": "flux", "expr": "0"},
+    "right": {"kind": "value", "expr": "20 + 5*sin(pi*s/H)"}
+  },
+  "probes": [{"x": 0.2, "y": 0.1, "label": "P1"}],
+  "grid": {"nx": 40, "ny": 20}
+}`
+
+// mutate decodes the base project, applies f to the generic tree and
+// encodes it again.
+func mutate(t *testing.T, f func(m map[string]any)) []byte {
+	t.Helper()
+	var m map[string]any
+	if err := json.Unmarshal([]byte(baseProject), &m); err != nil {
+		t.Fatal(err)
+	}
+	f(m)
+	b, err := json.Marshal(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
+}
+
+func edges(m map[string]any) map[string]any { return m["edges"].(map[string]any) }
+func edge(m map[string]any, s string) map[string]any {
+	return edges(m)[s].(map[string]any)
+}
+
+func TestDecodeGood(t *testing.T) {
+	p, err := Decode([]byte(baseProject))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.Width != 0.4 || p.Conductivity != (Conductivity{50, 50}) || p.Edges.Top.H != 10 ||
+		p.Edges.Right.Expr != "20 + 5*sin(pi*s/H)" || len(p.Probes) != 1 || p.Grid.Nx != 40 {
+		t.Errorf("decoded %+v", p)
+	}
+	// a round trip through JSON gives the same project
+	b, err := json.Marshal(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	q, err := Decode(b)
+	if err != nil {
+		t.Fatalf("re-decoding %s: %v", b, err)
+	}
+	b2, _ := json.Marshal(q)
+	if string(b) != string(b2) {
+		t.Errorf("round trip changed the project:\n%s\n%s", b, b2)
+	}
+}
+
+func TestDecodeErrors(t *testing.T) {
+	tests := []struct {
+		name string
+		edit func(m map[string]any)
+		want string // the whole one-line message, or its start when it ends in "..."
+	}{
+		{"unknown top-level key", func(m map[string]any) { m["colour"] = "red" },
+			"colour: unknown key (allowed here: ..."},
+		{"unknown edge key", func(m map[string]any) { edge(m, "top")["expr"] = "1" },
+			"edges.top.expr: unknown key (allowed here: kind, h, ambient)"},
+		{"missing edge", func(m map[string]any) { delete(edges(m), "left") }, "edges.left: missing"},
+		{"missing kind", func(m map[string]any) { delete(edge(m, "left"), "kind") },
+			"edges.left.kind: missing (use value, flux or convection)"},
+		{"wrong kind", func(m map[string]any) { edge(m, "left")["kind"] = "insulated" },
+			`edges.left.kind: unknown edge kind "insulated" (use value, flux or convection)`},
+		{"negative width", func(m map[string]any) { m["width"] = -1 }, "width: must be greater than zero, got -1"},
+		{"zero height", func(m map[string]any) { m["height"] = 0 }, "height: must be greater than zero, got 0"},
+		{"text width", func(m map[string]any) { m["width"] = "0,4" },
+			`width: expected a number, got the text "0,4" (use a decimal point, not a comma)`},
+		{"negative h", func(m map[string]any) { edge(m, "top")["h"] = -3 },
+			"edges.top.h: convection coefficient must be zero or more, got -3"},
+		{"orthotropic zero", func(m map[string]any) { m["conductivity"] = map[string]any{"x": 1, "y": 0} },
+			"conductivity.y: must be greater than zero, got 0"},
+		{"orthotropic extra", func(m map[string]any) { m["conductivity"] = map[string]any{"x": 1, "y": 2, "z": 3} },
+			"conductivity.z: unknown key (allowed here: x, y)"},
+		{"schema", func(m map[string]any) { m["schema"] = "other/2" },
+			`schema: expected "edgewise/1", got "other/2" (not an edgewise project, or a newer version)`},
+		{"physics", func(m map[string]any) { m["physics"] = "magnetic" },
+			`physics: unknown physics "magnetic" (use heat, electrostatic, seepage or generic)`},
+		{"probe outside", func(m map[string]any) { m["probes"].([]any)[0].(map[string]any)["x"] = 0.5 },
+			"probes[0].x: 0.5 is outside the rectangle (0 .. 0.4)"},
+		{"grid fraction", func(m map[string]any) { m["grid"].(map[string]any)["nx"] = 10.5 },
+			"grid.nx: must be a whole number from 2 to 1024, got 10.5"},
+		{"empty formula", func(m map[string]any) { edge(m, "bottom")["expr"] = "  " },
+			"edges.bottom.expr: empty formula (write 0 for zero)"},
+		{"aspect", func(m map[string]any) { m["width"] = 1e4; m["height"] = 1 },
+			"width: the aspect ratio width/height = 10000 is outside 1e-3 .. 1e3"},
+		// fixed bugs
+		{"missing kind with an earlier error kept", func(m map[string]any) {
+			m["width"] = -1
+			delete(edge(m, "left"), "kind")
+		}, "width: must be greater than zero, got -1"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := Decode(mutate(t, tc.edit))
+			if err == nil {
+				t.Fatalf("no error, want %q", tc.want)
+			}
+			got := err.Error()
+			if want, prefix := strings.CutSuffix(tc.want, "..."); prefix {
+				if !strings.HasPrefix(got, want) {
+					t.Errorf("error %q, want it to start with %q", got, want)
+				}
+			} else if got != tc.want {
+				t.Errorf("error %q, want %q", got, tc.want)
+			}
+			if strings.Contains(got, "\n") {
+				t.Errorf("error has more than one line: %q", got)
+			}
+		})
+	}
+}
+
+func TestDecodeSyntax(t *testing.T) {
+	_, err := Decode([]byte("{\n  \"schema\": \"edgewise/1\",\n  \"width\" 0.4\n}"))
+	if err == nil || !strings.Contains(err.Error(), "line 3") {
+		t.Errorf("error %v, want the line of the JSON syntax error", err)
+	}
+	for _, bad := range []string{"", "[]", "null", `{"schema":"edgewise/1"} {}`} {
+		if _, err := Decode([]byte(bad)); err == nil {
+			t.Errorf("Decode(%q) gave no error", bad)
+		}
+	}
+}
+
+// Formula errors carry the field path and the column of the formula.
+func TestFormulaErrorsNameFieldAndColumn(t *testing.T) {
+	tests := []struct {
+		side, field, formula, want string
+		col                        int
+	}{
+		{"top", "ambient", "20 + tt", `edges.top.ambient: col 6: unknown name "tt"`, 6},
+		{"right", "expr", "sinn(s)", `edges.right.expr: col 1: unknown name "sinn" (did you mean sinh?)`, 1},
+		{"bottom", "expr", "(1 + s", `edges.bottom.expr: col 7: missing ")"`, 7},
+	}
+	for _, tc := range tests {
+		b := mutate(t, func(m map[string]any) { edge(m, tc.side)[tc.field] = tc.formula })
+		p, err := Decode(b)
+		if err != nil {
+			t.Fatal(err)
+		}
+		_, err = Compile(p)
+		var fe *Error
+		if !errors.As(err, &fe) {
+			t.Fatalf("%s: error %v, want *solver.Error", tc.formula, err)
+		}
+		if !strings.HasPrefix(err.Error(), tc.want) || fe.Col != tc.col {
+			t.Errorf("%s: error %q col %d, want %q col %d", tc.formula, err, fe.Col, tc.want, tc.col)
+		}
+	}
+}
+
+func TestPreviewEdge(t *testing.T) {
+	p, err := Decode([]byte(baseProject))
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, v, err := PreviewEdge(p, "right", 4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// right edge: 20 + 5 sin(pi s/H), s from 0 to H = 0.2; reference values
+	// from Go's math package through the formula itself: 20, 23.5355, 25, 23.5355, 20
+	want := []float64{20, 20 + 5*0.7071067811865476, 25, 20 + 5*0.7071067811865476, 20}
+	for i := range want {
+		if d := v[i] - want[i]; d > 1e-12 || d < -1e-12 || s[i] != 0.2*float64(i)/4 {
+			t.Errorf("sample %d: s=%g v=%g, want s=%g v=%g", i, s[i], v[i], 0.2*float64(i)/4, want[i])
+		}
+	}
+	p.Edges.Top.Ambient = "1/(s - 0.2)"
+	if _, _, err := PreviewEdge(p, "top", 4); err == nil || err.Error() != "edges.top.ambient: not a finite number at s = 0.2" {
+		t.Errorf("error %v, want the place where the ambient is not finite", err)
+	}
+}
+
+func TestDemoDecodes(t *testing.T) {
+	b, err := os.ReadFile("../site/demo.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := Decode(b)
+	if err != nil {
+		t.Fatalf("the demo project does not decode: %v", err)
+	}
+	if _, err := Compile(p); err != nil {
+		t.Fatalf("the demo project does not compile: %v", err)
+	}
+}
