@@ -568,6 +568,55 @@ func TestIncroperaPlate(t *testing.T) {
 	t.Logf("theta(1, 0.5): Richardson %.8f, series %.8f, indicator %.2g", got, series, ind)
 }
 
+// Uniform source, zero edges, through Grid.Mean of the Richardson grid
+// (aspect a/b with the shorter side b = 1 split into 24 intervals on the
+// coarse grid). Each value is checked to half a unit in the last digit the
+// source prints.
+//
+// Shah & London, Laminar Flow Forced Convection in Ducts (1978), values
+// recalled from memory (CHECKS.md): with -lap(w) = 1, f Re = Dh^2/(2 mean(w))
+// = 14.227, 15.548, 18.233 for b/a = 1, 0.5, 0.25.
+//
+// Timoshenko & Goodier, Theory of Elasticity, 3rd ed., rectangular bars,
+// table recalled from memory (CHECKS.md): with -lap(phi) = 2 and phi = 0 on
+// the edges, J = 2 mean(phi) a b = beta a b^3 with beta = 0.141, 0.229,
+// 0.281 for a/b = 1, 2, 4.
+func TestUniformSourcePublished(t *testing.T) {
+	// Half a unit in the third decimal the sources print; the Richardson
+	// error of f Re at this grid is at most ~2e-4 (against a grid twice as
+	// fine), of beta ~1e-5.
+	const tol = 5e-4
+	cases := []struct {
+		aspect float64 // a/b
+		fRe    float64
+		beta   float64
+	}{
+		{1, 14.227, 0.141},
+		{2, 15.548, 0.229},
+		{4, 18.233, 0.281},
+	}
+	for _, c := range cases {
+		a, b := c.aspect, 1.0
+		p := &problem.Problem{W: a, H: b, Kx: 1, Ky: 1, Source: 1}
+		constEdges(p, kinds{V, V, V, V}, [4]float64{}, 0)
+		nx, ny := Sizes(a, b, int(24*a))
+		g, _, err := Richardson(p, nx, ny)
+		if err != nil {
+			t.Fatal(err)
+		}
+		dh := 4 * a * b / (2 * (a + b))
+		if fRe := dh * dh / (2 * g.Mean); math.Abs(fRe-c.fRe) > tol {
+			t.Errorf("b/a = %g: f Re = %.5f, want %g", b/a, fRe, c.fRe)
+		}
+		// phi = 2 w for the source 2.
+		if beta := 2 * (2 * g.Mean) * a * b / (a * b * b * b); math.Abs(beta-c.beta) > tol {
+			t.Errorf("a/b = %g: beta = %.5f, want %g", a, beta, c.beta)
+		}
+		checkBalance(t, fmt.Sprintf("duct %g", a), g, 1e-9)
+		t.Logf("a/b = %g: f Re %.5f, beta %.5f", a, dh*dh/(2*g.Mean), 4*g.Mean/(b*b))
+	}
+}
+
 // All-flux problems: a balanced one succeeds with zero area mean, an
 // unbalanced one returns *ImbalanceError with the two totals.
 func TestAllFlux(t *testing.T) {
