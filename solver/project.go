@@ -1,13 +1,12 @@
 package solver
 
 import (
-	"bytes"
-	"encoding/json"
-	"errors"
 	"fmt"
 	"math"
 	"sort"
 	"strings"
+
+	"edgewise/solver/jsonlite"
 )
 
 // Schema is the project-file schema this package reads and writes.
@@ -40,16 +39,6 @@ type Project struct {
 // number when isotropic.
 type Conductivity struct{ X, Y float64 }
 
-// MarshalJSON writes a number when isotropic, {"x": .., "y": ..} otherwise.
-func (c Conductivity) MarshalJSON() ([]byte, error) {
-	if c.X == c.Y {
-		return json.Marshal(c.X)
-	}
-	return json.Marshal(struct {
-		X float64 `json:"x"`
-		Y float64 `json:"y"`
-	}{c.X, c.Y})
-}
 
 // Edges holds the four edge conditions.
 type Edges struct {
@@ -117,14 +106,9 @@ func Decode(data []byte) (*Project, error) {
 	if len(data) > maxFileBytes {
 		return nil, errorf("", "project file is larger than %d bytes", maxFileBytes)
 	}
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.UseNumber()
-	var v any
-	if err := dec.Decode(&v); err != nil {
-		return nil, errorf("", "not a project file: %s", jsonProblem(data, err))
-	}
-	if dec.More() {
-		return nil, errorf("", "not a project file: text after the closing }")
+	v, err := jsonlite.Parse(data)
+	if err != nil {
+		return nil, errorf("", "not a project file: %v", err)
 	}
 	d := decoder{}
 	p := d.project(v)
@@ -132,22 +116,6 @@ func Decode(data []byte) (*Project, error) {
 		return nil, d.err
 	}
 	return p, nil
-}
-
-func jsonProblem(data []byte, err error) string {
-	var se *json.SyntaxError
-	if errors.As(err, &se) {
-		line, col := 1, 1
-		for _, b := range data[:min(int(se.Offset), len(data))] {
-			if b == '\n' {
-				line, col = line+1, 1
-			} else {
-				col++
-			}
-		}
-		return fmt.Sprintf("JSON syntax error at line %d, col %d: %s", line, col, strings.TrimPrefix(se.Error(), "invalid character "))
-	}
-	return err.Error()
 }
 
 // decoder walks the generic JSON tree; the first error sticks.
@@ -188,10 +156,10 @@ func (d *decoder) object(v any, path string, required []string, optional ...stri
 
 func (d *decoder) number(v any, path string) float64 {
 	switch t := v.(type) {
-	case json.Number:
+	case jsonlite.Number:
 		f, err := t.Float64()
 		if err != nil || math.IsInf(f, 0) || math.IsNaN(f) {
-			d.fail(path, "%s is not a finite number", t)
+			d.fail(path, "%s is not a finite number", string(t))
 			return 0
 		}
 		return f
@@ -229,9 +197,9 @@ func (d *decoder) text(v any, path string) string {
 
 // formula accepts a formula as text, or a plain JSON number.
 func (d *decoder) formula(v any, path string) string {
-	if n, ok := v.(json.Number); ok {
+	if n, ok := v.(jsonlite.Number); ok {
 		d.number(n, path)
-		return n.String()
+		return string(n)
 	}
 	s := d.text(v, path)
 	if d.err == nil && strings.TrimSpace(s) == "" {
@@ -383,8 +351,8 @@ func describe(v any) string {
 		return "null"
 	case bool:
 		return fmt.Sprint(t)
-	case json.Number:
-		return "the number " + t.String()
+	case jsonlite.Number:
+		return "the number " + string(t)
 	case string:
 		return fmt.Sprintf("the text %q", t)
 	case []any:

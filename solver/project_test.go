@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"errors"
 	"os"
+	"reflect"
 	"strings"
 	"testing"
 )
@@ -52,15 +53,22 @@ func TestDecodeGood(t *testing.T) {
 		t.Errorf("decoded %+v", p)
 	}
 	// a round trip through JSON gives the same project
-	b, err := json.Marshal(p)
-	if err != nil {
-		t.Fatal(err)
-	}
+	b := p.JSON()
 	q, err := Decode(b)
 	if err != nil {
 		t.Fatalf("re-decoding %s: %v", b, err)
 	}
-	b2, _ := json.Marshal(q)
+	if !reflect.DeepEqual(p, q) {
+		t.Errorf("round trip changed the project:\n%+v\n%+v", p, q)
+	}
+	// and the text holds what the file held (encoding/json, the standard
+	// library's reader, as the reference)
+	var orig, again map[string]any
+	_ = json.Unmarshal([]byte(baseProject), &orig)
+	if err := json.Unmarshal(b, &again); err != nil || !reflect.DeepEqual(orig, again) {
+		t.Errorf("project text differs from the file:\n%s", b)
+	}
+	b2 := q.JSON()
 	if string(b) != string(b2) {
 		t.Errorf("round trip changed the project:\n%s\n%s", b, b2)
 	}
@@ -203,5 +211,36 @@ func TestDemoDecodes(t *testing.T) {
 	}
 	if _, err := Compile(p); err != nil {
 		t.Fatalf("the demo project does not compile: %v", err)
+	}
+}
+
+// Result.JSON writes the same document as encoding/json (the standard
+// library, the reference) would from the struct's field tags.
+func TestResultJSON(t *testing.T) {
+	f1, f2, cc := 12.5, -3.25e-7, 1.5e-9
+	r := Result{
+		Schema: ResultSchema,
+		Probes: []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
+		Edges:  EdgeFlows{Bottom: EdgeFlow{&f1, true}, Top: EdgeFlow{nil, false}, Left: EdgeFlow{&f2, true}, Right: EdgeFlow{&f1, true}},
+		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
+		Accuracy: Accuracy{Terms: 120, Estimate: 1e-10, Crosscheck: &cc, CrosscheckGrid: "24x12"},
+		Warnings: []string{"w\n1"}, Cautions: []string{"c1", "c2"}, Grid: GridSize{Nx: 10, Ny: 5},
+	}
+	for _, balance := range []*float64{nil, &f2} {
+		r.Balance = balance
+		want, err := json.Marshal(&r)
+		if err != nil {
+			t.Fatal(err)
+		}
+		var a, b map[string]any
+		if err := json.Unmarshal(want, &a); err != nil {
+			t.Fatal(err)
+		}
+		if err := json.Unmarshal(r.JSON(), &b); err != nil {
+			t.Fatalf("%v in %s", err, r.JSON())
+		}
+		if !reflect.DeepEqual(a, b) {
+			t.Errorf("Result.JSON differs from the struct tags:\n%s\n%s", r.JSON(), want)
+		}
 	}
 }

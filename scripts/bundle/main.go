@@ -17,7 +17,8 @@
 //   - the engine sits gzip-compressed and base64-encoded in
 //     <script type="application/octet-stream" id="ew-wasm">, which the page
 //     decodes with DecompressionStream("gzip");
-//   - the demo project sits in <script type="application/json" id="ew-demo">;
+//   - the demo project sits in <script type="application/json" id="ew-demo">,
+//     the published check cases (checks.json) in one with id="ew-checks";
 //   - the Content-Security-Policy meta tag is replaced by one that allows
 //     exactly the inline scripts and styles by their SHA-256 hashes, the
 //     worker from blob:, WebAssembly, and nothing from any address.
@@ -123,6 +124,10 @@ func Bundle(dir string) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
+	checks, err := read("checks.json")
+	if err != nil {
+		return nil, fmt.Errorf("%w (run make build first)", err)
+	}
 	var gz bytes.Buffer
 	zw, _ := gzip.NewWriterLevel(&gz, gzip.BestCompression)
 	if _, err := zw.Write(wasm); err != nil {
@@ -135,6 +140,7 @@ func Bundle(dir string) ([]byte, error) {
 	var extra strings.Builder
 	extra.WriteString(`<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+workerJS) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(demo) + "</script>\n")
+	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(checks) + "</script>\n")
 	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + base64.StdEncoding.EncodeToString(gz.Bytes()) + "</script>\n")
 	i := strings.LastIndex(html, "</body>")
 	if i < 0 {
