@@ -1,0 +1,140 @@
+package series
+
+import (
+	"math"
+	"math/cmplx"
+)
+
+// pieceKind names the analytic function f of a harmonic piece
+// u = Re(c f(zeta)), zeta = rho (z - z0), z = x + i y.
+type pieceKind int
+
+const (
+	powPiece   pieceKind = iota // zeta^n
+	logPiece                    // log zeta: the angle function at a value jump
+	zlogPiece                   // zeta log zeta: value/flux corner mismatch
+	z2logPiece                  // zeta^2 log zeta: curvature mismatch at a value/value corner
+)
+
+// piece is one harmonic function carried out of the series: smooth
+// polynomials fitted at the corners and the singular corner functions.
+// Every piece is the real part of an analytic function, so its flow through
+// a segment is the change of the harmonic conjugate Im(c f) along it and its
+// area integral follows from a second antiderivative of f.
+type piece struct {
+	kind   pieceKind
+	n      int // power for powPiece
+	z0     complex128
+	rho    complex128
+	c      complex128
+	corner int // corner index for corner pieces, -1 for smooth ones
+}
+
+func (p *piece) zeta(x, y float64) complex128 { return p.rho * complex(x-real(p.z0), y-imag(p.z0)) }
+
+// f returns f(zeta), f'(zeta), f”(zeta).
+func (p *piece) f(z complex128) (f, d1, d2 complex128) {
+	switch p.kind {
+	case powPiece:
+		n := p.n
+		switch n {
+		case 0:
+			return 1, 0, 0
+		case 1:
+			return z, 1, 0
+		}
+		zn2 := cmplx.Pow(z, complex(float64(n-2), 0))
+		if n == 2 {
+			zn2 = 1
+		} else if n == 3 {
+			zn2 = z
+		} else if n == 4 {
+			zn2 = z * z
+		}
+		return zn2 * z * z, complex(float64(n), 0) * zn2 * z, complex(float64(n*(n-1)), 0) * zn2
+	case logPiece:
+		l := cmplx.Log(z)
+		return l, 1 / z, -1 / (z * z)
+	case zlogPiece:
+		if z == 0 {
+			return 0, complex(math.Inf(-1), 0), complex(math.Inf(1), 0)
+		}
+		l := cmplx.Log(z)
+		return z * l, l + 1, 1 / z
+	case z2logPiece:
+		if z == 0 {
+			return 0, 0, complex(math.Inf(-1), 0)
+		}
+		l := cmplx.Log(z)
+		return z * z * l, 2*z*l + z, 2*l + 3
+	}
+	panic("series: bad piece kind")
+}
+
+// f2 returns a second antiderivative of f, zero at zeta = 0 for the
+// logarithmic kinds.
+func (p *piece) f2(z complex128) complex128 {
+	switch p.kind {
+	case powPiece:
+		n := complex(float64(p.n), 0)
+		return cmplx.Pow(z, n+2) / ((n + 1) * (n + 2))
+	}
+	if z == 0 {
+		return 0
+	}
+	l := cmplx.Log(z)
+	switch p.kind {
+	case logPiece:
+		return z*z*l/2 - 3*z*z/4
+	case zlogPiece:
+		z3 := z * z * z
+		return z3*l/6 - 5*z3/36
+	case z2logPiece:
+		z4 := z * z * z * z
+		return z4*l/12 - 7*z4/144
+	}
+	panic("series: bad piece kind")
+}
+
+// value returns u, u_x, u_y at (x, y).
+func (p *piece) value(x, y float64) (u, ux, uy float64) {
+	f, d1, _ := p.f(p.zeta(x, y))
+	g := p.c * d1 * p.rho
+	return real(p.c * f), real(g), -imag(g)
+}
+
+// second returns the second derivative along the unit direction e.
+func (p *piece) second(x, y float64, e complex128) float64 {
+	_, _, d2 := p.f(p.zeta(x, y))
+	r := p.rho * e
+	return real(p.c * d2 * r * r)
+}
+
+// mixed returns the second derivative along the unit directions ea, eb.
+func (p *piece) mixed(x, y float64, ea, eb complex128) float64 {
+	_, _, d2 := p.f(p.zeta(x, y))
+	return real(p.c * d2 * p.rho * ea * p.rho * eb)
+}
+
+// conj returns the harmonic conjugate Im(c f) at (x, y); it is -Inf/+Inf
+// at the corner of a log piece.
+func (p *piece) conj(x, y float64) float64 {
+	z := p.zeta(x, y)
+	if z == 0 {
+		if p.kind == logPiece {
+			return math.Inf(1)
+		}
+		if p.kind != powPiece {
+			return 0
+		}
+	}
+	f, _, _ := p.f(z)
+	return imag(p.c * f)
+}
+
+// area returns the integral of the piece over [0, w] x [0, h].
+func (p *piece) area(w, h float64) float64 {
+	at := func(x, y float64) complex128 { return p.f2(p.zeta(x, y)) }
+	s := at(w, h) - at(0, h) - at(w, 0) + at(0, 0)
+	return real(p.c * s / (1i * p.rho * p.rho))
+}

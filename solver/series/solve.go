@@ -1,0 +1,603 @@
+package series
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/integrate/quad"
+	"gonum.org/v1/gonum/mat"
+
+	"edgewise/solver/problem"
+)
+
+// Options controls the series.
+type Options struct {
+	// Tol is the target for the maximum truncation error of u, relative
+	// to the data scale (see Solution.Scale); default 1e-9.
+	Tol float64
+	// MaxTerms caps the terms of each sub-problem; default 4096.
+	MaxTerms int
+}
+
+// ImbalanceError reports an all-flux problem whose inflow and source do
+// not add up to zero, so that it has no steady state.
+type ImbalanceError struct {
+	Inflow, SourceTotal float64
+}
+
+func (e *ImbalanceError) Error() string {
+	return fmt.Sprintf("series: no steady state: every edge holds a flux and the inflow %.6g plus the source total %.6g is %.6g, not zero",
+		e.Inflow, e.SourceTotal, e.Inflow+e.SourceTotal)
+}
+
+// quadratic is A x^2 + B x + C y^2 + D y + E in mapped coordinates.
+type quadratic struct{ A, B, C, D, E float64 }
+
+func (q *quadratic) value(x, y float64) (u, ux, uy float64) {
+	return q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E, 2*q.A*x + q.B, 2*q.C*y + q.D
+}
+
+// Solution is a solved problem. It is safe for concurrent use except Grid,
+// which reuses internal buffers.
+type Solution struct {
+	m        *model
+	quad     quadratic
+	pieces   []piece
+	subs     [4]*sub
+	scale    float64
+	tolAbs   float64
+	est      float64
+	jump     [4]bool
+	flows    [4]float64
+	finite   [4]bool
+	mean     float64
+	warnings []string
+	gw       gridWork
+}
+
+// Solve solves p by superposition of separated series. Bad input returns
+// an error: problem validation errors, *problem.NonFiniteError for edge
+// data that is not finite (returned unchanged), *ImbalanceError for an
+// all-flux problem without a steady state.
+func Solve(p *problem.Problem, opt Options) (*Solution, error) {
+	if err := p.Validate(); err != nil {
+		return nil, err
+	}
+	if opt.Tol <= 0 {
+		opt.Tol = 1e-9
+	}
+	if opt.MaxTerms <= 0 {
+		opt.MaxTerms = 4096
+	}
+	if opt.MaxTerms < 16 {
+		opt.MaxTerms = 16
+	}
+	m := newModel(p)
+	s := &Solution{m: m}
+	s.scale = m.dataScale()
+	if m.err != nil {
+		return nil, m.err
+	}
+	s.tolAbs = opt.Tol * s.scale
+	var fluxInt [4]float64
+	for _, e := range problem.Sides {
+		if m.kinds[e] == problem.Flux {
+			fluxInt[e] = m.integral(e)
+		}
+	}
+	if m.err != nil {
+		return nil, m.err
+	}
+	if m.allFlx {
+		in, mag := 0.0, 0.0
+		for _, e := range problem.Sides {
+			in += m.k * fluxInt[e]
+			mag += math.Abs(m.k * fluxInt[e])
+		}
+		src := p.Source * p.W * p.H
+		if math.Abs(in+src) > 1e-9*math.Max(mag+math.Abs(src), 1e-300) {
+			return nil, &ImbalanceError{Inflow: in, SourceTotal: src}
+		}
+	} else if m.lap != 0 {
+		if m.H <= m.W {
+			s.quad = quadratic{C: m.lap / 2, D: -m.lap * m.H / 2}
+		} else {
+			s.quad = quadratic{A: m.lap / 2, B: -m.lap * m.W / 2}
+		}
+	}
+	s.cornerPieces()
+	if m.err != nil {
+		return nil, m.err
+	}
+	if err := s.fitSmooth(); err != nil {
+		return nil, err
+	}
+	if m.err != nil {
+		return nil, m.err
+	}
+	if m.allFlx {
+		s.fluxQuadratic(fluxInt)
+	}
+	for _, e := range problem.Sides {
+		e := e
+		r := func(t float64) float64 { return s.residual(e, t) }
+		s.subs[e] = newSub(m, e, r, s.tolAbs/4, opt.MaxTerms)
+		if m.err != nil {
+			return nil, m.err
+		}
+		s.est += s.subs[e].tail
+		if s.subs[e].capped {
+			s.warnings = append(s.warnings, fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, s.subs[e].n, s.subs[e].tail))
+		}
+	}
+	s.est += 1e-14 * s.scale
+	s.mean = s.area() / (m.W * m.H)
+	if m.allFlx {
+		s.quad.E -= s.mean
+		s.mean = 0
+	}
+	for _, e := range problem.Sides {
+		if m.kinds[e] == problem.Flux {
+			s.flows[e], s.finite[e] = m.k*fluxInt[e], true
+		} else {
+			s.flows[e], s.finite[e] = s.flowOf(e)
+		}
+	}
+	return s, nil
+}
+
+// fluxQuadratic sets the particular solution of an all-flux problem: a
+// quadratic A x^2 + B x + C y^2 + D y that takes, through each edge, the net
+// flow of that edge's data less what the harmonic pieces carry, so that no
+// residual has a constant mode (the balance makes its Laplacian the
+// source).
+func (s *Solution) fluxQuadratic(fluxInt [4]float64) {
+	m := s.m
+	var phi [4]float64
+	for _, e := range problem.Sides {
+		var x0, y0, x1, y1 float64
+		c0, c1 := cornerOf(e, 0), cornerOf(e, 1)
+		if e == problem.Top || e == problem.Left {
+			c0, c1 = c1, c0
+		}
+		x0, y0 = m.cornerPoint(c0)
+		x1, y1 = m.cornerPoint(c1)
+		phi[e] = fluxInt[e]
+		for i := range s.pieces {
+			phi[e] -= s.pieces[i].conj(x1, y1) - s.pieces[i].conj(x0, y0)
+		}
+	}
+	s.quad = quadratic{
+		B: -phi[problem.Left] / m.H,
+		D: -phi[problem.Bottom] / m.W,
+	}
+	s.quad.C = (phi[problem.Top]/m.W - s.quad.D) / (2 * m.H)
+	s.quad.A = (phi[problem.Right]/m.H - s.quad.B) / (2 * m.W)
+}
+
+// dataScale returns the scale Options.Tol is relative to: the largest of
+// the range of the prescribed values and ambients, the largest |flux|
+// times the longer side over k, and |Source| times the shorter side
+// squared over 8k (all in mapped units); 1 if all are zero.
+func (m *model) dataScale() float64 {
+	lo, hi := math.Inf(1), math.Inf(-1)
+	fl := 0.0
+	for _, e := range problem.Sides {
+		L := m.length(e)
+		for i := 0; i <= 32; i++ {
+			v := m.data(e, L*float64(i)/32)
+			switch m.kinds[e] {
+			case problem.Value:
+				lo, hi = math.Min(lo, v), math.Max(hi, v)
+			case problem.Convection:
+				v /= m.beta[e]
+				lo, hi = math.Min(lo, v), math.Max(hi, v)
+			default:
+				fl = math.Max(fl, math.Abs(v))
+			}
+		}
+	}
+	sc := fl * math.Max(m.W, m.H)
+	if hi >= lo {
+		sc = math.Max(sc, hi-lo)
+		if sc == 0 {
+			sc = math.Max(math.Abs(hi), math.Abs(lo))
+		}
+	}
+	sc = math.Max(sc, math.Abs(m.lap)*math.Pow(math.Min(m.W, m.H), 2)/8)
+	if sc == 0 || math.IsNaN(sc) {
+		sc = 1
+	}
+	return sc
+}
+
+// integral returns the integral of the normalised data of edge e along it.
+func (m *model) integral(e problem.Side) float64 {
+	const n = 512
+	xs, ws := make([]float64, n), make([]float64, n)
+	quad.Legendre{}.FixedLocations(xs, ws, 0, m.length(e))
+	sum := 0.0
+	for i, x := range xs {
+		sum += ws[i] * m.data(e, x)
+	}
+	return sum
+}
+
+// known returns u, ux, uy of the carried-out part (particular solution and
+// harmonic pieces) at mapped (x, y), skipping pieces at corner skip.
+func (s *Solution) known(x, y float64, skip int) (u, ux, uy float64) {
+	u, ux, uy = s.quad.value(x, y)
+	for i := range s.pieces {
+		pc := &s.pieces[i]
+		if skip >= 0 && pc.corner == skip {
+			continue
+		}
+		a, b, c := pc.value(x, y)
+		u, ux, uy = u+a, ux+b, uy+c
+	}
+	return
+}
+
+// op applies the condition operator of edge e to (u, ux, uy).
+func (m *model) op(e problem.Side, u, ux, uy float64) float64 {
+	switch m.kinds[e] {
+	case problem.Value:
+		return u
+	}
+	n := normal[e]
+	d := ux*real(n) + uy*imag(n)
+	if m.kinds[e] == problem.Convection {
+		d += m.beta[e] * u
+	}
+	return d
+}
+
+// residual returns the data left for the series on edge e at s.
+func (s *Solution) residual(e problem.Side, t float64) float64 {
+	x, y := s.m.point(e, t)
+	u, ux, uy := s.known(x, y, -1)
+	return s.m.data(e, t) - s.m.op(e, u, ux, uy)
+}
+
+// derivs returns the normalised data of edge e at the end touching corner
+// c, and its first and second derivatives along the edge away from it
+// (one-sided fourth-order differences).
+func (m *model) derivs(e problem.Side, c int) (f, d1, d2 float64) {
+	end := edgeEnd(e, c)
+	L := m.length(e)
+	h := L / 256
+	var v [6]float64
+	for j := range v {
+		sj := h * float64(j)
+		if end == 1 {
+			sj = L - sj
+		}
+		v[j] = m.data(e, sj)
+	}
+	d1 = (-25*v[0] + 48*v[1] - 36*v[2] + 16*v[3] - 3*v[4]) / (12 * h)
+	d2 = (45*v[0] - 154*v[1] + 214*v[2] - 156*v[3] + 61*v[4] - 10*v[5]) / (12 * h * h)
+	return v[0], d1, d2
+}
+
+// cornerPieces adds the singular corner functions whose amplitudes follow
+// from the local data alone (smooth parts cancel from them).
+func (s *Solution) cornerPieces() {
+	m := s.m
+	for c := 0; c < 4; c++ {
+		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
+		k1, k2 := m.kinds[e1], m.kinds[e2]
+		x0, y0 := m.cornerPoint(c)
+		z0 := complex(x0, y0)
+		rho := cornerRho[c]
+		add := func(kind pieceKind, n int, coef complex128) {
+			s.pieces = append(s.pieces, piece{kind: kind, n: n, z0: z0, rho: rho, c: coef, corner: c})
+		}
+		switch {
+		case k1 == problem.Value && k2 == problem.Value:
+			f1, _, s1 := m.derivs(e1, c)
+			f2, _, s2 := m.derivs(e2, c)
+			jmp := f1 - f2
+			if math.Abs(jmp) > 1e-14*s.scale {
+				// J (1 - 2 theta / pi): J on the first edge, 0 on the second.
+				add(powPiece, 0, complex(jmp, 0))
+				add(logPiece, 0, complex(0, 2*jmp/math.Pi))
+				s.jump[c] = true
+				p := m.p
+				s.warnings = append(s.warnings,
+					fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
+					fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c]))
+				_ = p
+			}
+			b := -(s1 + s2 - m.lap) / math.Pi
+			if math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
+				add(z2logPiece, 0, complex(0, -b)) // b Im(zeta^2 log zeta)
+			}
+		case k1 != problem.Value && k2 != problem.Value:
+			// Each residual must meet the other edge's homogeneous
+			// condition along itself; the two demands differ by m unless
+			// a kappa Re(zeta^2 log zeta) piece takes the difference.
+			f1, d1, _ := m.derivs(e1, c)
+			f2, d2, _ := m.derivs(e2, c)
+			mis := (-d1 + m.beta[e2]*f1) - (-d2 + m.beta[e1]*f2)
+			if math.Abs(mis)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
+				add(z2logPiece, 0, complex(mis/math.Pi, 0))
+			}
+		case k1 == problem.Value || k2 == problem.Value:
+			ev, ef := e1, e2
+			if k2 == problem.Value {
+				ev, ef = e2, e1
+			}
+			fv, dv, _ := m.derivs(ev, c)
+			ff, _, _ := m.derivs(ef, c)
+			beta := m.beta[ef]
+			a := ff - (-dv + beta*fv)
+			if math.Abs(a)*math.Max(m.W, m.H) <= 1e-14*s.scale {
+				continue
+			}
+			if ev == e1 {
+				add(zlogPiece, 0, complex(0, 2*a/math.Pi))
+			} else {
+				add(zlogPiece, 0, complex(-2*a/math.Pi, 0))
+				add(powPiece, 1, complex(0, a))
+			}
+		}
+	}
+}
+
+// fitSmooth fits harmonic polynomials of degree <= 4 (minimum norm) so
+// that, with the singular pieces, the residual data meet the corner
+// conditions that make the series coefficients fall fast: at a value/value
+// corner the residual and its second derivative along both edges vanish;
+// at a value/flux or value/convection corner the residual of the value
+// edge meets the other edge's homogeneous condition and the other edge's
+// residual vanishes.
+func (s *Solution) fitSmooth() error {
+	m := s.m
+	S := math.Max(m.W, m.H) / 2
+	z0 := complex(m.W/2, m.H/2)
+	var cols []piece
+	cols = append(cols, piece{kind: powPiece, n: 0, z0: z0, rho: complex(1/S, 0), c: 1, corner: -1})
+	for n := 1; n <= 4; n++ {
+		cols = append(cols,
+			piece{kind: powPiece, n: n, z0: z0, rho: complex(1/S, 0), c: 1, corner: -1},
+			piece{kind: powPiece, n: n, z0: z0, rho: complex(1/S, 0), c: -1i, corner: -1})
+	}
+	var rows [][]float64
+	var rhs []float64
+	for c := 0; c < 4; c++ {
+		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
+		k1, k2 := m.kinds[e1], m.kinds[e2]
+		x, y := m.cornerPoint(c)
+		ku, kx, ky := s.known(x, y, c)
+		switch {
+		case k1 == problem.Value && k2 == problem.Value:
+			f1, _, s1 := m.derivs(e1, c)
+			dir := dirAway(e1, edgeEnd(e1, c))
+			own := 0.0
+			if s.jump[c] {
+				own = real(s.pieces[s.cornerIndex(c, powPiece)].c)
+			}
+			row := make([]float64, len(cols))
+			row2 := make([]float64, len(cols))
+			for j := range cols {
+				row[j], _, _ = cols[j].value(x, y)
+				row2[j] = cols[j].second(x, y, dir)
+			}
+			rows = append(rows, row, row2)
+			sec := 2 * s.quad.A
+			if imag(dir) != 0 {
+				sec = 2 * s.quad.C
+			}
+			for i := range s.pieces {
+				if s.pieces[i].corner != c {
+					sec += s.pieces[i].second(x, y, dir)
+				}
+			}
+			rhs = append(rhs, f1-own-ku, s1-sec)
+		case k1 != problem.Value && k2 != problem.Value:
+			f1, d1, _ := m.derivs(e1, c)
+			xi, eta := dirAway(e1, edgeEnd(e1, c)), dirAway(e2, edgeEnd(e2, c))
+			b1, b2 := m.beta[e1], m.beta[e2]
+			lop := func(u, ux, uy, uxe float64) float64 {
+				g := complex(ux, uy)
+				dxi := real(g)*real(xi) + imag(g)*imag(xi)
+				deta := real(g)*real(eta) + imag(g)*imag(eta)
+				return uxe - b1*dxi - b2*deta + b1*b2*u
+			}
+			row := make([]float64, len(cols))
+			for j := range cols {
+				u, ux, uy := cols[j].value(x, y)
+				row[j] = lop(u, ux, uy, cols[j].mixed(x, y, xi, eta))
+			}
+			mx := 2*s.quad.A*real(xi)*real(eta) + 2*s.quad.C*imag(xi)*imag(eta)
+			for i := range s.pieces {
+				if s.pieces[i].corner != c {
+					mx += s.pieces[i].mixed(x, y, xi, eta)
+				}
+			}
+			rows = append(rows, row)
+			rhs = append(rhs, -d1+b2*f1-lop(ku, kx, ky, mx))
+		case k1 == problem.Value || k2 == problem.Value:
+			ev, ef := e1, e2
+			if k2 == problem.Value {
+				ev, ef = e2, e1
+			}
+			fv, dv, _ := m.derivs(ev, c)
+			beta := m.beta[ef]
+			row := make([]float64, len(cols))
+			for j := range cols {
+				u, ux, uy := cols[j].value(x, y)
+				row[j] = m.op(ef, u, ux, uy)
+			}
+			rows = append(rows, row)
+			rhs = append(rhs, -dv+beta*fv-m.op(ef, ku, kx, ky))
+		}
+	}
+	if m.err != nil || len(rows) == 0 {
+		return nil
+	}
+	// Equilibrate rows, then solve for the minimum-norm coefficients.
+	A := mat.NewDense(len(rows), len(cols), nil)
+	b := mat.NewVecDense(len(rows), nil)
+	for i, r := range rows {
+		nrm := 0.0
+		for _, v := range r {
+			nrm += v * v
+		}
+		nrm = math.Sqrt(nrm)
+		if nrm == 0 {
+			nrm = 1
+		}
+		for j, v := range r {
+			A.Set(i, j, v/nrm)
+		}
+		b.SetVec(i, rhs[i]/nrm)
+	}
+	var svd mat.SVD
+	if !svd.Factorize(A, mat.SVDThin) {
+		return errors.New("series: corner fit failed")
+	}
+	sv := svd.Values(nil)
+	var u, v mat.Dense
+	svd.UTo(&u)
+	svd.VTo(&v)
+	coef := make([]float64, len(cols))
+	for k, sig := range sv {
+		if sig <= 1e-12*sv[0] {
+			continue
+		}
+		dot := 0.0
+		for i := 0; i < len(rows); i++ {
+			dot += u.At(i, k) * b.AtVec(i)
+		}
+		for j := range coef {
+			coef[j] += v.At(j, k) * dot / sig
+		}
+	}
+	for j := range cols {
+		if coef[j] != 0 {
+			pc := cols[j]
+			pc.c *= complex(coef[j], 0)
+			s.pieces = append(s.pieces, pc)
+		}
+	}
+	return nil
+}
+
+func (s *Solution) cornerIndex(c int, kind pieceKind) int {
+	for i := range s.pieces {
+		if s.pieces[i].corner == c && s.pieces[i].kind == kind {
+			return i
+		}
+	}
+	return -1
+}
+
+// area returns the integral of u over the mapped rectangle.
+func (s *Solution) area() float64 {
+	m := s.m
+	W, H := m.W, m.H
+	q := s.quad
+	sum := q.A*W*W*W*H/3 + q.B*W*W*H/2 + q.C*W*H*H*H/3 + q.D*W*H*H/2 + q.E*W*H
+	for i := range s.pieces {
+		sum += s.pieces[i].area(W, H)
+	}
+	for _, sp := range s.subs {
+		for i := 0; i < sp.n; i++ {
+			iy, _, _ := sp.intY(i)
+			sum += sp.b.Int[i] * iy
+		}
+	}
+	return sum
+}
+
+// flowOf returns the entering flow through edge e computed from the
+// solution, and whether it is finite.
+func (s *Solution) flowOf(e problem.Side) (float64, bool) {
+	m := s.m
+	// Counter-clockwise end points.
+	var x0, y0, x1, y1 float64
+	c0, c1 := cornerOf(e, 0), cornerOf(e, 1)
+	if e == problem.Top || e == problem.Left {
+		c0, c1 = c1, c0
+	}
+	x0, y0 = m.cornerPoint(c0)
+	x1, y1 = m.cornerPoint(c1)
+	if s.jump[c0] || s.jump[c1] {
+		return math.Inf(1), false
+	}
+	L := m.length(e)
+	_, qx, qy := s.quad.value((x0+x1)/2, (y0+y1)/2)
+	flow := L * (qx*real(normal[e]) + qy*imag(normal[e]))
+	for i := range s.pieces {
+		flow += s.pieces[i].conj(x1, y1) - s.pieces[i].conj(x0, y0)
+	}
+	for _, sp := range s.subs {
+		_, _, opp := neighbours(sp.side)
+		na, nb, _ := neighbours(sp.side)
+		for i := 0; i < sp.n; i++ {
+			iy, d0, dD := sp.intY(i)
+			switch e {
+			case sp.side:
+				flow -= sp.b.Int[i] * d0
+			case opp:
+				flow += sp.b.Int[i] * dD
+			case na:
+				_, dx := sp.b.X(i, 0)
+				flow -= dx * iy
+			case nb:
+				_, dx := sp.b.X(i, sp.L)
+				flow += dx * iy
+			}
+		}
+	}
+	return m.k * flow, true
+}
+
+// At returns the field and its gradient at (x, y) in the original
+// coordinates (inside or on the boundary). At a corner where the prescribed
+// value jumps, u is the mean of the two values and the gradient is NaN.
+func (s *Solution) At(x, y float64) (u, ux, uy float64) {
+	m := s.m
+	yp := y * m.a
+	u, ux, uy = s.known(x, yp, -1)
+	for _, sp := range s.subs {
+		ls, lt := sp.local(x, yp, m.W, m.H)
+		a, bs, bt := sp.at(ls, lt)
+		gx, gy := sp.global(bs, bt)
+		u, ux, uy = u+a, ux+gx, uy+gy
+	}
+	return u, ux, uy * m.a
+}
+
+// Flow returns the flow per unit depth entering through edge e, and false
+// if it is infinite (a jump of prescribed value at one of its corners).
+// Flux edges report the integral of their data; the others are computed
+// from the solution.
+func (s *Solution) Flow(e problem.Side) (flow float64, finite bool) {
+	return s.flows[e], s.finite[e]
+}
+
+// Mean returns the area mean of u. For an all-flux problem the free
+// constant is fixed so that this mean is zero.
+func (s *Solution) Mean() float64 { return s.mean }
+
+// Terms returns the largest number of terms used by a sub-problem.
+func (s *Solution) Terms() int {
+	n := 0
+	for _, sp := range s.subs {
+		n = max(n, sp.n)
+	}
+	return n
+}
+
+// ErrorEstimate returns the estimated maximum error of u away from
+// singular corners: the sum of the estimated series tails.
+func (s *Solution) ErrorEstimate() float64 { return s.est }
+
+// Scale returns the data scale Options.Tol is relative to.
+func (s *Solution) Scale() float64 { return s.scale }
+
+// Warnings returns notes about the solution for the user.
+func (s *Solution) Warnings() []string { return append([]string(nil), s.warnings...) }

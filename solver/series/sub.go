@@ -1,0 +1,349 @@
+package series
+
+import (
+	"math"
+
+	"gonum.org/v1/gonum/integrate/quad"
+
+	"edgewise/solver/problem"
+	"edgewise/solver/series/basis"
+)
+
+// sub is the sub-problem that carries the residual data of one edge, the
+// other three edges homogeneous of their own kind. In local coordinates s
+// (along the loaded edge) and t (distance from it into the region, 0..D):
+//
+//	u = sum_n X_n(s) [A_n exp(-lambda_n t) + B_n exp(-lambda_n (2D - t))]
+//
+// which is the overflow-free form of c_n Z_n(D - t) / N_n with
+// Z_n(tau) = cos(theta) cosh(lambda tau) + sin(theta) sinh(lambda tau)
+// meeting the opposite edge's homogeneous condition and N_n the loaded
+// edge's condition operator applied to Z_n. A zero eigenvalue (flux
+// neighbours on both ends) has u = X_0 (A_0 + B_0 t).
+type sub struct {
+	side    problem.Side
+	L, D    float64
+	b       *basis.Basis
+	n       int
+	zero    bool // term 0 has lambda = 0
+	A, B    []float64
+	e1      []float64 // exp(-lambda D)
+	tailMax []float64 // max over m >= n of |A_m| + |B_m|
+	tail    float64   // estimated truncation error of u (max over the region)
+	capped  bool      // stopped at MaxTerms before meeting the tolerance
+	sine    bool      // value neighbours on both ends: X_n = sin(n pi s / L)
+}
+
+func biot(m *model, e problem.Side, L float64) float64 {
+	switch m.kinds[e] {
+	case problem.Value:
+		return math.Inf(1)
+	case problem.Flux:
+		return 0
+	}
+	return m.beta[e] * L
+}
+
+// newSub builds the sub-problem of edge e for the residual data r, adding
+// terms until the estimated tail is below tol or maxTerms is reached.
+func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, maxTerms int) *sub {
+	na, nb, opp := neighbours(e)
+	sp := &sub{side: e, L: m.length(e), D: m.length(na)}
+	sp.sine = m.kinds[na] == problem.Value && m.kinds[nb] == problem.Value
+	sp.b = basis.New(sp.L, biot(m, na, sp.L), biot(m, nb, sp.L), 16)
+	var c []float64
+	for n := 16; ; n *= 2 {
+		if n > maxTerms {
+			n = maxTerms
+		}
+		sp.b.Grow(n)
+		c = project(sp.b, r, n, c)
+		sp.setTerms(m, e, opp, c, n)
+		sp.tail = sp.tailEstimate(n)
+		if sp.tail <= tol || n >= maxTerms {
+			sp.capped = sp.tail > tol
+			break
+		}
+	}
+	sp.trim(tol)
+	return sp
+}
+
+// amp returns |u-coefficient| at t = 0 for the first n terms.
+func (sp *sub) amp(n int) []float64 {
+	a := make([]float64, n)
+	for i := range a {
+		a[i] = math.Abs(sp.A[i]) + math.Abs(sp.B[i])*sp.e1[i]*sp.e1[i]
+		if sp.zero && i == 0 {
+			a[i] = math.Abs(sp.A[0])
+		}
+	}
+	return a
+}
+
+// trim drops trailing terms whose total is negligible against tol.
+func (sp *sub) trim(tol float64) {
+	a := sp.amp(sp.n)
+	sum := 0.0
+	n := sp.n
+	for n > 1 && sum+a[n-1] < 1e-3*tol {
+		sum += a[n-1]
+		n--
+	}
+	sp.n = n
+	sp.tailMax = make([]float64, n+1)
+	for i := n - 1; i >= 0; i-- {
+		sp.tailMax[i] = math.Max(sp.tailMax[i+1], math.Abs(sp.A[i])+math.Abs(sp.B[i]))
+	}
+}
+
+// setTerms folds the data coefficients c into A_n, B_n.
+func (sp *sub) setTerms(m *model, e, opp problem.Side, c []float64, n int) {
+	sp.n = n
+	sp.A = resize(sp.A, n)
+	sp.B = resize(sp.B, n)
+	sp.e1 = resize(sp.e1, n)
+	sp.zero = false
+	beta, betaO := m.beta[e], m.beta[opp]
+	for i := 0; i < n; i++ {
+		lam := sp.b.Lambda[i]
+		if lam == 0 {
+			sp.zero = true
+			z0, z1 := 1.0, betaO
+			if m.kinds[opp] == problem.Value {
+				z0, z1 = 0, 1
+			}
+			var N float64
+			switch m.kinds[e] {
+			case problem.Value:
+				N = z0 + z1*sp.D
+			case problem.Flux:
+				N = z1
+			default:
+				N = z1 + beta*(z0+z1*sp.D)
+			}
+			sp.e1[i] = 1
+			if N == 0 { // all-flux constant mode: fixed later by the mean
+				sp.A[i], sp.B[i] = 0, 0
+				continue
+			}
+			sp.A[i] = c[i] * (z0 + z1*sp.D) / N
+			sp.B[i] = -c[i] * z1 / N
+			continue
+		}
+		var cs, sn float64
+		switch m.kinds[opp] {
+		case problem.Value:
+			cs, sn = 0, 1
+		case problem.Flux:
+			cs, sn = 1, 0
+		default:
+			th := math.Atan2(betaO, lam)
+			sn, cs = math.Sincos(th)
+		}
+		e1 := math.Exp(-lam * sp.D)
+		om := -math.Expm1(-2 * lam * sp.D) // 1 - exp(-2 lambda D)
+		op := 1 + e1*e1
+		val := cs*op + sn*om // (c+s) + (c-s) e2
+		der := lam * (cs*om + sn*op)
+		var N float64
+		switch m.kinds[e] {
+		case problem.Value:
+			N = val
+		case problem.Flux:
+			N = der
+		default:
+			N = der + beta*val
+		}
+		sp.e1[i] = e1
+		sp.A[i] = c[i] * (cs + sn) / N
+		sp.B[i] = c[i] * (cs - sn) / N
+	}
+}
+
+func resize(s []float64, n int) []float64 {
+	if cap(s) >= n {
+		return s[:n]
+	}
+	return make([]float64, n)
+}
+
+// project returns the first n generalised Fourier coefficients of r in
+// basis b by Gauss-Legendre quadrature with n+32 nodes.
+func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64) []float64 {
+	q := n + 32
+	xs := make([]float64, q)
+	ws := make([]float64, q)
+	quad.Legendre{}.FixedLocations(xs, ws, 0, b.L)
+	dst = resize(dst, n)
+	for i := range dst {
+		dst[i] = 0
+	}
+	for j, s := range xs {
+		wr := ws[j] * r(s)
+		if wr == 0 {
+			continue
+		}
+		if b.Uniform {
+			// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
+			sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
+			ds, dc := math.Sincos(math.Pi * s / b.L)
+			for i := 0; i < n; i++ {
+				dst[i] += wr * sn
+				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+			}
+			continue
+		}
+		for i := 0; i < n; i++ {
+			dst[i] += wr * math.Sin(b.Lambda[i]*s+b.Phi[i])
+		}
+	}
+	for i := range dst {
+		dst[i] /= b.Norm[i]
+	}
+	return dst
+}
+
+// tailEstimate estimates the largest error of u left by truncating after
+// n terms. The terms n/2..n-1 are summed at the loaded edge (t = 0, where
+// every term is largest) on 129 Chebyshev points; with the envelope of the
+// u-coefficients falling like n^-p over the last two octaves, the tail
+// beyond n is that difference times r/(1-r), r = 2^(1-p), and a safety
+// factor of 2 is applied. A pure 1/n^p bound (sum of |a_n|) is used when n
+// is small.
+func (sp *sub) tailEstimate(n int) float64 {
+	a := sp.amp(n)
+	if n < 16 {
+		s := 0.0
+		for _, v := range a {
+			s += v
+		}
+		return s
+	}
+	env := func(lo, hi int) float64 {
+		m := 0.0
+		for i := lo; i < hi; i++ {
+			m = math.Max(m, a[i])
+		}
+		return m
+	}
+	e2 := env(n/2, n)
+	if e2 == 0 {
+		return 0
+	}
+	e1 := env(n/4, n/2)
+	p := 8.0
+	if e1 > 0 {
+		p = math.Log2(e1 / e2)
+	}
+	p = math.Max(1.5, math.Min(p, 8))
+	r := math.Pow(2, 1-p)
+	diff := 0.0
+	const np = 128
+	for j := 0; j <= np; j++ {
+		s := sp.L * (1 - math.Cos(math.Pi*float64(j)/np)) / 2
+		sum := 0.0
+		for i := n / 2; i < n; i++ {
+			y0 := sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]
+			x, _ := sp.b.X(i, s)
+			sum += y0 * x
+		}
+		diff = math.Max(diff, math.Abs(sum))
+	}
+	// The sampled maximum may miss a peak between points: never report less
+	// than the largest single dropped-term amplitude.
+	diff = math.Max(diff, e2)
+	return 2 * diff * r / (1 - r)
+}
+
+// at returns u, du/ds, du/dt at local (s, t).
+func (sp *sub) at(s, t float64) (u, us, ut float64) {
+	if t < 0 {
+		t = 0
+	}
+	cut := sp.rowTerms(t, 0)
+	for i := 0; i < cut; i++ {
+		x, dx := sp.b.X(i, s)
+		if sp.zero && i == 0 {
+			y := sp.A[0] + sp.B[0]*t
+			u += x * y
+			ut += x * sp.B[0]
+			continue
+		}
+		lam := sp.b.Lambda[i]
+		ea := math.Exp(-lam * t)
+		eb := math.Exp(-lam * (2*sp.D - t))
+		y := sp.A[i]*ea + sp.B[i]*eb
+		u += x * y
+		us += dx * y
+		ut += x * lam * (sp.B[i]*eb - sp.A[i]*ea)
+	}
+	return u, us, ut
+}
+
+// rowTerms returns how many terms are needed at distance t from the loaded
+// edge for the dropped ones to stay below cut (cut = 0: a tiny floor).
+func (sp *sub) rowTerms(t, cut float64) int {
+	n := sp.n
+	gap := 2 * t / sp.L
+	if gap < 1e-6 || n == 0 {
+		return n
+	}
+	if cut == 0 {
+		cut = 1e-17 * (sp.tailMax[0] + 1e-300)
+	}
+	geo := 1 / -math.Expm1(-gap)
+	ok := func(i int) bool {
+		return sp.tailMax[i]*math.Exp(-sp.b.Lambda[i]*t)*geo < cut
+	}
+	lo, hi := 0, n // find the first i with ok(i)
+	for lo < hi {
+		mid := (lo + hi) / 2
+		if ok(mid) {
+			hi = mid
+		} else {
+			lo = mid + 1
+		}
+	}
+	return lo
+}
+
+// local maps mapped (x, y) to the sub-problem's (s, t).
+func (sp *sub) local(x, y, w, h float64) (s, t float64) {
+	switch sp.side {
+	case problem.Bottom:
+		return x, y
+	case problem.Top:
+		return x, h - y
+	case problem.Left:
+		return y, x
+	}
+	return y, w - x
+}
+
+// global maps (du/ds, du/dt) to (du/dx, du/dy).
+func (sp *sub) global(us, ut float64) (ux, uy float64) {
+	switch sp.side {
+	case problem.Bottom:
+		return us, ut
+	case problem.Top:
+		return us, -ut
+	case problem.Left:
+		return ut, us
+	}
+	return -ut, us
+}
+
+// intY returns the integral over 0 <= t <= D of the t-factor of term i
+// (coefficient included), and its t-derivative at t = 0 and t = D.
+func (sp *sub) intY(i int) (integral, d0, dD float64) {
+	if sp.zero && i == 0 {
+		return sp.A[0]*sp.D + sp.B[0]*sp.D*sp.D/2, sp.B[0], sp.B[0]
+	}
+	lam := sp.b.Lambda[i]
+	e1 := sp.e1[i]
+	integral = (sp.A[i] + sp.B[i]*e1) * -math.Expm1(-lam*sp.D) / lam
+	d0 = lam * (sp.B[i]*e1*e1 - sp.A[i])
+	dD = lam * e1 * (sp.B[i] - sp.A[i])
+	return
+}
