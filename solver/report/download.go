@@ -1,0 +1,119 @@
+package report
+
+import (
+	"bytes"
+	"fmt"
+	"strings"
+	"unicode"
+
+	"edgewise/solver"
+	"edgewise/solver/contour"
+	"edgewise/solver/export"
+)
+
+// The kinds of download Make knows.
+const (
+	FieldCSV  = "field-csv"
+	ProbesCSV = "probes-csv"
+	Picture   = "svg"
+)
+
+// Download is one file for the page to save.
+type Download struct {
+	Name string // a file name made from the project title
+	MIME string
+	Data []byte
+}
+
+// PictureOptions shape the SVG picture.
+type PictureOptions struct {
+	PixelW int // width of the field drawing; 0 means 640
+	Levels int // about this many isolines; 0 means 12, negative none
+}
+
+// Make builds one download of a solved project: FieldCSV, ProbesCSV or
+// Picture. An unknown kind is an error.
+func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions) (*Download, error) {
+	l := LabelsFor(p.Physics)
+	var b bytes.Buffer
+	d := &Download{}
+	switch kind {
+	case FieldCSV:
+		if err := export.FieldCSV(&b, field(p, out, l)); err != nil {
+			return nil, err
+		}
+		d.Name, d.MIME = FileName(p.Title, "field", "csv"), "text/csv;charset=utf-8"
+	case ProbesCSV:
+		ps := make([]export.Probe, len(out.Result.Probes))
+		for i, q := range out.Result.Probes {
+			ps[i] = export.Probe{Label: q.Label, X: q.X, Y: q.Y, Value: q.Value,
+				Gx: q.Gradient[0], Gy: q.Gradient[1], Qx: q.Flux[0], Qy: q.Flux[1]}
+		}
+		if err := export.ProbesCSV(&b, ps, l.Units()); err != nil {
+			return nil, err
+		}
+		d.Name, d.MIME = FileName(p.Title, "probes", "csv"), "text/csv;charset=utf-8"
+	case Picture:
+		n := opt.Levels
+		if n == 0 {
+			n = 12
+		}
+		pic := &export.Picture{
+			Field:      field(p, out, l),
+			Title:      p.Title,
+			LegendUnit: with(l.Quantity, l.Unit),
+			PixelW:     opt.PixelW,
+		}
+		if n > 0 {
+			pic.Levels = contour.Levels(out.Result.Min.Value, out.Result.Max.Value, n)
+		}
+		if err := export.SVG(&b, pic); err != nil {
+			return nil, err
+		}
+		d.Name, d.MIME = FileName(p.Title, "picture", "svg"), "image/svg+xml"
+	default:
+		return nil, fmt.Errorf("report: unknown download %q (use %s, %s or %s)", kind, FieldCSV, ProbesCSV, Picture)
+	}
+	d.Data = b.Bytes()
+	return d, nil
+}
+
+// field is the export view of a solved output.
+func field(p *solver.Project, out *solver.Output, l Labels) *export.Field {
+	return &export.Field{
+		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H,
+		U: out.U, Ux: out.Ux, Uy: out.Uy,
+		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
+		Units: l.Units(),
+	}
+}
+
+// FileName makes a safe file name from a title: letters and digits kept
+// (any script), everything else folded into single hyphens, at most 40
+// characters, then "-" + what + "." + ext. An empty title gives "edgewise".
+func FileName(title, what, ext string) string {
+	var b strings.Builder
+	hyphen := false
+	n := 0
+	for _, r := range strings.ToLower(title) {
+		if n >= 40 {
+			break
+		}
+		if unicode.IsLetter(r) || unicode.IsDigit(r) {
+			if hyphen && b.Len() > 0 {
+				b.WriteByte('-')
+				n++
+			}
+			hyphen = false
+			b.WriteRune(r)
+			n++
+			continue
+		}
+		hyphen = true
+	}
+	base := b.String()
+	if base == "" {
+		base = "edgewise"
+	}
+	return base + "-" + what + "." + ext
+}

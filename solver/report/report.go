@@ -1,0 +1,194 @@
+package report
+
+import (
+	"runtime/debug"
+	"strconv"
+
+	"edgewise/solver"
+)
+
+// Table is a titled table of text cells.
+type Table struct {
+	Caption string     `json:"caption"`
+	Head    []string   `json:"head"`
+	Rows    [][]string `json:"rows"`
+}
+
+// Report is the content of the printable report. The page lays it out;
+// every string in it is plain text.
+type Report struct {
+	Title    string   `json:"title"`
+	Date     string   `json:"date"`
+	Version  string   `json:"version"`
+	Physics  string   `json:"physics"`
+	Inputs   Table    `json:"inputs"`
+	Edges    Table    `json:"edges"`
+	Extremes Table    `json:"extremes"`
+	Flows    Table    `json:"flows"`
+	Probes   Table    `json:"probes"`
+	Accuracy Table    `json:"accuracy"`
+	Cautions []string `json:"cautions"`
+	Warnings []string `json:"warnings"`
+	Methods  []string `json:"methods"`
+}
+
+// Version names the build of edgewise: the module version, or the source
+// revision the binary was built from (with "+changes" when the working
+// tree was modified), or "development build".
+func Version() string {
+	info, ok := debug.ReadBuildInfo()
+	if !ok {
+		return "development build"
+	}
+	if v := info.Main.Version; v != "" && v != "(devel)" {
+		return v
+	}
+	rev, dirty := "", false
+	for _, s := range info.Settings {
+		switch s.Key {
+		case "vcs.revision":
+			rev = s.Value
+		case "vcs.modified":
+			dirty = s.Value == "true"
+		}
+	}
+	if rev == "" {
+		return "development build"
+	}
+	if len(rev) > 12 {
+		rev = rev[:12]
+	}
+	if dirty {
+		rev += "+changes"
+	}
+	return "revision " + rev
+}
+
+// Build makes the report of a solved project. date is printed as given.
+func Build(p *solver.Project, out *solver.Output, date, version string) *Report {
+	l := LabelsFor(p.Physics)
+	r := &out.Result
+	title := p.Title
+	if title == "" {
+		title = "Untitled project"
+	}
+	rep := &Report{
+		Title: title, Date: date, Version: version, Physics: p.Physics,
+		Cautions: append([]string{}, r.Cautions...),
+		Warnings: append([]string{}, r.Warnings...),
+		Methods:  Methods(p, r),
+	}
+
+	rep.Inputs = Table{Caption: "Inputs", Head: []string{"input", "value"}}
+	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
+	add(&rep.Inputs, "physics", p.Physics)
+	add(&rep.Inputs, with("width W", l.LengthUnit), num(p.Width))
+	add(&rep.Inputs, with("height H", l.LengthUnit), num(p.Height))
+	if p.Conductivity.X == p.Conductivity.Y {
+		add(&rep.Inputs, with(l.Conductivity, l.CondUnit), num(p.Conductivity.X))
+	} else {
+		add(&rep.Inputs, with(l.Conductivity+" along x", l.CondUnit), num(p.Conductivity.X))
+		add(&rep.Inputs, with(l.Conductivity+" along y", l.CondUnit), num(p.Conductivity.Y))
+	}
+	add(&rep.Inputs, with("uniform source", l.SourceUnit), num(p.Source))
+	nx, ny := solver.GridFor(p, solver.Options{})
+	add(&rep.Inputs, "output grid (intervals)", strconv.Itoa(nx)+" x "+strconv.Itoa(ny))
+
+	rep.Edges = Table{Caption: "Edge conditions (s runs along the edge: bottom and top from the left, left and right from the bottom)",
+		Head: []string{"edge", "kind", "condition"}}
+	for _, e := range sides(&p.Edges) {
+		add(&rep.Edges, e.name, e.spec.Kind, condition(e.spec, l))
+	}
+
+	rep.Extremes = Table{Caption: "Extremes on the output grid and mean",
+		Head: []string{"", with(l.Quantity, l.Unit), with("x", l.LengthUnit), with("y", l.LengthUnit)}}
+	add(&rep.Extremes, "minimum", num(r.Min.Value), num(r.Min.X), num(r.Min.Y))
+	add(&rep.Extremes, "maximum", num(r.Max.Value), num(r.Max.X), num(r.Max.Y))
+	add(&rep.Extremes, "mean over the region", num(r.Mean), "", "")
+
+	rep.Flows = Table{Caption: "Flows into the region per metre of depth",
+		Head: []string{"through", with("flow", l.FlowUnit)}}
+	for _, e := range []struct {
+		name string
+		f    solver.EdgeFlow
+	}{{"bottom edge", r.Edges.Bottom}, {"top edge", r.Edges.Top}, {"left edge", r.Edges.Left}, {"right edge", r.Edges.Right}} {
+		add(&rep.Flows, e.name, flow(e.f))
+	}
+	add(&rep.Flows, "source in the region", num(r.SourceTotal))
+	if r.Balance != nil {
+		add(&rep.Flows, "balance (sum, should be 0)", num(*r.Balance))
+	} else {
+		add(&rep.Flows, "balance (sum, should be 0)", "not a number: an edge flow is infinite (a jump in value at a corner)")
+	}
+
+	rep.Probes = Table{Caption: "Probes",
+		Head: []string{"label", with("x", l.LengthUnit), with("y", l.LengthUnit), with(l.Quantity, l.Unit),
+			with("gradient x", slash(l.Unit, l.LengthUnit)), with("gradient y", slash(l.Unit, l.LengthUnit)),
+			with(l.FluxName+" x", l.FluxUnit), with(l.FluxName+" y", l.FluxUnit)}}
+	for _, q := range r.Probes {
+		add(&rep.Probes, q.Label, num(q.X), num(q.Y), num(q.Value), num(q.Gradient[0]), num(q.Gradient[1]), num(q.Flux[0]), num(q.Flux[1]))
+	}
+
+	rep.Accuracy = Table{Caption: "Accuracy and cross-check", Head: []string{"", "value"}}
+	add(&rep.Accuracy, "series terms", strconv.Itoa(r.Accuracy.Terms))
+	add(&rep.Accuracy, with("estimated largest series error", l.Unit), num(r.Accuracy.Estimate))
+	if r.Accuracy.Crosscheck != nil {
+		add(&rep.Accuracy, with("largest difference from the finite-difference cross-check", l.Unit), num(*r.Accuracy.Crosscheck))
+		if r.Accuracy.CrosscheckGrid != "" {
+			add(&rep.Accuracy, "cross-check grids", r.Accuracy.CrosscheckGrid)
+		}
+	} else {
+		reason := r.Accuracy.CrosscheckReason
+		if reason == "" {
+			reason = "not run"
+		}
+		add(&rep.Accuracy, "finite-difference cross-check", "skipped: "+reason)
+	}
+	return rep
+}
+
+type side struct {
+	name string
+	spec solver.EdgeSpec
+}
+
+func sides(e *solver.Edges) []side {
+	return []side{{"bottom", e.Bottom}, {"top", e.Top}, {"left", e.Left}, {"right", e.Right}}
+}
+
+// condition describes one edge condition with units.
+func condition(e solver.EdgeSpec, l Labels) string {
+	switch e.Kind {
+	case "value":
+		return l.Quantity + " = " + e.Expr + unitNote(l.Unit)
+	case "flux":
+		return "entering " + l.FluxName + " = " + e.Expr + unitNote(l.FluxUnit)
+	case "convection":
+		return "h = " + num(e.H) + unitNote(l.HUnit) + " to ambient " + e.Ambient + unitNote(l.Unit)
+	}
+	return e.Kind
+}
+
+func unitNote(u string) string {
+	if u == "" {
+		return ""
+	}
+	return " " + u
+}
+
+func slash(a, b string) string {
+	if a == "" {
+		return ""
+	}
+	return a + "/" + b
+}
+
+func flow(f solver.EdgeFlow) string {
+	if !f.Finite || f.Flow == nil {
+		return "infinite (a jump in value at a corner of this edge)"
+	}
+	return num(*f.Flow)
+}
+
+// num prints a number with six significant digits.
+func num(v float64) string { return strconv.FormatFloat(v, 'g', 6, 64) }
