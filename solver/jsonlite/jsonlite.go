@@ -296,7 +296,7 @@ func (p *parser) str() string {
 				out = utf8.AppendRune(out, r)
 			default:
 				p.i -= 2
-				p.fail("unknown escape \\%c", e)
+				p.fail("unknown escape %q after a backslash", rune(e))
 			}
 		default:
 			r, size := utf8.DecodeRune(p.s[p.i:])
