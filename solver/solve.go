@@ -87,6 +87,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
+	settleCorners(pr, out)
 	out.Result = report(p, pr, f, out)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	if !opt.NoCrossCheck {
@@ -105,6 +106,26 @@ func grow(b []float64, n int) []float64 {
 		return make([]float64, n)
 	}
 	return b[:n]
+}
+
+// settleCorners gives the corner nodes where two prescribed values meet
+// with a jump the mean of the two values (the field has no value there; the
+// mean is what the picture and the isolines need). The gradient there is
+// unbounded and stays NaN.
+func settleCorners(pr *problem.Problem, out *Output) {
+	jumps := jumpCorners(pr)
+	nodes := [4]int{0, out.Nx, (out.Nx+1)*(out.Ny+1) - 1, out.Ny * (out.Nx + 1)}
+	ends := [4][2]problem.Side{{problem.Bottom, problem.Left}, {problem.Bottom, problem.Right},
+		{problem.Top, problem.Right}, {problem.Top, problem.Left}}
+	for c, k := range nodes {
+		if !jumps[c] || out.U[k]-out.U[k] == 0 {
+			continue
+		}
+		x, y := float64(k%(out.Nx+1))*pr.W/float64(out.Nx), float64(k/(out.Nx+1))*pr.H/float64(out.Ny)
+		a := pr.Edges[ends[c][0]].F(x)
+		b := pr.Edges[ends[c][1]].F(y)
+		out.U[k], out.Ux[k], out.Uy[k] = (a+b)/2, math.NaN(), math.NaN()
+	}
 }
 
 // wrapEngineError puts the project path on errors the engine reports about
