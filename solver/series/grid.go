@@ -1,24 +1,607 @@
 package series
 
-type gridWork struct{}
+import (
+	"math"
+	"math/cmplx"
+
+	"gonum.org/v1/gonum/dsp/fourier"
+
+	"edgewise/solver/problem"
+)
+
+// gridWork holds buffers reused across Grid calls.
+type gridWork struct {
+	logs       []complex128 // log(x_i + i y_j) at every node (bottom-left frame)
+	theta      []float64    // its imaginary part alone
+	sinTab     []float64    // sin(n pi i / M), n < tabTerms
+	cosTab     []float64
+	tabM       int
+	col        []float64
+	a, b, c    []float64 // per-row coefficient buffers
+	fa, fb, fc []float64 // folded transform inputs
+	dst        *fourier.DST
+	dct        *fourier.DCT
+}
+
+func grow(s []float64, n int) []float64 {
+	if cap(s) < n {
+		return make([]float64, n)
+	}
+	return s[:n]
+}
 
 // Grid fills u (and ux, uy when non-nil) at the (nx+1)*(ny+1) nodes
-// x = i W/nx, y = j H/ny, index j*(nx+1)+i.
+// x = i W/nx, y = j H/ny, index j*(nx+1)+i (original coordinates). The
+// buffers are the caller's; Grid reuses internal work buffers across calls
+// and is not safe for concurrent use on one Solution. Sub-problems whose
+// basis is the sine series (value edges on both neighbours) are summed by
+// one DST per row (DCT for the derivative along the edge), the others as
+// separable products X_n(s_i) Y_n(t_j) with the X_n by rotation recurrence;
+// every row keeps only the terms that still matter at its distance from
+// the loaded edge. Caller bugs (nx, ny < 1, short buffers) panic.
 func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
-	if nx < 1 || ny < 1 || len(u) < (nx+1)*(ny+1) {
+	nn := (nx + 1) * (ny + 1)
+	if nx < 1 || ny < 1 || len(u) < nn || (ux != nil && len(ux) < nn) || (uy != nil && len(uy) < nn) {
 		panic("series: bad grid size or buffer")
 	}
-	for j := 0; j <= ny; j++ {
-		for i := 0; i <= nx; i++ {
-			a, b, c := s.At(s.m.p.W*float64(i)/float64(nx), s.m.p.H*float64(j)/float64(ny))
-			k := j*(nx+1) + i
-			u[k] = a
-			if ux != nil {
-				ux[k] = b
+	u = u[:nn]
+	clear(u)
+	if ux != nil {
+		ux = ux[:nn]
+		clear(ux)
+	}
+	if uy != nil {
+		uy = uy[:nn]
+		clear(uy)
+	}
+	m := s.m
+	s.gridPieces(nx, ny, u, ux, uy)
+	cut := 0.1 * s.tolAbs
+	done := [4]bool{}
+	if nx >= 2 && s.subs[problem.Bottom].sine {
+		s.gridSinePair(problem.Bottom, problem.Top, nx, ny, cut, u, ux, uy)
+		done[problem.Bottom], done[problem.Top] = true, true
+	}
+	if ny >= 2 && s.subs[problem.Left].sine {
+		s.gridSinePair(problem.Left, problem.Right, nx, ny, cut, u, ux, uy)
+		done[problem.Left], done[problem.Right] = true, true
+	}
+	for _, e := range problem.Sides {
+		if !done[e] {
+			s.gridSub(s.subs[e], nx, ny, cut, u, ux, uy)
+		}
+	}
+	if uy != nil && m.a != 1 {
+		for i := range uy {
+			uy[i] *= m.a
+		}
+	}
+	// Corner nodes: the singular pieces need their limits there.
+	for c := 0; c < 4; c++ {
+		i, j := 0, 0
+		if c == 1 || c == 2 {
+			i = nx
+		}
+		if c >= 2 {
+			j = ny
+		}
+		x, y := m.cornerPoint(c)
+		a, b, d := s.At(x, y/m.a)
+		k := j*(nx+1) + i
+		u[k] = a
+		if ux != nil {
+			ux[k] = b
+		}
+		if uy != nil {
+			uy[k] = d
+		}
+	}
+}
+
+// cornerSum is the sum of the pieces at one corner:
+// a0 + a1 zeta + (b0 + b1 zeta + b2 zeta^2) log zeta.
+type cornerSum struct {
+	on                 bool
+	a0, a1, b0, b1, b2 complex128
+	logs               bool
+	z0, rho            complex128
+}
+
+// atanPos returns atan2(y, x) for x, y >= 0, not both zero.
+func atanPos(y, x float64) float64 {
+	if y <= x {
+		return math.Atan(y / x)
+	}
+	return math.Pi/2 - math.Atan(x/y)
+}
+
+// gridPieces adds the particular solution and the harmonic pieces.
+func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
+	m := s.m
+	hx, hy := m.W/float64(nx), m.H/float64(ny)
+	grad := ux != nil || uy != nil
+	// Smooth polynomial pieces share one centre and scale: one Horner sum.
+	var poly [5]complex128
+	var pz0, prho complex128
+	var corner [4]cornerSum
+	for i := range s.pieces {
+		p := &s.pieces[i]
+		if p.corner < 0 {
+			poly[p.n] += p.c
+			pz0, prho = p.z0, p.rho
+			continue
+		}
+		cr := &corner[p.corner]
+		cr.on, cr.z0, cr.rho = true, p.z0, p.rho
+		switch p.kind {
+		case powPiece:
+			if p.n == 0 {
+				cr.a0 += p.c
+			} else {
+				cr.a1 += p.c
 			}
-			if uy != nil {
-				uy[k] = c
+		case logPiece:
+			cr.b0 += p.c
+			cr.logs = true
+		case zlogPiece:
+			cr.b1 += p.c
+			cr.logs = true
+		case z2logPiece:
+			cr.b2 += p.c
+			cr.logs = true
+		}
+	}
+	// Angles only (the angle function alone, no gradient wanted) need one
+	// arctangent per node, shared by the four corners through symmetry;
+	// otherwise a complex logarithm per node.
+	needLogs, fullLogs := false, grad
+	for c := range corner {
+		cr := &corner[c]
+		needLogs = needLogs || cr.logs
+		if cr.logs && (cr.b1 != 0 || cr.b2 != 0 || real(cr.b0) != 0) {
+			fullLogs = true
+		}
+	}
+	w := &s.gw
+	nn := (nx + 1) * (ny + 1)
+	if needLogs && fullLogs {
+		if cap(w.logs) < nn {
+			w.logs = make([]complex128, nn)
+		}
+		w.logs = w.logs[:nn]
+		for j := 0; j <= ny; j++ {
+			y := float64(j) * hy
+			row := w.logs[j*(nx+1) : (j+1)*(nx+1)]
+			for i := range row {
+				x := float64(i) * hx
+				if i == 0 && j == 0 {
+					row[i] = 0
+					continue
+				}
+				row[i] = complex(0.5*math.Log(x*x+y*y), atanPos(y, x))
+			}
+		}
+	} else if needLogs {
+		w.theta = grow(w.theta, nn)
+		for j := 0; j <= ny; j++ {
+			y := float64(j) * hy
+			row := w.theta[j*(nx+1) : (j+1)*(nx+1)]
+			row[0] = math.Pi / 2
+			for i := 1; i < len(row); i++ {
+				row[i] = atanPos(y, float64(i)*hx)
 			}
 		}
 	}
+	if !grad && !fullLogs {
+		s.gridPiecesFast(nx, ny, u, poly, pz0, prho, &corner)
+		return
+	}
+	q := s.quad
+	for j := 0; j <= ny; j++ {
+		y := float64(j) * hy
+		for i := 0; i <= nx; i++ {
+			x := float64(i) * hx
+			k := j*(nx+1) + i
+			v := q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E
+			z := prho * complex(x-real(pz0), y-imag(pz0))
+			pv := poly[4]
+			pd := complex(0, 0)
+			for n := 3; n >= 0; n-- {
+				if grad {
+					pd = pd*z + pv
+				}
+				pv = pv*z + poly[n]
+			}
+			u[k] += v + real(pv)
+			if grad {
+				g := complex(2*q.A*x+q.B, -(2*q.C*y+q.D)) + pd*prho // u_x - i u_y
+				if ux != nil {
+					ux[k] += real(g)
+				}
+				if uy != nil {
+					uy[k] -= imag(g)
+				}
+			}
+		}
+	}
+	for c := range corner {
+		cr := &corner[c]
+		if !cr.on {
+			continue
+		}
+		if cr.logs && !fullLogs {
+			// u = Re(a0) - Im(b0) theta (+ Re(a1 zeta)).
+			a0, bi := real(cr.a0), imag(cr.b0)
+			for j := 0; j <= ny; j++ {
+				for i := 0; i <= nx; i++ {
+					var th float64
+					switch c {
+					case 0:
+						th = w.theta[j*(nx+1)+i]
+					case 1:
+						th = math.Pi/2 - w.theta[j*(nx+1)+nx-i]
+					case 2:
+						th = w.theta[(ny-j)*(nx+1)+nx-i]
+					case 3:
+						th = math.Pi/2 - w.theta[(ny-j)*(nx+1)+i]
+					}
+					v := a0 - bi*th
+					if cr.a1 != 0 {
+						zc := cr.rho * complex(float64(i)*hx-real(cr.z0), float64(j)*hy-imag(cr.z0))
+						v += real(cr.a1 * zc)
+					}
+					u[j*(nx+1)+i] += v
+				}
+			}
+			continue
+		}
+		for j := 0; j <= ny; j++ {
+			y := float64(j) * hy
+			for i := 0; i <= nx; i++ {
+				x := float64(i) * hx
+				k := j*(nx+1) + i
+				zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
+				f := cr.a0 + cr.a1*zc
+				d := cr.a1
+				if cr.logs && zc != 0 {
+					var l complex128
+					switch c {
+					case 0:
+						l = w.logs[k]
+					case 1:
+						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[j*(nx+1)+nx-i])
+					case 2:
+						l = w.logs[(ny-j)*(nx+1)+nx-i]
+					case 3:
+						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[(ny-j)*(nx+1)+i])
+					}
+					pl := cr.b0 + zc*(cr.b1+zc*cr.b2)
+					f += pl * l
+					if grad {
+						d += (cr.b1+2*cr.b2*zc)*l + pl/zc
+					}
+				}
+				u[k] += real(f)
+				if grad {
+					g := d * cr.rho
+					if ux != nil {
+						ux[k] += real(g)
+					}
+					if uy != nil {
+						uy[k] -= imag(g)
+					}
+				}
+			}
+		}
+	}
+}
+
+// gridPiecesFast adds the pieces when no gradient is wanted and the only
+// logarithmic pieces are angle functions: every power piece is folded into
+// one polynomial about the centre, expanded per row into powers of x, and
+// the four angle functions are summed in one pass from the shared table.
+func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [5]complex128, pz0, prho complex128, corner *[4]cornerSum) {
+	m := s.m
+	hx, hy := m.W/float64(nx), m.H/float64(ny)
+	if prho == 0 {
+		pz0, prho = complex(m.W/2, m.H/2), complex(2/math.Max(m.W, m.H), 0)
+	}
+	var bi [4]float64
+	for c := range corner {
+		cr := &corner[c]
+		if !cr.on {
+			continue
+		}
+		// a0 + a1 rho_c (z - z_c) = a0 + a1 rho_c (z0 - z_c) + a1 rho_c zeta / prho
+		poly[0] += cr.a0 + cr.a1*cr.rho*(pz0-cr.z0)
+		poly[1] += cr.a1 * cr.rho / prho
+		if cr.logs {
+			bi[c] = imag(cr.b0)
+		}
+	}
+	binom := [5][5]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}}
+	q := s.quad
+	w := &s.gw
+	S := 1 / real(prho) // prho is real for the smooth pieces
+	for j := 0; j <= ny; j++ {
+		y := float64(j) * hy
+		eta := complex(0, (y-imag(pz0))/S)
+		// Re(sum_n c_n (X + i eta)^n) = sum_k X^k Re(sum_n c_n C(n,k) (i eta)^(n-k))
+		var co [5]float64
+		for k := 0; k <= 4; k++ {
+			var acc complex128
+			pw := complex(1, 0)
+			for n := k; n <= 4; n++ {
+				acc += poly[n] * complex(binom[n][k], 0) * pw
+				pw *= eta
+			}
+			co[k] = real(acc)
+		}
+		cy := q.C*y*y + q.D*y + q.E
+		row := u[j*(nx+1) : (j+1)*(nx+1)]
+		for i := range row {
+			x := float64(i) * hx
+			X := (x - real(pz0)) / S
+			row[i] += q.A*x*x + q.B*x + cy + (((co[4]*X+co[3])*X+co[2])*X+co[1])*X + co[0]
+		}
+		if bi == [4]float64{} {
+			continue
+		}
+		// u -= b0_imag * theta_c for each corner (see cornerSum).
+		t0 := w.theta[j*(nx+1) : (j+1)*(nx+1)]
+		t3 := w.theta[(ny-j)*(nx+1) : (ny-j+1)*(nx+1)]
+		cst := -(bi[1] + bi[3]) * math.Pi / 2
+		for i := range row {
+			row[i] += cst - bi[0]*t0[i] + bi[1]*t0[nx-i] - bi[2]*t3[nx-i] + bi[3]*t3[i]
+		}
+	}
+}
+
+// rowY fills a[i] = Y_i(t) (coefficient included) and b[i] = dY_i/dt for
+// the first n terms of sp.
+func (sp *sub) rowY(t float64, n int, a, b []float64, add bool, sign float64) {
+	for i := 0; i < n; i++ {
+		var y, dy float64
+		if sp.zero && i == 0 {
+			y, dy = sp.A[0]+sp.B[0]*t, sp.B[0]
+		} else {
+			lam := sp.b.Lambda[i]
+			ea := math.Exp(-lam * t)
+			eb := 0.0
+			if sp.B[i] != 0 {
+				eb = math.Exp(-lam * (2*sp.D - t))
+			}
+			y = sp.A[i]*ea + sp.B[i]*eb
+			dy = lam * (sp.B[i]*eb - sp.A[i]*ea)
+		}
+		if add {
+			a[i] += y
+			b[i] += sign * dy
+		} else {
+			a[i], b[i] = y, sign*dy
+		}
+	}
+}
+
+// gridSinePair sums two opposite sub-problems that share the sine basis
+// along s (e1 loaded at t = 0 of the row coordinate, e2 at the far side)
+// by one DST per row.
+func (s *Solution) gridSinePair(e1, e2 problem.Side, nx, ny int, cut float64, u, ux, uy []float64) {
+	m := s.m
+	s1, s2 := s.subs[e1], s.subs[e2]
+	vert := e1 == problem.Left
+	M, rows := nx, ny // nodes along s: M+1; rows across
+	D := m.H
+	if vert {
+		M, rows, D = ny, nx, m.W
+	}
+	w := &s.gw
+	nmax := max(s1.n, s2.n)
+	w.a, w.b = grow(w.a, nmax), grow(w.b, nmax)
+	w.fa, w.fb, w.fc = grow(w.fa, M+1), grow(w.fb, M+1), grow(w.fc, M+1)
+	if w.dst == nil || w.dst.Len() != M-1 {
+		w.dst = fourier.NewDST(M - 1)
+	}
+	if (vert && uy != nil) || (!vert && ux != nil) {
+		if w.dct == nil || w.dct.Len() != M+1 {
+			w.dct = fourier.NewDCT(M + 1)
+		}
+	}
+	if w.tabM != M {
+		w.sinTab = grow(w.sinTab, tabTerms*(M+1))
+		w.cosTab = grow(w.cosTab, tabTerms*(M+1))
+		for i := 0; i <= M; i++ {
+			sn, cs := math.Sincos(math.Pi * float64(i) / float64(M))
+			s0, c0 := sn, cs
+			for n := 0; n < tabTerms; n++ {
+				w.sinTab[n*(M+1)+i], w.cosTab[n*(M+1)+i] = sn, cs
+				sn, cs = sn*c0+cs*s0, cs*c0-sn*s0
+			}
+		}
+		w.tabM = M
+	}
+	needS := (vert && uy != nil) || (!vert && ux != nil)
+	needT := (vert && ux != nil) || (!vert && uy != nil)
+	lam0 := math.Pi / s1.L
+	for r := 0; r <= rows; r++ {
+		t1 := D * float64(r) / float64(rows)
+		t2 := D * float64(rows-r) / float64(rows)
+		n1, n2 := s1.rowTerms(t1, cut), s2.rowTerms(t2, cut)
+		n := max(n1, n2)
+		if n == 0 {
+			continue
+		}
+		a, b := w.a[:n], w.b[:n]
+		clear(a)
+		clear(b)
+		s1.rowY(t1, n1, a, b, true, 1)
+		s2.rowY(t2, n2, a, b, true, -1)
+		if n <= tabTerms {
+			s.sineRow(vert, nx, M, r, a, b, lam0, u, ux, uy)
+			continue
+		}
+		fold := func(dst []float64, src []float64, scale func(i int) float64, cosine bool) {
+			clear(dst)
+			for i, v := range src {
+				if v == 0 {
+					continue
+				}
+				if scale != nil {
+					v *= scale(i)
+				}
+				nn := (i + 1) % (2 * M)
+				switch {
+				case cosine && nn > M:
+					dst[2*M-nn] += v
+				case cosine:
+					dst[nn] += v
+				case nn == 0 || nn == M:
+				case nn < M:
+					dst[nn] += v
+				default:
+					dst[2*M-nn] -= v
+				}
+			}
+		}
+		// u: sum_n a_n sin(n pi i / M) = DST-I of a_n/2.
+		fold(w.fa, a, nil, false)
+		for k := 1; k < M; k++ {
+			w.fa[k-1] = w.fa[k] / 2
+		}
+		out := w.dst.Transform(w.fc[:M-1], w.fa[:M-1])
+		for i := 1; i < M; i++ {
+			u[gidx(vert, nx, i, r)] += out[i-1]
+		}
+		if needT {
+			fold(w.fa, b, nil, false)
+			for k := 1; k < M; k++ {
+				w.fa[k-1] = w.fa[k] / 2
+			}
+			out := w.dst.Transform(w.fc[:M-1], w.fa[:M-1])
+			g := ux
+			if !vert {
+				g = uy
+			}
+			for i := 1; i < M; i++ {
+				g[gidx(vert, nx, i, r)] += out[i-1]
+			}
+		}
+		if needS {
+			fold(w.fb, a, func(i int) float64 { return lam0 * float64(i+1) }, true)
+			for k := 1; k < M; k++ {
+				w.fb[k] /= 2
+			}
+			out := w.dct.Transform(w.fc[:M+1], w.fb[:M+1])
+			g := uy
+			if !vert {
+				g = ux
+			}
+			for i := 0; i <= M; i++ {
+				g[gidx(vert, nx, i, r)] += out[i]
+			}
+		}
+	}
+}
+
+// tabTerms is the number of terms below which a row is summed from a
+// table of sines instead of by a transform.
+const tabTerms = 24
+
+// sineRow adds sum_n a_n sin(n pi i/M) (and the derivatives) for one row
+// of a sine pair from the tables.
+func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64, u, ux, uy []float64) {
+	w := &s.gw
+	gs, gt := ux, uy // derivative along s, across (t)
+	if vert {
+		gs, gt = uy, ux
+	}
+	w.col = grow(w.col, M+1)
+	col := w.col
+	clear(col)
+	for k := range a {
+		ak := a[k]
+		sn := w.sinTab[k*(M+1) : (k+1)*(M+1)]
+		for i, v := range sn {
+			col[i] += ak * v
+		}
+	}
+	if vert {
+		for i, v := range col {
+			u[i*(nx+1)+r] += v
+		}
+	} else {
+		row := u[r*(nx+1) : r*(nx+1)+M+1]
+		for i, v := range col {
+			row[i] += v
+		}
+	}
+	for k := range a {
+		ak, bk := a[k], b[k]
+		sn := w.sinTab[k*(M+1) : (k+1)*(M+1)]
+		if gt != nil {
+			for i, v := range sn {
+				gt[gidx(vert, nx, i, r)] += bk * v
+			}
+		}
+		if gs != nil {
+			al := ak * lam0 * float64(k+1)
+			for i, v := range w.cosTab[k*(M+1) : (k+1)*(M+1)] {
+				gs[gidx(vert, nx, i, r)] += al * v
+			}
+		}
+	}
+}
+
+// gidx returns the node index of s-node i in row r.
+func gidx(vert bool, nx, i, r int) int {
+	if vert {
+		return i*(nx+1) + r
+	}
+	return r*(nx+1) + i
+}
+
+// gridSub adds one sub-problem as separable products, row by row.
+func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64) {
+	m := s.m
+	vert := sp.side == problem.Left || sp.side == problem.Right
+	far := sp.side == problem.Top || sp.side == problem.Right
+	M, rows := nx, ny
+	if vert {
+		M, rows = ny, nx
+	}
+	hs := sp.L / float64(M)
+	w := &s.gw
+	w.a, w.b = grow(w.a, sp.n), grow(w.b, sp.n)
+	for r := 0; r <= rows; r++ {
+		rr := r
+		if far {
+			rr = rows - r
+		}
+		t := sp.D * float64(rr) / float64(rows)
+		n := sp.rowTerms(t, cut)
+		a, b := w.a[:n], w.b[:n]
+		sp.rowY(t, n, a, b, false, 1)
+		for k := 0; k < n; k++ {
+			lam := sp.b.Lambda[k]
+			sn, cs := math.Sincos(sp.b.Phi[k])
+			ds, dc := math.Sincos(lam * hs)
+			ak, bk := a[k], b[k]
+			for i := 0; i <= M; i++ {
+				g := gidx(vert, nx, i, r)
+				u[g] += ak * sn
+				if ux != nil || uy != nil {
+					gs, gt := ak*lam*cs, bk*sn
+					gx, gy := sp.global(gs, gt)
+					if ux != nil {
+						ux[g] += gx
+					}
+					if uy != nil {
+						uy[g] += gy
+					}
+				}
+				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+			}
+		}
+	}
+	_ = m
 }
