@@ -14,7 +14,7 @@ import (
 // per-row truncation keeps terms by their size in u).
 func TestGridMatchesAt(t *testing.T) {
 	cases := map[string]*problem.Problem{
-		"values with jumps": valueBox(2, 1, 0, 50, 100, 0),
+		"values with jumps":              valueBox(2, 1, 0, 50, 100, 0),
 		"values, all corners jump, tall": valueBox(0.5, 1.7, 10, 50, 100, -3),
 	}
 	mixed := &problem.Problem{W: 1, H: 1.5, Kx: 3, Ky: 1, Source: 2}
