@@ -1,23 +1,39 @@
-// edgewise page: starts the engine in a Web Worker, sends it the project,
-// draws the field it returns and shows the numbers. Exposes
-// window.edgewise = {load(project) -> Promise<result>, project(), link()}.
+// edgewise page, part 4 of 4: the engine and the flow of a solve. Starts
+// the engine in a Web Worker, sends it the project on every edit (debounced;
+// the newest edit wins, and a long stale solve is cancelled by restarting
+// the worker), draws what comes back and shows the numbers. Exposes
+//
+//   window.edgewise = {load(project) -> Promise<result>, project(), link()}
+//   window.edgewiseInternal = {call(fn, ...args) -> Promise<{value, ms}>, demo(), ...}
+//
+// and dispatches "edgewise:solved" and "edgewise:edited" on document.
 "use strict";
 (function () {
+  const EW = (window.edgewiseParts = window.edgewiseParts || {});
   const $ = (id) => document.getElementById(id);
-  const canvas = $("field");
   const statusEl = $("status");
+  const root = document.documentElement;
+
+  const DEBOUNCE_MS = 30; // typing: wait this long for the next key
+  const BUSY_MS = 250; // show that the engine is working after this long
+  const CANCEL_MS = 600; // a stale solve running longer is cancelled
+  const LEVELS = 12; // isoline levels asked for
 
   let current = null; // the last project that solved
-  let lastGood = null; // {result, nx, ny, u}
+  let typed = null; // the project as currently typed
+  let lastGood = null; // the last successful solve, as drawn
   let nextId = 1;
   const pending = new Map();
-  let worker = null;
+  let worker = null; // Promise<Worker>
+  let workerNow = null; // the Worker itself, for terminate
   let wasmBytes = null; // bundled mode: the engine bytes, decoded once
 
-  function setStatus(text, isError) {
+  function setStatus(text, kind) {
     statusEl.textContent = text;
-    statusEl.classList.toggle("error", !!isError);
+    statusEl.classList.toggle("error", kind === "error");
   }
+
+  // ---- the worker ----
 
   // bundled (single-file) mode keeps the worker source and the engine inside the page
   function bundled() {
@@ -37,13 +53,19 @@
     return new Promise(async (resolve, reject) => {
       let w;
       let bytes = null;
-      if (bundled()) {
-        const src = document.getElementById("ew-worker").textContent;
-        w = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
-        bytes = await engineBytes();
-      } else {
-        w = new Worker("worker.js");
+      try {
+        if (bundled()) {
+          const src = document.getElementById("ew-worker").textContent;
+          w = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
+          bytes = await engineBytes();
+        } else {
+          w = new Worker("worker.js");
+        }
+      } catch (e) {
+        reject(new Error("the engine failed to start: " + e.message));
+        return;
       }
+      workerNow = w;
       w.onmessage = (ev) => {
         const m = ev.data;
         if (m.type === "ready") resolve(w);
@@ -62,6 +84,19 @@
     p.resolve(m);
   }
 
+  // restart stops the worker (the only real cancel of a running solve),
+  // rejects everything waiting on it, and starts a fresh one.
+  function restart() {
+    if (workerNow) workerNow.terminate();
+    workerNow = null;
+    worker = null;
+    const waiting = [...pending.values()];
+    pending.clear();
+    for (const p of waiting) p.reject(Object.assign(new Error("cancelled by a newer edit"), { cancelled: true }));
+    worker = startWorker();
+    worker.catch(() => {});
+  }
+
   // call runs the engine function edgewise_<fn> in the worker and resolves
   // with {value, ms}.
   async function call(fn, ...args) {
@@ -74,86 +109,383 @@
     });
   }
 
-  async function solve(text) {
-    const m = await call("solve", text, 0, 0);
-    const r = m.value;
-    if (!r.ok) {
-      const e = new Error(r.error);
-      e.path = r.path; e.col = r.col;
-      throw e;
-    }
-    r.ms = m.ms;
-    return r;
+  // ---- solving: the newest request wins ----
+
+  let gen = 0; // generation of the newest request
+  let running = null; // {job, started}
+  let queued = null;
+  let busyTimer = 0;
+
+  // request solves a project. It resolves with the engine's reply and
+  // whether it is still the newest request; it rejects when cancelled.
+  function request(project) {
+    const text = JSON.stringify(project);
+    return new Promise((resolve, reject) => {
+      const job = { gen: ++gen, text, project, resolve, reject, t0: performance.now() };
+      if (queued) queued.reject(Object.assign(new Error("superseded by a newer edit"), { cancelled: true }));
+      queued = null;
+      if (running && performance.now() - running.started > CANCEL_MS) {
+        running = null;
+        restart();
+      }
+      if (running) queued = job;
+      else run(job);
+    });
   }
 
-  async function load(project) {
-    const text = typeof project === "string" ? project : JSON.stringify(project);
-    let obj;
-    try {
-      obj = JSON.parse(text);
-    } catch (e) {
-      const err = new Error("not a project file: " + e.message);
-      setStatus(err.message, true);
-      throw err;
-    }
-    setStatus("Solving…");
-    let m;
-    try {
-      m = await solve(text);
-    } catch (e) {
-      setStatus(e.message, true);
-      throw e;
-    }
-    const result = JSON.parse(m.result);
-    current = obj;
-    lastGood = { result, nx: m.nx, ny: m.ny, u: m.u };
-    draw(lastGood);
-    show(result);
-    setStatus("Solved in " + m.ms.toFixed(0) + " ms.");
-    document.documentElement.dataset.solved = String(Number(document.documentElement.dataset.solved || 0) + 1);
+  function run(job) {
+    running = { job, started: performance.now() };
+    clearTimeout(busyTimer);
+    busyTimer = setTimeout(() => {
+      root.classList.add("busy");
+      setStatus("Solving…", "busy");
+    }, BUSY_MS);
+    call("solve", job.text, 0, 0, LEVELS).then(
+      (m) => job.resolve({ reply: m.value, ms: m.ms, newest: job.gen === gen, job }),
+      (e) => job.reject(e)
+    ).finally(() => {
+      if (running && running.job === job) running = null;
+      if (!running) {
+        clearTimeout(busyTimer);
+        root.classList.remove("busy");
+      }
+      if (!running && queued) {
+        const q = queued;
+        queued = null;
+        run(q);
+      }
+    });
+  }
+
+  function engineError(r) {
+    const e = new Error(r.error);
+    e.path = r.path || "";
+    e.col = r.col || 0;
+    return e;
+  }
+
+  // apply draws a successful reply and tells the other scripts.
+  function apply(project, r, ms, t0) {
+    const result = JSON.parse(r.result);
+    const k = project.conductivity;
+    const solve = {
+      project, result, units: (EW.unitsets || {})[project.physics] || {},
+      nx: r.nx, ny: r.ny, w: r.w, h: r.h, u: r.u, ux: r.ux, uy: r.uy,
+      levels: r.levels, segs: r.segs, ends: r.ends, labels: r.labels,
+      kx: typeof k === "object" ? k.x : k, ky: typeof k === "object" ? k.y : k,
+    };
+    current = project;
+    lastGood = solve;
+    EW.clearErrors();
+    EW.show(solve);
+    renderResults(solve);
+    renderProbes(solve);
+    renderCautions(result);
+    const total = performance.now() - t0;
+    setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms.");
+    root.dataset.solved = String(Number(root.dataset.solved || 0) + 1);
     document.dispatchEvent(new CustomEvent("edgewise:solved", {
-      detail: { project: obj, result, nx: m.nx, ny: m.ny, u: m.u, ux: m.ux, uy: m.uy },
+      detail: { project, result, nx: r.nx, ny: r.ny, u: r.u, ux: r.ux, uy: r.uy },
     }));
     return result;
   }
 
-  // a plain lightness ramp until the designed colour maps are wired in
-  function colour(t) {
-    const v = Math.round(30 + 210 * t);
-    return [Math.round(v * 0.55), Math.round(v * 0.8), v];
+  // ---- edits ----
+
+  let editTimer = 0;
+  let previewTimer = 0;
+
+  EW.edited = function () {
+    const { project, errors } = EW.read();
+    typed = project;
+    document.dispatchEvent(new CustomEvent("edgewise:edited", { detail: { project } }));
+    clearTimeout(previewTimer);
+    previewTimer = setTimeout(() => previews(project), 120);
+    clearTimeout(editTimer);
+    if (errors.length) {
+      EW.clearErrors();
+      for (const e of errors) EW.showError(e.path, 0, e.path + ": " + e.msg);
+      setStatus("Fix the marked field; the picture shows the last project that solved.", "error");
+      return;
+    }
+    const t0 = performance.now();
+    editTimer = setTimeout(() => solveEdit(project, t0), DEBOUNCE_MS);
+  };
+
+  async function solveEdit(project, t0) {
+    let out;
+    try {
+      out = await request(project);
+    } catch (e) {
+      if (!e.cancelled) setStatus(e.message, "error");
+      return;
+    }
+    if (!out.newest) return;
+    if (!out.reply.ok) {
+      const e = engineError(out.reply);
+      EW.clearErrors();
+      const placed = EW.showError(e.path, e.col, e.message);
+      setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + e.message, "error");
+      return;
+    }
+    apply(project, out.reply, out.ms, t0);
   }
 
-  function draw(g) {
-    const { nx, ny, u } = g;
-    let lo = Infinity, hi = -Infinity;
-    for (const v of u) { if (v < lo) lo = v; if (v > hi) hi = v; }
-    const span = hi > lo ? hi - lo : 1;
-    canvas.width = nx + 1;
-    canvas.height = ny + 1;
-    const ctx = canvas.getContext("2d");
-    const img = ctx.createImageData(nx + 1, ny + 1);
-    for (let j = 0; j <= ny; j++) {
-      for (let i = 0; i <= nx; i++) {
-        const c = colour((u[j * (nx + 1) + i] - lo) / span);
-        const k = 4 * ((ny - j) * (nx + 1) + i); // y up
-        img.data[k] = c[0]; img.data[k + 1] = c[1]; img.data[k + 2] = c[2]; img.data[k + 3] = 255;
+  async function previews(project) {
+    const text = JSON.stringify(project);
+    for (const side of EW.SIDES) {
+      try {
+        const m = await call("preview", text, side, 96);
+        const r = m.value;
+        EW.drawPreview(side, r.s, r.v, !r.ok);
+      } catch (e) {
+        return; // the worker was restarted; the next edit previews again
       }
     }
-    ctx.putImageData(img, 0, 0);
-    canvas.setAttribute("aria-label", "Field from " + lo.toPrecision(4) + " to " + hi.toPrecision(4));
   }
 
-  function show(r) {
-    const dl = $("results");
-    dl.replaceChildren();
-    const row = (k, v) => {
-      const dt = document.createElement("dt"); dt.textContent = k;
-      const dd = document.createElement("dd"); dd.textContent = v;
-      dl.append(dt, dd);
+  // ---- probes ----
+
+  EW.pin = function (x, y) {
+    const list = EW.probes();
+    const used = new Set(list.map((p) => p.label));
+    let n = 1;
+    while (used.has("P" + n)) n++;
+    const S = lastGood;
+    const round = (v, span) => {
+      const q = Math.pow(10, Math.floor(Math.log10(span)) - 4);
+      return Number((Math.round(v / q) * q).toPrecision(12));
     };
-    row("max", r.max.value.toPrecision(5) + " at (" + r.max.x.toPrecision(3) + ", " + r.max.y.toPrecision(3) + ")");
-    row("min", r.min.value.toPrecision(5) + " at (" + r.min.x.toPrecision(3) + ", " + r.min.y.toPrecision(3) + ")");
-    for (const p of r.probes) row(p.label, p.value.toPrecision(6));
+    list.push({ x: round(x, S.w), y: round(y, S.h), label: "P" + n });
+    EW.setProbes(list);
+    EW.showProbes(list);
+    renderProbes(lastGood);
+    EW.edited();
+  };
+
+  function removeProbe(label) {
+    const list = EW.probes().filter((p) => p.label !== label);
+    EW.setProbes(list);
+    EW.showProbes(list);
+    renderProbes(lastGood);
+    EW.edited();
+  }
+
+  function renderProbes(S) {
+    const body = $("probes").tBodies[0];
+    body.replaceChildren();
+    const list = EW.probes();
+    $("probes-hint").textContent = list.length
+      ? "Values from the series at each point; ≈ marks a value read from the picture until the next solve."
+      : "Click the picture (or focus it and press Enter) to pin a probe.";
+    if (!S) return;
+    const u = S.units || {};
+    for (const p of list) {
+      const hit = (S.result.probes || []).find((q) => q.label === p.label && q.x === p.x && q.y === p.y);
+      let v, qx, qy, approx = false;
+      if (hit) {
+        v = hit.value; qx = hit.flux[0]; qy = hit.flux[1];
+      } else {
+        const g = EW.sample(p.x, p.y);
+        v = g.u; qx = -S.kx * g.ux; qy = -S.ky * g.uy; approx = true;
+      }
+      const tr = document.createElement("tr");
+      tr.dataset.label = p.label;
+      const td = (text, cls) => {
+        const c = document.createElement("td");
+        c.textContent = text;
+        if (cls) c.className = cls;
+        tr.append(c);
+        return c;
+      };
+      const th = document.createElement("th");
+      th.scope = "row";
+      th.textContent = p.label;
+      tr.append(th);
+      td(EW.num(p.x, 4) + ", " + EW.num(p.y, 4));
+      const vc = td((approx ? "≈ " : "") + EW.num(v, 6), "num probe-value");
+      vc.dataset.value = String(v);
+      td(EW.num(Math.hypot(qx, qy), 4), "num");
+      const cell = document.createElement("td");
+      const b = document.createElement("button");
+      b.type = "button";
+      b.className = "remove";
+      b.textContent = "×";
+      b.setAttribute("aria-label", "Remove probe " + p.label);
+      b.addEventListener("click", () => removeProbe(p.label));
+      cell.append(b);
+      tr.append(cell);
+      body.append(tr);
+    }
+
+  }
+
+  // ---- results ----
+
+  function renderResults(S) {
+    const r = S.result, u = S.units || {}, p = S.project;
+    const box = $("results");
+    box.replaceChildren();
+    const vu = u.value_unit || "", fu = u.flow_unit || "", L = u.length_unit || "m";
+    const at = (e) => "at x = " + EW.num(e.x, 4) + ", y = " + EW.num(e.y, 4) + " " + L;
+    const dl = document.createElement("dl");
+    dl.className = "kv";
+    const row = (k, v, note) => {
+      const dt = document.createElement("dt");
+      dt.textContent = k;
+      const dd = document.createElement("dd");
+      dd.textContent = v;
+      if (note) {
+        const s = document.createElement("span");
+        s.className = "note";
+        s.textContent = " " + note;
+        dd.append(s);
+      }
+      dl.append(dt, dd);
+      return dd;
+    };
+    row("Highest " + (u.value || "value"), EW.withUnit(EW.num(r.max.value, 5), vu), at(r.max)).id = "res-max";
+    row("Lowest " + (u.value || "value"), EW.withUnit(EW.num(r.min.value, 5), vu), at(r.min)).id = "res-min";
+    row("Mean " + (u.value || "value"), EW.withUnit(EW.num(r.mean, 5), vu), "over the rectangle").id = "res-mean";
+    box.append(dl);
+
+
+    // flows
+    const h = document.createElement("h3");
+    h.textContent = "Flow through the edges" + (fu ? " [" + fu + "]" : "");
+    const note = document.createElement("p");
+    note.className = "hint";
+    note.textContent = "Positive into the rectangle, per metre of depth.";
+    const t = document.createElement("table");
+    t.className = "flows";
+    t.id = "res-flows";
+    const add = (name, text, cls) => {
+      const tr = document.createElement("tr");
+      const th = document.createElement("th");
+      th.scope = "row";
+      th.textContent = name;
+      const td = document.createElement("td");
+      td.className = "num" + (cls ? " " + cls : "");
+      td.textContent = text;
+      tr.append(th, td);
+      t.append(tr);
+      return tr;
+    };
+    const infinite = [];
+    let largest = Math.abs(r.source_total || 0);
+    for (const side of ["top", "bottom", "left", "right"]) {
+      const e = r.edges[side];
+      if (e.finite && e.flow !== null) {
+        largest = Math.max(largest, Math.abs(e.flow));
+        add(EW.capital(side), EW.num(e.flow, 5));
+      } else {
+        infinite.push(side);
+        add(EW.capital(side), "∞ infinite", "inf");
+      }
+    }
+    if (r.source_total) add("Source", EW.num(r.source_total, 5));
+    let balanceText;
+    if (r.balance === null || infinite.length) {
+      balanceText = "not defined (an edge flow is infinite)";
+    } else {
+      balanceText = EW.num(r.balance, 3) + (largest > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / largest, 2) + " % of the largest flow)" : "");
+    }
+    add("Balance", balanceText, "balance").id = "res-balance";
+    box.append(h, note, t);
+    if (infinite.length) {
+      const why = document.createElement("p");
+      why.className = "why";
+      why.textContent = "Why infinite: the prescribed " + (u.value || "value") + " jumps at a corner of the " + infinite.join(" and ") +
+        " edge" + (infinite.length > 1 ? "s" : "") + ", so the gradient grows like 1/r towards that corner and the flow through the edge has no finite total. " +
+        "Real parts have a small gap or a rounded transition there; a formula that meets its neighbour's value at the corner gives a finite flow.";
+      box.append(why);
+    }
+
+    // accuracy
+    const ha = document.createElement("h3");
+    ha.textContent = "Accuracy";
+    const da = document.createElement("dl");
+    da.className = "kv";
+    box.append(ha, da);
+    const acc = r.accuracy || {};
+    const row2 = (k, v, note) => {
+      const dt = document.createElement("dt");
+      dt.textContent = k;
+      const dd = document.createElement("dd");
+      dd.textContent = v;
+      if (note) {
+        const s = document.createElement("span");
+        s.className = "note";
+        s.textContent = " " + note;
+        dd.append(s);
+      }
+      da.append(dt, dd);
+    };
+    row2("Series terms", String(acc.terms));
+    row2("Error estimate", EW.withUnit(EW.num(acc.estimate, 2), vu), "largest, away from singular corners");
+    if (acc.crosscheck !== null && acc.crosscheck !== undefined) {
+      row2("Cross-check", EW.withUnit(EW.num(acc.crosscheck, 2), vu), "largest difference from finite differences" + (acc.crosscheck_grid ? " (" + acc.crosscheck_grid + ")" : ""));
+    } else {
+      row2("Cross-check", "skipped", acc.crosscheck_skipped || "");
+    }
+    row2("Output grid", r.grid.nx + " × " + r.grid.ny + " intervals");
+    if (r.warnings && r.warnings.length) {
+      const ul = document.createElement("ul");
+      ul.className = "warnings";
+      for (const w of r.warnings) {
+        const li = document.createElement("li");
+        li.textContent = w;
+        ul.append(li);
+      }
+      box.append(ul);
+    }
+
+  }
+
+  function renderCautions(r) {
+    const ul = $("cautions");
+    ul.replaceChildren();
+    const list = r.cautions || [];
+    list.forEach((c, i) => {
+      const li = document.createElement("li");
+      li.textContent = c;
+      if (i === list.length - 1) li.className = "deferral";
+      ul.append(li);
+    });
+  }
+
+  // ---- the public interface ----
+
+  async function load(project) {
+    let obj = project;
+    if (typeof project === "string") {
+      try {
+        obj = JSON.parse(project);
+      } catch (e) {
+        const err = Object.assign(new Error("not a project file: " + e.message), { path: "", col: 0 });
+        setStatus(err.message, "error");
+        throw err;
+      }
+    }
+    if (obj === null || typeof obj !== "object" || Array.isArray(obj)) {
+      const err = Object.assign(new Error("not a project file: expected a JSON object"), { path: "", col: 0 });
+      setStatus(err.message, "error");
+      throw err;
+    }
+    obj = JSON.parse(JSON.stringify(obj));
+    clearTimeout(editTimer);
+    const t0 = performance.now();
+    const out = await request(obj);
+    if (!out.reply.ok) {
+      const e = engineError(out.reply);
+      if (out.newest) setStatus("Not loaded: " + e.message, "error");
+      throw e;
+    }
+    if (!out.newest) return JSON.parse(out.reply.result);
+    EW.fill(obj);
+    typed = obj;
+    previews(obj);
+    return apply(obj, out.reply, out.ms, t0);
   }
 
   async function demo() {
@@ -163,22 +495,43 @@
     return resp.json();
   }
 
+  const copy = (p) => (p ? JSON.parse(JSON.stringify(p)) : null);
   window.edgewise = {
     load,
-    project: () => (current ? JSON.parse(JSON.stringify(current)) : null),
-    link: () => location.href.split("#")[0] + "#p=" + encodeURIComponent(JSON.stringify(current)),
+    project: () => copy(typed || current),
+    link: () => location.href.split("#")[0] + "#p=" + encodeURIComponent(JSON.stringify(typed || current)),
   };
-  // For the page's other scripts (outputs.js): the engine and the demo.
-  window.edgewiseInternal = { call, demo };
+  // For the page's other scripts (outputs.js): the engine, the demo and
+  // what is on screen.
+  window.edgewiseInternal = {
+    call,
+    demo,
+    last: () => lastGood, // {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
+    colourMap: () => EW.colourMap(), // {mode, lo, hi, table: Uint8Array rgb}
+    canvases: () => EW.canvases(), // {field, legend, profile}
+    units: (physics) => (EW.unitsets || {})[physics || (typed || current || {}).physics],
+  };
 
   // Boot after the other scripts have run: window.edgewiseBoot, when one
   // of them sets it, chooses the first project (share link, autosave, ...).
   setTimeout(async () => {
+    let first = null;
     try {
-      const first = (window.edgewiseBoot && (await window.edgewiseBoot())) || (await demo());
+      const [units, colours] = await Promise.all([call("units"), call("colours", 256)]);
+      EW.unitsets = units.value;
+      EW.colours = colours.value;
+      first = (window.edgewiseBoot && (await window.edgewiseBoot())) || (await demo());
       await load(first);
     } catch (e) {
-      setStatus(e.message, true);
+      setStatus(e.message, "error");
+      if (first && typeof first === "object" && !lastGood) {
+        // show the project that did not solve, so it can be fixed
+        try {
+          EW.fill(first);
+          typed = first;
+          if (e.path !== undefined) EW.showError(e.path, e.col, e.message);
+        } catch (_) { /* the form keeps its defaults */ }
+      }
     }
   }, 0);
 })();

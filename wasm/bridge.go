@@ -3,7 +3,6 @@
 package main
 
 import (
-	"encoding/json"
 	"errors"
 	"fmt"
 	"unsafe"
@@ -16,14 +15,11 @@ import (
 // engine keeps its buffers between solves: wasm memory never shrinks.
 var engine solver.Solver
 
+// defaultLevels is the number of isoline levels when the caller does not say.
+const defaultLevels = 10
+
 // solveCall decodes the JavaScript arguments, solves and builds the reply.
-// It recovers its own panics.
-func solveCall(args []safejs.Value) (reply any) {
-	defer func() {
-		if r := recover(); r != nil {
-			reply = failure(fmt.Errorf("internal error in the engine: %v (please report this project)", r))
-		}
-	}()
+func solveCall(args []safejs.Value) any {
 	if len(args) < 1 {
 		return failure(errors.New("edgewise_solve needs the project JSON"))
 	}
@@ -39,11 +35,17 @@ func solveCall(args []safejs.Value) (reply any) {
 			opt.Nx, opt.Ny = nx, ny
 		}
 	}
-	return solveText(text, opt)
+	levels := defaultLevels
+	if len(args) >= 4 {
+		if n, err := args[3].Int(); err == nil && n >= 0 {
+			levels = min(n, 60)
+		}
+	}
+	return solveText(text, opt, levels)
 }
 
 // solveText is the part of a call that does not read JavaScript arguments.
-func solveText(text string, opt solver.Options) any {
+func solveText(text string, opt solver.Options, levels int) any {
 	p, err := solver.Decode([]byte(text))
 	if err != nil {
 		return failure(err)
@@ -52,12 +54,17 @@ func solveText(text string, opt solver.Options) any {
 	if err != nil {
 		return failure(err)
 	}
-	res, err := json.Marshal(&out.Result)
-	if err != nil {
-		return failure(fmt.Errorf("encoding the result: %w", err))
+	reply := map[string]any{"ok": true, "result": string(out.Result.JSON()), "nx": out.Nx, "ny": out.Ny, "w": out.W, "h": out.H}
+	arrays := map[string][]float64{"u": out.U, "ux": out.Ux, "uy": out.Uy}
+	if levels > 0 {
+		iso := out.Isolines(levels)
+		ends := make([]float64, len(iso.Ends))
+		for k, e := range iso.Ends {
+			ends[k] = float64(e)
+		}
+		arrays["levels"], arrays["segs"], arrays["ends"], arrays["labels"] = iso.Levels, iso.Segs, ends, iso.Labels
 	}
-	reply := map[string]any{"ok": true, "result": string(res), "nx": out.Nx, "ny": out.Ny}
-	for name, s := range map[string][]float64{"u": out.U, "ux": out.Ux, "uy": out.Uy} {
+	for name, s := range arrays {
 		arr, err := float64Array(s)
 		if err != nil {
 			return failure(err)
@@ -76,6 +83,22 @@ func failure(err error) map[string]any {
 		r["path"], r["col"] = fe.Path, fe.Col
 	}
 	return r
+}
+
+// uint8Array copies b into a new JavaScript Uint8Array.
+func uint8Array(b []byte) (safejs.Value, error) {
+	ctor, err := safejs.Global().Get("Uint8Array")
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	arr, err := ctor.New(len(b))
+	if err != nil {
+		return safejs.Value{}, err
+	}
+	if _, err := safejs.CopyBytesToJS(arr, b); err != nil {
+		return safejs.Value{}, err
+	}
+	return arr, nil
 }
 
 // float64Array copies s into a new JavaScript Float64Array in one block copy.

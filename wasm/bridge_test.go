@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"edgewise/solver"
+	"edgewise/solver/colour"
 
 	"github.com/hack-pad/safejs"
 )
@@ -67,11 +68,11 @@ func TestSolveThroughJS(t *testing.T) {
 // Bad input comes back as an error reply naming the field, not a panic.
 func TestErrorReply(t *testing.T) {
 	bad := strings.Replace(square, `"width":1`, `"width":-1`, 1)
-	r := solveText(bad, solver.Options{}).(map[string]any)
+	r := solveText(bad, solver.Options{}, 0).(map[string]any)
 	if r["ok"] != false || r["path"] != "width" || !strings.Contains(r["error"].(string), "width:") {
 		t.Errorf("reply = %v, want an error naming width", r)
 	}
-	r = solveText("{not json", solver.Options{}).(map[string]any)
+	r = solveText("{not json", solver.Options{}, 0).(map[string]any)
 	if r["ok"] != false {
 		t.Errorf("reply = %v, want an error", r)
 	}
@@ -91,4 +92,120 @@ func abs(x float64) float64 {
 		return -x
 	}
 	return x
+}
+
+// The solve reply carries the isolines as Float64Arrays: for the square
+// with one edge at 1, every level lies within [0, 1] (the
+// field's range) and each level's segments end where the next begin.
+func TestSolveIsolines(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, _ := safejs.Global().Get("edgewise_solve")
+	reply, err := fn.Invoke(square, 16, 16, 5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	levels, ends := mustGet(t, reply, "levels"), mustGet(t, reply, "ends")
+	nl, _ := levels.Length()
+	ne, _ := ends.Length()
+	if nl < 2 || nl != ne {
+		t.Fatalf("%d levels and %d ends, want the same number, at least 2", nl, ne)
+	}
+	for k := 0; k < nl; k++ {
+		v, _ := levels.Index(k)
+		f, _ := v.Float()
+		if f < 0 || f > 1 {
+			t.Errorf("level %d = %g, want within [0, 1]", k, f)
+		}
+	}
+	segs := mustGet(t, reply, "segs")
+	ns, _ := segs.Length()
+	last, _ := ends.Index(ne - 1)
+	if n, _ := last.Int(); n != ns || ns == 0 || ns%4 != 0 {
+		t.Errorf("segments: %d numbers, last end %d; want a non-empty multiple of 4 matching the last end", ns, n)
+	}
+}
+
+// The colour tables are the colour package's own, 3 bytes per colour.
+func TestColoursThroughJS(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, _ := safejs.Global().Get("edgewise_colours")
+	reply, err := fn.Invoke(16)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, m := range map[string][]uint8{"sequential": colour.Sequential.Table(16), "diverging": colour.Diverging.Table(16)} {
+		arr := mustGet(t, reply, name)
+		n, _ := arr.Length()
+		if n != len(m) {
+			t.Fatalf("%s has %d bytes, want %d", name, n, len(m))
+		}
+		for k := range m {
+			v, _ := arr.Index(k)
+			if b, _ := v.Int(); b != int(m[k]) {
+				t.Fatalf("%s[%d] = %d, want %d", name, k, b, m[k])
+			}
+		}
+	}
+}
+
+// The edge preview samples the formula along the edge; a bad formula comes
+// back as an error reply with the path and column.
+func TestPreviewThroughJS(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, _ := safejs.Global().Get("edgewise_preview")
+	p := strings.Replace(square, `"top":{"kind":"value","expr":"1"}`, `"top":{"kind":"value","expr":"2*s"}`, 1)
+	reply, err := fn.Invoke(p, "top", 4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v := mustGet(t, reply, "v")
+	if n, _ := v.Length(); n != 5 {
+		t.Fatalf("preview has %d samples, want 5", n)
+	}
+	// exact: 2*s at s = 0.75 on the unit square
+	x, _ := v.Index(3)
+	if f, _ := x.Float(); abs(f-1.5) > 1e-12 {
+		t.Errorf("v[3] = %g, want 1.5", f)
+	}
+	bad := strings.Replace(square, `"expr":"1"`, `"expr":"sinn(s)"`, 1)
+	reply, err = fn.Invoke(bad, "top", 4)
+	if err != nil {
+		t.Fatal(err)
+	}
+	path, _ := mustGet(t, reply, "path").String()
+	col, _ := mustGet(t, reply, "col").Int()
+	if path != "edges.top.expr" || col != 1 {
+		t.Errorf("error at %q col %d, want edges.top.expr col 1", path, col)
+	}
+}
+
+// The unit sets reach the page keyed by physics.
+func TestUnitsThroughJS(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, _ := safejs.Global().Get("edgewise_units")
+	reply, err := fn.Invoke()
+	if err != nil {
+		t.Fatal(err)
+	}
+	heat := mustGet(t, reply, "heat")
+	if v, _ := mustGet(t, heat, "value").String(); v != solver.Units(solver.Heat).Value {
+		t.Errorf("heat value name = %q, want %q", v, solver.Units(solver.Heat).Value)
+	}
+}
+
+// A panic inside a call becomes an error reply, not a crash.
+func TestPanicBecomesError(t *testing.T) {
+	f := guarded("test", func([]safejs.Value) any { panic("boom") })
+	r, ok := f(safejs.Value{}, nil).(map[string]any)
+	if !ok || r["ok"] != false || !strings.Contains(r["error"].(string), "boom") {
+		t.Errorf("reply = %v, want an error reply naming the panic", r)
+	}
 }

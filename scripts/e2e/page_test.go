@@ -1,0 +1,264 @@
+package e2e
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/chromedp"
+)
+
+// plate is a value-edge project (all the engine in use solves today) with
+// round numbers: a 0.4 m x 0.2 m plate, hot bottom, cool top.
+const plate = `{schema: "edgewise/1", title: "test plate", physics: "heat",
+  width: 0.4, height: 0.2, conductivity: 50, source: 0,
+  edges: {bottom: {kind: "value", expr: "90"}, top: {kind: "value", expr: "20"},
+          left: {kind: "value", expr: "40"}, right: {kind: "value", expr: "40"}},
+  probes: []}`
+
+// setWidth emulates a screen of the given CSS size.
+func (tb *tab) setWidth(t *testing.T, w, h int64) {
+	t.Helper()
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, emulation.SetDeviceMetricsOverride, emulation.SetDeviceMetricsOverrideParams{Width: w, Height: h, DeviceScaleFactor: 1, Mobile: w < 600})
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// solved is the page's count of successful solves.
+func (tb *tab) solved(t *testing.T) int {
+	t.Helper()
+	return eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
+}
+
+// waitFor polls a JavaScript condition until it holds.
+func (tb *tab) waitFor(t *testing.T, cond, what string) {
+	t.Helper()
+	if _, err := chromedp.Run(tb.ctx, chromedp.Poll[bool](cond, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		status, _ := chromedp.Run(tb.ctx, chromedp.Evaluate[string](`document.getElementById("status").textContent`))
+		t.Fatalf("waiting for %s: %v; status: %q", what, err, status)
+	}
+}
+
+// typeInto replaces the text of an input the way a user does: focus it,
+// select all, type.
+func (tb *tab) typeInto(t *testing.T, sel, text string) {
+	t.Helper()
+	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.CSS(sel))); err != nil {
+		t.Fatalf("focus %s: %v", sel, err)
+	}
+	eval[bool](t, tb, `(document.activeElement.select(), true)`)
+	if err := chromedp.Do(tb.ctx, chromedp.SendKeys(chromedp.CSS(sel), text)); err != nil {
+		t.Fatalf("typing into %s: %v", sel, err)
+	}
+}
+
+// loadPlate loads the test plate through the page's interface.
+func (tb *tab) loadPlate(t *testing.T) {
+	t.Helper()
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewise.load(`+plate+`)`)
+	tb.waitSolved(t, n+1)
+}
+
+// readNumber reads a number as the page writes it: U+2212 for minus and
+// "×10" with superscript digits for powers of ten; a leading "≈ " is
+// dropped.
+func readNumber(s string) (float64, error) {
+	s = strings.TrimSpace(strings.TrimPrefix(strings.TrimSpace(s), "≈"))
+	s = strings.ReplaceAll(s, "−", "-")
+	if i := strings.Index(s, "×10"); i >= 0 {
+		exp := strings.NewReplacer("⁻", "-", "⁰", "0", "¹", "1", "²", "2", "³", "3", "⁴", "4", "⁵", "5", "⁶", "6", "⁷", "7", "⁸", "8", "⁹", "9").Replace(s[i+len("×10"):])
+		s = s[:i] + "e" + exp
+	}
+	return strconv.ParseFloat(s, 64)
+}
+
+func TestReadNumber(t *testing.T) {
+	for _, c := range []struct {
+		in   string
+		want float64
+	}{{"63.25", 63.25}, {"−1.5", -1.5}, {"2.5×10⁻⁴", 2.5e-4}, {"≈ 1×10⁵", 1e5}} {
+		if got, err := readNumber(c.in); err != nil || got != c.want {
+			t.Errorf("readNumber(%q) = %v, %v; want %v", c.in, got, err, c.want)
+		}
+	}
+}
+
+// Typing a formula into an edge field re-solves and redraws the picture.
+func TestTypeFormulaRedraws(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	before := eval[string](t, tb, `document.getElementById("field").toDataURL()`)
+	n := tb.solved(t)
+	formula := "55 + 20*s/W"
+	tb.typeInto(t, "#in-top-expr", formula)
+	tb.waitSolved(t, n+1)
+	// the typed text is the solved project's top edge
+	tb.waitFor(t, `window.edgewiseInternal.last().project.edges.top.expr === "`+formula+`"`, "the typed formula to be solved")
+	after := eval[string](t, tb, `document.getElementById("field").toDataURL()`)
+	if after == before {
+		t.Errorf("the picture did not change after the top edge went from 20 to %q", formula)
+	}
+	// the top edge got warmer: its middle node reads 65 by the formula,
+	// 20 before. The bound only has to tell the two apart (engine accuracy
+	// at an edge node is tested natively).
+	top := eval[float64](t, tb, `(() => { const s = window.edgewiseInternal.last();
+	  return s.u[s.ny * (s.nx + 1) + (s.nx >> 1)]; })()`)
+	if top < 50 {
+		t.Errorf("top-middle value %g after typing %q, want well above the old 20", top, formula)
+	}
+	if p := eval[string](t, tb, `window.edgewise.project().edges.top.expr`); p != formula {
+		t.Errorf("project() has top expr %q, want %q", p, formula)
+	}
+	tb.shot(t, "typed-formula")
+}
+
+// A bad formula shows the engine's message with a caret under the column,
+// and the last good picture stays.
+func TestBadFormulaShowsCaret(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	before := eval[string](t, tb, `document.getElementById("field").toDataURL()`)
+	n := tb.solved(t)
+	tb.typeInto(t, "#in-left-expr", "40 + sinn(s)")
+	tb.waitFor(t, `!!document.querySelector("#err-left .caret")`, "the caret error under the left edge")
+	msg := eval[string](t, tb, `document.querySelector("#err-left .err-msg").textContent`)
+	if !strings.Contains(msg, `unknown name "sinn"`) || !strings.Contains(msg, "edges.left.expr") {
+		t.Errorf("error message %q, want the field path and the unknown name", msg)
+	}
+	caret := eval[string](t, tb, `document.querySelector("#err-left .caret").textContent`)
+	lines := strings.Split(caret, "\n")
+	// "40 + sinn(s)": sinn starts at byte column 6
+	if len(lines) != 2 || lines[0] != "40 + sinn(s)" || lines[1] != "     ^" {
+		t.Errorf("caret block %q, want the formula and a caret under column 6", caret)
+	}
+	if inv := eval[string](t, tb, `document.getElementById("in-left-expr").getAttribute("aria-invalid") || ""`); inv != "true" {
+		t.Errorf("the bad input is not marked aria-invalid")
+	}
+	if got := tb.solved(t); got != n {
+		t.Errorf("solves went from %d to %d on a bad formula", n, got)
+	}
+	if after := eval[string](t, tb, `document.getElementById("field").toDataURL()`); after != before {
+		t.Errorf("the picture changed after a bad formula; the last good one must stay")
+	}
+	tb.shot(t, "bad-formula")
+	// fixing it clears the error and solves again
+	tb.typeInto(t, "#in-left-expr", "40 + sinh(0)")
+	tb.waitSolved(t, n+1)
+	if eval[bool](t, tb, `!!document.querySelector("#err-left .caret")`) {
+		t.Errorf("the caret error stayed after the formula was fixed")
+	}
+}
+
+// Clicking the picture pins a probe whose value, as the results table
+// shows it, is the engine's value at that point.
+func TestPinProbe(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	n := tb.solved(t)
+	// a point at about 30 % across and 40 % up the rectangle, in page pixels
+	pt := eval[[]float64](t, tb, `(() => {
+	  const c = document.getElementById("field"), r = c.getBoundingClientRect();
+	  const s = window.edgewiseInternal.last();
+	  // the plot area: find it from the canvas mapping the page uses
+	  return window.edgewiseParts.screenOf(0.3 * s.w, 0.4 * s.h).map((v, i) => v + (i ? r.top : r.left));
+	})()`)
+	if err := chromedp.Do(tb.ctx, chromedp.MouseClickXY(pt[0], pt[1])); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitSolved(t, n+1)
+	tb.waitFor(t, `(() => { const c = document.querySelector("#probes tbody tr .probe-value"); return !!c && !c.textContent.startsWith("≈"); })()`, "the probe's engine value")
+	shown := eval[string](t, tb, `document.querySelector("#probes tbody tr .probe-value").textContent`)
+	got, err := readNumber(shown)
+	if err != nil {
+		t.Fatalf("probe value %q: %v", shown, err)
+	}
+	probe := eval[map[string]any](t, tb, `window.edgewise.project().probes[0]`)
+	x, y := probe["x"].(float64), probe["y"].(float64)
+	if x < 0.25*0.4 || x > 0.35*0.4 || y < 0.35*0.2 || y > 0.45*0.2 {
+		t.Errorf("probe pinned at (%g, %g), want near (0.12, 0.08)", x, y)
+	}
+	// the engine's value at the same point, by a direct call
+	want := eval[float64](t, tb, fmt.Sprintf(`(async () => {
+	  const p = Object.assign(%s, {probes: [{x: %v, y: %v, label: "Q"}]});
+	  const m = await window.edgewiseInternal.call("solve", JSON.stringify(p), 0, 0, 0);
+	  return JSON.parse(m.value.result).probes[0].value; })()`, plate, x, y))
+	// the table shows 6 significant digits: 1e-5 relative is the rounding
+	if math.Abs(got-want) > 1e-5*math.Abs(want) {
+		t.Errorf("pinned probe shows %q = %g, engine gives %g", shown, got, want)
+	}
+	// keyboard: focus the picture and press Enter pins a second probe
+	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID("field")), chromedp.KeyEvent("\r")); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `document.querySelectorAll("#probes tbody tr").length === 2`, "a second probe from the keyboard")
+	tb.shot(t, "probes")
+}
+
+// Switching the physics changes the labels, the units and the cautions.
+func TestSwitchPhysics(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	label := func() string { return eval[string](t, tb, `document.getElementById("in-top-expr-label").textContent`) }
+	cautions := func() []string {
+		return eval[[]string](t, tb, `[...document.querySelectorAll("#cautions li")].map(li => li.textContent)`)
+	}
+	if l := label(); !strings.Contains(l, "Temperature") || !strings.Contains(l, "°C") {
+		t.Errorf("heat label %q, want temperature in °C", l)
+	}
+	heat := cautions()
+	// the plate reaches 90 °C: the burn caution (rule of thumb, about 60 °C)
+	if len(heat) < 2 || !strings.Contains(strings.Join(heat, " "), "burn") {
+		t.Errorf("heat cautions %q, want a burn caution and the deferral", heat)
+	}
+	n := tb.solved(t)
+	// pick the option as a user's choice does: value, then a change event
+	eval[bool](t, tb, `(() => { const s = document.getElementById("in-physics"); s.focus(); s.value = "electrostatic";
+	  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+	tb.waitSolved(t, n+1)
+	if l := label(); !strings.Contains(l, "Potential") || !strings.Contains(l, "[V]") {
+		t.Errorf("electrostatic label %q, want potential in V", l)
+	}
+	if k := eval[string](t, tb, `document.querySelector("[data-q=conductivity]").textContent`); k != "Permittivity" {
+		t.Errorf("material label %q, want Permittivity", k)
+	}
+	elec := cautions()
+	if len(elec) < 2 || !strings.Contains(elec[0], "kV/mm") {
+		t.Errorf("electrostatic cautions %q, want the peak field against 3 kV/mm first", elec)
+	}
+	if heat[len(heat)-1] == "" || elec[len(elec)-1] != heat[len(heat)-1] || !strings.Contains(elec[len(elec)-1], "licensed") {
+		t.Errorf("the last caution must be the same deferral to codes and licensed practice: %q / %q", heat[len(heat)-1], elec[len(elec)-1])
+	}
+	if strings.Join(heat, "|") == strings.Join(elec, "|") {
+		t.Errorf("cautions did not change with the physics")
+	}
+	tb.shot(t, "electrostatic")
+}
+
+// The page at a laptop size and at a phone's width, for people to look at;
+// at the narrow width nothing sticks out sideways.
+func TestScreens(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.shot(t, "page-1280")
+	drawn := eval[int](t, tb, `Number(document.documentElement.dataset.drawn)`)
+	tb.setWidth(t, 420, 900)
+	tb.waitFor(t, fmt.Sprintf(`Number(document.documentElement.dataset.drawn) > %d`, drawn), "the redraw at 420 px")
+	tb.shot(t, "page-420")
+	if w := eval[int](t, tb, `document.documentElement.scrollWidth`); w > 420 {
+		t.Errorf("the page is %d px wide at a 420 px screen: something sticks out", w)
+	}
+}

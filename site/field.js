@@ -1,0 +1,607 @@
+// edgewise page, part 2 of 4: the picture. Draws the solved field on the
+// canvas #field (heat map through the engine's colour tables, labelled
+// isolines, optional flux arrows, axes to scale, probes, the profile line),
+// the legend, the pointer readout and the line-profile plot.
+"use strict";
+(function () {
+  const EW = (window.edgewiseParts = window.edgewiseParts || {});
+  const $ = (id) => document.getElementById(id);
+  const canvas = $("field");
+  const legend = $("legend");
+  const profileCanvas = $("profile");
+  const INK = "#1b2029";
+  const PAPER = "#fbfaf6";
+
+  let S = null; // the shown solve: {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
+  let box = null; // plot area in CSS pixels {x0, y0, w, h, scaled}
+  let base = null; // offscreen canvas: everything but the pointer layer
+  let heat = null; // offscreen canvas: the heat map, one pixel per node
+  let map = null; // {mode, table, lo, hi, t(v)}
+  let cursor = null; // {x, y} in field coordinates (pointer or keyboard)
+  let profile = null; // {a: {x, y}, b: {x, y}}
+  let profileMode = false;
+  let drag = null;
+  const opts = { iso: true, arrows: false, colours: "auto" };
+  EW.colours = null; // {sequential, diverging: Uint8Array(3n), n}
+
+  // ---- sampling ----
+
+  // sample interpolates the value and gradient at (x, y) bilinearly from
+  // the output grid.
+  function sample(x, y) {
+    const { nx, ny, w, h } = S;
+    const fi = Math.min(Math.max((x / w) * nx, 0), nx);
+    const fj = Math.min(Math.max((y / h) * ny, 0), ny);
+    const i = Math.min(Math.floor(fi), nx - 1), j = Math.min(Math.floor(fj), ny - 1);
+    const a = fi - i, b = fj - j;
+    const k = j * (nx + 1) + i;
+    const lerp = (arr) =>
+      (1 - b) * ((1 - a) * arr[k] + a * arr[k + 1]) + b * ((1 - a) * arr[k + nx + 1] + a * arr[k + nx + 2]);
+    return { u: lerp(S.u), ux: lerp(S.ux), uy: lerp(S.uy) };
+  }
+  EW.sample = (x, y) => (S ? sample(x, y) : null);
+
+  // ---- colour ----
+
+  function chooseMap() {
+    const r = S.result;
+    const lo = r.min.value, hi = r.max.value;
+    let mode = opts.colours;
+    if (mode === "auto") {
+      // two-sided when the field really changes sign: the smaller side
+      // reaches at least a tenth of the larger
+      mode = lo < 0 && hi > 0 && Math.min(-lo, hi) >= 0.1 * Math.max(-lo, hi) ? "diverging" : "sequential";
+    }
+    const table = EW.colours[mode];
+    const n = table.length / 3;
+    let a = lo, b = hi;
+    if (mode === "diverging") {
+      const m = Math.max(Math.abs(lo), Math.abs(hi)) || 1;
+      a = -m; b = m;
+    }
+    const span = b > a ? b - a : 1;
+    const t = (v) => Math.min(n - 1, Math.max(0, Math.round(((v - a) / span) * (n - 1))));
+    map = { mode, table, lo: a, hi: b, n, index: t };
+  }
+  EW.colourMap = () => map && { mode: map.mode, lo: map.lo, hi: map.hi, table: map.table };
+
+  function buildHeat() {
+    const { nx, ny, u } = S;
+    heat = heat || document.createElement("canvas");
+    heat.width = nx + 1;
+    heat.height = ny + 1;
+    const ctx = heat.getContext("2d");
+    const img = ctx.createImageData(nx + 1, ny + 1);
+    const d = img.data, tab = map.table;
+    for (let j = 0; j <= ny; j++) {
+      const row = (ny - j) * (nx + 1); // y up
+      for (let i = 0; i <= nx; i++) {
+        const c = 3 * map.index(u[j * (nx + 1) + i]);
+        const k = 4 * (row + i);
+        d[k] = tab[c]; d[k + 1] = tab[c + 1]; d[k + 2] = tab[c + 2]; d[k + 3] = 255;
+      }
+    }
+    ctx.putImageData(img, 0, 0);
+  }
+
+  // ---- layout ----
+
+  function layout() {
+    const wrap = canvas.parentElement;
+    const cssW = Math.max(200, wrap.clientWidth);
+    const m = { l: 54, r: 14, t: 14, b: 40 };
+    const W = S.w, H = S.h;
+    const availW = cssW - m.l - m.r;
+    const maxH = Math.max(150, Math.min(window.innerHeight * 0.58, 540));
+    let w = availW, h = (availW * H) / W, scaled = true;
+    if (h > maxH) { h = maxH; w = (h * W) / H; }
+    if (h < 48) { h = 48; scaled = false; }
+    if (w < 48) { w = 48; scaled = false; }
+    const x0 = m.l + (availW - w) / 2;
+    box = { x0, y0: m.t, w, h, scaled, cssW, cssH: h + m.t + m.b };
+  }
+  const X = (x) => box.x0 + (x / S.w) * box.w;
+  const Y = (y) => box.y0 + (1 - y / S.h) * box.h;
+  const fromScreen = (px, py) => ({
+    x: ((px - box.x0) / box.w) * S.w,
+    y: (1 - (py - box.y0) / box.h) * S.h,
+  });
+
+  function size(c, w, h) {
+    const dpr = window.devicePixelRatio || 1;
+    c.width = Math.round(w * dpr);
+    c.height = Math.round(h * dpr);
+    c.style.height = h + "px";
+    const ctx = c.getContext("2d");
+    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    return ctx;
+  }
+
+  // ---- drawing ----
+
+  function drawBase() {
+    base = base || document.createElement("canvas");
+    const ctx = size(base, box.cssW, box.cssH);
+    ctx.fillStyle = PAPER;
+    ctx.fillRect(0, 0, box.cssW, box.cssH);
+    ctx.imageSmoothingEnabled = true;
+    ctx.imageSmoothingQuality = "high";
+    ctx.drawImage(heat, box.x0, box.y0, box.w, box.h);
+    ctx.save();
+    ctx.beginPath();
+    ctx.rect(box.x0, box.y0, box.w, box.h);
+    ctx.clip();
+    if (opts.iso && S.levels) drawIsolines(ctx);
+    if (opts.arrows) drawArrows(ctx);
+    ctx.restore();
+    ctx.strokeStyle = INK;
+    ctx.lineWidth = 1.5;
+    ctx.strokeRect(box.x0, box.y0, box.w, box.h);
+    drawAxes(ctx);
+  }
+
+  function levelDigits() {
+    const L = S.levels;
+    if (!L || L.length < 2) return 4;
+    const step = Math.abs(L[1] - L[0]);
+    const big = Math.max(Math.abs(L[0]), Math.abs(L[L.length - 1]));
+    return Math.max(2, Math.min(6, Math.ceil(Math.log10(big / step + 1e-12)) + 1));
+  }
+
+  function drawIsolines(ctx) {
+    const { segs, ends, labels, levels } = S;
+    ctx.lineWidth = 1;
+    ctx.strokeStyle = "rgba(20, 24, 32, 0.6)";
+    ctx.beginPath();
+    for (let k = 0; k < segs.length; k += 4) {
+      ctx.moveTo(X(segs[k]), Y(segs[k + 1]));
+      ctx.lineTo(X(segs[k + 2]), Y(segs[k + 3]));
+    }
+    ctx.stroke();
+    if (!ends) return;
+    // labels: value along the line, upright, with a halo; skip crowded ones
+    const digits = levelDigits();
+    ctx.font = "600 11px system-ui, sans-serif";
+    ctx.textAlign = "center";
+    ctx.textBaseline = "middle";
+    const placed = [];
+    for (let k = 0; k < labels.length; k += 4) {
+      const px = X(labels[k]), py = Y(labels[k + 1]);
+      if (placed.some((p) => Math.hypot(p[0] - px, p[1] - py) < 46)) continue;
+      if (px < box.x0 + 14 || px > box.x0 + box.w - 14 || py < box.y0 + 8 || py > box.y0 + box.h - 8) continue;
+      placed.push([px, py]);
+      let ang = -labels[k + 2];
+      if (Math.cos(ang) < 0) ang += Math.PI;
+      const text = EW.num(levels[labels[k + 3]], digits);
+      ctx.save();
+      ctx.translate(px, py);
+      ctx.rotate(ang);
+      ctx.lineWidth = 3.5;
+      ctx.strokeStyle = "rgba(251, 250, 246, 0.9)";
+      ctx.strokeText(text, 0, 0);
+      ctx.fillStyle = INK;
+      ctx.fillText(text, 0, 0);
+      ctx.restore();
+    }
+  }
+
+  function drawArrows(ctx) {
+    const n = 16;
+    const cell = Math.max(box.w, box.h) / n;
+    const cols = Math.max(1, Math.round(box.w / cell)), rows = Math.max(1, Math.round(box.h / cell));
+    const pts = [];
+    let qmax = 0;
+    for (let j = 0; j < rows; j++) {
+      for (let i = 0; i < cols; i++) {
+        const x = ((i + 0.5) / cols) * S.w, y = ((j + 0.5) / rows) * S.h;
+        const g = sample(x, y);
+        const qx = -S.kx * g.ux, qy = -S.ky * g.uy;
+        const q = Math.hypot(qx, qy);
+        if (q > qmax) qmax = q;
+        pts.push([x, y, qx, qy, q]);
+      }
+    }
+    if (!(qmax > 0)) return;
+    const len = 0.85 * Math.min(box.w / cols, box.h / rows);
+    for (const [x, y, qx, qy, q] of pts) {
+      const l = (len * q) / qmax;
+      if (l < 2) continue;
+      const dx = (qx / q) * l, dy = (-qy / q) * l; // screen y down
+      const cx = X(x), cy = Y(y);
+      const x1 = cx - dx / 2, y1 = cy - dy / 2, x2 = cx + dx / 2, y2 = cy + dy / 2;
+      const hl = Math.min(6, l * 0.4), a = Math.atan2(dy, dx);
+      for (const [style, width] of [["rgba(251,250,246,0.85)", 3], [INK, 1.2]]) {
+        ctx.strokeStyle = style;
+        ctx.lineWidth = width;
+        ctx.beginPath();
+        ctx.moveTo(x1, y1);
+        ctx.lineTo(x2, y2);
+        ctx.moveTo(x2 - hl * Math.cos(a - 0.45), y2 - hl * Math.sin(a - 0.45));
+        ctx.lineTo(x2, y2);
+        ctx.lineTo(x2 - hl * Math.cos(a + 0.45), y2 - hl * Math.sin(a + 0.45));
+        ctx.stroke();
+      }
+    }
+  }
+
+  function drawAxes(ctx) {
+    const lu = (S.units && S.units.length_unit) || "m";
+    ctx.fillStyle = INK;
+    ctx.strokeStyle = INK;
+    ctx.lineWidth = 1;
+    ctx.font = "11px system-ui, sans-serif";
+    ctx.textAlign = "center";
+    ctx.textBaseline = "top";
+    const xt = EW.niceTicks(0, S.w, Math.max(2, Math.floor(box.w / 80)));
+    for (const t of xt) {
+      const px = X(t);
+      ctx.beginPath(); ctx.moveTo(px, box.y0 + box.h); ctx.lineTo(px, box.y0 + box.h + 4); ctx.stroke();
+      ctx.fillText(EW.num(t, 3), px, box.y0 + box.h + 6);
+    }
+    ctx.fillText("x [" + lu + "]" + (box.scaled ? "" : "   (not to scale)"), box.x0 + box.w / 2, box.y0 + box.h + 22);
+    ctx.textAlign = "right";
+    ctx.textBaseline = "middle";
+    const yt = EW.niceTicks(0, S.h, Math.max(2, Math.floor(box.h / 50)));
+    for (const t of yt) {
+      const py = Y(t);
+      ctx.beginPath(); ctx.moveTo(box.x0 - 4, py); ctx.lineTo(box.x0, py); ctx.stroke();
+      ctx.fillText(EW.num(t, 3), box.x0 - 6, py);
+    }
+    ctx.save();
+    ctx.translate(12, box.y0 + box.h / 2);
+    ctx.rotate(-Math.PI / 2);
+    ctx.textAlign = "center";
+    ctx.fillText("y [" + lu + "]", 0, 0);
+    ctx.restore();
+  }
+
+  function drawLegend() {
+    const w = 96;
+    const ctx = size(legend, w, box.cssH);
+    legend.style.width = w + "px";
+    ctx.fillStyle = PAPER;
+    ctx.fillRect(0, 0, w, box.cssH);
+    const top = box.y0, h = box.h, x = 6, bw = 16;
+    for (let py = 0; py < h; py++) {
+      const v = map.hi - ((py + 0.5) / h) * (map.hi - map.lo);
+      const c = 3 * map.index(v);
+      ctx.fillStyle = "rgb(" + map.table[c] + "," + map.table[c + 1] + "," + map.table[c + 2] + ")";
+      ctx.fillRect(x, top + py, bw, 1.5);
+    }
+    ctx.strokeStyle = INK;
+    ctx.strokeRect(x, top, bw, h);
+    ctx.fillStyle = INK;
+    ctx.font = "11px system-ui, sans-serif";
+    ctx.textAlign = "left";
+    ctx.textBaseline = "middle";
+    const ticks = EW.niceTicks(map.lo, map.hi, Math.max(2, Math.floor(h / 40)));
+    for (const t of ticks) {
+      const py = top + ((map.hi - t) / (map.hi - map.lo || 1)) * h;
+      ctx.beginPath(); ctx.moveTo(x + bw, py); ctx.lineTo(x + bw + 4, py); ctx.stroke();
+      ctx.fillText(EW.num(t, 4), x + bw + 6, py);
+    }
+    const u = S.units || {};
+    ctx.textBaseline = "top";
+    ctx.font = "600 11px system-ui, sans-serif";
+    ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x, top + h + 8);
+    ctx.font = "11px system-ui, sans-serif";
+    ctx.fillText(u.value || "", x, top + h + 22);
+  }
+
+  // drawTop copies the base and adds what follows the pointer: probes, the
+  // cursor and the profile line.
+  function drawTop() {
+    const ctx = size(canvas, box.cssW, box.cssH);
+    ctx.drawImage(base, 0, 0, box.cssW, box.cssH);
+    const probes = (S.project.probes || []);
+    ctx.font = "600 11px system-ui, sans-serif";
+    ctx.textAlign = "left";
+    ctx.textBaseline = "bottom";
+    probes.forEach((p) => {
+      const px = X(p.x), py = Y(p.y);
+      ctx.beginPath();
+      ctx.arc(px, py, 4.5, 0, 2 * Math.PI);
+      ctx.fillStyle = PAPER;
+      ctx.fill();
+      ctx.lineWidth = 2;
+      ctx.strokeStyle = INK;
+      ctx.stroke();
+      ctx.lineWidth = 3;
+      ctx.strokeStyle = "rgba(251,250,246,0.9)";
+      ctx.strokeText(p.label || "", px + 6, py - 3);
+      ctx.fillStyle = INK;
+      ctx.fillText(p.label || "", px + 6, py - 3);
+    });
+    if (profile && $("profile-box").open) {
+      const ax = X(profile.a.x), ay = Y(profile.a.y), bx = X(profile.b.x), by = Y(profile.b.y);
+      for (const [style, width] of [["rgba(251,250,246,0.95)", 4], ["#7a1f4d", 2]]) {
+        ctx.strokeStyle = style;
+        ctx.lineWidth = width;
+        ctx.setLineDash(width === 2 ? [6, 4] : []);
+        ctx.beginPath(); ctx.moveTo(ax, ay); ctx.lineTo(bx, by); ctx.stroke();
+      }
+      ctx.setLineDash([]);
+      ctx.fillStyle = "#7a1f4d";
+      for (const [px, py, t] of [[ax, ay, "A"], [bx, by, "B"]]) {
+        ctx.beginPath(); ctx.arc(px, py, 3.5, 0, 2 * Math.PI); ctx.fill();
+        ctx.fillText(t, px + 5, py - 4);
+      }
+    }
+    if (cursor) {
+      const px = X(cursor.x), py = Y(cursor.y);
+      ctx.strokeStyle = "rgba(20,24,32,0.8)";
+      ctx.lineWidth = 1;
+      ctx.beginPath();
+      ctx.moveTo(px - 9, py); ctx.lineTo(px - 3, py);
+      ctx.moveTo(px + 3, py); ctx.lineTo(px + 9, py);
+      ctx.moveTo(px, py - 9); ctx.lineTo(px, py - 3);
+      ctx.moveTo(px, py + 3); ctx.lineTo(px, py + 9);
+      ctx.stroke();
+    }
+  }
+
+  function summarise() {
+    const r = S.result, u = S.units || {};
+    const q = EW.capital(u.value || "value");
+    const unit = u.value_unit ? " " + u.value_unit : "";
+    const L = u.length_unit || "m";
+    const text = q + " in a " + EW.num(S.w) + " " + L + " × " + EW.num(S.h) + " " + L + " rectangle: from " +
+      EW.num(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
+      EW.num(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
+      EW.num(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
+      "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") + ".";
+    canvas.setAttribute("aria-label", "Picture of the field. " + text);
+    $("field-summary").textContent = text;
+  }
+
+  // ---- readout ----
+
+  function readout(x, y) {
+    const el = $("readout");
+    if (!S || x < 0 || y < 0 || x > S.w || y > S.h) {
+      el.textContent = "Point at the picture to read the field; click (or press Enter) to pin a probe.";
+      return;
+    }
+    el.replaceChildren();
+    const g = sample(x, y);
+    const u = S.units || {};
+    const L = u.length_unit || "m";
+    const gm = Math.hypot(g.ux, g.uy);
+    const qx = -S.kx * g.ux, qy = -S.ky * g.uy;
+    const parts = [
+      ["x, y", EW.num(x, 4) + ", " + EW.num(y, 4) + " " + L],
+      [u.value || "value", EW.withUnit(EW.num(g.u, 5), u.value_unit)],
+    ];
+    if (S.project.physics === "electrostatic") {
+      parts.push(["field strength", EW.withUnit(EW.num(gm, 4), u.gradient_unit) + " (" + EW.num(gm / 1e6, 3) + " kV/mm)"]);
+    } else {
+      parts.push([(u.gradient || "gradient") + " |∇|", EW.withUnit(EW.num(gm, 4), u.gradient_unit)]);
+    }
+    parts.push([u.flux || "flux", EW.withUnit(EW.num(Math.hypot(qx, qy), 4), u.flux_unit) + " " + arrow(qx, qy)]);
+    for (const [k, v] of parts) {
+      const b = document.createElement("b");
+      b.textContent = k + " ";
+      const s = document.createElement("span");
+      s.textContent = v;
+      el.append(b, s, document.createTextNode("   "));
+    }
+  }
+  function arrow(qx, qy) {
+    if (!(Math.hypot(qx, qy) > 0)) return "";
+    const a = (Math.atan2(qy, qx) * 180) / Math.PI;
+    const dirs = ["→", "↗", "↑", "↖", "←", "↙", "↓", "↘"];
+    return dirs[((Math.round(a / 45) % 8) + 8) % 8];
+  }
+
+  // ---- profile ----
+
+  function drawProfile() {
+    const box2 = profileCanvas.parentElement;
+    const cssW = Math.max(240, box2.clientWidth - 4);
+    const cssH = 180;
+    const ctx = size(profileCanvas, cssW, cssH);
+    ctx.fillStyle = PAPER;
+    ctx.fillRect(0, 0, cssW, cssH);
+    if (!S || !profile) return;
+    const { a, b } = profile;
+    const len = Math.hypot(b.x - a.x, b.y - a.y);
+    const N = 200;
+    const vs = [];
+    let lo = Infinity, hi = -Infinity;
+    for (let k = 0; k <= N; k++) {
+      const t = k / N;
+      const v = sample(a.x + t * (b.x - a.x), a.y + t * (b.y - a.y)).u;
+      vs.push(v);
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+    if (!(hi > lo)) { hi = lo + 1; lo = lo - 1; }
+    const m = { l: 58, r: 12, t: 10, b: 34 };
+    const pw = cssW - m.l - m.r, ph = cssH - m.t - m.b;
+    const px = (d) => m.l + (len > 0 ? d / len : 0) * pw;
+    const py = (v) => m.t + (1 - (v - lo) / (hi - lo)) * ph;
+    const u = S.units || {};
+    ctx.strokeStyle = "#d8d3c7";
+    ctx.fillStyle = INK;
+    ctx.font = "11px system-ui, sans-serif";
+    ctx.lineWidth = 1;
+    ctx.textAlign = "right";
+    ctx.textBaseline = "middle";
+    for (const t of EW.niceTicks(lo, hi, 4)) {
+      ctx.beginPath(); ctx.moveTo(m.l, py(t)); ctx.lineTo(m.l + pw, py(t)); ctx.stroke();
+      ctx.fillText(EW.num(t, 4), m.l - 5, py(t));
+    }
+    ctx.textAlign = "center";
+    ctx.textBaseline = "top";
+    for (const t of EW.niceTicks(0, len, 5)) {
+      ctx.beginPath(); ctx.moveTo(px(t), m.t); ctx.lineTo(px(t), m.t + ph); ctx.stroke();
+      ctx.fillText(EW.num(t, 3), px(t), m.t + ph + 4);
+    }
+    ctx.fillText("distance from A to B [" + (u.length_unit || "m") + "]   ·   " + EW.withUnit(u.value || "value", u.value_unit ? "[" + u.value_unit + "]" : ""), m.l + pw / 2, m.t + ph + 18);
+    ctx.strokeStyle = INK;
+    ctx.strokeRect(m.l, m.t, pw, ph);
+    ctx.strokeStyle = "#7a1f4d";
+    ctx.lineWidth = 2;
+    ctx.beginPath();
+    vs.forEach((v, k) => {
+      const d = (k / N) * len;
+      if (k === 0) ctx.moveTo(px(d), py(v));
+      else ctx.lineTo(px(d), py(v));
+    });
+    ctx.stroke();
+    profileCanvas.setAttribute("aria-label", "Line profile from A (" + EW.num(a.x, 3) + ", " + EW.num(a.y, 3) + ") to B (" +
+      EW.num(b.x, 3) + ", " + EW.num(b.y, 3) + "): " + (u.value || "value") + " from " + EW.num(vs[0]) + " to " + EW.num(vs[N]) +
+      ", lowest " + EW.num(lo) + ", highest " + EW.num(hi) + ".");
+  }
+
+  function setProfileInputs() {
+    $("pf-x0").value = EW.num(profile.a.x, 4).replace("−", "-");
+    $("pf-y0").value = EW.num(profile.a.y, 4).replace("−", "-");
+    $("pf-x1").value = EW.num(profile.b.x, 4).replace("−", "-");
+    $("pf-y1").value = EW.num(profile.b.y, 4).replace("−", "-");
+  }
+
+  function readProfileInputs() {
+    const v = ["pf-x0", "pf-y0", "pf-x1", "pf-y1"].map((id) => Number($(id).value.trim()));
+    if (v.some((n) => !Number.isFinite(n)) || !S) return;
+    const cx = (t) => Math.min(Math.max(t, 0), S.w), cy = (t) => Math.min(Math.max(t, 0), S.h);
+    profile = { a: { x: cx(v[0]), y: cy(v[1]) }, b: { x: cx(v[2]), y: cy(v[3]) } };
+    drawTop();
+    drawProfile();
+  }
+
+  // ---- events ----
+
+  function pointerAt(ev) {
+    const r = canvas.getBoundingClientRect();
+    return fromScreen(ev.clientX - r.left, ev.clientY - r.top);
+  }
+  const inside = (p) => S && p.x >= 0 && p.y >= 0 && p.x <= S.w && p.y <= S.h;
+
+  canvas.addEventListener("pointermove", (ev) => {
+    if (!S) return;
+    const p = pointerAt(ev);
+    if (drag) {
+      profile.b = { x: Math.min(Math.max(p.x, 0), S.w), y: Math.min(Math.max(p.y, 0), S.h) };
+      drawTop();
+      drawProfile();
+      return;
+    }
+    cursor = inside(p) ? p : null;
+    readout(p.x, p.y);
+    drawTop();
+  });
+  canvas.addEventListener("pointerleave", () => {
+    if (!S || drag) return;
+    cursor = null;
+    drawTop();
+  });
+  canvas.addEventListener("pointerdown", (ev) => {
+    if (!S || !profileMode) return;
+    const p = pointerAt(ev);
+    if (!inside(p)) return;
+    canvas.setPointerCapture(ev.pointerId);
+    drag = true;
+    profile = { a: p, b: { x: p.x, y: p.y } };
+    $("profile-box").open = true;
+  });
+  canvas.addEventListener("pointerup", () => {
+    if (!drag) return;
+    drag = null;
+    setProfileMode(false);
+    setProfileInputs();
+    drawTop();
+    drawProfile();
+  });
+  canvas.addEventListener("click", (ev) => {
+    if (!S || profileMode) return;
+    const p = pointerAt(ev);
+    if (inside(p) && !ev.defaultPrevented) EW.pin && EW.pin(p.x, p.y);
+  });
+  canvas.addEventListener("keydown", (ev) => {
+    if (!S) return;
+    const step = (ev.shiftKey ? 0.005 : 0.025);
+    if (!cursor) cursor = { x: S.w / 2, y: S.h / 2 };
+    const moves = { ArrowLeft: [-1, 0], ArrowRight: [1, 0], ArrowUp: [0, 1], ArrowDown: [0, -1] };
+    if (moves[ev.key]) {
+      const [dx, dy] = moves[ev.key];
+      cursor = {
+        x: Math.min(Math.max(cursor.x + dx * step * S.w, 0), S.w),
+        y: Math.min(Math.max(cursor.y + dy * step * S.h, 0), S.h),
+      };
+    } else if (ev.key === "Enter" || ev.key === " ") {
+      EW.pin && EW.pin(cursor.x, cursor.y);
+    } else {
+      return;
+    }
+    ev.preventDefault();
+    readout(cursor.x, cursor.y);
+    drawTop();
+  });
+  canvas.addEventListener("blur", () => {
+    if (!S) return;
+    cursor = null;
+    drawTop();
+  });
+
+  function setProfileMode(on) {
+    profileMode = on;
+    const b = $("btn-profile");
+    b.setAttribute("aria-pressed", String(on));
+    b.textContent = on ? "Drag from A to B on the picture…" : "Profile line…";
+    canvas.classList.toggle("picking", on);
+    if (on) $("profile-box").open = true;
+  }
+  $("btn-profile").addEventListener("click", () => setProfileMode(!profileMode));
+  for (const id of ["pf-x0", "pf-y0", "pf-x1", "pf-y1"]) $(id).addEventListener("change", readProfileInputs);
+  $("profile-box").addEventListener("toggle", () => {
+    if (!S) return;
+    drawTop();
+    if ($("profile-box").open) drawProfile();
+  });
+
+  $("opt-iso").addEventListener("change", (e) => { opts.iso = e.target.checked; redraw(); });
+  $("opt-arrows").addEventListener("change", (e) => { opts.arrows = e.target.checked; redraw(); });
+  $("opt-colours").addEventListener("change", (e) => { opts.colours = e.target.value; redraw(true); });
+  let resizeTimer = 0;
+  window.addEventListener("resize", () => {
+    clearTimeout(resizeTimer);
+    resizeTimer = setTimeout(() => redraw(), 80);
+  });
+
+  function redraw(recolour) {
+    if (!S) return;
+    if (recolour) { chooseMap(); buildHeat(); }
+    layout();
+    drawBase();
+    drawTop();
+    drawLegend();
+    summarise();
+    if ($("profile-box").open) drawProfile();
+    document.documentElement.dataset.drawn = String(Number(document.documentElement.dataset.drawn || 0) + 1);
+  }
+
+  // show draws a new solve. Probes and profile keep their places.
+  EW.show = function (solve) {
+    const first = !S;
+    S = solve;
+    if (first || !profile) {
+      profile = { a: { x: 0, y: S.h / 2 }, b: { x: S.w, y: S.h / 2 } };
+    } else {
+      const c = (p) => ({ x: Math.min(p.x, S.w), y: Math.min(p.y, S.h) });
+      profile = { a: c(profile.a), b: c(profile.b) };
+    }
+    setProfileInputs();
+    redraw(true);
+    if (cursor) readout(cursor.x, cursor.y);
+  };
+  // showProbes redraws the probe markers of the project.
+  EW.showProbes = function (probes) {
+    if (!S) return;
+    S.project = Object.assign({}, S.project, { probes });
+    drawTop();
+  };
+  // screenOf maps field coordinates to CSS pixels on the canvas.
+  EW.screenOf = (x, y) => [X(x), Y(y)];
+  EW.canvases = () => ({ field: canvas, legend, profile: profileCanvas });
+})();

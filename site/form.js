@@ -1,0 +1,317 @@
+// edgewise page, part 3 of 4: the inputs. Builds the four edge blocks,
+// reads the form into a project and fills it from one, labels everything
+// for the chosen physics, shows errors beside the field they name (with a
+// caret under the column for formulas) and draws the small edge previews.
+"use strict";
+(function () {
+  const EW = (window.edgewiseParts = window.edgewiseParts || {});
+  const $ = (id) => document.getElementById(id);
+  const form = $("inputs");
+  const SIDES = ["top", "bottom", "left", "right"];
+  const WHERE = { top: "y = H", bottom: "y = 0", left: "x = 0", right: "x = W" };
+  const ALONG = { top: "s = x", bottom: "s = x", left: "s = y", right: "s = y" };
+  let extra = {}; // parts of a loaded project the form does not show (grid)
+  let probes = [];
+  const el = (tag, attrs, ...kids) => {
+    const e = document.createElement(tag);
+    for (const [k, v] of Object.entries(attrs || {})) {
+      if (k === "text") e.textContent = v;
+      else if (k === "class") e.className = v;
+      else e.setAttribute(k, v);
+    }
+    e.append(...kids);
+    return e;
+  };
+
+  // ---- the edge blocks ----
+
+  function edgeBlock(side) {
+    const id = (f) => "in-" + side + "-" + f;
+    const kind = el("select", { id: id("kind"), "data-path": "edges." + side + ".kind" });
+    for (const k of ["value", "flux", "convection"]) kind.append(el("option", { value: k, text: k }));
+    const exprLabel = el("span", { class: "lbl-expr", id: id("expr-label"), text: "Value" });
+    const expr = el("input", {
+      id: id("expr"), type: "text", class: "formula", spellcheck: "false", autocapitalize: "off",
+      "data-path": "edges." + side + ".expr", "aria-describedby": "err-" + side,
+    });
+    const h = el("input", { id: id("h"), type: "text", inputmode: "decimal", "data-path": "edges." + side + ".h", "aria-describedby": "err-" + side + " hint-h-" + side });
+    const amb = el("input", {
+      id: id("ambient"), type: "text", class: "formula", spellcheck: "false", autocapitalize: "off",
+      "data-path": "edges." + side + ".ambient", "aria-describedby": "err-" + side,
+    });
+    const preview = el("canvas", { class: "preview", id: "pv-" + side, width: "300", height: "46", role: "img", "aria-label": "Profile along the " + side + " edge" });
+    return el("fieldset", { class: "edge", "data-side": side },
+      el("legend", {}, el("span", { class: "glyph g-" + side, "aria-hidden": "true" }), side[0].toUpperCase() + side.slice(1) + " edge",
+        el("small", { text: "  " + WHERE[side] + ", " + ALONG[side] })),
+      el("label", { class: "row" }, el("span", { text: "Condition" }), kind),
+      el("div", { class: "f-expr" }, el("label", { class: "row" }, exprLabel, expr)),
+      el("div", { class: "f-conv pair", hidden: "" },
+        el("label", { class: "row" }, el("span", { class: "lbl-h", text: "h" }), h),
+        el("label", { class: "row" }, el("span", { class: "lbl-amb", text: "Ambient" }), amb)),
+      el("p", { class: "hint", id: "hint-h-" + side, hidden: "" }),
+      el("div", { class: "err", id: "err-" + side, "data-err": "edges." + side }),
+      preview);
+  }
+  const edgesBox = $("edges");
+  for (const side of SIDES) edgesBox.append(edgeBlock(side));
+
+  // ---- numbers ----
+
+  // number reads a decimal number; a comma as decimal mark is refused
+  // clearly rather than misread.
+  function number(text, what) {
+    const t = text.trim();
+    if (t === "") return { err: what + " is required" };
+    if (/^[+-]?\d+,\d+$/.test(t)) return { err: "use a point for decimals: " + t.replace(",", ".") + ", not " + t };
+    if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return { err: "not a number: " + JSON.stringify(t) };
+    return { v: Number(t) };
+  }
+  function show(v) {
+    if (typeof v !== "number") return v === undefined || v === null ? "" : String(v);
+    return String(v);
+  }
+
+  // ---- reading and filling ----
+
+  // read returns {project, errors}: the project as typed, and the local
+  // errors (numbers that are not numbers) as [{path, msg}].
+  EW.read = function () {
+    const errors = [];
+    const num = (inputId, path, what) => {
+      const r = number($(inputId).value, what);
+      if (r.err) {
+        errors.push({ path, msg: r.err });
+        return $(inputId).value;
+      }
+      return r.v;
+    };
+    const p = { schema: "edgewise/1" };
+    const title = $("in-title").value.trim();
+    if (title) p.title = title;
+    p.physics = $("in-physics").value;
+    p.width = num("in-width", "width", "width");
+    p.height = num("in-height", "height", "height");
+    if ($("in-ortho").checked) {
+      p.conductivity = { x: num("in-kx", "conductivity.x", "conductivity along x"), y: num("in-ky", "conductivity.y", "conductivity along y") };
+    } else {
+      p.conductivity = num("in-k", "conductivity", "conductivity");
+    }
+    p.source = num("in-source", "source", "source");
+    p.edges = {};
+    for (const side of ["bottom", "top", "left", "right"]) {
+      const kind = $("in-" + side + "-kind").value;
+      const e = { kind };
+      if (kind === "convection") {
+        e.h = num("in-" + side + "-h", "edges." + side + ".h", "h");
+        e.ambient = $("in-" + side + "-ambient").value;
+      } else {
+        e.expr = $("in-" + side + "-expr").value;
+      }
+      p.edges[side] = e;
+    }
+    p.probes = probes.map((q) => Object.assign({}, q));
+    Object.assign(p, extra);
+    return { project: p, errors };
+  };
+
+  // fill puts a project into the form.
+  EW.fill = function (p) {
+    $("in-title").value = p.title || "";
+    $("in-physics").value = ["heat", "electrostatic", "seepage", "generic"].includes(p.physics) ? p.physics : "generic";
+    $("in-width").value = show(p.width);
+    $("in-height").value = show(p.height);
+    const k = p.conductivity;
+    const ortho = k !== null && typeof k === "object";
+    $("in-ortho").checked = ortho;
+    if (ortho) {
+      $("in-kx").value = show(k.x);
+      $("in-ky").value = show(k.y);
+      $("in-k").value = show(k.x);
+    } else {
+      $("in-k").value = show(k);
+      $("in-kx").value = show(k);
+      $("in-ky").value = show(k);
+    }
+    $("in-source").value = show(p.source || 0);
+    const edges = p.edges || {};
+    for (const side of SIDES) {
+      const e = edges[side] || { kind: "flux", expr: "0" };
+      $("in-" + side + "-kind").value = e.kind;
+      $("in-" + side + "-expr").value = e.kind === "convection" ? "" : show(e.expr);
+      $("in-" + side + "-h").value = e.kind === "convection" ? show(e.h) : "";
+      $("in-" + side + "-ambient").value = e.kind === "convection" ? show(e.ambient) : "";
+    }
+    probes = (p.probes || []).map((q) => Object.assign({}, q));
+    extra = {};
+    if (p.grid) extra.grid = p.grid;
+    $("k-iso").hidden = ortho;
+    $("k-ortho").hidden = !ortho;
+    relabel();
+    clearErrors();
+  };
+
+  EW.probes = () => probes.map((q) => Object.assign({}, q));
+  EW.setProbes = (list) => { probes = list.map((q) => Object.assign({}, q)); };
+
+  // ---- labels for the physics ----
+
+  function relabel() {
+    const phys = $("in-physics").value;
+    const u = (EW.unitsets && EW.unitsets[phys]) || {};
+    const hints = EW.hints[phys] || EW.hints.generic;
+    const kinds = EW.kinds[phys] || EW.kinds.generic;
+    const unit = (x) => (x ? "[" + x + "]" : "");
+    for (const i of document.querySelectorAll("[data-unit]")) {
+      const k = i.dataset.unit;
+      i.textContent = unit(k === "length" ? u.length_unit || "m" : k === "cond" ? u.conductivity_unit : k === "source" ? u.source_unit : "");
+    }
+    for (const b of document.querySelectorAll("[data-q]")) b.textContent = EW.capital(u[b.dataset.q] || b.dataset.q);
+    $("hint-k").textContent = hints.conductivity;
+    $("hint-source").textContent = hints.source;
+    for (const side of SIDES) {
+      const kind = $("in-" + side + "-kind");
+      for (const o of kind.options) o.textContent = kinds[o.value];
+      const k = kind.value;
+      const conv = k === "convection";
+      const block = kind.closest("fieldset");
+      block.querySelector(".f-expr").hidden = conv;
+      block.querySelector(".f-conv").hidden = !conv;
+      const hh = $("hint-h-" + side);
+      hh.hidden = !conv;
+      hh.textContent = hints.h;
+      $("in-" + side + "-expr-label").textContent = k === "value"
+        ? EW.capital(u.value || "value") + " " + unit(u.value_unit)
+        : EW.capital(u.flux || "flux") + " in " + unit(u.flux_unit);
+      block.querySelector(".lbl-h").textContent = EW.capital(u.coefficient || "h") + " " + unit(u.coefficient_unit);
+      block.querySelector(".lbl-amb").textContent = "Ambient " + (u.value || "value") + " " + unit(u.value_unit);
+    }
+    $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(u.value_unit);
+    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " " + unit(u.flux_unit);
+    document.documentElement.dataset.physics = phys;
+  }
+  EW.relabel = relabel;
+
+  // ---- errors ----
+
+  function clearErrors() {
+    for (const e of form.querySelectorAll("[data-err]")) e.replaceChildren();
+    for (const i of form.querySelectorAll("[aria-invalid]")) i.removeAttribute("aria-invalid");
+    $("err-other").replaceChildren();
+  }
+  EW.clearErrors = clearErrors;
+
+  // byteToChar converts a 1-based UTF-8 byte column into a 0-based index
+  // into the JavaScript string.
+  function byteToChar(text, col) {
+    const enc = new TextEncoder();
+    let bytes = 0;
+    let i = 0;
+    for (const ch of text) {
+      if (bytes >= col - 1) break;
+      bytes += enc.encode(ch).length;
+      i += ch.length;
+    }
+    return i;
+  }
+
+  // showError puts one error beside the field its path names: message,
+  // and for formulas the formula with a caret under the column. It returns
+  // true when a place for it was found in the form.
+  EW.showError = function (path, col, message) {
+    let best = null;
+    for (const e of form.querySelectorAll("[data-err]")) {
+      const p = e.dataset.err;
+      if (p && (path === p || path.startsWith(p + ".")) && (!best || p.length > best.dataset.err.length)) best = e;
+    }
+    const input = path ? form.querySelector('[data-path="' + CSS.escape(path) + '"]') : null;
+    if (input) input.setAttribute("aria-invalid", "true");
+    const target = best || $("err-other");
+    const msg = message.startsWith(path + ": ") ? message.slice(path.length + 2) : message;
+    const p = el("p", { class: "err-msg" }, el("b", { text: (path || "project") + ": " }), msg);
+    target.append(p);
+    if (input && col > 0 && input.classList.contains("formula")) {
+      const text = input.value;
+      const at = byteToChar(text, col);
+      const caret = " ".repeat([...text.slice(0, at)].length) + "^";
+      target.append(el("pre", { class: "caret", "aria-hidden": "true" }, el("code", { text: text + "\n" + caret })));
+      if (document.activeElement !== input) input.setSelectionRange && input.setSelectionRange(at, at);
+    }
+    return !!best;
+  };
+
+  // ---- edge previews ----
+
+  EW.drawPreview = function (side, s, v, failed) {
+    const c = $("pv-" + side);
+    const cssW = Math.max(120, c.parentElement.clientWidth - 2), cssH = 46;
+    const dpr = window.devicePixelRatio || 1;
+    c.width = Math.round(cssW * dpr);
+    c.height = Math.round(cssH * dpr);
+    c.style.height = cssH + "px";
+    const ctx = c.getContext("2d");
+    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    ctx.fillStyle = "#f1eee6";
+    ctx.fillRect(0, 0, cssW, cssH);
+    ctx.font = "10px system-ui, sans-serif";
+    ctx.fillStyle = "#5b5f68";
+    if (failed || !s || s.length < 2) {
+      ctx.textBaseline = "middle";
+      ctx.fillText("no preview until the formula reads", 6, cssH / 2);
+      c.setAttribute("aria-label", "No preview of the " + side + " edge");
+      return;
+    }
+    let lo = Infinity, hi = -Infinity;
+    for (const x of v) { if (x < lo) lo = x; if (x > hi) hi = x; }
+    const flat = !(hi - lo > 1e-12 * Math.max(1, Math.abs(hi)));
+    const a = flat ? lo - 1 : lo, b = flat ? hi + 1 : hi;
+    const L = s[s.length - 1] || 1;
+    const m = { l: 50, r: 6, t: 7, b: 7 };
+    const X = (t) => m.l + (t / L) * (cssW - m.l - m.r);
+    const Y = (t) => m.t + (1 - (t - a) / (b - a)) * (cssH - m.t - m.b);
+    ctx.textAlign = "right";
+    ctx.textBaseline = "middle";
+    if (flat) {
+      ctx.fillText(EW.num(lo, 4), m.l - 5, Y(lo));
+    } else {
+      ctx.fillText(EW.num(hi, 4), m.l - 5, Y(hi));
+      ctx.fillText(EW.num(lo, 4), m.l - 5, Y(lo));
+    }
+    ctx.strokeStyle = "#2b4f6e";
+    ctx.lineWidth = 1.6;
+    ctx.beginPath();
+    for (let k = 0; k < s.length; k++) {
+      if (k === 0) ctx.moveTo(X(s[k]), Y(v[k]));
+      else ctx.lineTo(X(s[k]), Y(v[k]));
+    }
+    ctx.stroke();
+    c.setAttribute("aria-label", "Profile along the " + side + " edge: from " + EW.num(v[0]) + " to " + EW.num(v[v.length - 1]) +
+      (flat ? " (constant)" : ", between " + EW.num(lo) + " and " + EW.num(hi)));
+  };
+
+  // ---- events ----
+
+  form.addEventListener("submit", (e) => e.preventDefault());
+  form.addEventListener("input", (e) => {
+    if (e.target.id === "in-physics" || e.target.id === "in-ortho" || /-kind$/.test(e.target.id)) return; // change handles these
+    EW.edited && EW.edited(e.target);
+  });
+  $("in-title").addEventListener("input", () => EW.edited && EW.edited($("in-title")));
+  form.addEventListener("change", (e) => {
+    const t = e.target;
+    if (t.id === "in-physics" || /-kind$/.test(t.id)) {
+      relabel();
+      EW.edited && EW.edited(t);
+    } else if (t.id === "in-ortho") {
+      $("k-iso").hidden = t.checked;
+      $("k-ortho").hidden = !t.checked;
+      if (t.checked) { $("in-kx").value = $("in-k").value; $("in-ky").value = $("in-k").value; }
+      else $("in-k").value = $("in-kx").value;
+      EW.edited && EW.edited(t);
+    }
+  });
+  EW.syncOrtho = () => {
+    $("k-iso").hidden = $("in-ortho").checked;
+    $("k-ortho").hidden = !$("in-ortho").checked;
+  };
+  EW.SIDES = SIDES;
+})();

@@ -1,0 +1,106 @@
+//go:build js && wasm
+
+package main
+
+import (
+	"errors"
+
+	"edgewise/solver"
+	"edgewise/solver/colour"
+
+	"github.com/hack-pad/safejs"
+)
+
+// coloursCall returns the two colour maps as tables of n colours (default
+// 256), so that the page, the SVG and the PNG share one design.
+func coloursCall(args []safejs.Value) any {
+	n := 256
+	if len(args) >= 1 {
+		if v, err := args[0].Int(); err == nil && v >= 2 && v <= 4096 {
+			n = v
+		}
+	}
+	seq, err := uint8Array(colour.Sequential.Table(n))
+	if err != nil {
+		return failure(err)
+	}
+	div, err := uint8Array(colour.Diverging.Table(n))
+	if err != nil {
+		return failure(err)
+	}
+	return map[string]any{
+		"ok": true, "n": n, "sequential": seq, "diverging": div,
+		"names": map[string]any{"sequential": colour.Sequential.Name(), "diverging": colour.Diverging.Name()},
+	}
+}
+
+// previewCall samples one edge's formula (the ambient for a convection
+// edge) at n+1 points along it, for the page's small profile plot.
+func previewCall(args []safejs.Value) any {
+	if len(args) < 2 {
+		return failure(errors.New("edgewise_preview needs the project JSON and a side"))
+	}
+	text, err1 := args[0].String()
+	side, err2 := args[1].String()
+	if err1 != nil || err2 != nil {
+		return failure(errors.New("edgewise_preview: project and side must be text"))
+	}
+	n := 64
+	if len(args) >= 3 {
+		if v, err := args[2].Int(); err == nil && v >= 1 && v <= 4096 {
+			n = v
+		}
+	}
+	s, v, err := previewText(text, side, n)
+	if err != nil {
+		return failure(err)
+	}
+	sa, err := float64Array(s)
+	if err != nil {
+		return failure(err)
+	}
+	va, err := float64Array(v)
+	if err != nil {
+		return failure(err)
+	}
+	return map[string]any{"ok": true, "s": sa, "v": va}
+}
+
+// previewText is the part of a preview that does not read JavaScript
+// arguments.
+func previewText(text, side string, n int) (s, v []float64, err error) {
+	p, err := solver.Decode([]byte(text))
+	if err != nil {
+		return nil, nil, err
+	}
+	return solver.PreviewEdge(p, side, n)
+}
+
+// unitsCall returns the quantities and units of every physics, keyed by
+// the physics name: {ok, heat: {value, value_unit, ...}, electrostatic, ...}.
+func unitsCall([]safejs.Value) any {
+	reply := map[string]any{"ok": true}
+	for _, name := range []string{solver.Heat, solver.Electrostatic, solver.Seepage, solver.Generic} {
+		m, err := unitsMap(name)
+		if err != nil {
+			return failure(err)
+		}
+		reply[name] = m
+	}
+	return reply
+}
+
+// unitsMap is the unit set of one physics as a plain map with the names
+// of its JSON form, which safejs turns into a JavaScript object.
+func unitsMap(physics string) (map[string]any, error) {
+	u := solver.Units(physics)
+	return map[string]any{
+		"physics": u.Physics, "value": u.Value, "value_unit": u.ValueUnit,
+		"gradient": u.Gradient, "gradient_unit": u.GradientUnit,
+		"conductivity": u.Conductivity, "conductivity_unit": u.CondUnit,
+		"flux": u.Flux, "flux_unit": u.FluxUnit, "flow_unit": u.FlowUnit,
+		"source": u.Source, "source_unit": u.SourceUnit,
+		"coefficient": u.Coefficient, "coefficient_unit": u.CoefUnit,
+		"length_unit": u.Length,
+	}, nil
+}
