@@ -33,7 +33,7 @@ run: build
 	$(GO) run ./scripts/serve -addr 127.0.0.1:$(PORT) -dir site
 
 ## test: everything: vet, native tests with -race, short fuzzing, wasm tests under Node, browser tests
-test: vet test-native test-fuzz test-wasm test-browser
+test: vet test-native test-sweep test-fuzz test-wasm test-browser
 	@echo "make test: all suites passed"
 
 vet:
@@ -42,6 +42,11 @@ vet:
 
 test-native:
 	$(GO) test -race -count=1 $(NATIVE)
+
+# The heavy numerical sweeps, too slow under the race detector, run once
+# more without it.
+test-sweep:
+	set -o pipefail; $(GO) test -count=1 -run 'AllKindCombinations' -v ./solver/ | grep -E '^(---|ok|FAIL|PASS)|sweep_test'
 
 # Fuzz targets run their seed corpora in test-native; here each also runs
 # for a short time (FUZZTIME) to look for new crashes.
