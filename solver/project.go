@@ -39,7 +39,6 @@ type Project struct {
 // number when isotropic.
 type Conductivity struct{ X, Y float64 }
 
-
 // Edges holds the four edge conditions.
 type Edges struct {
 	Bottom EdgeSpec `json:"bottom"`

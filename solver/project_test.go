@@ -219,9 +219,9 @@ func TestDemoDecodes(t *testing.T) {
 func TestResultJSON(t *testing.T) {
 	f1, f2, cc := 12.5, -3.25e-7, 1.5e-9
 	r := Result{
-		Schema: ResultSchema,
-		Probes: []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
-		Edges:  EdgeFlows{Bottom: EdgeFlow{&f1, true}, Top: EdgeFlow{nil, false}, Left: EdgeFlow{&f2, true}, Right: EdgeFlow{&f1, true}},
+		Schema:      ResultSchema,
+		Probes:      []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
+		Edges:       EdgeFlows{Bottom: EdgeFlow{&f1, true}, Top: EdgeFlow{nil, false}, Left: EdgeFlow{&f2, true}, Right: EdgeFlow{&f1, true}},
 		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
 		Accuracy: Accuracy{Terms: 120, Estimate: 1e-10, Crosscheck: &cc, CrosscheckGrid: "24x12"},
 		Warnings: []string{"w\n1"}, Cautions: []string{"c1", "c2"}, Grid: GridSize{Nx: 10, Ny: 5},
