@@ -189,21 +189,44 @@ func report(p *Project, pr *problem.Problem, f field, out *Output) Result {
 	return r
 }
 
-// extremes finds the smallest and largest values on the output grid.
+// extremes finds the smallest and largest values: the extreme nodes of
+// the output grid, then a compass search on the series itself from there,
+// with steps from one grid cell down to a thousandth of one, kept inside the
+// rectangle. Corner nodes with no value of their own (a jump of prescribed
+// value) are left out.
 func extremes(pr *problem.Problem, f field, out *Output) (lo, hi Extreme) {
 	nx, ny := out.Nx, out.Ny
-	ilo, ihi := 0, 0
+	ilo, ihi := -1, -1
 	for k, v := range out.U {
-		if v < out.U[ilo] {
+		if out.Ux[k] != out.Ux[k] { // a singular corner
+			continue
+		}
+		if ilo < 0 || v < out.U[ilo] {
 			ilo = k
 		}
-		if v > out.U[ihi] {
+		if ihi < 0 || v > out.U[ihi] {
 			ihi = k
 		}
 	}
-	at := func(k int) Extreme {
-		i, j := k%(nx+1), k/(nx+1)
-		return Extreme{Value: out.U[k], X: float64(i) * pr.W / float64(nx), Y: float64(j) * pr.H / float64(ny)}
+	if ilo < 0 { // cannot happen on a grid of at least 2 x 2 intervals
+		ilo, ihi = 0, 0
 	}
-	return at(ilo), at(ihi)
+	hx, hy := pr.W/float64(nx), pr.H/float64(ny)
+	at := func(k int, sign float64) Extreme {
+		e := Extreme{Value: out.U[k], X: float64(k%(nx+1)) * hx, Y: float64(k/(nx+1)) * hy}
+		for step := 1.0; step > 1e-3; step /= 2 {
+			for moved := true; moved; {
+				moved = false
+				for _, d := range [4][2]float64{{1, 0}, {-1, 0}, {0, 1}, {0, -1}} {
+					x := min(max(e.X+d[0]*step*hx, 0), pr.W)
+					y := min(max(e.Y+d[1]*step*hy, 0), pr.H)
+					if u, _, _ := f.At(x, y); sign*u > sign*e.Value {
+						e, moved = Extreme{Value: u, X: x, Y: y}, true
+					}
+				}
+			}
+		}
+		return e
+	}
+	return at(ilo, -1), at(ihi, 1)
 }
