@@ -1,0 +1,39 @@
+package solver
+
+import (
+	"fmt"
+	"testing"
+)
+
+// benchProject has four value edges whose values jump at every corner and
+// vary along the edges: the hard case for a series.
+const benchProject = `{"schema":"edgewise/1","physics":"heat","width":0.3,"height":0.2,"conductivity":50,
+ "edges":{"bottom":{"kind":"value","expr":"180 - 40*(2*s/W - 1)^2"},"top":{"kind":"value","expr":"20 + 5*sin(pi*s/W)"},
+ "left":{"kind":"value","expr":"60"},"right":{"kind":"value","expr":"90 - 30*s/H"}}}`
+
+// BenchmarkSolve is the whole solve as the page runs it: decode, compile,
+// series, output grid with gradients, result numbers; with and without the
+// finite-difference cross-check.
+func BenchmarkSolve(b *testing.B) {
+	p, err := Decode([]byte(benchProject))
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, n := range []int{65, 129, 257, 513, 1025} {
+		for _, cc := range []bool{false, true} {
+			name := fmt.Sprintf("%dx%d", n, n)
+			if cc {
+				name += "+crosscheck"
+			}
+			b.Run(name, func(b *testing.B) {
+				var s Solver
+				opt := Options{Nx: n - 1, Ny: n - 1, NoCrossCheck: !cc}
+				for b.Loop() {
+					if _, err := s.Solve(p, opt); err != nil {
+						b.Fatal(err)
+					}
+				}
+			})
+		}
+	}
+}
