@@ -14,7 +14,8 @@
   const statusEl = $("status");
   const root = document.documentElement;
 
-  const DEBOUNCE_MS = 30; // typing: wait this long for the next key
+  const DEBOUNCE_MS = 60; // typing fast: wait this long for the next key
+  const QUIET_MS = 150; // an edit this long after the last one solves at once
   const BUSY_MS = 250; // show that the engine is working after this long
   const CANCEL_MS = 600; // a stale solve running longer is cancelled
   const LEVELS = 12; // isoline levels asked for
@@ -194,6 +195,7 @@
 
   let editTimer = 0;
   let previewTimer = 0;
+  let lastEditAt = -Infinity;
 
   EW.edited = function () {
     const { project, errors } = EW.read();
@@ -208,8 +210,12 @@
       setStatus("Fix the marked field; the picture shows the last project that solved.", "error");
       return;
     }
+    // debounce on the trailing edge only while keys come fast: the first
+    // edit after a pause solves at once, a burst solves its last state
     const t0 = performance.now();
-    editTimer = setTimeout(() => solveEdit(project, t0), DEBOUNCE_MS);
+    const burst = t0 - lastEditAt < QUIET_MS || running !== null;
+    lastEditAt = t0;
+    editTimer = setTimeout(() => solveEdit(project, t0), burst ? DEBOUNCE_MS : 0);
   };
 
   async function solveEdit(project, t0) {
@@ -395,8 +401,8 @@
     if (infinite.length) {
       const why = document.createElement("p");
       why.className = "why";
-      why.textContent = "Why infinite: the prescribed " + (u.value || "value") + " jumps at a corner of the " + infinite.join(" and ") +
-        " edge" + (infinite.length > 1 ? "s" : "") + ", so the gradient grows like 1/r towards that corner and the flow through the edge has no finite total. " +
+      const names = infinite.length > 1 ? infinite.slice(0, -1).join(", ") + " and " + infinite[infinite.length - 1] + " edges" : infinite[0] + " edge";
+      why.textContent = "Why infinite: the prescribed " + (u.value || "value") + " jumps at a corner of the " + names + ", so the gradient grows like 1/r towards that corner and the flow through the edge has no finite total. " +
         "Real parts have a small gap or a rounded transition there; a formula that meets its neighbour's value at the corner gives a finite flow.";
       box.append(why);
     }

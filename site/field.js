@@ -86,7 +86,13 @@
 
   // ---- layout ----
 
+  let horizontal = false; // legend under the picture (narrow screens)
+
   function layout() {
+    const stage = canvas.parentElement.parentElement;
+    horizontal = stage.clientWidth < 560;
+    stage.classList.toggle("narrow", horizontal);
+    legend.style.width = horizontal ? "100%" : "96px";
     const wrap = canvas.parentElement;
     const cssW = Math.max(200, wrap.clientWidth);
     const m = { l: 54, r: 14, t: 14, b: 40 };
@@ -255,7 +261,10 @@
     ctx.restore();
   }
 
+  // drawLegend draws the colour bar beside the picture, or under it on a
+  // narrow screen.
   function drawLegend() {
+    if (horizontal) return drawLegendBelow();
     const w = 96;
     const ctx = size(legend, w, box.cssH);
     legend.style.width = w + "px";
@@ -264,21 +273,20 @@
     const top = box.y0, h = box.h, x = 6, bw = 16;
     for (let py = 0; py < h; py++) {
       const v = map.hi - ((py + 0.5) / h) * (map.hi - map.lo);
-      const c = 3 * map.index(v);
-      ctx.fillStyle = "rgb(" + map.table[c] + "," + map.table[c + 1] + "," + map.table[c + 2] + ")";
+      ctx.fillStyle = rgb(v);
       ctx.fillRect(x, top + py, bw, 1.5);
     }
     ctx.strokeStyle = INK;
     ctx.strokeRect(x, top, bw, h);
     ctx.fillStyle = INK;
-    ctx.font = "11px system-ui, sans-serif";
     ctx.textAlign = "left";
     ctx.textBaseline = "middle";
-    const ticks = EW.niceTicks(map.lo, map.hi, Math.max(2, Math.floor(h / 40)));
-    for (const t of ticks) {
-      const py = top + ((map.hi - t) / (map.hi - map.lo || 1)) * h;
+    const yOf = (t) => top + ((map.hi - t) / (map.hi - map.lo || 1)) * h;
+    for (const [t, end] of legendMarks(yOf, Math.max(3, Math.floor(h / 34)), 13)) {
+      const py = yOf(t);
       ctx.beginPath(); ctx.moveTo(x + bw, py); ctx.lineTo(x + bw + 4, py); ctx.stroke();
-      ctx.fillText(EW.num(t, 4), x + bw + 6, py);
+      ctx.font = (end ? "600 " : "") + "11px system-ui, sans-serif";
+      ctx.fillText(EW.num(t, end ? 4 : 3), x + bw + 6, py);
     }
     const u = S.units || {};
     ctx.textBaseline = "top";
@@ -286,6 +294,50 @@
     ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x, top + h + 8);
     ctx.font = "11px system-ui, sans-serif";
     ctx.fillText(u.value || "", x, top + h + 22);
+  }
+
+  function drawLegendBelow() {
+    const w = box.cssW, hh = 40;
+    const ctx = size(legend, w, hh);
+    legend.style.width = w + "px";
+    ctx.fillStyle = PAPER;
+    ctx.fillRect(0, 0, w, hh);
+    const x0 = box.x0, bw = box.w, y = 4, bh = 12;
+    for (let px = 0; px < bw; px++) {
+      ctx.fillStyle = rgb(map.lo + ((px + 0.5) / bw) * (map.hi - map.lo));
+      ctx.fillRect(x0 + px, y, 1.5, bh);
+    }
+    ctx.strokeStyle = INK;
+    ctx.strokeRect(x0, y, bw, bh);
+    ctx.fillStyle = INK;
+    ctx.textBaseline = "top";
+    const xOf = (t) => x0 + ((t - map.lo) / (map.hi - map.lo || 1)) * bw;
+    for (const [t, end] of legendMarks(xOf, Math.max(3, Math.floor(bw / 70)), 34)) {
+      const px = xOf(t);
+      ctx.beginPath(); ctx.moveTo(px, y + bh); ctx.lineTo(px, y + bh + 4); ctx.stroke();
+      ctx.font = (end ? "600 " : "") + "11px system-ui, sans-serif";
+      ctx.textAlign = t === map.lo ? "left" : t === map.hi ? "right" : "center";
+      ctx.fillText(EW.num(t, end ? 4 : 3), t === map.lo ? px - 2 : t === map.hi ? px + 2 : px, y + bh + 6);
+    }
+    const u = S.units || {};
+    ctx.textAlign = "right";
+    ctx.font = "600 11px system-ui, sans-serif";
+    ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x0 - 6, y);
+  }
+
+  function rgb(v) {
+    const c = 3 * map.index(v);
+    return "rgb(" + map.table[c] + "," + map.table[c + 1] + "," + map.table[c + 2] + ")";
+  }
+
+  // legendMarks returns the ends, labelled always, and round ticks at
+  // least gap pixels from them.
+  function legendMarks(pos, n, gap) {
+    const marks = [[map.hi, true], [map.lo, true]];
+    for (const t of EW.niceTicks(map.lo, map.hi, n)) {
+      if (Math.abs(pos(t) - pos(map.hi)) > gap && Math.abs(pos(t) - pos(map.lo)) > gap) marks.push([t, false]);
+    }
+    return marks;
   }
 
   // drawTop copies the base and adds what follows the pointer: probes, the

@@ -96,7 +96,7 @@ type tab struct {
 	errs []string // console errors and exceptions
 }
 
-func newTab(t *testing.T) *tab {
+func newTab(t testing.TB) *tab {
 	t.Helper()
 	ctx, cancel := chromedp.NewContext(allocCtx)
 	ctx, cancel2 := context.WithTimeout(ctx, 2*time.Minute)
@@ -127,7 +127,7 @@ func (tb *tab) requests() []string {
 }
 
 // open navigates and waits until the page has solved at least once.
-func (tb *tab) open(t *testing.T, u string) {
+func (tb *tab) open(t testing.TB, u string) {
 	t.Helper()
 	if err := chromedp.Do(tb.ctx, chromedp.Navigate(u)); err != nil {
 		t.Fatalf("open %s: %v", u, err)
@@ -136,7 +136,7 @@ func (tb *tab) open(t *testing.T, u string) {
 }
 
 // waitSolved waits until the page reports n solves (data-solved on <html>).
-func (tb *tab) waitSolved(t *testing.T, n int) {
+func (tb *tab) waitSolved(t testing.TB, n int) {
 	t.Helper()
 	expr := fmt.Sprintf(`Number(document.documentElement.dataset.solved || 0) >= %d`, n)
 	if _, err := chromedp.Run(tb.ctx, chromedp.Poll[bool](expr, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
@@ -145,7 +145,7 @@ func (tb *tab) waitSolved(t *testing.T, n int) {
 	}
 }
 
-func eval[T any](t *testing.T, tb *tab, js string) T {
+func eval[T any](t testing.TB, tb *tab, js string) T {
 	t.Helper()
 	v, err := chromedp.Run(tb.ctx, chromedp.Evaluate[T](js, chromedp.EvalAwaitPromise))
 	if err != nil {
@@ -155,7 +155,7 @@ func eval[T any](t *testing.T, tb *tab, js string) T {
 }
 
 // shot saves a screenshot for people to look at.
-func (tb *tab) shot(t *testing.T, name string) {
+func (tb *tab) shot(t testing.TB, name string) {
 	t.Helper()
 	png, err := chromedp.Run(tb.ctx, chromedp.CaptureScreenshot())
 	if err != nil {

@@ -4,6 +4,8 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
@@ -11,6 +13,7 @@ import (
 
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/cdproto/input"
 	"github.com/chromedp/chromedp"
 )
 
@@ -29,6 +32,20 @@ func (tb *tab) setWidth(t *testing.T, w, h int64) {
 		_, err := cdp.Call(ctx, tg, emulation.SetDeviceMetricsOverride, emulation.SetDeviceMetricsOverrideParams{Width: w, Height: h, DeviceScaleFactor: 1, Mobile: w < 600})
 		return err
 	})); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// fullShot saves a screenshot of the whole page, not only the screen.
+func (tb *tab) fullShot(t *testing.T, name string) {
+	t.Helper()
+	png, err := chromedp.Run(tb.ctx, chromedp.FullScreenshot(100))
+	if err != nil {
+		t.Fatalf("screenshot: %v", err)
+	}
+	dir := filepath.Join(root, "scripts", "e2e", "screens")
+	_ = os.MkdirAll(dir, 0o755)
+	if err := os.WriteFile(filepath.Join(dir, name+".png"), png, 0o644); err != nil {
 		t.Fatal(err)
 	}
 }
@@ -58,6 +75,22 @@ func (tb *tab) typeInto(t *testing.T, sel, text string) {
 	eval[bool](t, tb, `(document.activeElement.select(), true)`)
 	if err := chromedp.Do(tb.ctx, chromedp.SendKeys(chromedp.CSS(sel), text)); err != nil {
 		t.Fatalf("typing into %s: %v", sel, err)
+	}
+}
+
+// pasteInto replaces the text of an input in one go, as pasting does (one
+// input event, no intermediate states).
+func (tb *tab) pasteInto(t *testing.T, sel, text string) {
+	t.Helper()
+	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.CSS(sel))); err != nil {
+		t.Fatalf("focus %s: %v", sel, err)
+	}
+	eval[bool](t, tb, `(document.activeElement.select(), true)`)
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, input.InsertText, input.InsertTextParams{Text: text})
+		return err
+	})); err != nil {
+		t.Fatalf("pasting into %s: %v", sel, err)
 	}
 }
 
@@ -131,7 +164,7 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 	tb.loadPlate(t)
 	before := eval[string](t, tb, `document.getElementById("field").toDataURL()`)
 	n := tb.solved(t)
-	tb.typeInto(t, "#in-left-expr", "40 + sinn(s)")
+	tb.pasteInto(t, "#in-left-expr", "40 + sinn(s)")
 	tb.waitFor(t, `!!document.querySelector("#err-left .caret")`, "the caret error under the left edge")
 	msg := eval[string](t, tb, `document.querySelector("#err-left .err-msg").textContent`)
 	if !strings.Contains(msg, `unknown name "sinn"`) || !strings.Contains(msg, "edges.left.expr") {
@@ -253,11 +286,17 @@ func TestSwitchPhysics(t *testing.T) {
 func TestScreens(t *testing.T) {
 	tb := newTab(t)
 	tb.open(t, siteURL)
+	// the demo, whatever an earlier tab autosaved
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewiseInternal.demo().then(p => window.edgewise.load(p))`)
+	tb.waitSolved(t, n+1)
 	tb.shot(t, "page-1280")
+	tb.fullShot(t, "page-1280-full")
 	drawn := eval[int](t, tb, `Number(document.documentElement.dataset.drawn)`)
 	tb.setWidth(t, 420, 900)
 	tb.waitFor(t, fmt.Sprintf(`Number(document.documentElement.dataset.drawn) > %d`, drawn), "the redraw at 420 px")
 	tb.shot(t, "page-420")
+	tb.fullShot(t, "page-420-full")
 	if w := eval[int](t, tb, `document.documentElement.scrollWidth`); w > 420 {
 		t.Errorf("the page is %d px wide at a 420 px screen: something sticks out", w)
 	}
