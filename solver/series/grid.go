@@ -101,10 +101,10 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 // cornerSum is the sum of the pieces at one corner:
 // a0 + a1 zeta + (b0 + b1 zeta + b2 zeta^2) log zeta.
 type cornerSum struct {
-	on                 bool
-	a0, a1, b0, b1, b2 complex128
-	logs               bool
-	z0, rho            complex128
+	on                         bool
+	a0, a1, a3, b0, b1, b2, b3 complex128
+	logs                       bool
+	z0, rho                    complex128
 }
 
 // atanPos returns atan2(y, x) for x, y >= 0, not both zero.
@@ -121,7 +121,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	hx, hy := m.W/float64(nx), m.H/float64(ny)
 	grad := ux != nil || uy != nil
 	// Smooth polynomial pieces share one centre and scale: one Horner sum.
-	var poly [5]complex128
+	var poly [6]complex128
 	var pz0, prho complex128
 	var corner [4]cornerSum
 	for i := range s.pieces {
@@ -135,10 +135,15 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 		cr.on, cr.z0, cr.rho = true, p.z0, p.rho
 		switch p.kind {
 		case powPiece:
-			if p.n == 0 {
+			switch p.n {
+			case 0:
 				cr.a0 += p.c
-			} else {
+			case 1:
 				cr.a1 += p.c
+			case 3:
+				cr.a3 += p.c
+			default:
+				panic("series: unexpected corner power")
 			}
 		case logPiece:
 			cr.b0 += p.c
@@ -149,6 +154,9 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 		case z2logPiece:
 			cr.b2 += p.c
 			cr.logs = true
+		case z3logPiece:
+			cr.b3 += p.c
+			cr.logs = true
 		}
 	}
 	// Angles only (the angle function alone, no gradient wanted) need one
@@ -158,7 +166,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	for c := range corner {
 		cr := &corner[c]
 		needLogs = needLogs || cr.logs
-		if cr.logs && (cr.b1 != 0 || cr.b2 != 0 || real(cr.b0) != 0) {
+		if cr.logs && (cr.b1 != 0 || cr.b2 != 0 || cr.b3 != 0 || cr.a3 != 0 || real(cr.b0) != 0) {
 			fullLogs = true
 		}
 	}
@@ -204,9 +212,9 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			k := j*(nx+1) + i
 			v := q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E
 			z := prho * complex(x-real(pz0), y-imag(pz0))
-			pv := poly[4]
+			pv := poly[5]
 			pd := complex(0, 0)
-			for n := 3; n >= 0; n-- {
+			for n := 4; n >= 0; n-- {
 				if grad {
 					pd = pd*z + pv
 				}
@@ -261,8 +269,8 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 				x := float64(i) * hx
 				k := j*(nx+1) + i
 				zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
-				f := cr.a0 + cr.a1*zc
-				d := cr.a1
+				f := cr.a0 + zc*(cr.a1+zc*zc*cr.a3)
+				d := cr.a1 + 3*zc*zc*cr.a3
 				if cr.logs && zc != 0 {
 					var l complex128
 					switch c {
@@ -275,10 +283,10 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 					case 3:
 						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[(ny-j)*(nx+1)+i])
 					}
-					pl := cr.b0 + zc*(cr.b1+zc*cr.b2)
+					pl := cr.b0 + zc*(cr.b1+zc*(cr.b2+zc*cr.b3))
 					f += pl * l
 					if grad {
-						d += (cr.b1+2*cr.b2*zc)*l + pl/zc
+						d += (cr.b1+zc*(2*cr.b2+3*zc*cr.b3))*l + pl/zc
 					}
 				}
 				u[k] += real(f)
@@ -300,7 +308,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 // logarithmic pieces are angle functions: every power piece is folded into
 // one polynomial about the centre, expanded per row into powers of x, and
 // the four angle functions are summed in one pass from the shared table.
-func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [5]complex128, pz0, prho complex128, corner *[4]cornerSum) {
+func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [6]complex128, pz0, prho complex128, corner *[4]cornerSum) {
 	m := s.m
 	hx, hy := m.W/float64(nx), m.H/float64(ny)
 	if prho == 0 {
@@ -319,7 +327,7 @@ func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [5]complex128, p
 			bi[c] = imag(cr.b0)
 		}
 	}
-	binom := [5][5]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}}
+	binom := [6][6]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}, {1, 5, 10, 10, 5, 1}}
 	q := s.quad
 	w := &s.gw
 	S := 1 / real(prho) // prho is real for the smooth pieces
@@ -327,11 +335,11 @@ func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [5]complex128, p
 		y := float64(j) * hy
 		eta := complex(0, (y-imag(pz0))/S)
 		// Re(sum_n c_n (X + i eta)^n) = sum_k X^k Re(sum_n c_n C(n,k) (i eta)^(n-k))
-		var co [5]float64
-		for k := 0; k <= 4; k++ {
+		var co [6]float64
+		for k := 0; k <= 5; k++ {
 			var acc complex128
 			pw := complex(1, 0)
-			for n := k; n <= 4; n++ {
+			for n := k; n <= 5; n++ {
 				acc += poly[n] * complex(binom[n][k], 0) * pw
 				pw *= eta
 			}
@@ -342,7 +350,7 @@ func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [5]complex128, p
 		for i := range row {
 			x := float64(i) * hx
 			X := (x - real(pz0)) / S
-			row[i] += q.A*x*x + q.B*x + cy + (((co[4]*X+co[3])*X+co[2])*X+co[1])*X + co[0]
+			row[i] += q.A*x*x + q.B*x + cy + ((((co[5]*X+co[4])*X+co[3])*X+co[2])*X+co[1])*X + co[0]
 		}
 		if bi == [4]float64{} {
 			continue

@@ -14,6 +14,7 @@ const (
 	logPiece                    // log zeta: the angle function at a value jump
 	zlogPiece                   // zeta log zeta: value/flux corner mismatch
 	z2logPiece                  // zeta^2 log zeta: curvature mismatch at a value/value corner
+	z3logPiece                  // zeta^3 log zeta: third-order mismatch at a value/flux corner
 )
 
 // piece is one harmonic function carried out of the series: smooth
@@ -67,8 +68,41 @@ func (p *piece) f(z complex128) (f, d1, d2 complex128) {
 		}
 		l := cmplx.Log(z)
 		return z * z * l, 2*z*l + z, 2*l + 3
+	case z3logPiece:
+		if z == 0 {
+			return 0, 0, 0
+		}
+		l := cmplx.Log(z)
+		return z * z * z * l, 3*z*z*l + z*z, 6*z*l + 5*z
 	}
 	panic("series: bad piece kind")
+}
+
+// f3 returns f”'(zeta).
+func (p *piece) f3(z complex128) complex128 {
+	switch p.kind {
+	case powPiece:
+		n := p.n
+		if n < 3 {
+			return 0
+		}
+		return complex(float64(n*(n-1)*(n-2)), 0) * cmplx.Pow(z, complex(float64(n-3), 0))
+	case logPiece:
+		return 2 / (z * z * z)
+	case zlogPiece:
+		return -1 / (z * z)
+	case z2logPiece:
+		return 2 / z
+	case z3logPiece:
+		return 6*cmplx.Log(z) + 11
+	}
+	panic("series: bad piece kind")
+}
+
+// third returns the third derivative along the unit directions ea, eb, ec.
+func (p *piece) third(x, y float64, ea, eb, ec complex128) float64 {
+	r := p.rho
+	return real(p.c * p.f3(p.zeta(x, y)) * r * ea * r * eb * r * ec)
 }
 
 // f2 returns a second antiderivative of f, zero at zeta = 0 for the
@@ -92,13 +126,29 @@ func (p *piece) f2(z complex128) complex128 {
 	case z2logPiece:
 		z4 := z * z * z * z
 		return z4*l/12 - 7*z4/144
+	case z3logPiece:
+		z5 := z * z * z * z * z
+		return z5*l/20 - 9*z5/400
 	}
 	panic("series: bad piece kind")
 }
 
-// value returns u, u_x, u_y at (x, y).
+// value returns u, u_x, u_y at (x, y). At the corner of a singular piece
+// the angle function takes the mean of its two edge values and the
+// gradient is NaN where it is unbounded.
 func (p *piece) value(x, y float64) (u, ux, uy float64) {
-	f, d1, _ := p.f(p.zeta(x, y))
+	z := p.zeta(x, y)
+	if z == 0 {
+		switch p.kind {
+		case logPiece:
+			return -imag(p.c) * math.Pi / 4, math.NaN(), math.NaN()
+		case zlogPiece:
+			return 0, math.NaN(), math.NaN()
+		case z2logPiece, z3logPiece:
+			return 0, 0, 0
+		}
+	}
+	f, d1, _ := p.f(z)
 	g := p.c * d1 * p.rho
 	return real(p.c * f), real(g), -imag(g)
 }

@@ -49,6 +49,7 @@ type Solution struct {
 	tolAbs   float64
 	est      float64
 	jump     [4]bool
+	third    [4]bool // value/flux corner with a third-order condition
 	flows    [4]float64
 	finite   [4]bool
 	mean     float64
@@ -260,14 +261,42 @@ func (s *Solution) residual(e problem.Side, t float64) float64 {
 	return s.m.data(e, t) - s.m.op(e, u, ux, uy)
 }
 
+// stencil holds one-sided finite-difference weights on the points 0..6
+// (unit spacing) for the first, second and third derivative at 0, exact
+// for polynomials of degree 6 (solved once from the Vandermonde system).
+var stencil = func() (w [4][7]float64) {
+	for d := 1; d <= 3; d++ {
+		a := mat.NewDense(7, 7, nil)
+		rhs := mat.NewVecDense(7, nil)
+		fact := 1.0
+		for k := 0; k < 7; k++ {
+			for j := 0; j < 7; j++ {
+				a.Set(k, j, math.Pow(float64(j), float64(k)))
+			}
+			if k == d {
+				rhs.SetVec(k, fact)
+			}
+			fact *= float64(k + 1)
+		}
+		var x mat.VecDense
+		if err := x.SolveVec(a, rhs); err != nil {
+			panic("series: stencil: " + err.Error())
+		}
+		for j := 0; j < 7; j++ {
+			w[d][j] = x.AtVec(j)
+		}
+	}
+	return w
+}()
+
 // derivs returns the normalised data of edge e at the end touching corner
-// c, and its first and second derivatives along the edge away from it
-// (one-sided fourth-order differences).
-func (m *model) derivs(e problem.Side, c int) (f, d1, d2 float64) {
+// c, and its first three derivatives along the edge away from it
+// (one-sided differences on 7 points with spacing L/256).
+func (m *model) derivs(e problem.Side, c int) (f, d1, d2, d3 float64) {
 	end := edgeEnd(e, c)
 	L := m.length(e)
 	h := L / 256
-	var v [6]float64
+	var v [7]float64
 	for j := range v {
 		sj := h * float64(j)
 		if end == 1 {
@@ -275,9 +304,13 @@ func (m *model) derivs(e problem.Side, c int) (f, d1, d2 float64) {
 		}
 		v[j] = m.data(e, sj)
 	}
-	d1 = (-25*v[0] + 48*v[1] - 36*v[2] + 16*v[3] - 3*v[4]) / (12 * h)
-	d2 = (45*v[0] - 154*v[1] + 214*v[2] - 156*v[3] + 61*v[4] - 10*v[5]) / (12 * h * h)
-	return v[0], d1, d2
+	var d [4]float64
+	for k := 1; k <= 3; k++ {
+		for j := range v {
+			d[k] += stencil[k][j] * v[j]
+		}
+	}
+	return v[0], d[1] / h, d[2] / (h * h), d[3] / (h * h * h)
 }
 
 // cornerPieces adds the singular corner functions whose amplitudes follow
@@ -295,8 +328,8 @@ func (s *Solution) cornerPieces() {
 		}
 		switch {
 		case k1 == problem.Value && k2 == problem.Value:
-			f1, _, s1 := m.derivs(e1, c)
-			f2, _, s2 := m.derivs(e2, c)
+			f1, _, s1, _ := m.derivs(e1, c)
+			f2, _, s2, _ := m.derivs(e2, c)
 			jmp := f1 - f2
 			if math.Abs(jmp) > 1e-14*s.scale {
 				// J (1 - 2 theta / pi): J on the first edge, 0 on the second.
@@ -317,8 +350,8 @@ func (s *Solution) cornerPieces() {
 			// Each residual must meet the other edge's homogeneous
 			// condition along itself; the two demands differ by m unless
 			// a kappa Re(zeta^2 log zeta) piece takes the difference.
-			f1, d1, _ := m.derivs(e1, c)
-			f2, d2, _ := m.derivs(e2, c)
+			f1, d1, _, _ := m.derivs(e1, c)
+			f2, d2, _, _ := m.derivs(e2, c)
 			mis := (-d1 + m.beta[e2]*f1) - (-d2 + m.beta[e1]*f2)
 			if math.Abs(mis)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
 				add(z2logPiece, 0, complex(mis/math.Pi, 0))
@@ -328,18 +361,37 @@ func (s *Solution) cornerPieces() {
 			if k2 == problem.Value {
 				ev, ef = e2, e1
 			}
-			fv, dv, _ := m.derivs(ev, c)
-			ff, _, _ := m.derivs(ef, c)
+			fv, dv, sv, tv := m.derivs(ev, c)
+			ff, _, sf, _ := m.derivs(ef, c)
 			beta := m.beta[ef]
+			L := math.Max(m.W, m.H)
 			a := ff - (-dv + beta*fv)
-			if math.Abs(a)*math.Max(m.W, m.H) <= 1e-14*s.scale {
+			if math.Abs(a)*L > 1e-14*s.scale {
+				if ev == e1 {
+					add(zlogPiece, 0, complex(0, 2*a/math.Pi))
+				} else {
+					add(zlogPiece, 0, complex(-2*a/math.Pi, 0))
+					add(powPiece, 1, complex(0, a))
+				}
+				// With beta != 0 this piece leaves beta a eta log eta on
+				// the convection edge, which limits the rate there to
+				// about n^-3 log n whatever follows.
+			}
+			// Third order: the value edge's residual r must have (primes
+			// along the edges) -r3 + beta r2 = 0, the other edge's r2 = 0; for
+			// a harmonic field the two demands differ by m3 unless a
+			// zeta^3 log zeta piece (zero on the value edge) takes it.
+			s.third[c] = true
+			m3 := -tv + beta*(sv-m.lap) + sf
+			if math.Abs(m3)*L*L*L <= 1e-14*s.scale {
 				continue
 			}
 			if ev == e1 {
-				add(zlogPiece, 0, complex(0, 2*a/math.Pi))
+				add(z3logPiece, 0, complex(0, -m3/(3*math.Pi)))
 			} else {
-				add(zlogPiece, 0, complex(-2*a/math.Pi, 0))
-				add(powPiece, 1, complex(0, a))
+				k := -m3 / (3 * math.Pi)
+				add(z3logPiece, 0, complex(k, 0))
+				add(powPiece, 3, complex(0, -math.Pi/2*k))
 			}
 		}
 	}
@@ -358,7 +410,7 @@ func (s *Solution) fitSmooth() error {
 	z0 := complex(m.W/2, m.H/2)
 	var cols []piece
 	cols = append(cols, piece{kind: powPiece, n: 0, z0: z0, rho: complex(1/S, 0), c: 1, corner: -1})
-	for n := 1; n <= 4; n++ {
+	for n := 1; n <= 5; n++ {
 		cols = append(cols,
 			piece{kind: powPiece, n: n, z0: z0, rho: complex(1/S, 0), c: 1, corner: -1},
 			piece{kind: powPiece, n: n, z0: z0, rho: complex(1/S, 0), c: -1i, corner: -1})
@@ -372,7 +424,7 @@ func (s *Solution) fitSmooth() error {
 		ku, kx, ky := s.known(x, y, c)
 		switch {
 		case k1 == problem.Value && k2 == problem.Value:
-			f1, _, s1 := m.derivs(e1, c)
+			f1, _, s1, _ := m.derivs(e1, c)
 			dir := dirAway(e1, edgeEnd(e1, c))
 			own := 0.0
 			if s.jump[c] {
@@ -396,7 +448,7 @@ func (s *Solution) fitSmooth() error {
 			}
 			rhs = append(rhs, f1-own-ku, s1-sec)
 		case k1 != problem.Value && k2 != problem.Value:
-			f1, d1, _ := m.derivs(e1, c)
+			f1, d1, _, _ := m.derivs(e1, c)
 			xi, eta := dirAway(e1, edgeEnd(e1, c)), dirAway(e2, edgeEnd(e2, c))
 			b1, b2 := m.beta[e1], m.beta[e2]
 			lop := func(u, ux, uy, uxe float64) float64 {
@@ -423,7 +475,7 @@ func (s *Solution) fitSmooth() error {
 			if k2 == problem.Value {
 				ev, ef = e2, e1
 			}
-			fv, dv, _ := m.derivs(ev, c)
+			fv, dv, sv, tv := m.derivs(ev, c)
 			beta := m.beta[ef]
 			row := make([]float64, len(cols))
 			for j := range cols {
@@ -432,6 +484,23 @@ func (s *Solution) fitSmooth() error {
 			}
 			rows = append(rows, row)
 			rhs = append(rhs, -dv+beta*fv-m.op(ef, ku, kx, ky))
+			if !s.third[c] {
+				continue
+			}
+			// -W_sss + beta W_ss along the value edge (s away from c).
+			sd := dirAway(ev, edgeEnd(ev, c))
+			row3 := make([]float64, len(cols))
+			for j := range cols {
+				row3[j] = -cols[j].third(x, y, sd, sd, sd) + beta*cols[j].second(x, y, sd)
+			}
+			known := beta * (2*s.quad.A*real(sd)*real(sd) + 2*s.quad.C*imag(sd)*imag(sd))
+			for i := range s.pieces {
+				if s.pieces[i].corner != c {
+					known += -s.pieces[i].third(x, y, sd, sd, sd) + beta*s.pieces[i].second(x, y, sd)
+				}
+			}
+			rows = append(rows, row3)
+			rhs = append(rhs, -tv+beta*sv-known)
 		}
 	}
 	if m.err != nil || len(rows) == 0 {
