@@ -101,10 +101,10 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 // cornerSum is the sum of the pieces at one corner:
 // a0 + a1 zeta + (b0 + b1 zeta + b2 zeta^2) log zeta.
 type cornerSum struct {
-	on                         bool
-	a0, a1, a3, b0, b1, b2, b3 complex128
-	logs                       bool
-	z0, rho                    complex128
+	on                             bool
+	a0, a1, a2, a3, b0, b1, b2, b3 complex128
+	logs                           bool
+	z0, rho                        complex128
 }
 
 // atanPos returns atan2(y, x) for x, y >= 0, not both zero.
@@ -140,6 +140,8 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 				cr.a0 += p.c
 			case 1:
 				cr.a1 += p.c
+			case 2:
+				cr.a2 += p.c
 			case 3:
 				cr.a3 += p.c
 			default:
@@ -166,7 +168,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	for c := range corner {
 		cr := &corner[c]
 		needLogs = needLogs || cr.logs
-		if cr.logs && (cr.b1 != 0 || cr.b2 != 0 || cr.b3 != 0 || cr.a3 != 0 || real(cr.b0) != 0) {
+		if cr.logs && (cr.b1 != 0 || cr.b2 != 0 || cr.b3 != 0 || cr.a2 != 0 || cr.a3 != 0 || real(cr.b0) != 0) {
 			fullLogs = true
 		}
 	}
@@ -269,8 +271,8 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 				x := float64(i) * hx
 				k := j*(nx+1) + i
 				zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
-				f := cr.a0 + zc*(cr.a1+zc*zc*cr.a3)
-				d := cr.a1 + 3*zc*zc*cr.a3
+				f := cr.a0 + zc*(cr.a1+zc*(cr.a2+zc*cr.a3))
+				d := cr.a1 + zc*(2*cr.a2+3*zc*cr.a3)
 				if cr.logs && zc != 0 {
 					var l complex128
 					switch c {

@@ -120,3 +120,25 @@ func (s *Solution) naiveGrid(nx, ny int, u []float64) {
 		}
 	}
 }
+
+// BenchmarkSolveGridMixed: Solve + Grid with gradients, a value, a flux and
+// two convection edges with a source (the separable, non-sine path).
+func BenchmarkSolveGridMixed(b *testing.B) {
+	for _, n := range []int{65, 129, 257, 513} {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			p := &problem.Problem{W: 0.4, H: 0.15, Kx: 167, Ky: 167, Source: 1e4}
+			p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Value, F: func(s float64) float64 { return 180 - 40*(2*s/0.4-1)*(2*s/0.4-1) }}
+			p.Edges[problem.Top] = problem.Edge{Kind: problem.Convection, Hc: 15, F: problem.Const(30)}
+			p.Edges[problem.Left] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
+			p.Edges[problem.Right] = problem.Edge{Kind: problem.Convection, Hc: 200, F: problem.Const(35)}
+			u, ux, uy := make([]float64, n*n), make([]float64, n*n), make([]float64, n*n)
+			for b.Loop() {
+				s, err := Solve(p, Options{})
+				if err != nil {
+					b.Fatal(err)
+				}
+				s.Grid(n-1, n-1, u, ux, uy)
+			}
+		})
+	}
+}

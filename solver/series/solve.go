@@ -49,6 +49,7 @@ type Solution struct {
 	tolAbs   float64
 	est      float64
 	jump     [4]bool
+	jumpSize [4]float64
 	third    [4]bool // value/flux corner with a third-order condition
 	flows    [4]float64
 	finite   [4]bool
@@ -336,6 +337,7 @@ func (s *Solution) cornerPieces() {
 				add(powPiece, 0, complex(jmp, 0))
 				add(logPiece, 0, complex(0, 2*jmp/math.Pi))
 				s.jump[c] = true
+				s.jumpSize[c] = jmp
 				p := m.p
 				s.warnings = append(s.warnings,
 					fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
@@ -373,16 +375,29 @@ func (s *Solution) cornerPieces() {
 					add(zlogPiece, 0, complex(-2*a/math.Pi, 0))
 					add(powPiece, 1, complex(0, a))
 				}
-				// With beta != 0 this piece leaves beta a eta log eta on
-				// the convection edge, which limits the rate there to
-				// about n^-3 log n whatever follows.
+				// With beta != 0 this piece leaves -beta a (2/pi) tau log tau
+				// on the convection edge (tau along it); kappa Im(zeta^2 log
+				// zeta), zero on the value edge (mirrored when the value
+				// edge is the second one), takes it back with kappa =
+				// -a beta / pi, leaving only smooth terms there.
+				if beta != 0 {
+					k := -a * beta / math.Pi
+					add(z2logPiece, 0, complex(0, -k))
+					if ev != e1 {
+						add(powPiece, 2, complex(-k*math.Pi/2, 0))
+					}
+				}
 			}
 			// Third order: the value edge's residual r must have (primes
 			// along the edges) -r3 + beta r2 = 0, the other edge's r2 = 0; for
 			// a harmonic field the two demands differ by m3 unless a
 			// zeta^3 log zeta piece (zero on the value edge) takes it.
 			s.third[c] = true
+			// The pieces above add -a beta^2 to the other edge's r2.
 			m3 := -tv + beta*(sv-m.lap) + sf
+			if math.Abs(a)*L > 1e-14*s.scale {
+				m3 -= a * beta * beta
+			}
 			if math.Abs(m3)*L*L*L <= 1e-14*s.scale {
 				continue
 			}
@@ -594,7 +609,24 @@ func (s *Solution) flowOf(e problem.Side) (float64, bool) {
 	x0, y0 = m.cornerPoint(c0)
 	x1, y1 = m.cornerPoint(c1)
 	if s.jump[c0] || s.jump[c1] {
-		return math.Inf(1), false
+		// Near a jump corner the inflow density is k (A - B)(2/pi)/r with A
+		// this edge's value and B the neighbour's: +Inf or -Inf, NaN when
+		// the two corners disagree.
+		sign := 0.0
+		for _, c := range [2]int{c0, c1} {
+			if !s.jump[c] {
+				continue
+			}
+			j := s.jumpSize[c] // value on Side(c) minus value on Side(c+3)
+			if problem.Side(c) != e {
+				j = -j
+			}
+			if sign != 0 && math.Signbit(sign) != math.Signbit(j) {
+				return math.NaN(), false
+			}
+			sign = j
+		}
+		return math.Inf(int(math.Copysign(1, sign))), false
 	}
 	L := m.length(e)
 	_, qx, qy := s.quad.value((x0+x1)/2, (y0+y1)/2)
@@ -641,7 +673,9 @@ func (s *Solution) At(x, y float64) (u, ux, uy float64) {
 }
 
 // Flow returns the flow per unit depth entering through edge e, and false
-// if it is infinite (a jump of prescribed value at one of its corners).
+// if it is infinite (a jump of prescribed value at one of its corners);
+// the flow is then +Inf or -Inf by the direction of the jump(s), or NaN if
+// its two corners push opposite ways, never a finite number.
 // Flux edges report the integral of their data; the others are computed
 // from the solution.
 func (s *Solution) Flow(e problem.Side) (flow float64, finite bool) {
