@@ -87,7 +87,9 @@
 
   // restart stops the worker (the only real cancel of a running solve),
   // rejects everything waiting on it, and starts a fresh one.
+  let restarts = 0;
   function restart() {
+    restarts++;
     if (workerNow) workerNow.terminate();
     workerNow = null;
     worker = null;
@@ -515,6 +517,9 @@
     last: () => lastGood, // {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
     colourMap: () => EW.colourMap(), // {mode, lo, hi, table: Uint8Array rgb}
     canvases: () => EW.canvases(), // {field, legend, profile}
+    // the solve in flight: how long it has run (ms, or null) and how many
+    // times a stale solve was cancelled by restarting the worker
+    engineState: () => ({ running: running ? performance.now() - running.started : null, restarts }),
     units: (physics) => (EW.unitsets || {})[physics || (typed || current || {}).physics],
   };
 

@@ -208,9 +208,13 @@
       }
     }
     if (!(qmax > 0)) return;
+    // scale by the 90th percentile, so that singular corners do not shrink
+    // every other arrow to nothing; larger ones are drawn at full length
+    const mags = pts.map((p) => p[4]).sort((a, b) => a - b);
+    const qref = mags[Math.floor(0.9 * (mags.length - 1))] || qmax;
     const len = 0.85 * Math.min(box.w / cols, box.h / rows);
     for (const [x, y, qx, qy, q] of pts) {
-      const l = (len * q) / qmax;
+      const l = len * Math.min(1, q / qref);
       if (l < 2) continue;
       const dx = (qx / q) * l, dy = (-qy / q) * l; // screen y down
       const cx = X(x), cy = Y(y);

@@ -301,3 +301,98 @@ func TestScreens(t *testing.T) {
 		t.Errorf("the page is %d px wide at a 420 px screen: something sticks out", w)
 	}
 }
+
+// An edit while a long solve runs cancels it: the page shows that it is
+// working, restarts the engine, and draws the newest edit, not the stale
+// one.
+func TestEditCancelsLongSolve(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	n := tb.solved(t)
+	// a fine grid and a narrow bump on one edge make the solve long
+	eval[bool](t, tb, `(() => { const p = Object.assign(`+plate+`, {grid: {nx: 1024, ny: 1024}});
+	  p.edges.bottom.expr = "20 + 70*exp(-((s - 0.13)/0.004)^2)";
+	  window.slow = window.edgewise.load(p).then(() => "solved", e => e.message);
+	  return true; })()`)
+	tb.waitFor(t, `document.documentElement.classList.contains("busy") && /Solving/.test(document.getElementById("status").textContent)`, "the working sign")
+	tb.waitFor(t, `(window.edgewiseInternal.engineState().running || 0) > 700`, "the solve to run long")
+	tb.pasteInto(t, "#in-top-expr", "33")
+	tb.waitSolved(t, n+1)
+	st := eval[map[string]any](t, tb, `window.edgewiseInternal.engineState()`)
+	if r, _ := st["restarts"].(float64); r < 1 {
+		t.Errorf("engine state %v: the long stale solve was not cancelled", st)
+	}
+	if e := eval[string](t, tb, `window.edgewiseInternal.last().project.edges.top.expr`); e != "33" {
+		t.Errorf("the picture shows top edge %q, want the newest edit 33", e)
+	}
+	if msg := eval[string](t, tb, `window.slow`); msg == "solved" {
+		t.Errorf("the stale load resolved; it should have been cancelled")
+	}
+	if eval[bool](t, tb, `document.documentElement.classList.contains("busy")`) {
+		t.Errorf("the working sign stayed after the solve")
+	}
+}
+
+// A decimal comma is refused clearly, next to the field, and nothing is
+// solved from a misread number.
+func TestDecimalComma(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	n := tb.solved(t)
+	tb.pasteInto(t, "#in-width", "0,3")
+	tb.waitFor(t, `document.getElementById("err-width").textContent.length > 0`, "the width error")
+	msg := eval[string](t, tb, `document.getElementById("err-width").textContent`)
+	if !strings.Contains(msg, "0.3") || !strings.Contains(msg, "point") {
+		t.Errorf("width error %q, want advice to write 0.3", msg)
+	}
+	if got := tb.solved(t); got != n {
+		t.Errorf("a solve ran on a width of 0,3")
+	}
+	if w := eval[float64](t, tb, `window.edgewiseInternal.last().project.width`); w != 0.4 {
+		t.Errorf("the picture's width is %g, want the last good 0.4", w)
+	}
+}
+
+// The line profile samples the field between two points the user types;
+// its text alternative gives the values at the ends, which match the
+// engine's probes there.
+func TestLineProfile(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	eval[bool](t, tb, `(document.getElementById("profile-box").open = true, true)`)
+	for id, v := range map[string]string{"#pf-x0": "0.2", "#pf-y0": "0.02", "#pf-x1": "0.2", "#pf-y1": "0.18"} {
+		tb.pasteInto(t, id, v)
+		eval[bool](t, tb, `(document.activeElement.dispatchEvent(new Event("change", {bubbles: true})), true)`)
+	}
+	label := eval[string](t, tb, `document.getElementById("profile").getAttribute("aria-label")`)
+	// "... from A (0.2, 0.02) to B (0.2, 0.18): temperature from V0 to V1, ..."
+	var v0, v1 string
+	if i := strings.Index(label, ": "); i >= 0 {
+		f := strings.Fields(label[i+2:])
+		for k := 0; k+3 < len(f); k++ {
+			if f[k] == "from" {
+				v0, v1 = f[k+1], strings.TrimSuffix(f[k+3], ",")
+				break
+			}
+		}
+	}
+	a, err0 := readNumber(v0)
+	b, err1 := readNumber(v1)
+	if err0 != nil || err1 != nil {
+		t.Fatalf("profile text %q: no end values", label)
+	}
+	want := eval[[]float64](t, tb, `(async () => {
+	  const p = Object.assign(`+plate+`, {probes: [{x: 0.2, y: 0.02, label: "A"}, {x: 0.2, y: 0.18, label: "B"}]});
+	  const m = await window.edgewiseInternal.call("solve", JSON.stringify(p), 0, 0, 0);
+	  return JSON.parse(m.value.result).probes.map(q => q.value); })()`)
+	// the profile reads the output grid by bilinear interpolation, shown to
+	// 4 digits: 1e-3 relative covers both
+	if math.Abs(a-want[0]) > 1e-3*math.Abs(want[0]) || math.Abs(b-want[1]) > 1e-3*math.Abs(want[1]) {
+		t.Errorf("profile ends %g, %g; engine %g, %g", a, b, want[0], want[1])
+	}
+	eval[bool](t, tb, `(document.getElementById("opt-arrows").click(), true)`)
+	tb.shot(t, "profile-arrows")
+}
