@@ -582,6 +582,9 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 	hs := sp.L / float64(M)
 	w := &s.gw
 	w.a, w.b = grow(w.a, sp.n), grow(w.b, sp.n)
+	grad := ux != nil || uy != nil
+	w.col = grow(w.col, 3*(M+1))
+	cu, cs, ct := w.col[:M+1], w.col[M+1:2*(M+1)], w.col[2*(M+1):]
 	for r := 0; r <= rows; r++ {
 		rr := r
 		if far {
@@ -589,27 +592,46 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 		}
 		t := sp.D * float64(rr) / float64(rows)
 		n := sp.rowTerms(t, cut)
+		if n == 0 {
+			continue
+		}
 		a, b := w.a[:n], w.b[:n]
 		sp.rowY(t, n, a, b, false, 1)
+		clear(cu)
+		if grad {
+			clear(cs)
+			clear(ct)
+		}
 		for k := 0; k < n; k++ {
 			lam := sp.b.Lambda[k]
-			sn, cs := math.Sincos(sp.b.Phi[k])
+			sn, cn := math.Sincos(sp.b.Phi[k])
 			ds, dc := math.Sincos(lam * hs)
-			ak, bk := a[k], b[k]
-			for i := 0; i <= M; i++ {
-				g := gidx(vert, nx, i, r)
-				u[g] += ak * sn
-				if ux != nil || uy != nil {
-					gs, gt := ak*lam*cs, bk*sn
-					gx, gy := sp.global(gs, gt)
-					if ux != nil {
-						ux[g] += gx
-					}
-					if uy != nil {
-						uy[g] += gy
-					}
+			ak, al, bk := a[k], a[k]*lam, b[k]
+			if !grad {
+				for i := range cu {
+					cu[i] += ak * sn
+					sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
 				}
-				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+				continue
+			}
+			for i := range cu {
+				cu[i] += ak * sn
+				cs[i] += al * cn
+				ct[i] += bk * sn
+				sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+			}
+		}
+		for i := range cu {
+			g := gidx(vert, nx, i, r)
+			u[g] += cu[i]
+			if grad {
+				gx, gy := sp.global(cs[i], ct[i])
+				if ux != nil {
+					ux[g] += gx
+				}
+				if uy != nil {
+					uy[g] += gy
+				}
 			}
 		}
 	}
