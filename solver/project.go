@@ -245,6 +245,14 @@ func (d *decoder) project(v any) *Project {
 		}
 	}
 	p.Conductivity = d.conductivity(m["conductivity"], "conductivity")
+	if d.err == nil && p.Conductivity.X != p.Conductivity.Y {
+		// the series works on the equivalent isotropic rectangle, whose
+		// height is H sqrt(kx/ky): its aspect ratio must stay in range too
+		if r := p.Width / (p.Height * math.Sqrt(p.Conductivity.X/p.Conductivity.Y)); r > 1e3 || r < 1e-3 {
+			d.fail("conductivity", "with kx/ky = %.3g this rectangle acts like one of aspect ratio %.3g, outside 1e-3 .. 1e3",
+				p.Conductivity.X/p.Conductivity.Y, r)
+		}
+	}
 	if s, ok := m["source"]; ok {
 		p.Source = d.number(s, "source")
 	}

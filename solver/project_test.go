@@ -114,6 +114,8 @@ func TestDecodeErrors(t *testing.T) {
 			"edges.bottom.expr: empty formula (write 0 for zero)"},
 		{"aspect", func(m map[string]any) { m["width"] = 1e4; m["height"] = 1 },
 			"width: the aspect ratio width/height = 10000 is outside 1e-3 .. 1e3"},
+		{"orthotropic aspect", func(m map[string]any) { m["conductivity"] = map[string]any{"x": 1e-4, "y": 400} },
+			"conductivity: with kx/ky = 2.5e-07 this rectangle acts like one of aspect ratio 4e+03, outside 1e-3 .. 1e3"},
 		// fixed bugs
 		{"missing kind with an earlier error kept", func(m map[string]any) {
 			m["width"] = -1
