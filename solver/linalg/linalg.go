@@ -1,0 +1,149 @@
+// Package linalg holds the two small dense solvers the series engine needs
+// when it fits its corner pieces: a square solve by Gaussian elimination
+// with partial pivoting, and a minimum-norm least-squares solve by a
+// one-sided Jacobi singular value decomposition (Hestenes' method).
+//
+// The systems are tiny (tens of rows and columns). gonum's mat package
+// solves them just as well, but linking it brings most of gonum's LAPACK
+// into the WebAssembly engine (about 0.5 MB); these few dozen lines do not.
+// The tests check both routines against gonum's mat on seeded random
+// systems.
+//
+// Matrices are row-major: a[i*cols + j] is row i, column j.
+package linalg
+
+import (
+	"errors"
+	"math"
+)
+
+// ErrSingular is returned by Solve for a matrix that is singular to
+// working precision.
+var ErrSingular = errors.New("linalg: matrix is singular")
+
+// Solve solves the n x n system a x = b and returns x. a and b are not
+// changed.
+func Solve(a []float64, b []float64) ([]float64, error) {
+	n := len(b)
+	if len(a) != n*n {
+		panic("linalg: Solve needs an n x n matrix for n right-hand sides")
+	}
+	m := append([]float64(nil), a...)
+	x := append([]float64(nil), b...)
+	scale := 0.0
+	for _, v := range m {
+		scale = math.Max(scale, math.Abs(v))
+	}
+	for k := 0; k < n; k++ {
+		p := k
+		for i := k + 1; i < n; i++ {
+			if math.Abs(m[i*n+k]) > math.Abs(m[p*n+k]) {
+				p = i
+			}
+		}
+		if math.Abs(m[p*n+k]) <= 1e-14*scale || scale == 0 {
+			return nil, ErrSingular
+		}
+		if p != k {
+			for j := 0; j < n; j++ {
+				m[k*n+j], m[p*n+j] = m[p*n+j], m[k*n+j]
+			}
+			x[k], x[p] = x[p], x[k]
+		}
+		for i := k + 1; i < n; i++ {
+			f := m[i*n+k] / m[k*n+k]
+			if f == 0 {
+				continue
+			}
+			for j := k; j < n; j++ {
+				m[i*n+j] -= f * m[k*n+j]
+			}
+			x[i] -= f * x[k]
+		}
+	}
+	for k := n - 1; k >= 0; k-- {
+		s := x[k]
+		for j := k + 1; j < n; j++ {
+			s -= m[k*n+j] * x[j]
+		}
+		x[k] = s / m[k*n+k]
+	}
+	return x, nil
+}
+
+// MinNorm returns the x of smallest norm that minimises |a x - b| for the
+// rows x cols matrix a, treating singular values at or below rcond times
+// the largest as zero. a and b are not changed.
+func MinNorm(a []float64, rows, cols int, b []float64, rcond float64) []float64 {
+	if len(a) != rows*cols || len(b) != rows {
+		panic("linalg: MinNorm: sizes do not match")
+	}
+	// One-sided Jacobi: rotate pairs of columns of U = a (and of V = I)
+	// until all columns of U are orthogonal; then a = U V^T with the
+	// column norms of U the singular values.
+	u := append([]float64(nil), a...)
+	v := make([]float64, cols*cols)
+	for j := 0; j < cols; j++ {
+		v[j*cols+j] = 1
+	}
+	const eps = 1e-15
+	for sweep := 0; sweep < 60; sweep++ {
+		rotated := false
+		for p := 0; p < cols-1; p++ {
+			for q := p + 1; q < cols; q++ {
+				alpha, beta, gamma := 0.0, 0.0, 0.0
+				for i := 0; i < rows; i++ {
+					up, uq := u[i*cols+p], u[i*cols+q]
+					alpha += up * up
+					beta += uq * uq
+					gamma += up * uq
+				}
+				if gamma == 0 || math.Abs(gamma) <= eps*math.Sqrt(alpha*beta) {
+					continue
+				}
+				rotated = true
+				zeta := (beta - alpha) / (2 * gamma)
+				t := math.Copysign(1, zeta) / (math.Abs(zeta) + math.Sqrt(1+zeta*zeta))
+				c := 1 / math.Sqrt(1+t*t)
+				s := c * t
+				for i := 0; i < rows; i++ {
+					up, uq := u[i*cols+p], u[i*cols+q]
+					u[i*cols+p], u[i*cols+q] = c*up-s*uq, s*up+c*uq
+				}
+				for i := 0; i < cols; i++ {
+					vp, vq := v[i*cols+p], v[i*cols+q]
+					v[i*cols+p], v[i*cols+q] = c*vp-s*vq, s*vp+c*vq
+				}
+			}
+		}
+		if !rotated {
+			break
+		}
+	}
+	sigma := make([]float64, cols)
+	smax := 0.0
+	for j := range sigma {
+		s := 0.0
+		for i := 0; i < rows; i++ {
+			s += u[i*cols+j] * u[i*cols+j]
+		}
+		sigma[j] = math.Sqrt(s)
+		smax = math.Max(smax, sigma[j])
+	}
+	x := make([]float64, cols)
+	for j, sj := range sigma {
+		if sj == 0 || sj <= rcond*smax {
+			continue
+		}
+		// (u_j . b) / sigma_j, with u_j = U[:, j] / sigma_j
+		dot := 0.0
+		for i := 0; i < rows; i++ {
+			dot += u[i*cols+j] * b[i]
+		}
+		f := dot / (sj * sj)
+		for i := range x {
+			x[i] += v[i*cols+j] * f
+		}
+	}
+	return x
+}
