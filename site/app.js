@@ -14,8 +14,8 @@
   const statusEl = $("status");
   const root = document.documentElement;
 
-  const DEBOUNCE_MS = 60; // typing fast: wait this long for the next key
-  const QUIET_MS = 150; // an edit this long after the last one solves at once
+  const DEBOUNCE_MS = 40; // keys faster than QUIET_MS apart: wait this long for the next
+  const QUIET_MS = 60; // an edit this long after the last one solves at once
   const BUSY_MS = 250; // show that the engine is working after this long
   const CANCEL_MS = 600; // a stale solve running longer is cancelled
   const LEVELS = 12; // isoline levels asked for
@@ -212,10 +212,11 @@
       setStatus("Fix the marked field; the picture shows the last project that solved.", "error");
       return;
     }
-    // debounce on the trailing edge only while keys come fast: the first
-    // edit after a pause solves at once, a burst solves its last state
+    // debounce only while keys come very fast (key repeat, a burst of
+    // events); otherwise solve at once. While a solve runs, request()
+    // keeps only the newest edit waiting, so slow solves coalesce edits too.
     const t0 = performance.now();
-    const burst = t0 - lastEditAt < QUIET_MS || running !== null;
+    const burst = t0 - lastEditAt < QUIET_MS;
     lastEditAt = t0;
     editTimer = setTimeout(() => solveEdit(project, t0), burst ? DEBOUNCE_MS : 0);
   };
@@ -239,18 +240,34 @@
     apply(project, out.reply, out.ms, t0);
   }
 
+  const previewed = {}; // side -> what its preview was drawn from
+
+  // previews redraws the edge previews whose edge or rectangle changed.
   async function previews(project) {
     const text = JSON.stringify(project);
     for (const side of EW.SIDES) {
+      const key = JSON.stringify([project.width, project.height, project.edges[side]]);
+      if (previewed[side] === key) continue;
+      previewed[side] = key;
       try {
         const m = await call("preview", text, side, 96);
         const r = m.value;
         EW.drawPreview(side, r.s, r.v, !r.ok);
       } catch (e) {
+        delete previewed[side];
         return; // the worker was restarted; the next edit previews again
       }
     }
   }
+
+  let previewResize = 0;
+  window.addEventListener("resize", () => {
+    clearTimeout(previewResize);
+    previewResize = setTimeout(() => {
+      for (const k of Object.keys(previewed)) delete previewed[k];
+      if (typed) previews(typed);
+    }, 150);
+  });
 
   // ---- probes ----
 

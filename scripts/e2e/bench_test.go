@@ -9,7 +9,7 @@ import (
 	"github.com/chromedp/chromedp"
 )
 
-// BenchmarkEditToPicture types one-key edits into the top edge's formula
+// BenchmarkEditToPicture types one-key edits into the right edge's formula
 // of the demo project (default grid) and measures, inside the page, the
 // time from the key going down to the redrawn picture (the page's
 // "edgewise:solved" event, sent after the canvas is drawn). It reports the
@@ -20,7 +20,7 @@ func BenchmarkEditToPicture(b *testing.B) {
 	tb.open(b, siteURL)
 	eval[bool](b, tb, `(() => {
 	  window.benchTimes = []; window.benchEngine = []; window.benchT0 = 0;
-	  const inp = document.getElementById("in-top-expr");
+	  const inp = document.getElementById("in-right-expr");
 	  inp.addEventListener("keydown", () => { window.benchT0 = performance.now(); }, true);
 	  document.addEventListener("edgewise:solved", () => {
 	    if (!window.benchT0) return;
@@ -28,14 +28,14 @@ func BenchmarkEditToPicture(b *testing.B) {
 	    window.benchT0 = 0;
 	  });
 	  return true; })()`)
-	base := eval[string](b, tb, `document.getElementById("in-top-expr").value`)
-	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID("in-top-expr"))); err != nil {
+	base := eval[string](b, tb, `document.getElementById("in-right-expr").value`)
+	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID("in-right-expr"))); err != nil {
 		b.Fatal(err)
 	}
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		// one key replaces the last character: a single edit, e.g. 25 -> 21 -> 22
-		eval[bool](b, tb, `(() => { const e = document.getElementById("in-top-expr");
+		eval[bool](b, tb, `(() => { const e = document.getElementById("in-right-expr");
 		  e.setSelectionRange(e.value.length - 1, e.value.length); return true; })()`)
 		key := fmt.Sprint(1 + i%9)
 		if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(key)); err != nil {
@@ -56,5 +56,5 @@ func BenchmarkEditToPicture(b *testing.B) {
 	b.ReportMetric(median, "ms/edit-median")
 	b.ReportMetric(times[len(times)-1], "ms/edit-max")
 	status := eval[string](b, tb, `document.getElementById("status").textContent`)
-	b.Logf("demo top edge %q, %d edits: median %.1f ms, min %.1f, max %.1f; last: %s", base, len(times), median, times[0], times[len(times)-1], status)
+	b.Logf("demo right edge %q, %d edits: median %.1f ms, min %.1f, max %.1f; last: %s", base, len(times), median, times[0], times[len(times)-1], status)
 }
