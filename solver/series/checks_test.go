@@ -257,15 +257,16 @@ func TestExtremeAspectAndBiot(t *testing.T) {
 }
 
 // Coefficient decay: with the corner pieces taken out, the u-coefficients
-// of a value edge between two value edges fall like n^-5 and those of a
-// flux edge like n^-4 at least; the raw data (no corner treatment) would
-// give n^-1. The rate is fitted on octave envelopes.
+// fall like n^-5 (value edge between value edges; flux and convection
+// edges next to value, flux and convection edges); the raw data (no corner
+// treatment) would give n^-1. The rate is fitted on octave envelopes
+// (n in 8..16 against 32..64) and must be at least 4.5.
 func TestCoefficientRate(t *testing.T) {
 	p := valueBox(1, 1, 0, 0, 0, 0)
 	p.Edges[problem.Bottom].F = func(s float64) float64 { return 3 + s + math.Exp(s) }
 	p.Edges[problem.Top].F = func(s float64) float64 { return 1 - s*s }
 	p.Edges[problem.Left].F = problem.Const(7)
-	s := mustSolve(t, p, Options{Tol: 1e-13})
+	s := mustSolve(t, p, Options{Tol: 1e-11})
 	rate := func(sp *sub) float64 {
 		a := sp.amp(sp.n)
 		env := func(lo, hi int) float64 {
@@ -277,6 +278,7 @@ func TestCoefficientRate(t *testing.T) {
 		}
 		return math.Log2(env(8, 16) / env(32, 64))
 	}
+	t.Logf("value edge: n^-%.2f", rate(s.subs[problem.Bottom])/2)
 	if sp := s.subs[problem.Bottom]; sp.n < 64 || rate(sp)/2 < 4.5 {
 		t.Errorf("value edge: %d terms, rate n^-%.2f, want >= 4.5", sp.n, rate(sp)/2)
 	}
@@ -285,23 +287,26 @@ func TestCoefficientRate(t *testing.T) {
 	q.Edges[problem.Right] = problem.Edge{Kind: problem.Flux, F: problem.Const(2)}
 	q.Edges[problem.Top] = problem.Edge{Kind: problem.Value, F: problem.Const(1)}
 	q.Edges[problem.Left] = problem.Edge{Kind: problem.Convection, Hc: 3, F: problem.Const(0)}
-	s = mustSolve(t, q, Options{Tol: 1e-13})
-	if sp := s.subs[problem.Bottom]; sp.n < 64 || rate(sp)/2 < 3.5 {
-		t.Errorf("flux edge: %d terms, rate n^-%.2f, want >= 3.5", sp.n, rate(sp)/2)
+	s = mustSolve(t, q, Options{Tol: 1e-11})
+	t.Logf("flux edge: n^-%.2f, convection edge: n^-%.2f", rate(s.subs[problem.Bottom])/2, rate(s.subs[problem.Left])/2)
+	for _, e := range []problem.Side{problem.Bottom, problem.Left} {
+		if sp := s.subs[e]; sp.n < 64 || rate(sp)/2 < 4.5 {
+			t.Errorf("%v edge: %d terms, rate n^-%.2f, want >= 4.5", e, sp.n, rate(sp)/2)
+		}
 	}
 }
 
 // The error estimate is honest: with a loose tolerance the true error
-// (against the same problem at Tol 1e-13, and at the loaded edges against
-// the data) stays below the estimate, and the estimate is not absurdly
-// pessimistic (within a factor 1000).
+// (against the same problem at Tol 1e-11, on a 31 x 21 grid including the
+// edges, corners excluded) stays below the estimate, and the estimate is
+// not absurdly pessimistic (within a factor 1000).
 func TestErrorEstimateHonest(t *testing.T) {
 	p := &problem.Problem{W: 1.5, H: 1, Kx: 1, Ky: 1, Source: 4}
 	p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Value, F: func(s float64) float64 { return 20 * math.Sin(4*s) }}
 	p.Edges[problem.Right] = problem.Edge{Kind: problem.Flux, F: problem.Const(3)}
 	p.Edges[problem.Top] = problem.Edge{Kind: problem.Convection, Hc: 2, F: problem.Const(-5)}
 	p.Edges[problem.Left] = problem.Edge{Kind: problem.Value, F: problem.Const(10)}
-	ref := mustSolve(t, p, Options{Tol: 1e-13})
+	ref := mustSolve(t, p, Options{Tol: 1e-11})
 	for _, tol := range []float64{1e-4, 1e-6} {
 		s := mustSolve(t, p, Options{Tol: tol})
 		worst := 0.0
@@ -316,6 +321,7 @@ func TestErrorEstimateHonest(t *testing.T) {
 				worst = math.Max(worst, math.Abs(a-b))
 			}
 		}
+		t.Logf("Tol %g: true error %.3g, estimate %.3g, %d terms", tol, worst, s.ErrorEstimate(), s.Terms())
 		if worst > s.ErrorEstimate() || s.ErrorEstimate() > 1000*worst+1e-12*s.Scale() || s.ErrorEstimate() > tol*s.Scale() {
 			t.Errorf("Tol %g: true error %.3g, estimate %.3g (tol %.3g), %d terms", tol, worst, s.ErrorEstimate(), tol*s.Scale(), s.Terms())
 		}

@@ -356,7 +356,14 @@ func (s *Solution) cornerPieces() {
 			f2, d2, _, _ := m.derivs(e2, c)
 			mis := (-d1 + m.beta[e2]*f1) - (-d2 + m.beta[e1]*f2)
 			if math.Abs(mis)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
-				add(z2logPiece, 0, complex(mis/math.Pi, 0))
+				k := mis / math.Pi
+				add(z2logPiece, 0, complex(k, 0))
+				// On a convection edge beta times that piece leaves
+				// +-beta kappa s^2 log s; a zeta^3 log zeta piece with
+				// c = (beta2 kappa - i beta1 kappa)/3 takes both back.
+				if b1, b2 := m.beta[e1], m.beta[e2]; b1 != 0 || b2 != 0 {
+					add(z3logPiece, 0, complex(b2*k/3, -b1*k/3))
+				}
 			}
 		case k1 == problem.Value || k2 == problem.Value:
 			ev, ef := e1, e2
