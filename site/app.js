@@ -397,15 +397,27 @@
       return tr;
     };
     const infinite = [];
+    const flowNotes = new Set();
     let largest = Math.abs(r.source_total || 0);
     for (const side of ["top", "bottom", "left", "right"]) {
       const e = r.edges[side];
       if (e.finite && e.flow !== null) {
         largest = Math.max(largest, Math.abs(e.flow));
         add(EW.capital(side), EW.num(e.flow, 5));
-      } else {
-        infinite.push(side);
-        add(EW.capital(side), "∞ infinite", "inf");
+        continue;
+      }
+      infinite.push(side);
+      const tr = add(EW.capital(side), "∞ infinite", "inf");
+      // the engine's reason for this edge, e.g. "the value jumps from 90
+      // to 40 at the bottom-left corner"
+      const head = "flow through the " + side + " edge is infinite: ";
+      for (const w of r.warnings || []) {
+        if (!w.startsWith(head)) continue;
+        flowNotes.add(w);
+        const note = document.createElement("span");
+        note.className = "reason";
+        note.textContent = w.slice(head.length);
+        tr.lastChild.append(note);
       }
     }
     if (r.source_total) add("Source", EW.num(r.source_total, 5));
@@ -420,11 +432,12 @@
     if (infinite.length) {
       const why = document.createElement("p");
       why.className = "why";
-      const names = infinite.length > 1 ? infinite.slice(0, -1).join(", ") + " and " + infinite[infinite.length - 1] + " edges" : infinite[0] + " edge";
-      why.textContent = "Why infinite: the prescribed " + (u.value || "value") + " jumps at a corner of the " + names + ", so the gradient grows like 1/r towards that corner and the flow through the edge has no finite total. " +
-        "Real parts have a small gap or a rounded transition there; a formula that meets its neighbour's value at the corner gives a finite flow.";
+      why.textContent = "Why infinite: where the prescribed " + (u.value || "value") + " jumps at a corner, the gradient grows like 1/r " +
+        "towards it and the flow through the edges meeting there has no finite total. Real parts have a small gap or a rounded " +
+        "transition; formulas that meet at the corner give finite flows. Values away from the corner are not affected.";
       box.append(why);
     }
+    const others = (r.warnings || []).filter((w) => !flowNotes.has(w));
 
     // accuracy
     const ha = document.createElement("h3");
@@ -454,10 +467,13 @@
       row2("Cross-check", "skipped", acc.crosscheck_skipped || "");
     }
     row2("Output grid", r.grid.nx + " × " + r.grid.ny + " intervals");
-    if (r.warnings && r.warnings.length) {
+    if (others.length) {
+      const hw = document.createElement("h3");
+      hw.textContent = "Notes from the engine";
       const ul = document.createElement("ul");
       ul.className = "warnings";
-      for (const w of r.warnings) {
+      box.append(hw);
+      for (const w of others) {
         const li = document.createElement("li");
         li.textContent = w;
         ul.append(li);

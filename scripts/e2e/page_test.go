@@ -292,6 +292,23 @@ func TestScreens(t *testing.T) {
 	tb.waitSolved(t, n+1)
 	tb.shot(t, "page-1280")
 	tb.fullShot(t, "page-1280-full")
+	// the print view: the inputs as text, the picture, the numbers; no buttons
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"})
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+	if v := eval[string](t, tb, `getComputedStyle(document.querySelector(".toolbar")).display`); v != "none" {
+		t.Errorf("the picture's toolbar prints (display %q)", v)
+	}
+	tb.fullShot(t, "print")
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: ""})
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
 	drawn := eval[int](t, tb, `Number(document.documentElement.dataset.drawn)`)
 	tb.setWidth(t, 420, 900)
 	tb.waitFor(t, fmt.Sprintf(`Number(document.documentElement.dataset.drawn) > %d`, drawn), "the redraw at 420 px")
@@ -395,4 +412,49 @@ func TestLineProfile(t *testing.T) {
 	}
 	eval[bool](t, tb, `(document.getElementById("opt-arrows").click(), true)`)
 	tb.shot(t, "profile-arrows")
+}
+
+// The flow table shows an infinite flow as such, with the engine's reason,
+// and a finite case with its balance.
+func TestFlowsAndBalance(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	rows := func() map[string]string {
+		return eval[map[string]string](t, tb, `Object.fromEntries([...document.querySelectorAll("#res-flows tr")].map(tr =>
+		  [tr.querySelector("th").textContent, tr.querySelector("td").textContent]))`)
+	}
+	// the plate's corners join 90 to 40 and 20 to 40: every edge has a jump
+	for side, text := range rows() {
+		if side == "Balance" {
+			if !strings.Contains(text, "not defined") {
+				t.Errorf("balance %q with infinite flows, want not defined", text)
+			}
+			continue
+		}
+		if !strings.Contains(text, "infinite") || !strings.Contains(text, "jumps") {
+			t.Errorf("%s edge shows %q, want infinite with the reason", side, text)
+		}
+	}
+	// Exact identity (one-dimensional conduction, CHECKS.md): bottom at
+	// 90, top at 20, both sides insulated: the flow in through the bottom
+	// is k (T1 - T2) W / H = 50 * 70 * 0.4 / 0.2 = 7000 W/m, and out through
+	// the top the same.
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `(() => { const p = `+plate+`;
+	  p.edges.left = {kind: "flux", expr: "0"}; p.edges.right = {kind: "flux", expr: "0"};
+	  return window.edgewise.load(p); })()`)
+	tb.waitSolved(t, n+1)
+	got := rows()
+	for side, want := range map[string]float64{"Bottom": 7000, "Top": -7000, "Left": 0, "Right": 0} {
+		v, err := readNumber(got[side])
+		// shown to 5 digits; 1e-3 relative (absolute 1e-3 of 7000 for the
+		// insulated edges) is the browser-test bound on engine accuracy
+		if err != nil || math.Abs(v-want) > 1e-3*7000 {
+			t.Errorf("%s flow shows %q, want %g", side, got[side], want)
+		}
+	}
+	if b := got["Balance"]; strings.Contains(b, "not defined") || !strings.Contains(b, "% of the largest flow") {
+		t.Errorf("balance %q, want a number against the largest flow", b)
+	}
 }
