@@ -34,7 +34,7 @@ type PictureOptions struct {
 // Make builds one download of a solved project: FieldCSV, ProbesCSV or
 // Picture. An unknown kind is an error.
 func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions) (*Download, error) {
-	l := LabelsFor(p.Physics)
+	l := solver.Units(p.Physics)
 	var b bytes.Buffer
 	d := &Download{}
 	switch kind {
@@ -49,7 +49,7 @@ func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions
 			ps[i] = export.Probe{Label: q.Label, X: q.X, Y: q.Y, Value: q.Value,
 				Gx: q.Gradient[0], Gy: q.Gradient[1], Qx: q.Flux[0], Qy: q.Flux[1]}
 		}
-		if err := export.ProbesCSV(&b, ps, l.Units()); err != nil {
+		if err := export.ProbesCSV(&b, ps, exportUnits(l)); err != nil {
 			return nil, err
 		}
 		d.Name, d.MIME = FileName(p.Title, "probes", "csv"), "text/csv;charset=utf-8"
@@ -61,7 +61,7 @@ func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions
 		pic := &export.Picture{
 			Field:      field(p, out, l),
 			Title:      p.Title,
-			LegendUnit: with(l.Quantity, l.Unit),
+			LegendUnit: with(l.Value, l.ValueUnit),
 			PixelW:     opt.PixelW,
 		}
 		if n > 0 {
@@ -79,12 +79,12 @@ func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions
 }
 
 // field is the export view of a solved output.
-func field(p *solver.Project, out *solver.Output, l Labels) *export.Field {
+func field(p *solver.Project, out *solver.Output, l solver.UnitSet) *export.Field {
 	return &export.Field{
 		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H,
 		U: out.U, Ux: out.Ux, Uy: out.Uy,
 		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
-		Units: l.Units(),
+		Units: exportUnits(l),
 	}
 }
 

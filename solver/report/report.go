@@ -5,37 +5,45 @@ import (
 	"strconv"
 
 	"edgewise/solver"
+	"edgewise/solver/jsonlite"
 )
 
 // Table is a titled table of text cells.
 type Table struct {
-	Caption string     `json:"caption"`
-	Head    []string   `json:"head"`
-	Rows    [][]string `json:"rows"`
+	Caption string
+	Head    []string
+	Rows    [][]string
 }
 
 // Report is the content of the printable report. The page lays it out;
 // every string in it is plain text.
 type Report struct {
-	Title    string   `json:"title"`
-	Date     string   `json:"date"`
-	Version  string   `json:"version"`
-	Physics  string   `json:"physics"`
-	Inputs   Table    `json:"inputs"`
-	Edges    Table    `json:"edges"`
-	Extremes Table    `json:"extremes"`
-	Flows    Table    `json:"flows"`
-	Probes   Table    `json:"probes"`
-	Accuracy Table    `json:"accuracy"`
-	Cautions []string `json:"cautions"`
-	Warnings []string `json:"warnings"`
-	Methods  []string `json:"methods"`
+	Title    string
+	Date     string
+	Version  string
+	Physics  string
+	Inputs   Table
+	Edges    Table
+	Extremes Table
+	Flows    Table
+	Probes   Table
+	Accuracy Table
+	Cautions []string
+	Warnings []string
+	Methods  []string
 }
 
-// Version names the build of edgewise: the module version, or the source
-// revision the binary was built from (with "+changes" when the working
-// tree was modified), or "development build".
+// Release names the release; a build may set it with
+// -ldflags "-X edgewise/solver/report.Release=2026.12".
+var Release = ""
+
+// Version names the build of edgewise: Release when set, else the module
+// version, or the source revision the binary was built from (with
+// "+changes" when the working tree was modified), or "development build".
 func Version() string {
+	if Release != "" {
+		return Release
+	}
 	info, ok := debug.ReadBuildInfo()
 	if !ok {
 		return "development build"
@@ -64,9 +72,46 @@ func Version() string {
 	return "revision " + rev
 }
 
+// JSON returns the report as a JSON object with the keys title, date,
+// version, physics, inputs, edges, extremes, flows, probes, accuracy (each
+// a table {caption, head: [..], rows: [[..], ..]}), cautions, warnings and
+// methods (lists of text).
+func (r *Report) JSON() []byte {
+	var w jsonlite.Writer
+	strs := func(list []string) {
+		w.Open('[')
+		for _, s := range list {
+			w.Str(s)
+		}
+		w.Close(']')
+	}
+	w.Open('{')
+	w.Key("title").Str(r.Title).Key("date").Str(r.Date).Key("version").Str(r.Version).Key("physics").Str(r.Physics)
+	for _, t := range []struct {
+		key string
+		t   *Table
+	}{{"inputs", &r.Inputs}, {"edges", &r.Edges}, {"extremes", &r.Extremes}, {"flows", &r.Flows}, {"probes", &r.Probes}, {"accuracy", &r.Accuracy}} {
+		w.Key(t.key).Open('{').Key("caption").Str(t.t.Caption).Key("head")
+		strs(t.t.Head)
+		w.Key("rows").Open('[')
+		for _, row := range t.t.Rows {
+			strs(row)
+		}
+		w.Close(']').Close('}')
+	}
+	w.Key("cautions")
+	strs(r.Cautions)
+	w.Key("warnings")
+	strs(r.Warnings)
+	w.Key("methods")
+	strs(r.Methods)
+	w.Close('}')
+	return w.Bytes()
+}
+
 // Build makes the report of a solved project. date is printed as given.
 func Build(p *solver.Project, out *solver.Output, date, version string) *Report {
-	l := LabelsFor(p.Physics)
+	l := solver.Units(p.Physics)
 	r := &out.Result
 	title := p.Title
 	if title == "" {
@@ -82,15 +127,15 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 	rep.Inputs = Table{Caption: "Inputs", Head: []string{"input", "value"}}
 	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
 	add(&rep.Inputs, "physics", p.Physics)
-	add(&rep.Inputs, with("width W", l.LengthUnit), num(p.Width))
-	add(&rep.Inputs, with("height H", l.LengthUnit), num(p.Height))
+	add(&rep.Inputs, with("width W", l.Length), num(p.Width))
+	add(&rep.Inputs, with("height H", l.Length), num(p.Height))
 	if p.Conductivity.X == p.Conductivity.Y {
 		add(&rep.Inputs, with(l.Conductivity, l.CondUnit), num(p.Conductivity.X))
 	} else {
 		add(&rep.Inputs, with(l.Conductivity+" along x", l.CondUnit), num(p.Conductivity.X))
 		add(&rep.Inputs, with(l.Conductivity+" along y", l.CondUnit), num(p.Conductivity.Y))
 	}
-	add(&rep.Inputs, with("uniform source", l.SourceUnit), num(p.Source))
+	add(&rep.Inputs, with(l.Source+" (uniform)", l.SourceUnit), num(p.Source))
 	nx, ny := solver.GridFor(p, solver.Options{})
 	add(&rep.Inputs, "output grid (intervals)", strconv.Itoa(nx)+" x "+strconv.Itoa(ny))
 
@@ -101,7 +146,7 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 	}
 
 	rep.Extremes = Table{Caption: "Extremes on the output grid and mean",
-		Head: []string{"", with(l.Quantity, l.Unit), with("x", l.LengthUnit), with("y", l.LengthUnit)}}
+		Head: []string{"", with(l.Value, l.ValueUnit), with("x", l.Length), with("y", l.Length)}}
 	add(&rep.Extremes, "minimum", num(r.Min.Value), num(r.Min.X), num(r.Min.Y))
 	add(&rep.Extremes, "maximum", num(r.Max.Value), num(r.Max.X), num(r.Max.Y))
 	add(&rep.Extremes, "mean over the region", num(r.Mean), "", "")
@@ -122,18 +167,18 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 	}
 
 	rep.Probes = Table{Caption: "Probes",
-		Head: []string{"label", with("x", l.LengthUnit), with("y", l.LengthUnit), with(l.Quantity, l.Unit),
-			with("gradient x", slash(l.Unit, l.LengthUnit)), with("gradient y", slash(l.Unit, l.LengthUnit)),
-			with(l.FluxName+" x", l.FluxUnit), with(l.FluxName+" y", l.FluxUnit)}}
+		Head: []string{"label", with("x", l.Length), with("y", l.Length), with(l.Value, l.ValueUnit),
+			with("gradient x", l.GradientUnit), with("gradient y", l.GradientUnit),
+			with(l.Flux+" x", l.FluxUnit), with(l.Flux+" y", l.FluxUnit)}}
 	for _, q := range r.Probes {
 		add(&rep.Probes, q.Label, num(q.X), num(q.Y), num(q.Value), num(q.Gradient[0]), num(q.Gradient[1]), num(q.Flux[0]), num(q.Flux[1]))
 	}
 
 	rep.Accuracy = Table{Caption: "Accuracy and cross-check", Head: []string{"", "value"}}
 	add(&rep.Accuracy, "series terms", strconv.Itoa(r.Accuracy.Terms))
-	add(&rep.Accuracy, with("estimated largest series error", l.Unit), num(r.Accuracy.Estimate))
+	add(&rep.Accuracy, with("estimated largest series error", l.ValueUnit), num(r.Accuracy.Estimate))
 	if r.Accuracy.Crosscheck != nil {
-		add(&rep.Accuracy, with("largest difference from the finite-difference cross-check", l.Unit), num(*r.Accuracy.Crosscheck))
+		add(&rep.Accuracy, with("largest difference from the finite-difference cross-check", l.ValueUnit), num(*r.Accuracy.Crosscheck))
 		if r.Accuracy.CrosscheckGrid != "" {
 			add(&rep.Accuracy, "cross-check grids", r.Accuracy.CrosscheckGrid)
 		}
@@ -157,14 +202,14 @@ func sides(e *solver.Edges) []side {
 }
 
 // condition describes one edge condition with units.
-func condition(e solver.EdgeSpec, l Labels) string {
+func condition(e solver.EdgeSpec, l solver.UnitSet) string {
 	switch e.Kind {
 	case "value":
-		return l.Quantity + " = " + e.Expr + unitNote(l.Unit)
+		return l.Value + " = " + e.Expr + unitNote(l.ValueUnit)
 	case "flux":
-		return "entering " + l.FluxName + " = " + e.Expr + unitNote(l.FluxUnit)
+		return "entering " + l.Flux + " = " + e.Expr + unitNote(l.FluxUnit)
 	case "convection":
-		return "h = " + num(e.H) + unitNote(l.HUnit) + " to ambient " + e.Ambient + unitNote(l.Unit)
+		return l.Coefficient + " h = " + num(e.H) + unitNote(l.CoefUnit) + " to ambient " + e.Ambient + unitNote(l.ValueUnit)
 	}
 	return e.Kind
 }
@@ -174,13 +219,6 @@ func unitNote(u string) string {
 		return ""
 	}
 	return " " + u
-}
-
-func slash(a, b string) string {
-	if a == "" {
-		return ""
-	}
-	return a + "/" + b
 }
 
 func flow(f solver.EdgeFlow) string {

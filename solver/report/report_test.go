@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"edgewise/solver"
+	"edgewise/solver/jsonlite"
 )
 
 // square is a unit square with the top edge at 1 and the others at 0: the
@@ -46,7 +47,7 @@ func TestFieldCSV(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	want := []string{"x [m]", "y [m]", "temperature [°C]", "grad_x [°C/m]", "grad_y [°C/m]", "flux_x [W/m2]", "flux_y [W/m2]"}
+	want := []string{"x [m]", "y [m]", "temperature [°C]", "grad_x [°C/m]", "grad_y [°C/m]", "flux_x [W/m²]", "flux_y [W/m²]"}
 	if strings.Join(rows[0], "|") != strings.Join(want, "|") {
 		t.Errorf("header %q, want %q", rows[0], want)
 	}
@@ -179,7 +180,7 @@ func TestBuild(t *testing.T) {
 		t.Errorf("%s: no row %q", tb.Caption, row)
 		return ""
 	}
-	if got := cell(rep.Inputs, "thermal conductivity [W/(m K)]"); got != "2" {
+	if got := cell(rep.Inputs, "thermal conductivity [W/(m·K)]"); got != "2" {
 		t.Errorf("conductivity %q", got)
 	}
 	if got := cell(rep.Inputs, "output grid (intervals)"); got != "8 x 6" {
@@ -211,12 +212,6 @@ func TestBuild(t *testing.T) {
 }
 
 func TestLabelsAndBasis(t *testing.T) {
-	if l := LabelsFor("seepage"); l.Quantity != "hydraulic head" || l.FlowUnit != "m2/s" {
-		t.Errorf("seepage labels %+v", l)
-	}
-	if l := LabelsFor("nonsense"); l.Unit != "" || l.Quantity != "value" {
-		t.Errorf("unknown physics labels %+v", l)
-	}
 	for _, c := range []struct{ a, b, want string }{
 		{"value", "value", "Sine"},
 		{"flux", "flux", "Cosine"},
@@ -227,6 +222,28 @@ func TestLabelsAndBasis(t *testing.T) {
 		if got := basis(c.a, c.b); !strings.HasPrefix(got, c.want) {
 			t.Errorf("basis(%s, %s) = %q, want %s...", c.a, c.b, got, c.want)
 		}
+	}
+}
+
+// The report's JSON reads back with the same tables.
+func TestReportJSON(t *testing.T) {
+	p, out := solved(t, square)
+	rep := Build(p, out, "today", "v")
+	tree, err := jsonlite.Parse(rep.JSON())
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := tree.(map[string]any)
+	if m["title"] != p.Title || m["date"] != "today" {
+		t.Errorf("title %v date %v", m["title"], m["date"])
+	}
+	probes := m["probes"].(map[string]any)
+	rows := probes["rows"].([]any)
+	if len(rows) != 2 || rows[0].([]any)[0] != "=centre" || rows[0].([]any)[3] != rep.Probes.Rows[0][3] {
+		t.Errorf("probe rows %v", rows)
+	}
+	if len(m["methods"].([]any)) != len(rep.Methods) {
+		t.Errorf("methods %v", m["methods"])
 	}
 }
 

@@ -1,14 +1,13 @@
 package verify
 
 import (
-	"bytes"
-	"encoding/json"
 	"fmt"
 	"math"
-	"regexp"
+	"sort"
 	"strings"
 
 	"edgewise/solver"
+	"edgewise/solver/jsonlite"
 )
 
 // Schema names the checks-file format.
@@ -16,56 +15,49 @@ const Schema = "edgewise-checks/1"
 
 // File is a checks file.
 type File struct {
-	Schema string `json:"schema"`
-	Cases  []Case `json:"cases"`
+	Cases []Case
 }
 
 // Case is one published check.
 type Case struct {
-	ID        string          `json:"id"`
-	Title     string          `json:"title"`
-	Source    string          `json:"source"`
-	Basis     string          `json:"basis"`
-	Project   json.RawMessage `json:"project"`
-	Quantity  Quantity        `json:"quantity"`
-	Expect    *float64        `json:"expect,omitempty"`
-	Reference *Reference      `json:"reference,omitempty"`
-	Tol       float64         `json:"tol"`
-	TolReason string          `json:"tol_reason"`
+	ID        string
+	Title     string
+	Source    string
+	Basis     string
+	Project   []byte // the project's JSON text
+	Quantity  Quantity
+	Expect    *float64 // nil when Reference is set
+	Reference *Reference
+	Tol       float64
+	TolReason string
 }
 
 // Quantity names what a case computes from its solve.
 type Quantity struct {
-	Formula string `json:"formula"`
-	Probe   string `json:"probe,omitempty"`
-	Edge    string `json:"edge,omitempty"`
+	Formula string
+	Probe   string
+	Edge    string
 }
 
 // Reference is a second solve whose quantity is the expected value (for
 // exact identities between two problems).
 type Reference struct {
-	Project  json.RawMessage `json:"project"`
-	Quantity Quantity        `json:"quantity"`
+	Project  []byte
+	Quantity Quantity
 }
 
-// Outcome is the result of one case.
+// Outcome is the result of one case. Computed, Expected and Difference are
+// nil when the case could not be computed; Error then says why.
 type Outcome struct {
-	ID         string   `json:"id"`
-	Title      string   `json:"title"`
-	Source     string   `json:"source"`
-	Basis      string   `json:"basis"`
-	Formula    string   `json:"formula"`
-	Computed   *float64 `json:"computed"`
-	Expected   *float64 `json:"expected"`
-	Difference *float64 `json:"difference"`
-	Tol        float64  `json:"tol"`
-	TolReason  string   `json:"tol_reason"`
-	Pass       bool     `json:"pass"`
-	Error      string   `json:"error,omitempty"`
+	ID, Title, Source, Basis, Formula string
+	Computed, Expected, Difference    *float64
+	Tol                               float64
+	TolReason                         string
+	Pass                              bool
+	Error                             string
 }
 
 var (
-	idRE     = regexp.MustCompile(`^[A-Za-z0-9_-]{1,64}$`)
 	bases    = []string{"exact", "read", "memory", "recomputed", "common practice"}
 	formulas = []string{"probe_value", "edge_flow", "balance", "mean", "torsion_beta", "duct_fre", "decay_rate"}
 	edges    = []string{"bottom", "top", "left", "right"}
@@ -76,27 +68,40 @@ var (
 // a case with both or neither of expect and reference, and tolerances that
 // are not positive are errors naming the case.
 func Parse(data []byte) (*File, error) {
-	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
-	var f File
-	if err := dec.Decode(&f); err != nil {
+	tree, err := jsonlite.Parse(data)
+	if err != nil {
 		return nil, fmt.Errorf("checks: %v", err)
 	}
-	if dec.More() {
-		return nil, fmt.Errorf("checks: text after the checks object")
+	top, err := object(tree, "checks", []string{"schema", "cases"}, nil)
+	if err != nil {
+		return nil, err
 	}
-	if f.Schema != Schema {
-		return nil, fmt.Errorf("checks: schema %q, want %q", f.Schema, Schema)
+	if s, _ := top["schema"].(string); s != Schema {
+		return nil, fmt.Errorf("checks: schema %q, want %q", describe(top["schema"]), Schema)
 	}
-	if len(f.Cases) == 0 {
+	list, ok := top["cases"].([]any)
+	if !ok || len(list) == 0 {
 		return nil, fmt.Errorf("checks: no cases")
 	}
+	f := &File{Cases: make([]Case, len(list))}
 	seen := map[string]bool{}
-	for i := range f.Cases {
+	for i, v := range list {
 		c := &f.Cases[i]
-		where := fmt.Sprintf("checks: case %d (%q)", i, c.ID)
+		where := fmt.Sprintf("checks: case %d", i)
+		m, err := object(v, where, []string{"id", "title", "source", "basis", "project", "quantity", "tol", "tol_reason"}, []string{"expect", "reference"})
+		if err != nil {
+			return nil, err
+		}
+		c.ID, _ = m["id"].(string)
+		where = fmt.Sprintf("checks: case %d (%q)", i, c.ID)
+		c.Title, _ = m["title"].(string)
+		c.Source, _ = m["source"].(string)
+		c.Basis, _ = m["basis"].(string)
+		c.TolReason, _ = m["tol_reason"].(string)
+		tol, tolOK := number(m["tol"])
+		c.Tol = tol
 		switch {
-		case !idRE.MatchString(c.ID):
+		case !validID(c.ID):
 			return nil, fmt.Errorf("%s: id must be 1-64 letters, digits, - or _", where)
 		case seen[c.ID]:
 			return nil, fmt.Errorf("%s: repeated id", where)
@@ -104,27 +109,168 @@ func Parse(data []byte) (*File, error) {
 			return nil, fmt.Errorf("%s: needs a title and a source", where)
 		case !contains(bases, c.Basis):
 			return nil, fmt.Errorf("%s: basis %q (use %s)", where, c.Basis, strings.Join(bases, ", "))
-		case (c.Expect == nil) == (c.Reference == nil):
+		case (m["expect"] == nil) == (m["reference"] == nil):
 			return nil, fmt.Errorf("%s: give exactly one of expect and reference", where)
-		case !(c.Tol > 0) || math.IsInf(c.Tol, 0) || strings.TrimSpace(c.TolReason) == "":
+		case !tolOK || !(c.Tol > 0) || math.IsInf(c.Tol, 0) || strings.TrimSpace(c.TolReason) == "":
 			return nil, fmt.Errorf("%s: needs a positive tol and its tol_reason", where)
-		case len(c.Project) == 0:
-			return nil, fmt.Errorf("%s: no project", where)
 		}
 		seen[c.ID] = true
-		if err := c.Quantity.check(); err != nil {
-			return nil, fmt.Errorf("%s: quantity: %v", where, err)
+		if c.Project, err = projectText(m["project"], where+": project"); err != nil {
+			return nil, err
 		}
-		if c.Reference != nil {
-			if len(c.Reference.Project) == 0 {
-				return nil, fmt.Errorf("%s: reference has no project", where)
+		if c.Quantity, err = quantity(m["quantity"], where+": quantity"); err != nil {
+			return nil, err
+		}
+		if e, ok := m["expect"]; ok && e != nil {
+			v, ok := number(e)
+			if !ok || math.IsInf(v, 0) {
+				return nil, fmt.Errorf("%s: expect must be a finite number", where)
 			}
-			if err := c.Reference.Quantity.check(); err != nil {
-				return nil, fmt.Errorf("%s: reference quantity: %v", where, err)
+			c.Expect = &v
+		}
+		if r, ok := m["reference"]; ok && r != nil {
+			rm, err := object(r, where+": reference", []string{"project", "quantity"}, nil)
+			if err != nil {
+				return nil, err
+			}
+			c.Reference = &Reference{}
+			if c.Reference.Project, err = projectText(rm["project"], where+": reference project"); err != nil {
+				return nil, err
+			}
+			if c.Reference.Quantity, err = quantity(rm["quantity"], where+": reference quantity"); err != nil {
+				return nil, err
 			}
 		}
 	}
-	return &f, nil
+	return f, nil
+}
+
+// object checks that v is an object with all the required keys and no
+// keys beyond the required and optional ones.
+func object(v any, where string, required, optional []string) (map[string]any, error) {
+	m, ok := v.(map[string]any)
+	if !ok {
+		return nil, fmt.Errorf("%s: expected an object, got %s", where, describe(v))
+	}
+	for _, k := range required {
+		if _, ok := m[k]; !ok {
+			return nil, fmt.Errorf("%s: missing %q", where, k)
+		}
+	}
+	for k := range m {
+		if !contains(required, k) && !contains(optional, k) {
+			return nil, fmt.Errorf("%s: unknown field %q", where, k)
+		}
+	}
+	return m, nil
+}
+
+func number(v any) (float64, bool) {
+	n, ok := v.(jsonlite.Number)
+	if !ok {
+		return 0, false
+	}
+	f, err := n.Float64()
+	return f, err == nil
+}
+
+func describe(v any) string {
+	switch x := v.(type) {
+	case string:
+		return x
+	case nil:
+		return "null"
+	case jsonlite.Number:
+		return string(x)
+	case map[string]any:
+		return "an object"
+	case []any:
+		return "an array"
+	}
+	return fmt.Sprint(v)
+}
+
+// projectText writes a project subtree back to JSON text for solver.Decode
+// (which reads it strictly).
+func projectText(v any, where string) ([]byte, error) {
+	if _, ok := v.(map[string]any); !ok {
+		return nil, fmt.Errorf("%s: expected an object, got %s", where, describe(v))
+	}
+	var w jsonlite.Writer
+	if err := write(&w, v); err != nil {
+		return nil, fmt.Errorf("%s: %v", where, err)
+	}
+	return w.Bytes(), nil
+}
+
+// write writes a jsonlite tree, object keys in sorted order.
+func write(w *jsonlite.Writer, v any) error {
+	switch x := v.(type) {
+	case nil:
+		w.Null()
+	case bool:
+		w.Bool(x)
+	case string:
+		w.Str(x)
+	case jsonlite.Number:
+		f, err := x.Float64()
+		if err != nil {
+			return fmt.Errorf("number %s: %v", x, err)
+		}
+		w.Num(f)
+	case []any:
+		w.Open('[')
+		for _, e := range x {
+			if err := write(w, e); err != nil {
+				return err
+			}
+		}
+		w.Close(']')
+	case map[string]any:
+		keys := make([]string, 0, len(x))
+		for k := range x {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		w.Open('{')
+		for _, k := range keys {
+			w.Key(k)
+			if err := write(w, x[k]); err != nil {
+				return err
+			}
+		}
+		w.Close('}')
+	default:
+		return fmt.Errorf("unexpected value %v", v)
+	}
+	return nil
+}
+
+func quantity(v any, where string) (Quantity, error) {
+	m, err := object(v, where, []string{"formula"}, []string{"probe", "edge"})
+	if err != nil {
+		return Quantity{}, err
+	}
+	var q Quantity
+	q.Formula, _ = m["formula"].(string)
+	q.Probe, _ = m["probe"].(string)
+	q.Edge, _ = m["edge"].(string)
+	if err := q.check(); err != nil {
+		return q, fmt.Errorf("%s: %v", where, err)
+	}
+	return q, nil
+}
+
+func validID(id string) bool {
+	if len(id) == 0 || len(id) > 64 {
+		return false
+	}
+	for _, r := range id {
+		if !(r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' || r == '-' || r == '_') {
+			return false
+		}
+	}
+	return true
 }
 
 func (q Quantity) check() error {
@@ -140,6 +286,37 @@ func (q Quantity) check() error {
 		return fmt.Errorf("%s: edge %q (use bottom, top, left or right, only for edge_flow)", q.Formula, q.Edge)
 	}
 	return nil
+}
+
+// JSON returns the outcome as a JSON object with the keys id, title,
+// source, basis, formula, computed, expected, difference (numbers or
+// null), tol, tol_reason, pass and error.
+func (o *Outcome) JSON() []byte {
+	var w jsonlite.Writer
+	o.write(&w)
+	return w.Bytes()
+}
+
+func (o *Outcome) write(w *jsonlite.Writer) {
+	opt := func(v *float64) {
+		if v == nil {
+			w.Null()
+		} else {
+			w.Num(*v)
+		}
+	}
+	w.Open('{')
+	w.Key("id").Str(o.ID).Key("title").Str(o.Title).Key("source").Str(o.Source)
+	w.Key("basis").Str(o.Basis).Key("formula").Str(o.Formula)
+	w.Key("computed")
+	opt(o.Computed)
+	w.Key("expected")
+	opt(o.Expected)
+	w.Key("difference")
+	opt(o.Difference)
+	w.Key("tol").Num(o.Tol).Key("tol_reason").Str(o.TolReason)
+	w.Key("pass").Bool(o.Pass).Key("error").Str(o.Error)
+	w.Close('}')
 }
 
 // Find returns the case with the given id, or nil.

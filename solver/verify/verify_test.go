@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"edgewise/solver"
+	"edgewise/solver/jsonlite"
 )
 
 // stubbed reports whether err is the temporary engine's refusal of a
@@ -118,9 +119,32 @@ func TestRun(t *testing.T) {
 	if o.Pass || !strings.Contains(o.Error, "torsion_beta: needs source 2") {
 		t.Errorf("precondition: %+v, want the precondition error", o)
 	}
+	// The outcome's JSON reads back with its numbers and its error.
+	tree, err := jsonlite.Parse(o.JSON())
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := tree.(map[string]any)
+	if m["id"] != "precondition" || m["computed"] != nil || m["pass"] != false || !strings.Contains(m["error"].(string), "torsion_beta") {
+		t.Errorf("outcome JSON %s", o.JSON())
+	}
+	o = f.Find("wrong").Run(&s)
+	m = mustParse(t, o.JSON())
+	if m["expected"] != jsonlite.Number("0.3") || m["computed"] == nil {
+		t.Errorf("outcome JSON %s", o.JSON())
+	}
 	if f.Find("nothing") != nil {
 		t.Errorf("Find found a case that is not there")
 	}
+}
+
+func mustParse(t *testing.T, b []byte) map[string]any {
+	t.Helper()
+	tree, err := jsonlite.Parse(b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return tree.(map[string]any)
 }
 
 func TestParseErrors(t *testing.T) {
@@ -141,7 +165,9 @@ func TestParseErrors(t *testing.T) {
 		{"formula", caseFile(strings.Replace(good, `"mean"`, `"eval"`, 1)), `formula "eval"`},
 		{"probe missing", caseFile(strings.Replace(good, `"mean"`, `"probe_value"`, 1)), "probe given or missing"},
 		{"edge", caseFile(strings.Replace(good, `{"formula":"mean"}`, `{"formula":"edge_flow","edge":"north"}`, 1)), `edge "north"`},
-		{"no project", caseFile(strings.Replace(good, `"project":{},`, ``, 1)), "no project"},
+		{"no project", caseFile(strings.Replace(good, `"project":{},`, ``, 1)), `missing "project"`},
+		{"project not an object", caseFile(strings.Replace(good, `"project":{}`, `"project":[]`, 1)), "expected an object"},
+		{"expect text", caseFile(strings.Replace(good, `"expect":1`, `"expect":"1"`, 1)), "finite number"},
 		{"trailing", caseFile(good) + "{}", "text after"},
 	} {
 		_, err := Parse([]byte(c.text))

@@ -1,0 +1,239 @@
+//go:build js && wasm
+
+package main
+
+// The outputs functions: downloads, the printable report's content, a
+// project check for share links and opened files, and the build's version.
+// All are stateless: they take the project JSON, solve it again and return
+// text.
+//
+//	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
+//	    kind: "field-csv" | "probes-csv" | "svg"; options (all optional):
+//	    {"nx": n, "ny": n, "pixel_width": px, "levels": n}
+//	edgewise_report(projectJSON, optionsJSON) -> {ok, report: "<report JSON>", svg}
+//	    options: {"date": "text printed as the report's date", "pixel_width": px}
+//	edgewise_validate(projectJSON) -> {ok} | {ok: false, error, path, col}
+//	edgewise_version() -> {ok, version}
+//
+// Errors come back as {ok: false, error: "one line", path, col}.
+
+import (
+	"errors"
+	"fmt"
+
+	"edgewise/solver"
+	"edgewise/solver/jsonlite"
+	"edgewise/solver/report"
+
+	"github.com/hack-pad/safejs"
+)
+
+// outputs keeps its own buffers, apart from the page's solves.
+var outputs solver.Solver
+
+func init() {
+	for name, fn := range map[string]func([]safejs.Value) (map[string]any, error){
+		"edgewise_export":   exportCall,
+		"edgewise_report":   reportCall,
+		"edgewise_validate": validateCall,
+		"edgewise_version": func([]safejs.Value) (map[string]any, error) {
+			return map[string]any{"ok": true, "version": report.Version()}, nil
+		},
+	} {
+		if err := registerCall(name, fn); err != nil {
+			fmt.Println("edgewise:", name, err)
+		}
+	}
+}
+
+// registerCall puts fn on the global object as name. The JavaScript
+// function recovers panics into an error reply.
+func registerCall(name string, fn func([]safejs.Value) (map[string]any, error)) error {
+	f, err := safejs.FuncOf(func(_ safejs.Value, args []safejs.Value) (reply any) {
+		defer func() {
+			if r := recover(); r != nil {
+				reply = failure(fmt.Errorf("internal error in %s: %v (please report this project)", name, r))
+			}
+		}()
+		m, err := fn(args)
+		if err != nil {
+			return failure(err)
+		}
+		return m
+	})
+	if err != nil {
+		return err
+	}
+	return safejs.Global().Set(name, f)
+}
+
+// callOptions are the options the outputs functions understand.
+type callOptions struct {
+	Nx, Ny     int
+	PixelWidth int
+	Levels     int
+	Date       string
+}
+
+// stringArg reads argument i as a string; optional arguments may be
+// missing, undefined or null and then give "".
+func stringArg(args []safejs.Value, i int, what string, optional bool) (string, error) {
+	if i >= len(args) || args[i].IsUndefined() || args[i].IsNull() {
+		if optional {
+			return "", nil
+		}
+		return "", fmt.Errorf("missing %s", what)
+	}
+	s, err := args[i].String()
+	if err != nil {
+		return "", fmt.Errorf("%s must be text: %w", what, err)
+	}
+	return s, nil
+}
+
+func readOptions(args []safejs.Value, i int) (callOptions, error) {
+	var o callOptions
+	text, err := stringArg(args, i, "options", true)
+	if err != nil || text == "" {
+		return o, err
+	}
+	return parseOptions(text)
+}
+
+// parseOptions reads the options object strictly: unknown keys and wrong
+// types are errors.
+func parseOptions(text string) (callOptions, error) {
+	var o callOptions
+	tree, err := jsonlite.Parse([]byte(text))
+	if err != nil {
+		return o, fmt.Errorf("options: %v", err)
+	}
+	m, ok := tree.(map[string]any)
+	if !ok {
+		return o, errors.New("options: expected an object")
+	}
+	ints := map[string]*int{"nx": &o.Nx, "ny": &o.Ny, "pixel_width": &o.PixelWidth, "levels": &o.Levels}
+	for k, v := range m {
+		if k == "date" {
+			s, ok := v.(string)
+			if !ok || len(s) > 100 {
+				return o, errors.New("options: date must be text of at most 100 bytes")
+			}
+			o.Date = s
+			continue
+		}
+		dst, known := ints[k]
+		if !known {
+			return o, fmt.Errorf("options: unknown option %q", k)
+		}
+		n, ok := v.(jsonlite.Number)
+		f, err := n.Float64()
+		if !ok || err != nil || f != float64(int(f)) || f < -1 || f > 8000 {
+			return o, fmt.Errorf("options: %s must be a whole number from -1 to 8000", k)
+		}
+		*dst = int(f)
+	}
+	if o.PixelWidth < 0 {
+		return o, errors.New("options: pixel_width must not be negative")
+	}
+	if o.Nx > solver.MaxGrid || o.Ny > solver.MaxGrid {
+		return o, fmt.Errorf("options: at most %d grid intervals per side", solver.MaxGrid)
+	}
+	return o, nil
+}
+
+// solveProject decodes and solves a project for an output.
+func solveProject(text string, o callOptions, crossCheck bool) (*solver.Project, *solver.Output, error) {
+	p, err := solver.Decode([]byte(text))
+	if err != nil {
+		return nil, nil, err
+	}
+	opt := solver.Options{NoCrossCheck: !crossCheck}
+	if o.Nx > 0 && o.Ny > 0 {
+		opt.Nx, opt.Ny = o.Nx, o.Ny
+	}
+	out, err := outputs.Solve(p, opt)
+	if err != nil {
+		return nil, nil, err
+	}
+	return p, out, nil
+}
+
+func exportCall(args []safejs.Value) (map[string]any, error) {
+	kind, err := stringArg(args, 0, "the kind of download", false)
+	if err != nil {
+		return nil, err
+	}
+	text, err := stringArg(args, 1, "the project JSON", false)
+	if err != nil {
+		return nil, err
+	}
+	o, err := readOptions(args, 2)
+	if err != nil {
+		return nil, err
+	}
+	return exportText(kind, text, o)
+}
+
+// exportText is the part of edgewise_export that does not read JavaScript.
+func exportText(kind, text string, o callOptions) (map[string]any, error) {
+	p, out, err := solveProject(text, o, false)
+	if err != nil {
+		return nil, err
+	}
+	d, err := report.Make(kind, p, out, report.PictureOptions{PixelW: o.PixelWidth, Levels: o.Levels})
+	if err != nil {
+		return nil, err
+	}
+	return map[string]any{"ok": true, "text": string(d.Data), "name": d.Name, "mime": d.MIME}, nil
+}
+
+func reportCall(args []safejs.Value) (map[string]any, error) {
+	text, err := stringArg(args, 0, "the project JSON", false)
+	if err != nil {
+		return nil, err
+	}
+	o, err := readOptions(args, 1)
+	if err != nil {
+		return nil, err
+	}
+	return reportText(text, o)
+}
+
+// reportText is the part of edgewise_report that does not read JavaScript.
+func reportText(text string, o callOptions) (map[string]any, error) {
+	p, out, err := solveProject(text, o, true)
+	if err != nil {
+		return nil, err
+	}
+	rep := report.Build(p, out, o.Date, report.Version())
+	pw := o.PixelWidth
+	if pw == 0 {
+		pw = 560
+	}
+	d, err := report.Make(report.Picture, p, out, report.PictureOptions{PixelW: pw})
+	if err != nil {
+		return nil, err
+	}
+	return map[string]any{"ok": true, "report": string(rep.JSON()), "svg": string(d.Data)}, nil
+}
+
+func validateCall(args []safejs.Value) (map[string]any, error) {
+	text, err := stringArg(args, 0, "the project JSON", false)
+	if err != nil {
+		return nil, err
+	}
+	return validateText(text)
+}
+
+// validateText checks a project as a solve would, without solving.
+func validateText(text string) (map[string]any, error) {
+	p, err := solver.Decode([]byte(text))
+	if err != nil {
+		return nil, err
+	}
+	if _, err := solver.Compile(p); err != nil {
+		return nil, err
+	}
+	return map[string]any{"ok": true}, nil
+}
