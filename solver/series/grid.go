@@ -17,6 +17,7 @@ type gridWork struct {
 	cosTab     []float64
 	tabM       int
 	col        []float64
+	xtab, ctab []float64 // X_k and its cosine partner on the nodes (separable path)
 	a, b, c    []float64 // per-row coefficient buffers
 	fa, fb, fc []float64 // folded transform inputs
 	dst        *fourier.DST
@@ -288,7 +289,11 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 					pl := cr.b0 + zc*(cr.b1+zc*(cr.b2+zc*cr.b3))
 					f += pl * l
 					if grad {
-						d += (cr.b1+zc*(2*cr.b2+3*zc*cr.b3))*l + pl/zc
+						// pl/zc without a complex division unless b0 != 0
+						d += (cr.b1+zc*(2*cr.b2+3*zc*cr.b3))*l + cr.b1 + zc*(cr.b2+zc*cr.b3)
+						if cr.b0 != 0 {
+							d += cr.b0 / zc
+						}
 					}
 				}
 				u[k] += real(f)
@@ -562,6 +567,9 @@ func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64
 	}
 }
 
+// maxTab caps the terms tabulated on the nodes by the separable path.
+var maxTab = 512 // a variable so tests can exercise the rotation path
+
 // gidx returns the node index of s-node i in row r.
 func gidx(vert bool, nx, i, r int) int {
 	if vert {
@@ -583,6 +591,19 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 	w := &s.gw
 	w.a, w.b = grow(w.a, sp.n), grow(w.b, sp.n)
 	grad := ux != nil || uy != nil
+	// Tables of X_k and cos(lambda_k s + phi_k) on the nodes for the first
+	// terms (every row uses them); later terms by rotation.
+	nt := min(sp.n, maxTab)
+	w.xtab, w.ctab = grow(w.xtab, nt*(M+1)), grow(w.ctab, nt*(M+1))
+	for k := 0; k < nt; k++ {
+		sn, cn := math.Sincos(sp.b.Phi[k])
+		ds, dc := math.Sincos(sp.b.Lambda[k] * hs)
+		xs, cs := w.xtab[k*(M+1):(k+1)*(M+1)], w.ctab[k*(M+1):(k+1)*(M+1)]
+		for i := range xs {
+			xs[i], cs[i] = sn, cn
+			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+		}
+	}
 	w.col = grow(w.col, 3*(M+1))
 	cu, cs, ct := w.col[:M+1], w.col[M+1:2*(M+1)], w.col[2*(M+1):]
 	for r := 0; r <= rows; r++ {
@@ -604,9 +625,24 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 		}
 		for k := 0; k < n; k++ {
 			lam := sp.b.Lambda[k]
+			ak, al, bk := a[k], a[k]*lam, b[k]
+			if k < nt {
+				xs := w.xtab[k*(M+1) : (k+1)*(M+1)]
+				for i, v := range xs {
+					cu[i] += ak * v
+				}
+				if grad {
+					for i, v := range w.ctab[k*(M+1) : (k+1)*(M+1)] {
+						cs[i] += al * v
+					}
+					for i, v := range xs {
+						ct[i] += bk * v
+					}
+				}
+				continue
+			}
 			sn, cn := math.Sincos(sp.b.Phi[k])
 			ds, dc := math.Sincos(lam * hs)
-			ak, al, bk := a[k], a[k]*lam, b[k]
 			if !grad {
 				for i := range cu {
 					cu[i] += ak * sn

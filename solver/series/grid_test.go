@@ -23,7 +23,18 @@ func TestGridMatchesAt(t *testing.T) {
 	mixed.Edges[problem.Top] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { return s * s }}
 	mixed.Edges[problem.Left] = problem.Edge{Kind: problem.Value, F: problem.Const(5)}
 	cases["mixed"] = mixed
+	defer func(m int) { maxTab = m }(maxTab)
 	for name, p := range cases {
+		for _, mt := range []int{512, 3} { // tables, then mostly rotations
+			maxTab = mt
+			testGridAgainstAt(t, name, p)
+		}
+	}
+}
+
+func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
+	t.Helper()
+	{
 		s := mustSolve(t, p, Options{})
 		for _, sz := range [][2]int{{8, 5}, {16, 8}, {33, 20}, {64, 40}} {
 			nx, ny := sz[0], sz[1]
