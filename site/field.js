@@ -405,7 +405,8 @@
       EW.num(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
       EW.num(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
       EW.num(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
-      "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") + ".";
+      "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") + "." +
+      (opts.arrows ? " Arrows: direction of the " + (u.flux || "flux") + ", length in proportion up to the 90th percentile of its size." : "");
     canvas.setAttribute("aria-label", "Picture of the field. " + text);
     $("field-summary").textContent = text;
   }

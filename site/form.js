@@ -167,6 +167,7 @@
     }
     for (const b of document.querySelectorAll("[data-q]")) b.textContent = EW.capital(u[b.dataset.q] || b.dataset.q);
     $("hint-k").textContent = hints.conductivity;
+    $("hint-physics").textContent = hints.value;
     $("hint-source").textContent = hints.source;
     for (const side of SIDES) {
       const kind = $("in-" + side + "-kind");
@@ -298,6 +299,17 @@
   $("in-title").addEventListener("input", () => EW.edited && EW.edited($("in-title")));
   form.addEventListener("change", (e) => {
     const t = e.target;
+    if (/-kind$/.test(t.id)) {
+      // carry the edge's numbers over to the fields the new kind shows
+      const side = t.id.split("-")[1];
+      const expr = $("in-" + side + "-expr"), h = $("in-" + side + "-h"), amb = $("in-" + side + "-ambient");
+      if (t.value === "convection") {
+        if (!h.value.trim()) h.value = $("in-physics").value === "heat" ? "10" : "1";
+        if (!amb.value.trim()) amb.value = expr.value;
+      } else if (!expr.value.trim()) {
+        expr.value = amb.value.trim() || "0";
+      }
+    }
     if (t.id === "in-physics" || /-kind$/.test(t.id)) {
       relabel();
       EW.edited && EW.edited(t);

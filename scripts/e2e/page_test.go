@@ -458,3 +458,32 @@ func TestFlowsAndBalance(t *testing.T) {
 		t.Errorf("balance %q, want a number against the largest flow", b)
 	}
 }
+
+// The material and edge-kind controls build the project the contract
+// describes: x/y conductivities, and a convection edge with h and ambient.
+func TestMaterialAndEdgeKinds(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	n := tb.solved(t)
+	eval[bool](t, tb, `(document.getElementById("in-ortho").click(), true)`)
+	tb.waitSolved(t, n+1)
+	tb.pasteInto(t, "#in-ky", "12.5")
+	tb.waitFor(t, `JSON.stringify(window.edgewiseInternal.last().project.conductivity) === '{"x":50,"y":12.5}'`, "the x/y conductivity to solve")
+	n = tb.solved(t)
+	eval[bool](t, tb, `(() => { const s = document.getElementById("in-top-kind"); s.value = "convection";
+	  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+	if eval[bool](t, tb, `document.getElementById("in-top-h").closest(".f-conv").hidden`) {
+		t.Fatalf("the convection fields stay hidden after choosing convection")
+	}
+	tb.pasteInto(t, "#in-top-h", "15")
+	tb.pasteInto(t, "#in-top-ambient", "20 + 5*s/W")
+	tb.waitFor(t, `(() => { const e = window.edgewiseInternal.last().project.edges.top;
+	  return e.kind === "convection" && e.h === 15 && e.ambient === "20 + 5*s/W" && e.expr === undefined; })()`, "the convection edge to solve")
+	if l := eval[string](t, tb, `document.querySelector("#edges [data-side=top] .lbl-h").textContent`); !strings.Contains(l, "W/(m²·K)") {
+		t.Errorf("convection coefficient label %q, want its unit W/(m²·K)", l)
+	}
+	if got := tb.solved(t); got <= n {
+		t.Errorf("no solve after the edge kind changed")
+	}
+}
