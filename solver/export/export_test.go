@@ -324,15 +324,16 @@ func TestSVG(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s := img.Bounds().Size(); s.X != 200 || s.Y != 150 {
-		t.Errorf("raster %v, want 200 x 150 (drawn to scale)", s)
+	// one pixel per grid node: the viewer smooths it to the drawing's size
+	if s := img.Bounds().Size(); s.X != 5 || s.Y != 4 {
+		t.Errorf("raster %v, want 5 x 4 (one pixel per node of the 4 x 3 grid)", s)
 	}
 	lum := func(x, y int) float64 {
 		r, g, b, _ := img.At(x, y).RGBA()
 		return 0.2126*colour.Decode(float64(r)/65535) + 0.7152*colour.Decode(float64(g)/65535) + 0.0722*colour.Decode(float64(b)/65535)
 	}
-	for _, y := range []int{0, 75, 149} {
-		if !(lum(0, y) < lum(100, y) && lum(100, y) < lum(199, y)) {
+	for _, y := range []int{0, 2, 3} {
+		if !(lum(0, y) < lum(2, y) && lum(2, y) < lum(4, y)) {
 			t.Errorf("row %d: luminance not rising with x", y)
 		}
 	}
@@ -341,11 +342,12 @@ func TestSVG(t *testing.T) {
 	for _, c := range []struct {
 		x, y int
 		t    float64
-	}{{0, 149, 0}, {199, 0, 1}} {
+	}{{0, 3, 0}, {4, 0, 1}} {
 		r, g, bb := colour.Sequential.At(c.t)
 		r2, g2, b2, _ := img.At(c.x, c.y).RGBA()
-		// pixel centres sit half a pixel inside the corner: allow 6/255 per channel
-		if d := math.Max(math.Abs(float64(r)-float64(r2>>8)), math.Max(math.Abs(float64(g)-float64(g2>>8)), math.Abs(float64(bb)-float64(b2>>8)))); d > 6 {
+		// the corner pixels are the corner nodes: the table's end colours,
+		// up to the 8-bit rounding of the table (1/255 per channel)
+		if d := math.Max(math.Abs(float64(r)-float64(r2>>8)), math.Max(math.Abs(float64(g)-float64(g2>>8)), math.Abs(float64(bb)-float64(b2>>8)))); d > 1 {
 			t.Errorf("corner (%d, %d): colour off the map's end by %g", c.x, c.y, d)
 		}
 	}
@@ -372,8 +374,12 @@ func TestSVGShapesAndLines(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if s := img.Bounds().Size(); s.X != 20 || s.Y != 200 {
-		t.Errorf("tall raster %v, want 20 x 200 (height capped at 2 x PixelW, scale kept)", s)
+	if s := img.Bounds().Size(); s.X != 5 || s.Y != 4 {
+		t.Errorf("tall raster %v, want 5 x 4 (one pixel per node)", s)
+	}
+	// the drawing keeps its scale within the height cap: 20 x 200
+	if !bytes.Contains(b.Bytes(), []byte(`width="20" height="200" preserveAspectRatio="none"`)) {
+		t.Errorf("tall drawing not 20 x 200 (height capped at 2 x PixelW, scale kept)")
 	}
 	if err := SVG(io.Discard, &Picture{Field: f, Levels: levels, Lines: nil}); err != nil {
 		t.Errorf("lines computed from levels: %v", err)
@@ -424,4 +430,34 @@ func BenchmarkFieldCSV(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64(buf.Len()), "bytes")
+}
+
+// A fine grid is rastered at no more than maxRaster pixels a side, and the
+// stored-block PNG of that size decodes with image/png (the standard
+// library's decoder, the reference) to the colours of the map.
+func TestLargeRasterDecodes(t *testing.T) {
+	n := 300
+	f := &Field{Nx: n, Ny: n, W: 1, H: 1, U: make([]float64, (n+1)*(n+1))}
+	for k := range f.U {
+		f.U[k] = float64(k%(n+1)) / float64(n) // u = x
+	}
+	data, err := raster(f, colour.Sequential, 0, 1, maxRaster, maxRaster)
+	if err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(bytes.NewReader(data))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := img.Bounds().Size(); s.X != maxRaster || s.Y != maxRaster {
+		t.Fatalf("raster %v", s)
+	}
+	// u = x: the last column is the map's last colour, the first its first
+	for _, c := range []struct{ x, t float64 }{{0, 0}, {maxRaster - 1, 1}} {
+		r, g, b := colour.Sequential.At(c.t)
+		r2, g2, b2, a := img.At(int(c.x), 100).RGBA()
+		if uint8(r2>>8) != r || uint8(g2>>8) != g || uint8(b2>>8) != b || a != 0xffff {
+			t.Errorf("column %v: %d %d %d %d, want %d %d %d opaque", c.x, r2>>8, g2>>8, b2>>8, a>>8, r, g, b)
+		}
+	}
 }

@@ -3,11 +3,7 @@ package export
 import (
 	"bytes"
 	"encoding/base64"
-	"encoding/xml"
 	"fmt"
-	"image"
-	"image/color"
-	"image/png"
 	"io"
 	"math"
 	"strconv"
@@ -48,7 +44,7 @@ const (
 	legendSpace = 96.0 // bar, ticks and their labels
 	legendMinH  = 160.0
 	sizeSpace   = 22.0 // the width and height notes
-	maxRaster   = 1024 // longest side of the embedded PNG
+	maxRaster   = 256  // longest side of the embedded PNG (the viewer smooths it when scaling)
 	labelMinLen = 70.0 // isolines shorter than this (pixels) get no label
 	minTickGap  = 14.0 // closest two legend labels may be (pixels)
 )
@@ -110,8 +106,9 @@ func SVG(w io.Writer, p *Picture) error {
 	}
 
 	// The field raster.
-	rw := max(1, min(maxRaster, int(math.Round(plotW))))
-	rh := max(1, min(maxRaster, int(math.Round(plotH))))
+	// no more pixels than grid nodes: the raster adds nothing beyond them
+	rw := max(1, min(maxRaster, int(math.Round(plotW)), f.Nx+1))
+	rh := max(1, min(maxRaster, int(math.Round(plotH)), f.Ny+1))
 	pngData, err := raster(f, m, lo, hi, rw, rh)
 	if err != nil {
 		return err
@@ -231,20 +228,23 @@ func legend(b *bytes.Buffer, m *colour.Map, lo, hi, x, y, h float64, unit string
 	b.WriteString("</g>\n")
 }
 
-// raster renders the field at rw x rh pixels, sampling it bilinearly at
-// the pixel centres and colouring through a 256-entry table of m. NaN
-// nodes make their neighbourhood transparent.
+// raster renders the field at rw x rh pixels, no more than the grid has
+// nodes along each side: pixel (px, py) samples the field bilinearly at
+// x = px/(rw-1) W, y = (1 - py/(rh-1)) H, so at full resolution the pixels
+// are the nodes and the corners hold the corner values. Colours come from
+// a 256-entry table of m; NaN nodes make their neighbourhood transparent.
+// The viewer smooths the picture when it scales it to the drawing.
 func raster(f *Field, m *colour.Map, lo, hi float64, rw, rh int) ([]byte, error) {
 	tab := m.Table(256)
-	img := image.NewNRGBA(image.Rect(0, 0, rw, rh))
+	img := struct{ Pix []uint8 }{make([]uint8, 4*rw*rh)}
 	span := hi - lo
 	for py := range rh {
 		// row 0 of the image is the top edge y = H
-		gy := (1 - (float64(py)+0.5)/float64(rh)) * float64(f.Ny)
+		gy := (1 - float64(py)/float64(max(rh-1, 1))) * float64(f.Ny)
 		j := min(int(gy), f.Ny-1)
 		ty := gy - float64(j)
 		for px := range rw {
-			gx := (float64(px) + 0.5) / float64(rw) * float64(f.Nx)
+			gx := float64(px) / float64(max(rw-1, 1)) * float64(f.Nx)
 			i := min(int(gx), f.Nx-1)
 			tx := gx - float64(i)
 			k := j*(f.Nx+1) + i
@@ -257,15 +257,10 @@ func raster(f *Field, m *colour.Map, lo, hi float64, rw, rh int) ([]byte, error)
 				t = (v - lo) / span
 			}
 			c := int(math.Round(math.Max(0, math.Min(1, t)) * 255))
-			img.SetNRGBA(px, py, color.NRGBA{tab[3*c], tab[3*c+1], tab[3*c+2], 255})
+			copy(img.Pix[4*(py*rw+px):], []uint8{tab[3*c], tab[3*c+1], tab[3*c+2], 255})
 		}
 	}
-	var out bytes.Buffer
-	enc := png.Encoder{CompressionLevel: png.DefaultCompression}
-	if err := enc.Encode(&out, img); err != nil {
-		return nil, fmt.Errorf("export: png: %w", err)
-	}
-	return out.Bytes(), nil
+	return storedPNG(rw, rh, img.Pix), nil
 }
 
 // finiteRange returns the smallest and largest finite values (NaN, NaN if
@@ -304,7 +299,33 @@ func num(v float64) string {
 	return s
 }
 
-// escape writes user text as XML character data.
+// escape writes user text as XML character data: &, <, >, quotes, and the
+// control characters XML 1.0 forbids (dropped) or that would be normalised
+// (tab, newline and carriage return as references); invalid UTF-8 becomes
+// U+FFFD.
 func escape(b *bytes.Buffer, s string) {
-	_ = xml.EscapeText(b, []byte(s)) // a bytes.Buffer never fails
+	for _, r := range s {
+		switch {
+		case r == '&':
+			b.WriteString("&amp;")
+		case r == '<':
+			b.WriteString("&lt;")
+		case r == '>':
+			b.WriteString("&gt;")
+		case r == '"':
+			b.WriteString("&#34;")
+		case r == '\'':
+			b.WriteString("&#39;")
+		case r == '\t':
+			b.WriteString("&#x9;")
+		case r == '\n':
+			b.WriteString("&#xA;")
+		case r == '\r':
+			b.WriteString("&#xD;")
+		case r < 0x20 || r == 0xFFFE || r == 0xFFFF:
+			// not allowed in XML 1.0
+		default:
+			b.WriteRune(r)
+		}
+	}
 }
