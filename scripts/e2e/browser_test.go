@@ -16,6 +16,7 @@ import (
 
 	"github.com/chromedp/cdproto/cdp"
 	"github.com/chromedp/cdproto/network"
+	"github.com/chromedp/cdproto/runtime"
 	"github.com/chromedp/chromedp"
 )
 
@@ -103,10 +104,23 @@ func newTab(t testing.TB) *tab {
 	t.Cleanup(func() { cancel2(); cancel() })
 	tb := &tab{ctx: ctx}
 	if err := chromedp.Listen(ctx, func(ev any) {
-		if e, ok := ev.(*network.EventRequestWillBeSent); ok && e.Request != nil {
-			tb.mu.Lock()
-			tb.reqs = append(tb.reqs, e.Request.URL)
-			tb.mu.Unlock()
+		switch e := ev.(type) {
+		case *network.EventRequestWillBeSent:
+			if e.Request != nil {
+				tb.mu.Lock()
+				tb.reqs = append(tb.reqs, e.Request.URL)
+				tb.mu.Unlock()
+			}
+		case *runtime.EventExceptionThrown:
+			if e.ExceptionDetails != nil {
+				msg := e.ExceptionDetails.Text
+				if e.ExceptionDetails.Exception != nil {
+					msg += " " + e.ExceptionDetails.Exception.Description
+				}
+				tb.mu.Lock()
+				tb.errs = append(tb.errs, msg)
+				tb.mu.Unlock()
+			}
 		}
 	}); err != nil {
 		t.Fatal(err)
@@ -118,6 +132,16 @@ func newTab(t testing.TB) *tab {
 		t.Fatal(err)
 	}
 	return tb
+}
+
+// noErrors fails the test when the page threw an uncaught exception.
+func (tb *tab) noErrors(t testing.TB) {
+	t.Helper()
+	tb.mu.Lock()
+	defer tb.mu.Unlock()
+	for _, e := range tb.errs {
+		t.Errorf("page exception: %s", e)
+	}
 }
 
 func (tb *tab) requests() []string {

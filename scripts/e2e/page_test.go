@@ -154,6 +154,7 @@ func TestTypeFormulaRedraws(t *testing.T) {
 		t.Errorf("project() has top expr %q, want %q", p, formula)
 	}
 	tb.shot(t, "typed-formula")
+	tb.noErrors(t)
 }
 
 // A bad formula shows the engine's message with a caret under the column,
@@ -192,6 +193,7 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 	if eval[bool](t, tb, `!!document.querySelector("#err-left .caret")`) {
 		t.Errorf("the caret error stayed after the formula was fixed")
 	}
+	tb.noErrors(t)
 }
 
 // Clicking the picture pins a probe whose value, as the results table
@@ -208,6 +210,16 @@ func TestPinProbe(t *testing.T) {
 	  // the plot area: find it from the canvas mapping the page uses
 	  return window.edgewiseParts.screenOf(0.3 * s.w, 0.4 * s.h).map((v, i) => v + (i ? r.top : r.left));
 	})()`)
+	// pointing shows the readout, clicking pins
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: input.DispatchMouseEventTypeMouseMoved, X: pt[0], Y: pt[1]})
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+	if r := eval[string](t, tb, `document.getElementById("readout").textContent`); !strings.Contains(r, "temperature") || !strings.Contains(r, "heat flux") {
+		t.Errorf("readout under the pointer %q, want temperature and heat flux", r)
+	}
 	if err := chromedp.Do(tb.ctx, chromedp.MouseClickXY(pt[0], pt[1])); err != nil {
 		t.Fatal(err)
 	}
@@ -238,6 +250,7 @@ func TestPinProbe(t *testing.T) {
 	}
 	tb.waitFor(t, `document.querySelectorAll("#probes tbody tr").length === 2`, "a second probe from the keyboard")
 	tb.shot(t, "probes")
+	tb.noErrors(t)
 }
 
 // Switching the physics changes the labels, the units and the cautions.
@@ -279,6 +292,7 @@ func TestSwitchPhysics(t *testing.T) {
 		t.Errorf("cautions did not change with the physics")
 	}
 	tb.shot(t, "electrostatic")
+	tb.noErrors(t)
 }
 
 // The page at a laptop size and at a phone's width, for people to look at;
@@ -317,6 +331,7 @@ func TestScreens(t *testing.T) {
 	if w := eval[int](t, tb, `document.documentElement.scrollWidth`); w > 420 {
 		t.Errorf("the page is %d px wide at a 420 px screen: something sticks out", w)
 	}
+	tb.noErrors(t)
 }
 
 // An edit while a long solve runs cancels it: the page shows that it is
@@ -349,6 +364,7 @@ func TestEditCancelsLongSolve(t *testing.T) {
 	if eval[bool](t, tb, `document.documentElement.classList.contains("busy")`) {
 		t.Errorf("the working sign stayed after the solve")
 	}
+	tb.noErrors(t)
 }
 
 // A decimal comma is refused clearly, next to the field, and nothing is
@@ -370,6 +386,7 @@ func TestDecimalComma(t *testing.T) {
 	if w := eval[float64](t, tb, `window.edgewiseInternal.last().project.width`); w != 0.4 {
 		t.Errorf("the picture's width is %g, want the last good 0.4", w)
 	}
+	tb.noErrors(t)
 }
 
 // The line profile samples the field between two points the user types;
@@ -412,6 +429,7 @@ func TestLineProfile(t *testing.T) {
 	}
 	eval[bool](t, tb, `(document.getElementById("opt-arrows").click(), true)`)
 	tb.shot(t, "profile-arrows")
+	tb.noErrors(t)
 }
 
 // The flow table shows an infinite flow as such, with the engine's reason,
@@ -457,6 +475,7 @@ func TestFlowsAndBalance(t *testing.T) {
 	if b := got["Balance"]; strings.Contains(b, "not defined") || !strings.Contains(b, "% of the largest flow") {
 		t.Errorf("balance %q, want a number against the largest flow", b)
 	}
+	tb.noErrors(t)
 }
 
 // The material and edge-kind controls build the project the contract
@@ -486,4 +505,5 @@ func TestMaterialAndEdgeKinds(t *testing.T) {
 	if got := tb.solved(t); got <= n {
 		t.Errorf("no solve after the edge kind changed")
 	}
+	tb.noErrors(t)
 }
