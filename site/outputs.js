@@ -238,11 +238,16 @@
 
   // ---- autosave ----
 
+  // The store keeps the project as last edited and the last one that
+  // solved: {saved, project, solved}. A reload restores the edited one when
+  // it checks, else the one that solved.
   let storageOK = true;
-  function autosave(project) {
+  let lastSolved = null;
+  function autosave(project, solved) {
     if (embedMode || !project) return;
+    if (solved) lastSolved = project;
     try {
-      localStorage.setItem(STORE_KEY, JSON.stringify({ saved: new Date().toISOString(), project }));
+      localStorage.setItem(STORE_KEY, JSON.stringify({ saved: new Date().toISOString(), project, solved: lastSolved }));
       storageOK = true;
     } catch (e) {
       if (storageOK) tell("Autosave is not available here (" + (e.name || "storage blocked") + "); download the project to keep it.", "warn");
@@ -254,7 +259,7 @@
       const raw = localStorage.getItem(STORE_KEY);
       if (!raw) return null;
       const v = JSON.parse(raw);
-      return v && v.project ? v.project : null;
+      return v && typeof v === "object" && (v.project || v.solved) ? v : null;
     } catch (e) {
       return null;
     }
@@ -286,12 +291,21 @@
       }
     }
     const saved = autosaved();
-    if (saved) {
+    if (saved && saved.project) {
       try {
-        return await checkedProject(JSON.stringify(saved));
+        return await checkedProject(JSON.stringify(saved.project));
       } catch (e) {
+        if (saved.solved) {
+          try {
+            const p = await checkedProject(JSON.stringify(saved.solved));
+            tell("Your last edit did not solve (" + e.message + "); restored the last project that did.", "warn");
+            return p;
+          } catch (_) { /* fall through to the demo */ }
+        }
         tell("The autosaved project could not be restored (" + e.message + "); showing the demo.", "warn");
       }
+    } else if (saved && saved.solved) {
+      try { return await checkedProject(JSON.stringify(saved.solved)); } catch (_) { /* the demo */ }
     }
     return null;
   };
@@ -314,7 +328,7 @@
   let solvedOnce = false;
   document.addEventListener("edgewise:solved", (ev) => {
     const d = ev.detail || {};
-    autosave(d.project);
+    autosave(d.project, true);
     if (!solvedOnce) {
       solvedOnce = true;
       if (bootFromLink && !embedMode && storageOK) clearFragment();
@@ -324,7 +338,7 @@
   });
   document.addEventListener("edgewise:edited", (ev) => {
     const p = ev.detail && ev.detail.project;
-    autosave(p);
+    autosave(p, false);
     if (p) refreshLink(p).catch(() => {});
   });
 
@@ -485,7 +499,10 @@
   }
 
   function closeReport() {
-    if (reportEl) reportEl.remove();
+    if (reportEl) {
+      for (const img of reportEl.querySelectorAll("img")) if (img.src.startsWith("blob:")) URL.revokeObjectURL(img.src);
+      reportEl.remove();
+    }
     reportEl = null;
     root.classList.remove("ew-report-open");
   }

@@ -404,6 +404,23 @@ func TestReloadRestores(t *testing.T) {
 	if got := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
 		t.Errorf("after reload %v\nwant %v", got, want)
 	}
+	// An edit that did not solve was saved too; a reload then restores the
+	// last project that solved and says why.
+	eval[bool](t, tb, `(() => { const k = window.edgewiseOutputs.autosaveKey;
+	  const v = JSON.parse(localStorage.getItem(k));
+	  v.project = JSON.parse(JSON.stringify(v.solved));
+	  v.project.edges.bottom.expr = "90 *";
+	  localStorage.setItem(k, JSON.stringify(v)); return true; })()`)
+	if err := chromedp.Do(tb.ctx, chromedp.Reload()); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitSolved(t, 1)
+	if got := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
+		t.Errorf("after reload with a broken edit %v\nwant %v", got, want)
+	}
+	if msg := eval[string](t, tb, `document.getElementById("ew-notice").textContent`); !strings.Contains(msg, "did not solve") || !strings.Contains(msg, "edges.bottom.expr") {
+		t.Errorf("notice %q, want one saying the last edit did not solve", msg)
+	}
 	n := eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
 	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-new"))); err != nil {
 		t.Fatal(err)
@@ -419,6 +436,34 @@ func TestReloadRestores(t *testing.T) {
 	tb.waitSolved(t, n+2)
 	if got := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
 		t.Errorf("after undo %v\nwant %v", got, want)
+	}
+}
+
+// From the offline file: a share link opened in a fresh tab reproduces
+// the project, and a reload restores it.
+func TestOfflineLinkAndReload(t *testing.T) {
+	file := "file://" + filepath.Join(root, "dist", "edgewise.html")
+	tb := newTab(t)
+	tb.open(t, file)
+	want := tb.loadProject(t, strings.Replace(probed, `title: "Bracket`, `title: "offline `+strconv.FormatInt(time.Now().UnixNano(), 36), 1))
+	link := tb.shareLink(t)
+	if !strings.HasPrefix(link, file+"#z=") {
+		t.Errorf("offline link %q", link)
+	}
+	fresh := newTab(t)
+	fresh.open(t, link)
+	if got := eval[map[string]any](t, fresh, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
+		t.Errorf("project from the offline link %v\nwant %v", got, want)
+	}
+	if err := chromedp.Do(fresh.ctx, chromedp.Reload()); err != nil {
+		t.Fatal(err)
+	}
+	fresh.waitSolved(t, 1)
+	if got := eval[map[string]any](t, fresh, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
+		t.Errorf("after reload %v\nwant %v", got, want)
+	}
+	if bad := outsideRequests(append(tb.requests(), fresh.requests()...), "file"); len(bad) > 0 {
+		t.Errorf("requests outside the file: %v", bad)
 	}
 }
 
