@@ -64,6 +64,8 @@ var (
 	linkRE   = regexp.MustCompile(`<link rel="stylesheet" href="([^"]+)">`)
 	scriptRE = regexp.MustCompile(`<script src="([^"]+)"></script>`)
 	cspRE    = regexp.MustCompile(`<meta http-equiv="Content-Security-Policy" content="[^"]*">`)
+	// any other form of an outside script or stylesheet
+	leftRE = regexp.MustCompile(`(?i)<script[^>]*\ssrc\s*=|<link[^>]*stylesheet`)
 )
 
 // Bundle returns the single-file page for the built site in dir.
@@ -104,7 +106,7 @@ func Bundle(dir string) ([]byte, error) {
 	if ferr != nil {
 		return nil, ferr
 	}
-	if strings.Contains(html, `<script src=`) || strings.Contains(html, `<link rel="stylesheet"`) {
+	if leftRE.MatchString(html) {
 		return nil, fmt.Errorf("index.html has a script or stylesheet tag the bundler does not recognise")
 	}
 

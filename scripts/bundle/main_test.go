@@ -1,0 +1,107 @@
+package main
+
+import (
+	"bytes"
+	"compress/gzip"
+	"crypto/sha256"
+	"encoding/base64"
+	"io"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+func writeSite(t *testing.T, files map[string]string) string {
+	t.Helper()
+	dir := t.TempDir()
+	for name, body := range files {
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	return dir
+}
+
+var site = map[string]string{
+	"index.html": `<!doctype html><html><head>
+<meta http-equiv="Content-Security-Policy" content="default-src 'self'">
+<link rel="stylesheet" href="style.css">
+</head><body><p>hi</p>
+<script src="app.js"></script>
+</body></html>`,
+	"style.css":    "p { color: red }",
+	"app.js":       `const s = "</script><!-- tricky";`,
+	"worker.js":    "self.onmessage = () => {};",
+	"wasm_exec.js": "class Go {}",
+	"app.wasm":     "\x00asm\x01\x00\x00\x00 some engine bytes",
+	"demo.json":    `{"title": "</script>"}`,
+	"checks.json":  `{"cases": []}`,
+}
+
+func TestBundle(t *testing.T) {
+	page, err := Bundle(writeSite(t, site))
+	if err != nil {
+		t.Fatal(err)
+	}
+	html := string(page)
+	if strings.Contains(html, `src="`) || strings.Contains(html, `href="style.css"`) {
+		t.Errorf("an outside script or stylesheet is left")
+	}
+	// the only </script> sequences are the real closing tags: 5 blocks
+	if n := strings.Count(html, "</script"); n != 5 {
+		t.Errorf("%d </script sequences, want 5 (app, worker, demo, checks, wasm)", n)
+	}
+	// every executable inline script and style is allowed by its hash in
+	// the policy (CSP Level 3, hash-source), and nothing else is
+	csp := regexp.MustCompile(`content="(default-src 'none'[^"]*)"`).FindStringSubmatch(html)
+	if csp == nil {
+		t.Fatalf("no strict policy in %s", html[:200])
+	}
+	for _, m := range regexp.MustCompile(`(?s)<(script|style)>(.*?)</(?:script|style)>`).FindAllStringSubmatch(html, -1) {
+		h := sha256.Sum256([]byte(m[2]))
+		if !strings.Contains(csp[1], "'sha256-"+base64.StdEncoding.EncodeToString(h[:])+"'") {
+			t.Errorf("inline %s %.30q is not in the policy", m[1], m[2])
+		}
+	}
+	if strings.Contains(csp[1], "unsafe-inline") || strings.Contains(csp[1], "http") {
+		t.Errorf("policy too loose: %s", csp[1])
+	}
+	// the engine round-trips through base64 and gzip
+	w := regexp.MustCompile(`<script type="application/octet-stream" id="ew-wasm">([^<]*)</script>`).FindStringSubmatch(html)
+	if w == nil {
+		t.Fatal("no engine block")
+	}
+	gz, err := base64.StdEncoding.DecodeString(w[1])
+	if err != nil {
+		t.Fatal(err)
+	}
+	zr, err := gzip.NewReader(bytes.NewReader(gz))
+	if err != nil {
+		t.Fatal(err)
+	}
+	raw, _ := io.ReadAll(zr)
+	if string(raw) != site["app.wasm"] {
+		t.Errorf("engine bytes changed in the bundle")
+	}
+	if !strings.Contains(html, `id="ew-worker">class Go {}`) {
+		t.Errorf("worker source does not start with wasm_exec.js")
+	}
+}
+
+func TestBundleRefusesUnknownTags(t *testing.T) {
+	s := map[string]string{}
+	for k, v := range site {
+		s[k] = v
+	}
+	s["index.html"] = strings.Replace(site["index.html"], `<script src="app.js"></script>`, `<script defer src="app.js"></script>`, 1)
+	if _, err := Bundle(writeSite(t, s)); err == nil {
+		t.Errorf("a script tag the bundler cannot inline was accepted")
+	}
+	delete(s, "app.wasm")
+	s["index.html"] = site["index.html"]
+	if _, err := Bundle(writeSite(t, s)); err == nil || !strings.Contains(err.Error(), "make build") {
+		t.Errorf("missing engine: error %v", err)
+	}
+}
