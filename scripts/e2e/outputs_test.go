@@ -3,6 +3,7 @@ package e2e
 import (
 	"bytes"
 	"compress/flate"
+	"context"
 	"encoding/base64"
 	"encoding/csv"
 	"encoding/json"
@@ -20,6 +21,9 @@ import (
 	"time"
 
 	"github.com/chromedp/cdproto/browser"
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/chromedp"
 )
 
@@ -307,6 +311,51 @@ func checkSVG(t *testing.T, data []byte) {
 	}
 }
 
+// The report prints alone: in print media only the report shows, without
+// its buttons, and print to PDF gives a PDF. No part of the outputs breaks
+// the Content-Security-Policy.
+func TestReportPrint(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	eval[bool](t, tb, `(window.__csp = [], document.addEventListener("securitypolicyviolation",
+	  e => window.__csp.push(e.violatedDirective + " " + e.blockedURI)), true)`)
+	tb.loadProject(t, probed)
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-btn"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.until(t, `!!document.querySelector("#ew-report img") && document.querySelector("#ew-report img").naturalWidth > 0`, "the report")
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"})
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+	for _, sel := range []string{"#ew-report", "#ew-report h1", "#ew-report img", "#ew-report table"} {
+		if !visible(t, tb, sel) {
+			t.Errorf("print view hides %s", sel)
+		}
+	}
+	for _, sel := range []string{".layout", ".bar", "#ew-report-print", "#ew-report-close"} {
+		if visible(t, tb, sel) {
+			t.Errorf("print view shows %s", sel)
+		}
+	}
+	var pdf []byte
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		r, err := cdp.Call(ctx, tg, page.PrintToPDF, page.PrintToPDFParams{})
+		pdf = r.Data
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.HasPrefix(pdf, []byte("%PDF-")) || len(pdf) < 10000 {
+		t.Errorf("print to PDF gave %d bytes starting %.8q", len(pdf), pdf)
+	}
+	if v := eval[[]string](t, tb, `window.__csp`); len(v) > 0 {
+		t.Errorf("Content-Security-Policy violations: %v", v)
+	}
+}
+
 // Opening a project file from the file picker loads it; a foreign or
 // broken file is refused with a message and the project stays.
 func TestOpenProjectFile(t *testing.T) {
@@ -344,6 +393,15 @@ func TestOpenProjectFile(t *testing.T) {
 			t.Errorf("%s: the page solved again", c.file)
 		}
 		eval[bool](t, tb, `(document.getElementById("ew-notice").dataset.kind = "", true)`)
+	}
+	// A file dropped on the page opens like a picked one.
+	n0 := eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
+	eval[bool](t, tb, `(() => { const p = window.edgewise.project(); p.title = "dropped on the page";
+	  const dt = new DataTransfer(); dt.items.add(new File([JSON.stringify(p)], "dropped.json", {type: "application/json"}));
+	  document.body.dispatchEvent(new DragEvent("drop", {dataTransfer: dt, bubbles: true, cancelable: true})); return true; })()`)
+	tb.waitSolved(t, n0+1)
+	if title := eval[string](t, tb, `window.edgewise.project().title`); title != "dropped on the page" {
+		t.Errorf("dropped project title %q", title)
 	}
 	// A good file opens.
 	obj := eval[map[string]any](t, tb, `window.edgewise.project()`)
