@@ -143,7 +143,8 @@
       root.classList.add("busy");
       setStatus("Solving…", "busy");
     }, BUSY_MS);
-    call("solve", job.text, 0, 0, LEVELS).then(
+    const [nx, ny] = detailGrid(job.project);
+    call("solve", job.text, nx, ny, LEVELS).then(
       (m) => job.resolve({ reply: m.value, ms: m.ms, newest: job.gen === gen, job }),
       (e) => job.reject(e)
     ).finally(() => {
@@ -159,6 +160,20 @@
       }
     });
   }
+
+  // detailGrid returns the output grid the detail choice asks for: n
+  // intervals along the longer side, the other in proportion (at least 2);
+  // 0, 0 leaves it to the project or the engine's default.
+  function detailGrid(p) {
+    const n = Number($("opt-detail").value);
+    const w = Number(p.width), h = Number(p.height);
+    if (!(n > 0) || !(w > 0) || !(h > 0)) return [0, 0];
+    return w >= h ? [n, Math.max(2, Math.round((n * h) / w))] : [Math.max(2, Math.round((n * w) / h)), n];
+  }
+  $("opt-detail").addEventListener("change", () => {
+    const p = typed || current;
+    if (p) solveEdit(p, performance.now());
+  });
 
   function engineError(r) {
     const e = new Error(r.error);

@@ -593,6 +593,8 @@
     }
     ev.preventDefault();
     readout(cursor.x, cursor.y);
+    // keyboard users hear the reading (pointer moves stay silent)
+    $("readout-live").textContent = $("readout").textContent;
     drawTop();
   });
   canvas.addEventListener("blur", () => {

@@ -507,3 +507,20 @@ func TestMaterialAndEdgeKinds(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// The detail choice sets the output grid: 400 intervals along the longer
+// side of the 0.4 m x 0.2 m plate, 200 along the other.
+func TestDetailSetsGrid(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	n := tb.solved(t)
+	eval[bool](t, tb, `(() => { const s = document.getElementById("opt-detail"); s.value = "400";
+	  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+	tb.waitSolved(t, n+1)
+	g := eval[[]int](t, tb, `(() => { const s = window.edgewiseInternal.last(); return [s.nx, s.ny, s.result.grid.nx, s.result.grid.ny]; })()`)
+	if g[0] != 400 || g[1] != 200 || g[2] != 400 || g[3] != 200 {
+		t.Errorf("grid %v after choosing fine detail, want 400 x 200", g)
+	}
+	tb.noErrors(t)
+}
