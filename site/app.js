@@ -319,7 +319,6 @@
       ? "Values from the series at each point; ≈ marks a value read from the picture until the next solve."
       : "Click the picture (or focus it and press Enter) to pin a probe.";
     if (!S) return;
-    const u = S.units || {};
     for (const p of list) {
       const hit = (S.result.probes || []).find((q) => q.label === p.label && q.x === p.x && q.y === p.y);
       let v, qx, qy, approx = false;

@@ -187,6 +187,13 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 		t.Errorf("the picture changed after a bad formula; the last good one must stay")
 	}
 	tb.shot(t, "bad-formula")
+	// the same through the interface: the one-line error with its path and
+	// column on the Error
+	e := eval[[]any](t, tb, `(() => { const p = `+plate+`; p.edges.top.expr = "1 + 2*sinn(s)";
+	  return window.edgewise.load(p).then(() => ["resolved"], e => [e.message, e.path, e.col]); })()`)
+	if len(e) != 3 || e[1] != "edges.top.expr" || e[2] != float64(7) || !strings.HasPrefix(e[0].(string), "edges.top.expr: col 7: ") {
+		t.Errorf("load rejected with %v, want the one-line error at edges.top.expr col 7", e)
+	}
 	// fixing it clears the error and solves again
 	tb.typeInto(t, "#in-left-expr", "40 + sinh(0)")
 	tb.waitSolved(t, n+1)
@@ -521,6 +528,24 @@ func TestDetailSetsGrid(t *testing.T) {
 	g := eval[[]int](t, tb, `(() => { const s = window.edgewiseInternal.last(); return [s.nx, s.ny, s.result.grid.nx, s.result.grid.ny]; })()`)
 	if g[0] != 400 || g[1] != 200 || g[2] != 400 || g[3] != 200 {
 		t.Errorf("grid %v after choosing fine detail, want 400 x 200", g)
+	}
+	tb.noErrors(t)
+}
+
+// Numbers are written for people: significant digits without trailing
+// zeros, a true minus sign, powers of ten written out; round ticks.
+func TestNumberFormat(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	got := eval[[]string](t, tb, `(() => { const E = window.edgewiseParts;
+	  return [E.num(1234.5678), E.num(-0.5), E.num(0.000123456, 3), E.num(2.5e7), E.num(0), E.num(Infinity), E.num(12.5, 4),
+	          E.niceTicks(0, 0.3, 6).map(v => E.num(v)).join(" ")]; })()`)
+	want := []string{"1235", "−0.5", "1.23×10⁻⁴", "2.5×10⁷", "0", "∞", "12.5", "0 0.05 0.1 0.15 0.2 0.25 0.3"}
+	for i := range want {
+		if i >= len(got) || got[i] != want[i] {
+			t.Errorf("case %d: got %q, want %q", i, got, want)
+			break
+		}
 	}
 	tb.noErrors(t)
 }
