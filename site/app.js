@@ -439,7 +439,11 @@
     if (r.balance === null || infinite.length) {
       balanceText = "not defined (an edge flow is infinite)";
     } else {
-      balanceText = EW.num(r.balance, 3) + (largest > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / largest, 2) + " % of the largest flow)" : "");
+      // against the largest flow, or the flow a unit-aspect block with the
+      // field's range across it would carry, if larger (all-zero flows
+      // otherwise give a meaningless 100 %)
+      const scale = Math.max(largest, Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value));
+      balanceText = EW.num(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
     }
     add("Balance", balanceText, "balance").id = "res-balance";
     box.append(h, note, t);
