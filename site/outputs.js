@@ -344,10 +344,22 @@
 
   // ---- downloads ----
 
+  // gridOptions asks for the output grid of the picture on screen when it
+  // shows this project (the page's detail choice), else the project's own.
+  function gridOptions(p, extra) {
+    const o = Object.assign({}, extra || {});
+    const last = internal.last && internal.last();
+    if (last && last.project && projectText(last.project) === projectText(p) && last.nx > 0 && last.ny > 0) {
+      o.nx = last.nx;
+      o.ny = last.ny;
+    }
+    return JSON.stringify(o);
+  }
+
   async function download(kind, options) {
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
-    const r = await engine("export", kind, projectText(p), JSON.stringify(options || {}));
+    const r = await engine("export", kind, projectText(p), gridOptions(p, options));
     save(r.name, r.mime, r.text);
     return r.name;
   }
@@ -378,7 +390,7 @@
   async function downloadPNG(width) {
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
-    const r = await engine("export", "svg", projectText(p), JSON.stringify({ pixel_width: 640 }));
+    const r = await engine("export", "svg", projectText(p), gridOptions(p, { pixel_width: 640 }));
     const img = await svgImage(r.text);
     const w0 = img.naturalWidth || img.width, h0 = img.naturalHeight || img.height;
     const scale = width / w0;
@@ -511,7 +523,7 @@
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
     const date = new Date().toISOString().slice(0, 16).replace("T", " ") + " UTC";
-    const r = await engine("report", projectText(p), JSON.stringify({ date }));
+    const r = await engine("report", projectText(p), gridOptions(p, { date }));
     const rep = JSON.parse(r.report);
     reportData = { rep, svg: r.svg };
     closeReport();

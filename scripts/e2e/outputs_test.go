@@ -268,6 +268,22 @@ func TestDownloads(t *testing.T) {
 			if eval[bool](t, tb, `!!document.getElementById("ew-report")`) {
 				t.Errorf("the report did not close")
 			}
+			// The field CSV follows the page's detail choice.
+			if eval[bool](t, tb, `!!document.getElementById("opt-detail")`) {
+				n := eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
+				eval[bool](t, tb, `(() => { const s = document.getElementById("opt-detail"); s.value = "100";
+				  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+				tb.waitSolved(t, n+1)
+				grid := eval[[]int](t, tb, `[window.edgewiseInternal.last().nx, window.edgewiseInternal.last().ny]`)
+				_, data = d.click(t, tb, "#ew-dl-field")
+				rows, err = csv.NewReader(bytes.NewReader(data)).ReadAll()
+				if err != nil {
+					t.Fatal(err)
+				}
+				if grid[0] != 100 || len(rows) != 1+(grid[0]+1)*(grid[1]+1) {
+					t.Errorf("detail 100: page grid %v, field CSV %d rows", grid, len(rows))
+				}
+			}
 			if c.url == "file" {
 				if bad := outsideRequests(tb.requests(), "file"); len(bad) > 0 {
 					t.Errorf("requests outside the file: %v", bad)

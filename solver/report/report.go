@@ -136,8 +136,7 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 		add(&rep.Inputs, with(l.Conductivity+" along y", l.CondUnit), num(p.Conductivity.Y))
 	}
 	add(&rep.Inputs, with(l.Source+" (uniform)", l.SourceUnit), num(p.Source))
-	nx, ny := solver.GridFor(p, solver.Options{})
-	add(&rep.Inputs, "output grid (intervals)", strconv.Itoa(nx)+" x "+strconv.Itoa(ny))
+	add(&rep.Inputs, "output grid (intervals)", strconv.Itoa(out.Nx)+" x "+strconv.Itoa(out.Ny))
 
 	rep.Edges = Table{Caption: "Edge conditions (s runs along the edge: bottom and top from the left, left and right from the bottom)",
 		Head: []string{"edge", "kind", "condition"}}
