@@ -549,3 +549,27 @@ func TestNumberFormat(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// Every control of the inputs, the picture and the results has a name a
+// screen reader can read, and the picture has a text alternative.
+func TestControlsLabelled(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	eval[bool](t, tb, `(window.edgewiseParts.pin(0.05, 0.02), true)`)
+	tb.waitFor(t, `document.querySelectorAll("#probes tbody tr").length >= 1`, "a probe row")
+	bad := eval[[]string](t, tb, `[...document.querySelectorAll("header input, #inputs input, #inputs select, .view input, .view select, .view button, .numbers button")]
+	  .filter(el => !(el.labels && el.labels.length && el.labels[0].textContent.trim()) && !el.getAttribute("aria-label") && !el.textContent.trim())
+	  .map(el => el.id || el.outerHTML.slice(0, 60))`)
+	if len(bad) > 0 {
+		t.Errorf("controls without a name: %v", bad)
+	}
+	if n := eval[int](t, tb, `document.querySelectorAll("#inputs input, #inputs select").length`); n < 20 {
+		t.Errorf("found %d input controls; the check looks at the wrong place", n)
+	}
+	alt := eval[string](t, tb, `document.getElementById("field").getAttribute("aria-label")`)
+	if !strings.Contains(alt, "Temperature") || !strings.Contains(alt, "°C") {
+		t.Errorf("the picture's text alternative %q does not summarise the field", alt)
+	}
+	tb.noErrors(t)
+}
