@@ -1,7 +1,6 @@
 package report
 
 import (
-	"runtime/debug"
 	"strconv"
 
 	"edgewise/solver"
@@ -33,43 +32,18 @@ type Report struct {
 	Methods  []string
 }
 
-// Release names the release; a build may set it with
-// -ldflags "-X edgewise/solver/report.Release=2026.12".
+// Release names the build; the build sets it with
+// -ldflags "-X edgewise/solver/report.Release=<text>" (for example the
+// output of git describe --always --dirty).
 var Release = ""
 
-// Version names the build of edgewise: Release when set, else the module
-// version, or the source revision the binary was built from (with
-// "+changes" when the working tree was modified), or "development build".
+// Version names the build of edgewise: Release, or "development build"
+// when the build did not set it.
 func Version() string {
 	if Release != "" {
 		return Release
 	}
-	info, ok := debug.ReadBuildInfo()
-	if !ok {
-		return "development build"
-	}
-	if v := info.Main.Version; v != "" && v != "(devel)" {
-		return v
-	}
-	rev, dirty := "", false
-	for _, s := range info.Settings {
-		switch s.Key {
-		case "vcs.revision":
-			rev = s.Value
-		case "vcs.modified":
-			dirty = s.Value == "true"
-		}
-	}
-	if rev == "" {
-		return "development build"
-	}
-	if len(rev) > 12 {
-		rev = rev[:12]
-	}
-	if dirty {
-		rev += "+changes"
-	}
-	return "revision " + rev
+	return "development build"
 }
 
 // JSON returns the report as a JSON object with the keys title, date,

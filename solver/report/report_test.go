@@ -248,8 +248,13 @@ func TestReportJSON(t *testing.T) {
 }
 
 func TestVersion(t *testing.T) {
-	if v := Version(); v == "" {
-		t.Errorf("empty version")
+	if v := Version(); v != "development build" {
+		t.Errorf("version %q without a Release", v)
+	}
+	Release = "2026.12-test"
+	defer func() { Release = "" }()
+	if v := Version(); v != "2026.12-test" {
+		t.Errorf("version %q, want the Release", v)
 	}
 }
 
