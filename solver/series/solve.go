@@ -50,7 +50,8 @@ type Solution struct {
 	est      float64
 	jump     [4]bool
 	jumpSize [4]float64
-	third    [4]bool // value/flux corner with a third-order condition
+	jumpFrom [4][2]float64 // values on the corner's first and second edge
+	third    [4]bool       // value/flux corner with a third-order condition
 	flows    [4]float64
 	finite   [4]bool
 	mean     float64
@@ -108,16 +109,27 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 			s.quad = quadratic{A: m.lap / 2, B: -m.lap * m.W / 2}
 		}
 	}
-	s.cornerPieces()
-	if m.err != nil {
-		return nil, m.err
+	// Corner treatment, from the full one down to first order only when the
+	// pieces grow so large that adding them up would lose digits (large
+	// Biot numbers on short edges make the higher-order amplitudes grow
+	// like (beta L)^k).
+	for level := 2; level >= 0; level-- {
+		s.pieces, s.third, s.jump = s.pieces[:0], [4]bool{}, [4]bool{}
+		s.cornerPieces(level)
+		if m.err != nil {
+			return nil, m.err
+		}
+		if err := s.fitSmooth(level); err != nil {
+			return nil, err
+		}
+		if m.err != nil {
+			return nil, m.err
+		}
+		if s.pieceMagnitude() <= 1e4*s.scale {
+			break
+		}
 	}
-	if err := s.fitSmooth(); err != nil {
-		return nil, err
-	}
-	if m.err != nil {
-		return nil, m.err
-	}
+	s.jumpWarnings()
 	if m.allFlx {
 		s.fluxQuadratic(fluxInt)
 	}
@@ -316,7 +328,7 @@ func (m *model) derivs(e problem.Side, c int) (f, d1, d2, d3 float64) {
 
 // cornerPieces adds the singular corner functions whose amplitudes follow
 // from the local data alone (smooth parts cancel from them).
-func (s *Solution) cornerPieces() {
+func (s *Solution) cornerPieces(level int) {
 	m := s.m
 	for c := 0; c < 4; c++ {
 		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
@@ -338,14 +350,10 @@ func (s *Solution) cornerPieces() {
 				add(logPiece, 0, complex(0, 2*jmp/math.Pi))
 				s.jump[c] = true
 				s.jumpSize[c] = jmp
-				p := m.p
-				s.warnings = append(s.warnings,
-					fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
-					fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c]))
-				_ = p
+				s.jumpFrom[c] = [2]float64{f1, f2}
 			}
 			b := -(s1 + s2 - m.lap) / math.Pi
-			if math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
+			if level >= 1 && math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
 				add(z2logPiece, 0, complex(0, -b)) // b Im(zeta^2 log zeta)
 			}
 		case k1 != problem.Value && k2 != problem.Value:
@@ -361,7 +369,7 @@ func (s *Solution) cornerPieces() {
 				// On a convection edge beta times that piece leaves
 				// +-beta kappa s^2 log s; a zeta^3 log zeta piece with
 				// c = (beta2 kappa - i beta1 kappa)/3 takes both back.
-				if b1, b2 := m.beta[e1], m.beta[e2]; b1 != 0 || b2 != 0 {
+				if b1, b2 := m.beta[e1], m.beta[e2]; level >= 2 && (b1 != 0 || b2 != 0) {
 					add(z3logPiece, 0, complex(b2*k/3, -b1*k/3))
 				}
 			}
@@ -387,7 +395,7 @@ func (s *Solution) cornerPieces() {
 				// zeta), zero on the value edge (mirrored when the value
 				// edge is the second one), takes it back with kappa =
 				// -a beta / pi, leaving only smooth terms there.
-				if beta != 0 {
+				if level >= 2 && beta != 0 {
 					k := -a * beta / math.Pi
 					add(z2logPiece, 0, complex(0, -k))
 					if ev != e1 {
@@ -399,6 +407,9 @@ func (s *Solution) cornerPieces() {
 			// along the edges) -r3 + beta r2 = 0, the other edge's r2 = 0; for
 			// a harmonic field the two demands differ by m3 unless a
 			// zeta^3 log zeta piece (zero on the value edge) takes it.
+			if level < 2 {
+				continue
+			}
 			s.third[c] = true
 			// The pieces above add -a beta^2 to the other edge's r2.
 			m3 := -tv + beta*(sv-m.lap) + sf
@@ -419,6 +430,42 @@ func (s *Solution) cornerPieces() {
 	}
 }
 
+// jumpWarnings says which flows are infinite and why.
+func (s *Solution) jumpWarnings() {
+	for c := 0; c < 4; c++ {
+		if !s.jump[c] {
+			continue
+		}
+		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
+		f1, f2 := s.jumpFrom[c][0], s.jumpFrom[c][1]
+		s.warnings = append(s.warnings,
+			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
+			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c]))
+	}
+}
+
+// pieceMagnitude returns the largest sum of |piece| over sample points
+// away from the corners: how much cancellation the pieces need.
+func (s *Solution) pieceMagnitude() float64 {
+	m := s.m
+	big := 0.0
+	for i := 0; i <= 4; i++ {
+		for j := 0; j <= 4; j++ {
+			if (i == 0 || i == 4) && (j == 0 || j == 4) {
+				continue
+			}
+			x, y := m.W*float64(i)/4, m.H*float64(j)/4
+			sum := 0.0
+			for k := range s.pieces {
+				u, _, _ := s.pieces[k].value(x, y)
+				sum += math.Abs(u)
+			}
+			big = math.Max(big, sum)
+		}
+	}
+	return big
+}
+
 // fitSmooth fits harmonic polynomials of degree <= 4 (minimum norm) so
 // that, with the singular pieces, the residual data meet the corner
 // conditions that make the series coefficients fall fast: at a value/value
@@ -426,7 +473,7 @@ func (s *Solution) cornerPieces() {
 // at a value/flux or value/convection corner the residual of the value
 // edge meets the other edge's homogeneous condition and the other edge's
 // residual vanishes.
-func (s *Solution) fitSmooth() error {
+func (s *Solution) fitSmooth(level int) error {
 	m := s.m
 	S := math.Max(m.W, m.H) / 2
 	z0 := complex(m.W/2, m.H/2)
@@ -458,7 +505,12 @@ func (s *Solution) fitSmooth() error {
 				row[j], _, _ = cols[j].value(x, y)
 				row2[j] = cols[j].second(x, y, dir)
 			}
-			rows = append(rows, row, row2)
+			rows = append(rows, row)
+			if level < 1 {
+				rhs = append(rhs, f1-own-ku)
+				continue
+			}
+			rows = append(rows, row2)
 			sec := 2 * s.quad.A
 			if imag(dir) != 0 {
 				sec = 2 * s.quad.C
