@@ -52,7 +52,12 @@
       // reaches at least a tenth of the larger
       mode = lo < 0 && hi > 0 && Math.min(-lo, hi) >= 0.1 * Math.max(-lo, hi) ? "diverging" : "sequential";
     }
-    const table = EW.colours[mode];
+    let table = EW.colours && EW.colours[mode];
+    if (!table || !table.length) {
+      // no tables from the engine: a plain grey ramp, still readable
+      table = new Uint8Array(3 * 256);
+      for (let k = 0; k < 256; k++) table[3 * k] = table[3 * k + 1] = table[3 * k + 2] = 40 + Math.round((k * 200) / 255);
+    }
     const n = table.length / 3;
     let a = lo, b = hi;
     if (mode === "diverging") {
@@ -436,11 +441,12 @@
     }
     parts.push([u.flux || "flux", EW.withUnit(EW.num(Math.hypot(qx, qy), 4), u.flux_unit) + " " + arrow(qx, qy)]);
     for (const [k, v] of parts) {
+      const part = document.createElement("span");
+      part.className = "part";
       const b = document.createElement("b");
       b.textContent = k + " ";
-      const s = document.createElement("span");
-      s.textContent = v;
-      el.append(b, s, document.createTextNode("   "));
+      part.append(b, v);
+      el.append(part, " ");
     }
   }
   function arrow(qx, qy) {

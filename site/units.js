@@ -79,7 +79,8 @@
       const [m, e] = v.toExponential(p - 1).split("e");
       s = trim(m) + "×10" + String(Number(e)).split("").map((c) => sup[c]).join("");
     } else {
-      s = trim(v.toPrecision(p));
+      // through Number: toPrecision writes 17730 to 4 digits as 1.773e+4
+      s = String(Number(v.toPrecision(p)));
     }
     return s.replace(/^-/, "−");
   };

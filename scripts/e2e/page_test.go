@@ -538,9 +538,9 @@ func TestNumberFormat(t *testing.T) {
 	tb := newTab(t)
 	tb.open(t, siteURL)
 	got := eval[[]string](t, tb, `(() => { const E = window.edgewiseParts;
-	  return [E.num(1234.5678), E.num(-0.5), E.num(0.000123456, 3), E.num(2.5e7), E.num(0), E.num(Infinity), E.num(12.5, 4),
+	  return [E.num(1234.5678), E.num(-0.5), E.num(0.000123456, 3), E.num(2.5e7), E.num(0), E.num(Infinity), E.num(12.5, 4), E.num(17734.2, 4),
 	          E.niceTicks(0, 0.3, 6).map(v => E.num(v)).join(" ")]; })()`)
-	want := []string{"1235", "−0.5", "1.23×10⁻⁴", "2.5×10⁷", "0", "∞", "12.5", "0 0.05 0.1 0.15 0.2 0.25 0.3"}
+	want := []string{"1235", "−0.5", "1.23×10⁻⁴", "2.5×10⁷", "0", "∞", "12.5", "17730", "0 0.05 0.1 0.15 0.2 0.25 0.3"}
 	for i := range want {
 		if i >= len(got) || got[i] != want[i] {
 			t.Errorf("case %d: got %q, want %q", i, got, want)
