@@ -629,9 +629,7 @@ func TestTamperedFragment(t *testing.T) {
 // knownEngineIssues lists published cases the engine in the browser does
 // not meet yet, with the reason; TestChecksPanel logs them instead of
 // failing, and fails when one of them passes (then delete the entry).
-var knownEngineIssues = map[string]string{
-	"robin-cot-2": "since series abe170c the decay rate under wasm is 2.289001 (native 2.288964; the root of x cot x = -2 is 2.288930, and the commit before gave it to 1e-9)",
-}
+var knownEngineIssues = map[string]string{}
 
 // The checks panel runs every published case in the browser, shows each
 // against its published value with the source, and offers the record.
