@@ -525,6 +525,7 @@
   }
 
   function readProfileInputs() {
+    if (drag) return; // a blur while drawing on the picture: the drawing wins
     const v = ["pf-x0", "pf-y0", "pf-x1", "pf-y1"].map((id) => Number($(id).value.trim()));
     if (v.some((n) => !Number.isFinite(n)) || !S) return;
     const cx = (t) => Math.min(Math.max(t, 0), S.w), cy = (t) => Math.min(Math.max(t, 0), S.h);
@@ -560,6 +561,7 @@
     drawTop();
   });
   canvas.addEventListener("pointerdown", (ev) => {
+    dragged = false;
     if (!S || !profileMode) return;
     const p = pointerAt(ev);
     if (!inside(p)) return;
@@ -568,15 +570,21 @@
     profile = { a: p, b: { x: p.x, y: p.y } };
     $("profile-box").open = true;
   });
+  let dragged = false; // the click after a drawn line is not a pin
   canvas.addEventListener("pointerup", () => {
     if (!drag) return;
     drag = null;
+    dragged = true;
     setProfileMode(false);
     setProfileInputs();
     drawTop();
     drawProfile();
   });
   canvas.addEventListener("click", (ev) => {
+    if (dragged) {
+      dragged = false;
+      return;
+    }
     if (!S || profileMode) return;
     const p = pointerAt(ev);
     if (inside(p) && !ev.defaultPrevented) EW.pin && EW.pin(p.x, p.y);

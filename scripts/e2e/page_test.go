@@ -434,6 +434,38 @@ func TestLineProfile(t *testing.T) {
 	if math.Abs(a-want[0]) > 1e-3*math.Abs(want[0]) || math.Abs(b-want[1]) > 1e-3*math.Abs(want[1]) {
 		t.Errorf("profile ends %g, %g; engine %g, %g", a, b, want[0], want[1])
 	}
+	// drawing the line with the mouse: press at A, drag, release at B
+	eval[bool](t, tb, `(document.getElementById("btn-profile").click(), true)`)
+	ends := eval[[]float64](t, tb, `(() => { const r = document.getElementById("field").getBoundingClientRect();
+	  const E = window.edgewiseParts, a = E.screenOf(0.1, 0.05), b = E.screenOf(0.3, 0.15);
+	  return [a[0] + r.left, a[1] + r.top, b[0] + r.left, b[1] + r.top]; })()`)
+	mouse := func(typ input.DispatchMouseEventType, x, y float64) {
+		t.Helper()
+		if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := cdp.Call(ctx, tg, input.DispatchMouseEvent, input.DispatchMouseEventParams{Type: typ, X: x, Y: y, Button: input.MouseButtonLeft, Buttons: 1, ClickCount: 1})
+			return err
+		})); err != nil {
+			t.Fatal(err)
+		}
+	}
+	mouse(input.DispatchMouseEventTypeMousePressed, ends[0], ends[1])
+	mouse(input.DispatchMouseEventTypeMouseMoved, (ends[0]+ends[2])/2, (ends[1]+ends[3])/2)
+	mouse(input.DispatchMouseEventTypeMouseMoved, ends[2], ends[3])
+	mouse(input.DispatchMouseEventTypeMouseReleased, ends[2], ends[3])
+	got := eval[[]float64](t, tb, `["pf-x0", "pf-y0", "pf-x1", "pf-y1"].map(id => Number(document.getElementById(id).value))`)
+	// a pixel of the 0.4 m wide picture is under 1 mm: 2 mm covers rounding
+	for i, want := range []float64{0.1, 0.05, 0.3, 0.15} {
+		if math.Abs(got[i]-want) > 0.002 {
+			t.Errorf("dragged line ends %v, want near (0.1, 0.05) to (0.3, 0.15)", got)
+			break
+		}
+	}
+	if p := eval[string](t, tb, `document.getElementById("btn-profile").getAttribute("aria-pressed")`); p != "false" {
+		t.Errorf("the profile button stays pressed after the line is drawn")
+	}
+	if n := eval[int](t, tb, `document.querySelectorAll("#probes tbody tr").length`); n != 0 {
+		t.Errorf("drawing the profile pinned %d probes", n)
+	}
 	eval[bool](t, tb, `(document.getElementById("opt-arrows").click(), true)`)
 	tb.shot(t, "profile-arrows")
 	tb.noErrors(t)
