@@ -31,6 +31,15 @@ type piece struct {
 	corner int // corner index for corner pieces, -1 for smooth ones
 }
 
+// ipow returns z^n for n >= 0 by repeated multiplication.
+func ipow(z complex128, n int) complex128 {
+	r := complex(1, 0)
+	for ; n > 0; n-- {
+		r *= z
+	}
+	return r
+}
+
 func (p *piece) zeta(x, y float64) complex128 { return p.rho * complex(x-real(p.z0), y-imag(p.z0)) }
 
 // f returns f(zeta), f'(zeta), f”(zeta).
@@ -44,14 +53,7 @@ func (p *piece) f(z complex128) (f, d1, d2 complex128) {
 		case 1:
 			return z, 1, 0
 		}
-		zn2 := cmplx.Pow(z, complex(float64(n-2), 0))
-		if n == 2 {
-			zn2 = 1
-		} else if n == 3 {
-			zn2 = z
-		} else if n == 4 {
-			zn2 = z * z
-		}
+		zn2 := ipow(z, n-2)
 		return zn2 * z * z, complex(float64(n), 0) * zn2 * z, complex(float64(n*(n-1)), 0) * zn2
 	case logPiece:
 		l := cmplx.Log(z)
@@ -86,7 +88,7 @@ func (p *piece) f3(z complex128) complex128 {
 		if n < 3 {
 			return 0
 		}
-		return complex(float64(n*(n-1)*(n-2)), 0) * cmplx.Pow(z, complex(float64(n-3), 0))
+		return complex(float64(n*(n-1)*(n-2)), 0) * ipow(z, n-3)
 	case logPiece:
 		return 2 / (z * z * z)
 	case zlogPiece:
@@ -110,8 +112,8 @@ func (p *piece) third(x, y float64, ea, eb, ec complex128) float64 {
 func (p *piece) f2(z complex128) complex128 {
 	switch p.kind {
 	case powPiece:
-		n := complex(float64(p.n), 0)
-		return cmplx.Pow(z, n+2) / ((n + 1) * (n + 2))
+		n := float64(p.n)
+		return ipow(z, p.n+2) / complex((n+1)*(n+2), 0)
 	}
 	if z == 0 {
 		return 0

@@ -243,10 +243,20 @@ func (sp *sub) tailEstimate(n int) float64 {
 	for j := 0; j <= np; j++ {
 		s := sp.L * (1 - math.Cos(math.Pi*float64(j)/np)) / 2
 		sum := 0.0
-		for i := n / 2; i < n; i++ {
-			y0 := sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]
-			x, _ := sp.b.X(i, s)
-			sum += y0 * x
+		if sp.b.Uniform {
+			// lambda_i = lambda_0 + i pi/L: rotate from term n/2.
+			i0 := n / 2
+			sn, cs := math.Sincos(sp.b.Lambda[i0]*s + sp.b.Phi[i0])
+			ds, dc := math.Sincos(math.Pi * s / sp.L)
+			for i := i0; i < n; i++ {
+				sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * sn
+				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+			}
+		} else {
+			for i := n / 2; i < n; i++ {
+				x, _ := sp.b.X(i, s)
+				sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * x
+			}
 		}
 		diff = math.Max(diff, math.Abs(sum))
 	}
