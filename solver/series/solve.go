@@ -109,11 +109,11 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 			s.quad = quadratic{A: m.lap / 2, B: -m.lap * m.W / 2}
 		}
 	}
-	// Corner treatment, from the full one down to first order only when the
-	// pieces grow so large that adding them up would lose digits (large
-	// Biot numbers on short edges make the higher-order amplitudes grow
-	// like (beta L)^k).
-	for level := 2; level >= 0; level-- {
+	// Corner treatment, from the full one down to first order only, and at
+	// last to the angle functions alone, when the pieces grow so large
+	// that adding them up would lose digits (large Biot numbers on short
+	// edges make the amplitudes grow like (beta L)^k).
+	for level := 2; level >= -1; level-- {
 		s.pieces, s.third, s.jump = s.pieces[:0], [4]bool{}, [4]bool{}
 		s.cornerPieces(level)
 		if m.err != nil {
@@ -339,6 +339,9 @@ func (s *Solution) cornerPieces(level int) {
 		add := func(kind pieceKind, n int, coef complex128) {
 			s.pieces = append(s.pieces, piece{kind: kind, n: n, z0: z0, rho: rho, c: coef, corner: c})
 		}
+		if level < 0 && !(k1 == problem.Value && k2 == problem.Value) {
+			continue // last resort: the angle functions alone
+		}
 		switch {
 		case k1 == problem.Value && k2 == problem.Value:
 			f1, _, s1, _ := m.derivs(e1, c)
@@ -474,6 +477,9 @@ func (s *Solution) pieceMagnitude() float64 {
 // edge meets the other edge's homogeneous condition and the other edge's
 // residual vanishes.
 func (s *Solution) fitSmooth(level int) error {
+	if level < 0 {
+		return nil
+	}
 	m := s.m
 	S := math.Max(m.W, m.H) / 2
 	z0 := complex(m.W/2, m.H/2)
@@ -491,6 +497,9 @@ func (s *Solution) fitSmooth(level int) error {
 		k1, k2 := m.kinds[e1], m.kinds[e2]
 		x, y := m.cornerPoint(c)
 		ku, kx, ky := s.known(x, y, c)
+		if level < 0 && !(k1 == problem.Value && k2 == problem.Value) {
+			continue // last resort: the angle functions alone
+		}
 		switch {
 		case k1 == problem.Value && k2 == problem.Value:
 			f1, _, s1, _ := m.derivs(e1, c)
