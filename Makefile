@@ -9,6 +9,8 @@ CHROMIUM  ?= $(shell command -v chromium 2>/dev/null || echo /usr/bin/chromium)
 WASMEXEC  := $(GOROOT)/lib/wasm/wasm_exec.js
 GOJSEXEC  := $(GOROOT)/lib/wasm/go_js_wasm_exec
 FUZZTIME  ?= 10s
+# the build's name in reports: the commit it was built from
+RELEASE   ?= $(shell git describe --tags --always --dirty 2>/dev/null || echo unknown)
 NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
 
 .PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist bench bench-browser fuzz clean
@@ -23,7 +25,7 @@ site/checks.json: $(wildcard testdata/checks.json)
 	@if [ -f testdata/checks.json ]; then cp testdata/checks.json $@; else echo '{"cases": []}' > $@; fi
 
 site/app.wasm: $(shell find solver wasm -name '*.go' -not -name '*_test.go') go.mod go.sum
-	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-s -w' -o $@ ./wasm
+	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-s -w -X edgewise/solver/report.Release=$(RELEASE)' -o $@ ./wasm
 
 site/wasm_exec.js: $(WASMEXEC)
 	cp $< $@
