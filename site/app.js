@@ -585,12 +585,14 @@
       first = (window.edgewiseBoot && (await window.edgewiseBoot())) || (await demo());
       await load(first);
     } catch (e) {
+      if (e.cancelled) return; // the user edited before the first solve came back
       setStatus(e.message, "error");
-      if (first && typeof first === "object" && !lastGood) {
+      if (first && typeof first === "object" && !lastGood && !typed) {
         // show the project that did not solve, so it can be fixed
         try {
           EW.fill(first);
           typed = first;
+          previews(first);
           if (e.path !== undefined) EW.showError(e.path, e.col, e.message);
         } catch (_) { /* the form keeps its defaults */ }
       }

@@ -257,6 +257,12 @@ func TestPinProbe(t *testing.T) {
 	}
 	tb.waitFor(t, `document.querySelectorAll("#probes tbody tr").length === 2`, "a second probe from the keyboard")
 	tb.shot(t, "probes")
+	// removing the first leaves the second, in the table and the project
+	eval[bool](t, tb, `(document.querySelector('#probes button[aria-label="Remove probe P1"]').click(), true)`)
+	tb.waitFor(t, `document.querySelectorAll("#probes tbody tr").length === 1`, "the probe to go")
+	if l := eval[[]string](t, tb, `window.edgewise.project().probes.map(p => p.label)`); len(l) != 1 || l[0] != "P2" {
+		t.Errorf("probes after removing P1: %v, want [P2]", l)
+	}
 	tb.noErrors(t)
 }
 
