@@ -479,6 +479,7 @@
     ".ew-report figure{margin:.5rem 0}",
     ".ew-report img{max-width:100%;height:auto}",
     ".ew-report footer{margin-top:1.5rem;color:#555;font-size:.9em}",
+    ".ew-report-link{font-family:ui-monospace,monospace;font-size:.75em;word-break:break-all}",
     "@media print{.ew-report{padding:0;max-width:none}.ew-report table,.ew-report figure{break-inside:avoid}}",
   ].join("\n");
 
@@ -510,6 +511,11 @@
     return l;
   }
 
+  // reproduceLink is the share link of p (compressed when it is ready).
+  function reproduceLink(p) {
+    return pageURL() + fragmentFor(projectText(p));
+  }
+
   function closeReport() {
     if (reportEl) {
       for (const img of reportEl.querySelectorAll("img")) if (img.src.startsWith("blob:")) URL.revokeObjectURL(img.src);
@@ -523,6 +529,7 @@
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
     const date = new Date().toISOString().slice(0, 16).replace("T", " ") + " UTC";
+    await refreshLink(p).catch(() => {});
     const r = await engine("report", projectText(p), gridOptions(p, { date }));
     const rep = JSON.parse(r.report);
     reportData = { rep, svg: r.svg };
@@ -544,6 +551,9 @@
       rep.warnings && rep.warnings.length ? el("h2", { text: "Notes from the engine" }) : null,
       rep.warnings && rep.warnings.length ? list("ul", rep.warnings, "") : null,
       el("h2", { text: "Methods used" }), list("ol", rep.methods, ""),
+      el("h2", { text: "Reproduce" }),
+      el("p", {}, "This link holds the whole project; opening it in a browser shows the same project: ",
+        el("a", { class: "ew-report-link", href: reproduceLink(p), text: reproduceLink(p) })),
       el("footer", { text: "Computed with edgewise, entirely in the browser; nothing was sent to a server." }));
     document.body.append(reportEl);
     root.classList.add("ew-report-open");

@@ -243,10 +243,15 @@ func TestDownloads(t *testing.T) {
 				t.Errorf("report meta line %q", meta)
 			}
 			caps := fmt.Sprint(rep["captions"])
-			for _, w := range []string{"Inputs", "Edge conditions", "Extremes", "Flows", "Probes", "Accuracy"} {
+			for _, w := range []string{"Rectangle, material", "Edge conditions", "Extremes", "Flows", "Probes", "Accuracy"} {
 				if !strings.Contains(caps, w) {
 					t.Errorf("report has no %s table (captions %s)", w, caps)
 				}
+			}
+			// The report's link reopens the project.
+			if l := eval[string](t, tb, `document.querySelector("#ew-report .ew-report-link").href`); !strings.Contains(l, "#z=") ||
+				eval[string](t, tb, `window.edgewise.link()`) != l {
+				t.Errorf("report link %q is not the project's share link", l)
 			}
 			if n, _ := rep["methods"].(float64); n < 3 {
 				t.Errorf("report lists %v methods", rep["methods"])

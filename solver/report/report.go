@@ -98,7 +98,7 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 		Methods:  Methods(p, r),
 	}
 
-	rep.Inputs = Table{Caption: "Inputs", Head: []string{"input", "value"}}
+	rep.Inputs = Table{Caption: "Rectangle, material and source", Head: []string{"input", "value"}}
 	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
 	add(&rep.Inputs, "physics", p.Physics)
 	add(&rep.Inputs, with("width W", l.Length), num(p.Width))
