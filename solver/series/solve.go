@@ -295,12 +295,21 @@ var stencil = func() (w [4][7]float64) {
 		if err := x.SolveVec(a, rhs); err != nil {
 			panic("series: stencil: " + err.Error())
 		}
-		for j := 0; j < 7; j++ {
+		sum := 0.0
+		for j := 1; j < 7; j++ {
 			w[d][j] = x.AtVec(j)
+			sum += w[d][j]
 		}
+		w[d][0] = -sum // constants differentiate to exactly zero
 	}
 	return w
 }()
+
+// pieceFloor[k] is the size of a k-th order corner mismatch (times the
+// longer side^k, relative to the data scale) below which it is taken as
+// finite-difference noise (rounding grows like 256^k here) and no piece is
+// added: such a piece would change the series by about as little.
+var pieceFloor = [4]float64{0, 1e-11, 1e-8, 1e-6}
 
 // derivs returns the normalised data of edge e at the end touching corner
 // c, and its first three derivatives along the edge away from it
@@ -319,8 +328,8 @@ func (m *model) derivs(e problem.Side, c int) (f, d1, d2, d3 float64) {
 	}
 	var d [4]float64
 	for k := 1; k <= 3; k++ {
-		for j := range v {
-			d[k] += stencil[k][j] * v[j]
+		for j := 1; j < len(v); j++ {
+			d[k] += stencil[k][j] * (v[j] - v[0]) // weights sum to zero
 		}
 	}
 	return v[0], d[1] / h, d[2] / (h * h), d[3] / (h * h * h)
@@ -356,7 +365,7 @@ func (s *Solution) cornerPieces(level int) {
 				s.jumpFrom[c] = [2]float64{f1, f2}
 			}
 			b := -(s1 + s2 - m.lap) / math.Pi
-			if level >= 1 && math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
+			if level >= 1 && math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > pieceFloor[2]*s.scale {
 				add(z2logPiece, 0, complex(0, -b)) // b Im(zeta^2 log zeta)
 			}
 		case k1 != problem.Value && k2 != problem.Value:
@@ -366,7 +375,7 @@ func (s *Solution) cornerPieces(level int) {
 			f1, d1, _, _ := m.derivs(e1, c)
 			f2, d2, _, _ := m.derivs(e2, c)
 			mis := (-d1 + m.beta[e2]*f1) - (-d2 + m.beta[e1]*f2)
-			if math.Abs(mis)*math.Pow(math.Max(m.W, m.H), 2) > 1e-14*s.scale {
+			if math.Abs(mis)*math.Pow(math.Max(m.W, m.H), 2) > pieceFloor[2]*s.scale {
 				k := mis / math.Pi
 				add(z2logPiece, 0, complex(k, 0))
 				// On a convection edge beta times that piece leaves
@@ -386,7 +395,7 @@ func (s *Solution) cornerPieces(level int) {
 			beta := m.beta[ef]
 			L := math.Max(m.W, m.H)
 			a := ff - (-dv + beta*fv)
-			if math.Abs(a)*L > 1e-14*s.scale {
+			if math.Abs(a)*L > pieceFloor[1]*s.scale {
 				if ev == e1 {
 					add(zlogPiece, 0, complex(0, 2*a/math.Pi))
 				} else {
@@ -416,10 +425,10 @@ func (s *Solution) cornerPieces(level int) {
 			s.third[c] = true
 			// The pieces above add -a beta^2 to the other edge's r2.
 			m3 := -tv + beta*(sv-m.lap) + sf
-			if math.Abs(a)*L > 1e-14*s.scale {
+			if math.Abs(a)*L > pieceFloor[1]*s.scale {
 				m3 -= a * beta * beta
 			}
-			if math.Abs(m3)*L*L*L <= 1e-14*s.scale {
+			if math.Abs(m3)*L*L*L <= pieceFloor[3]*s.scale {
 				continue
 			}
 			if ev == e1 {
