@@ -351,6 +351,7 @@ func TestReportPrint(t *testing.T) {
 	})); err != nil {
 		t.Fatal(err)
 	}
+	tb.shot(t, "report-print")
 	for _, sel := range []string{"#ew-report", "#ew-report h1", "#ew-report img", "#ew-report table"} {
 		if !visible(t, tb, sel) {
 			t.Errorf("print view hides %s", sel)
@@ -587,6 +588,13 @@ func TestTamperedFragment(t *testing.T) {
 	last := tb.loadProject(t, strings.Replace(probed, `title: "Bracket`, `title: "last good project`, 1))
 	link := tb.shareLink(t)
 	z := link[strings.Index(link, "#z=")+3:]
+
+	// A damaged link pasted into the open tab changes nothing.
+	eval[bool](t, tb, `(location.hash = "#z=AAAA-not-a-project", true)`)
+	tb.until(t, `document.getElementById("ew-notice").textContent.includes("could not be opened")`, "the message about the pasted link")
+	if got := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(got, last) {
+		t.Errorf("a damaged pasted link changed the project to %v", got["title"])
+	}
 
 	deflated := func(text string) string {
 		var b bytes.Buffer
