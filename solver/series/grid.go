@@ -165,7 +165,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	// Angles only (the angle function alone, no gradient wanted) need one
 	// arctangent per node, shared by the four corners through symmetry;
 	// otherwise a complex logarithm per node.
-	needLogs, fullLogs := false, grad
+	needLogs, fullLogs := false, false
 	for c := range corner {
 		cr := &corner[c]
 		needLogs = needLogs || cr.logs
@@ -203,8 +203,8 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			}
 		}
 	}
-	if !grad && !fullLogs {
-		s.gridPiecesFast(nx, ny, u, poly, pz0, prho, &corner)
+	if !fullLogs {
+		s.gridPiecesFast(nx, ny, u, ux, uy, poly, pz0, prho, &corner)
 		return
 	}
 	q := s.quad
@@ -315,7 +315,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 // logarithmic pieces are angle functions: every power piece is folded into
 // one polynomial about the centre, expanded per row into powers of x, and
 // the four angle functions are summed in one pass from the shared table.
-func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [6]complex128, pz0, prho complex128, corner *[4]cornerSum) {
+func (s *Solution) gridPiecesFast(nx, ny int, u, ux, uy []float64, poly [6]complex128, pz0, prho complex128, corner *[4]cornerSum) {
 	m := s.m
 	hx, hy := m.W/float64(nx), m.H/float64(ny)
 	if prho == 0 {
@@ -359,6 +359,9 @@ func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [6]complex128, p
 			X := (x - real(pz0)) / S
 			row[i] += q.A*x*x + q.B*x + cy + ((((co[5]*X+co[4])*X+co[3])*X+co[2])*X+co[1])*X + co[0]
 		}
+		if ux != nil || uy != nil {
+			s.fastGradRow(j, nx, hx, y, ux, uy, poly, pz0, prho, corner)
+		}
 		if bi == [4]float64{} {
 			continue
 		}
@@ -368,6 +371,47 @@ func (s *Solution) gridPiecesFast(nx, ny int, u []float64, poly [6]complex128, p
 		cst := -(bi[1] + bi[3]) * math.Pi / 2
 		for i := range row {
 			row[i] += cst - bi[0]*t0[i] + bi[1]*t0[nx-i] - bi[2]*t3[nx-i] + bi[3]*t3[i]
+		}
+	}
+}
+
+// fastGradRow adds the gradient of the pieces on row j for gridPiecesFast:
+// u_x - i u_y = prho P'(zeta) + quadratic + sum_c rho_c b0 / zeta_c (the
+// corners' a0 + a1 zeta are folded into P),
+// with b0 / zeta_c = b0 conj(zeta_c) / |zeta_c|^2 (no complex division).
+// Corner nodes (zeta_c = 0) are left to Grid, which sets them from At.
+func (s *Solution) fastGradRow(j, nx int, hx, y float64, ux, uy []float64, poly [6]complex128, pz0, prho complex128, corner *[4]cornerSum) {
+	q := s.quad
+	k0 := j * (nx + 1)
+	for i := 0; i <= nx; i++ {
+		x := float64(i) * hx
+		z := prho * complex(x-real(pz0), y-imag(pz0))
+		pd := 5 * poly[5]
+		for n := 4; n >= 1; n-- {
+			pd = pd*z + complex(float64(n), 0)*poly[n]
+		}
+		g := complex(2*q.A*x+q.B, -(2*q.C*y+q.D)) + pd*prho
+		for c := range corner {
+			cr := &corner[c]
+			if !cr.on {
+				continue
+			}
+			var d complex128 // a0 and a1 are in the polynomial already
+			if cr.logs {
+				zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
+				r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+				if r2 == 0 {
+					continue
+				}
+				d += cr.b0 * complex(real(zc)/r2, -imag(zc)/r2)
+			}
+			g += d * cr.rho
+		}
+		if ux != nil {
+			ux[k0+i] += real(g)
+		}
+		if uy != nil {
+			uy[k0+i] -= imag(g)
 		}
 	}
 }

@@ -14,9 +14,11 @@ import (
 // Options controls the series.
 type Options struct {
 	// Tol is the target for the maximum truncation error of u, relative
-	// to the data scale (see Solution.Scale); default 1e-9.
+	// to the data scale (see Solution.Scale); default 1e-9 (also for
+	// zero, negative, NaN or infinite values).
 	Tol float64
-	// MaxTerms caps the terms of each sub-problem; default 4096.
+	// MaxTerms caps the terms of each sub-problem; default 4096 (values
+	// are held within 16..65536).
 	MaxTerms int
 }
 
@@ -67,15 +69,13 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
 	}
-	if opt.Tol <= 0 {
+	if !(opt.Tol > 0) || math.IsInf(opt.Tol, 1) {
 		opt.Tol = 1e-9
 	}
 	if opt.MaxTerms <= 0 {
 		opt.MaxTerms = 4096
 	}
-	if opt.MaxTerms < 16 {
-		opt.MaxTerms = 16
-	}
+	opt.MaxTerms = min(max(opt.MaxTerms, 16), 1<<16)
 	m := newModel(p)
 	s := &Solution{m: m}
 	s.scale = m.dataScale()
