@@ -215,10 +215,13 @@
     if (linkCache.text === text) return "#z=" + linkCache.frag;
     return "#j=" + toBase64url(new TextEncoder().encode(text));
   }
+  let linkJob = 0;
   async function refreshLink(project) {
     const text = projectText(project);
     if (linkCache.text === text) return;
+    const job = ++linkJob;
     const frag = toBase64url(await deflate(text));
+    if (job !== linkJob && linkCache.text !== null) return; // a newer project is being compressed
     linkCache.text = text;
     linkCache.frag = frag;
     showLink();
@@ -278,11 +281,29 @@
   if (embedMode) root.classList.add("ew-embed");
   let bootFromLink = false;
 
+  // keepPrevious offers the autosaved project back when a link replaces it
+  // (opening a link must not lose the work the autosave held).
+  function keepPrevious(linked) {
+    const saved = autosaved();
+    const prev = saved && (saved.project || saved.solved);
+    if (embedMode || !prev || projectText(prev) === projectText(linked)) return;
+    tell("Opened the project from the link. ", "info");
+    notice.append(el("button", {
+      type: "button", class: "ew-link-button", id: "ew-restore-previous",
+      text: "Go back to your previous project" + (prev.title ? " (" + String(prev.title).slice(0, 60) + ")" : ""),
+      onclick: () => act(async () => {
+        await api.load(prev);
+        tell("Restored your previous project.", "info");
+      }),
+    }));
+  }
+
   window.edgewiseBoot = async function () {
     if (first.key) {
       try {
         const p = await fragmentProject(first);
         bootFromLink = true;
+        keepPrevious(p);
         return p;
       } catch (e) {
         tell("This link's project could not be opened: " + e.message + ". " +
@@ -316,8 +337,15 @@
     if (!f.key) return;
     try {
       const p = await fragmentProject(f);
+      const before = api.project();
       await api.load(p);
       tell("Opened the project from the link.", "info");
+      if (before && projectText(before) !== projectText(p)) {
+        notice.append(" ", el("button", {
+          type: "button", class: "ew-link-button", id: "ew-restore-previous", text: "Undo",
+          onclick: () => act(async () => { await api.load(before); tell("Restored the previous project.", "info"); }),
+        }));
+      }
       if (!embedMode && storageOK) clearFragment();
     } catch (e) {
       tell("This link's project could not be opened: " + e.message + ". Your current project is unchanged.", "error");

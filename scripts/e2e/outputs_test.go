@@ -452,6 +452,8 @@ func TestShareLinkRoundTrip(t *testing.T) {
 	if !strings.HasPrefix(link, siteURL) || strings.Contains(link, "?") {
 		t.Errorf("link %q: want the page's address and the project in the fragment only", link)
 	}
+	// The autosave now holds other work: opening the link must not lose it.
+	mine := tb.loadProject(t, strings.Replace(probed, `title: "Bracket`, `title: "my own work`, 1))
 	fresh := newTab(t)
 	fresh.open(t, link)
 	if got := eval[map[string]any](t, fresh, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
@@ -460,10 +462,21 @@ func TestShareLinkRoundTrip(t *testing.T) {
 	if eval[bool](t, fresh, `window.__pwned === 1`) {
 		t.Errorf("the project title ran as markup")
 	}
+	if !strings.Contains(eval[string](t, fresh, `(document.getElementById("ew-restore-previous")||{}).textContent || ""`), "my own work") {
+		t.Errorf("no way back to the autosaved project after opening a link")
+	}
+	n := eval[int](t, fresh, `Number(document.documentElement.dataset.solved || 0)`)
+	if err := chromedp.Do(fresh.ctx, chromedp.Click(chromedp.ID("ew-restore-previous"))); err != nil {
+		t.Fatal(err)
+	}
+	fresh.waitSolved(t, n+1)
+	if got := eval[map[string]any](t, fresh, `window.edgewise.project()`); !reflect.DeepEqual(got, mine) {
+		t.Errorf("restored %v, want the autosaved work %v", got["title"], mine["title"])
+	}
 	// The same link, pasted into a tab that shows another project, loads it.
 	other := newTab(t)
 	other.open(t, siteURL)
-	n := eval[int](t, other, `Number(document.documentElement.dataset.solved || 0)`)
+	n = eval[int](t, other, `Number(document.documentElement.dataset.solved || 0)`)
 	eval[bool](t, other, `(location.hash = `+strconv.Quote(link[strings.Index(link, "#"):])+`, true)`)
 	other.waitSolved(t, n+1)
 	if got := eval[map[string]any](t, other, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
