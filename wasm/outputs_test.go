@@ -151,3 +151,24 @@ func TestChecksFunctions(t *testing.T) {
 		t.Errorf("foreign checks file accepted")
 	}
 }
+
+// A panic inside an outputs function comes back as an error reply.
+func TestRegisterCallRecovers(t *testing.T) {
+	if err := registerCall("edgewise_test_panic", func([]safejs.Value) (map[string]any, error) {
+		var m map[string]int
+		m["x"]++ // a nil map write: a runtime panic
+		return nil, nil
+	}); err != nil {
+		t.Fatal(err)
+	}
+	fn, _ := safejs.Global().Get("edgewise_test_panic")
+	reply, err := fn.Invoke()
+	if err != nil {
+		t.Fatal(err)
+	}
+	ok, _ := mustGet(t, reply, "ok").Bool()
+	msg, _ := mustGet(t, reply, "error").String()
+	if ok || !strings.Contains(msg, "internal error in edgewise_test_panic") {
+		t.Errorf("reply ok=%v error=%q, want an internal-error reply", ok, msg)
+	}
+}
