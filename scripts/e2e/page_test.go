@@ -195,7 +195,7 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 		t.Errorf("load rejected with %v, want the one-line error at edges.top.expr col 7", e)
 	}
 	// fixing it clears the error and solves again
-	tb.typeInto(t, "#in-left-expr", "40 + sinh(0)")
+	tb.pasteInto(t, "#in-left-expr", "40 + sinh(0)")
 	tb.waitSolved(t, n+1)
 	if eval[bool](t, tb, `!!document.querySelector("#err-left .caret")`) {
 		t.Errorf("the caret error stayed after the formula was fixed")
