@@ -624,7 +624,6 @@ func gidx(vert bool, nx, i, r int) int {
 
 // gridSub adds one sub-problem as separable products, row by row.
 func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64) {
-	m := s.m
 	vert := sp.side == problem.Left || sp.side == problem.Right
 	far := sp.side == problem.Top || sp.side == problem.Right
 	M, rows := nx, ny
@@ -715,5 +714,4 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 			}
 		}
 	}
-	_ = m
 }

@@ -34,40 +34,38 @@ func TestGridMatchesAt(t *testing.T) {
 
 func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
 	t.Helper()
-	{
-		s := mustSolve(t, p, Options{})
-		for _, sz := range [][2]int{{8, 5}, {16, 8}, {33, 20}, {64, 40}} {
-			nx, ny := sz[0], sz[1]
-			n := (nx + 1) * (ny + 1)
-			u, ux, uy := make([]float64, n), make([]float64, n), make([]float64, n)
-			s.Grid(nx, ny, u, ux, uy)
-			u2 := make([]float64, n)
-			s.Grid(nx, ny, u2, nil, nil) // value-only path
-			for k := range u {
-				if math.Abs(u2[k]-u[k]) > 1e-9*s.Scale() {
-					t.Fatalf("%s %dx%d node %d: u-only grid %.12g, with gradient %.12g", name, nx, ny, k, u2[k], u[k])
-				}
+	s := mustSolve(t, p, Options{})
+	for _, sz := range [][2]int{{8, 5}, {16, 8}, {33, 20}, {64, 40}} {
+		nx, ny := sz[0], sz[1]
+		n := (nx + 1) * (ny + 1)
+		u, ux, uy := make([]float64, n), make([]float64, n), make([]float64, n)
+		s.Grid(nx, ny, u, ux, uy)
+		u2 := make([]float64, n)
+		s.Grid(nx, ny, u2, nil, nil) // value-only path
+		for k := range u {
+			if math.Abs(u2[k]-u[k]) > 1e-9*s.Scale() {
+				t.Fatalf("%s %dx%d node %d: u-only grid %.12g, with gradient %.12g", name, nx, ny, k, u2[k], u[k])
 			}
-			gmax := 0.0
-			for k := range ux {
-				if !math.IsNaN(ux[k]) {
-					gmax = math.Max(gmax, math.Hypot(ux[k], uy[k]))
-				}
+		}
+		gmax := 0.0
+		for k := range ux {
+			if !math.IsNaN(ux[k]) {
+				gmax = math.Max(gmax, math.Hypot(ux[k], uy[k]))
 			}
-			for j := 0; j <= ny; j++ {
-				for i := 0; i <= nx; i++ {
-					x, y := p.W*float64(i)/float64(nx), p.H*float64(j)/float64(ny)
-					a, b, c := s.At(x, y)
-					k := j*(nx+1) + i
-					if math.Abs(a-u[k]) > 1e-9*s.Scale() {
-						t.Fatalf("%s %dx%d node (%d,%d): grid u %.12g, At %.12g", name, nx, ny, i, j, u[k], a)
-					}
-					if math.IsNaN(b) && math.IsNaN(ux[k]) {
-						continue
-					}
-					if math.Abs(b-ux[k]) > 1e-6*gmax || math.Abs(c-uy[k]) > 1e-6*gmax {
-						t.Fatalf("%s %dx%d node (%d,%d): grid grad (%g,%g), At (%g,%g)", name, nx, ny, i, j, ux[k], uy[k], b, c)
-					}
+		}
+		for j := 0; j <= ny; j++ {
+			for i := 0; i <= nx; i++ {
+				x, y := p.W*float64(i)/float64(nx), p.H*float64(j)/float64(ny)
+				a, b, c := s.At(x, y)
+				k := j*(nx+1) + i
+				if math.Abs(a-u[k]) > 1e-9*s.Scale() {
+					t.Fatalf("%s %dx%d node (%d,%d): grid u %.12g, At %.12g", name, nx, ny, i, j, u[k], a)
+				}
+				if math.IsNaN(b) && math.IsNaN(ux[k]) {
+					continue
+				}
+				if math.Abs(b-ux[k]) > 1e-6*gmax || math.Abs(c-uy[k]) > 1e-6*gmax {
+					t.Fatalf("%s %dx%d node (%d,%d): grid grad (%g,%g), At (%g,%g)", name, nx, ny, i, j, ux[k], uy[k], b, c)
 				}
 			}
 		}
