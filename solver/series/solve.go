@@ -6,8 +6,8 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/integrate/quad"
-	"gonum.org/v1/gonum/mat"
 
+	"edgewise/solver/linalg"
 	"edgewise/solver/problem"
 )
 
@@ -279,25 +279,25 @@ func (s *Solution) residual(e problem.Side, t float64) float64 {
 // for polynomials of degree 6 (solved once from the Vandermonde system).
 var stencil = func() (w [4][7]float64) {
 	for d := 1; d <= 3; d++ {
-		a := mat.NewDense(7, 7, nil)
-		rhs := mat.NewVecDense(7, nil)
+		a := make([]float64, 7*7)
+		rhs := make([]float64, 7)
 		fact := 1.0
 		for k := 0; k < 7; k++ {
 			for j := 0; j < 7; j++ {
-				a.Set(k, j, math.Pow(float64(j), float64(k)))
+				a[k*7+j] = math.Pow(float64(j), float64(k))
 			}
 			if k == d {
-				rhs.SetVec(k, fact)
+				rhs[k] = fact
 			}
 			fact *= float64(k + 1)
 		}
-		var x mat.VecDense
-		if err := x.SolveVec(a, rhs); err != nil {
+		x, err := linalg.Solve(a, rhs)
+		if err != nil {
 			panic("series: stencil: " + err.Error())
 		}
 		sum := 0.0
 		for j := 1; j < 7; j++ {
-			w[d][j] = x.AtVec(j)
+			w[d][j] = x[j]
 			sum += w[d][j]
 		}
 		w[d][0] = -sum // constants differentiate to exactly zero
@@ -598,9 +598,10 @@ func (s *Solution) fitSmooth(level int) error {
 	if m.err != nil || len(rows) == 0 {
 		return nil
 	}
-	// Equilibrate rows, then solve for the minimum-norm coefficients.
-	A := mat.NewDense(len(rows), len(cols), nil)
-	b := mat.NewVecDense(len(rows), nil)
+	// Equilibrate rows, then solve for the minimum-norm coefficients
+	// (singular values below 1e-12 of the largest count as zero).
+	A := make([]float64, len(rows)*len(cols))
+	b := make([]float64, len(rows))
 	for i, r := range rows {
 		nrm := 0.0
 		for _, v := range r {
@@ -611,29 +612,14 @@ func (s *Solution) fitSmooth(level int) error {
 			nrm = 1
 		}
 		for j, v := range r {
-			A.Set(i, j, v/nrm)
+			A[i*len(cols)+j] = v / nrm
 		}
-		b.SetVec(i, rhs[i]/nrm)
+		b[i] = rhs[i] / nrm
 	}
-	var svd mat.SVD
-	if !svd.Factorize(A, mat.SVDThin) {
-		return errors.New("series: corner fit failed")
-	}
-	sv := svd.Values(nil)
-	var u, v mat.Dense
-	svd.UTo(&u)
-	svd.VTo(&v)
-	coef := make([]float64, len(cols))
-	for k, sig := range sv {
-		if sig <= 1e-12*sv[0] {
-			continue
-		}
-		dot := 0.0
-		for i := 0; i < len(rows); i++ {
-			dot += u.At(i, k) * b.AtVec(i)
-		}
-		for j := range coef {
-			coef[j] += v.At(j, k) * dot / sig
+	coef := linalg.MinNorm(A, len(rows), len(cols), b, 1e-12)
+	for _, c := range coef {
+		if c-c != 0 {
+			return errors.New("series: corner fit failed")
 		}
 	}
 	for j := range cols {
