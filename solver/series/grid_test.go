@@ -35,7 +35,7 @@ func TestGridMatchesAt(t *testing.T) {
 func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
 	t.Helper()
 	s := mustSolve(t, p, Options{})
-	for _, sz := range [][2]int{{8, 5}, {16, 8}, {33, 20}, {64, 40}} {
+	for _, sz := range [][2]int{{1, 1}, {2, 1}, {1, 3}, {8, 5}, {16, 8}, {33, 20}, {64, 40}} {
 		nx, ny := sz[0], sz[1]
 		n := (nx + 1) * (ny + 1)
 		u, ux, uy := make([]float64, n), make([]float64, n), make([]float64, n)
