@@ -198,7 +198,16 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			y := float64(j) * hy
 			row := w.theta[j*(nx+1) : (j+1)*(nx+1)]
 			row[0] = math.Pi / 2
-			for i := 1; i < len(row); i++ {
+			i0 := 1
+			if hx == hy && j <= nx {
+				// Square cells: theta(i, j) = pi/2 - theta(j, i), the
+				// latter from an earlier row.
+				for i := 1; i < j; i++ {
+					row[i] = math.Pi/2 - w.theta[i*(nx+1)+j]
+				}
+				i0 = max(j, 1)
+			}
+			for i := i0; i < len(row); i++ {
 				row[i] = atanPos(y, float64(i)*hx)
 			}
 		}
