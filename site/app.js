@@ -142,6 +142,7 @@
     busyTimer = setTimeout(() => {
       root.classList.add("busy");
       setStatus("Solving…", "busy");
+      $("btn-stop").hidden = false;
     }, BUSY_MS);
     const [nx, ny] = detailGrid(job.project);
     call("solve", job.text, nx, ny, LEVELS).then(
@@ -152,6 +153,7 @@
       if (!running) {
         clearTimeout(busyTimer);
         root.classList.remove("busy");
+        $("btn-stop").hidden = true;
       }
       if (!running && queued) {
         const q = queued;
@@ -160,6 +162,21 @@
       }
     });
   }
+
+  // stop cancels the solve in flight and any waiting one; the last good
+  // picture stays.
+  function stop() {
+    if (queued) queued.reject(Object.assign(new Error("stopped"), { cancelled: true }));
+    queued = null;
+    if (!running) return;
+    running = null;
+    restart();
+    clearTimeout(busyTimer);
+    root.classList.remove("busy");
+    $("btn-stop").hidden = true;
+    setStatus("Stopped; the picture shows the last project that solved.", "error");
+  }
+  $("btn-stop").addEventListener("click", stop);
 
   // detailGrid returns the output grid the detail choice asks for: n
   // intervals along the longer side, the other in proportion (at least 2);

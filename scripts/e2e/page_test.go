@@ -613,3 +613,37 @@ func TestControlsLabelled(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// A long solve can be stopped with the button the page shows while it
+// works; the last good picture stays and the next edit solves as usual.
+func TestStopButton(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	before := eval[string](t, tb, `document.getElementById("field").toDataURL()`)
+	n := tb.solved(t)
+	eval[bool](t, tb, `(() => { const p = Object.assign(`+plate+`, {grid: {nx: 1024, ny: 1024}});
+	  p.edges.bottom.expr = "when(s < 0.13, 90, 30)"; p.edges.top.expr = "when(s < 0.27, 20, 60)";
+	  window.slow = window.edgewise.load(p).then(() => "solved", e => e.message);
+	  return true; })()`)
+	tb.waitFor(t, `!document.getElementById("btn-stop").hidden`, "the stop button")
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.ID("btn-stop"))); err != nil {
+		t.Fatal(err)
+	}
+	// (evaluating the promise waits for it to settle)
+	if msg := eval[string](t, tb, `window.slow`); msg == "solved" {
+		t.Errorf("the stopped load resolved")
+	}
+	if s := eval[string](t, tb, `document.getElementById("status").textContent`); !strings.HasPrefix(s, "Stopped") {
+		t.Errorf("status %q after stopping", s)
+	}
+	if !eval[bool](t, tb, `document.getElementById("btn-stop").hidden`) {
+		t.Errorf("the stop button stays after stopping")
+	}
+	if after := eval[string](t, tb, `document.getElementById("field").toDataURL()`); after != before {
+		t.Errorf("the picture changed after stopping; the last good one must stay")
+	}
+	tb.pasteInto(t, "#in-top-expr", "25")
+	tb.waitSolved(t, n+1)
+	tb.noErrors(t)
+}
