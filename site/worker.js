@@ -61,7 +61,12 @@ self.onmessage = async (ev) => {
     return;
   }
   if (msg.type === "call") {
-    await ready;
+    try {
+      await ready;
+    } catch (e) {
+      self.postMessage({ type: "reply", id: msg.id, value: { ok: false, error: "the engine did not start: " + String((e && e.message) || e) } });
+      return;
+    }
     const fn = self["edgewise_" + msg.fn];
     if (typeof fn !== "function") {
       self.postMessage({ type: "reply", id: msg.id, value: { ok: false, error: "no engine function " + msg.fn } });
