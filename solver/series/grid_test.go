@@ -151,3 +151,66 @@ func BenchmarkSolveGridMixed(b *testing.B) {
 		})
 	}
 }
+
+// classicalTerms is the largest term index the classical series of the
+// benchmark case needs for an error below 1e-6 at distance d from every
+// edge: with edge values up to 100 the tail after term n is below
+// (4*100/(n pi)) exp(-n pi d) / (1 - exp(-2 pi d)).
+func classicalTerms(d float64) int {
+	n := 1
+	for 400/(float64(n)*math.Pi)*math.Exp(-float64(n)*math.Pi*d)/(1-math.Exp(-2*math.Pi*d)) > 1e-6 {
+		n += 2
+	}
+	return n
+}
+
+// BenchmarkNaiveClassical: the textbook way, the classical series of each
+// edge (no corner treatment, so as many terms as 1e-6 at distance d from
+// the edges needs, see classicalTerms: d = 0.02, or d = 1/512, the first
+// interior row of the 513 x 513 grid) summed by the naive double loop over
+// points and terms, on n x n nodes; scale by (513/n)^2 to compare with
+// BenchmarkSolveGrid/513.
+func BenchmarkNaiveClassical(b *testing.B) {
+	vals := [4]float64{0, 50, 100, 20}
+	for _, c := range []struct {
+		name string
+		d    float64
+		n    int
+	}{{"d=0.02/33", 0.02, 33}, {"d=0.02/65", 0.02, 65}, {"d=1|512/33", 1.0 / 512, 33}} {
+		terms, n := classicalTerms(c.d), c.n
+		b.Run(c.name, func(b *testing.B) {
+			b.ReportMetric(float64((terms+1)/2), "odd-terms/edge")
+			u := make([]float64, n*n)
+			for b.Loop() {
+				for j := 0; j < n; j++ {
+					for i := 0; i < n; i++ {
+						x, y := float64(i)/float64(n-1), float64(j)/float64(n-1)
+						sum := 0.0
+						for e, v := range vals {
+							X, Y := rotateToTop(problem.Side(e), x, y)
+							for k := 1; k <= terms; k += 2 {
+								a := float64(k) * math.Pi
+								sum += v * 4 / a * math.Sin(a*X) * math.Exp(a*(Y-1)) * (1 - math.Exp(-2*a*Y)) / (1 - math.Exp(-2*a))
+							}
+						}
+						u[j*n+i] = sum
+					}
+				}
+			}
+		})
+	}
+}
+
+// rotateToTop maps (x, y) in the unit square so that edge e becomes the
+// top edge.
+func rotateToTop(e problem.Side, x, y float64) (X, Y float64) {
+	switch e {
+	case problem.Bottom:
+		return 1 - x, 1 - y
+	case problem.Left:
+		return y, 1 - x
+	case problem.Right:
+		return 1 - y, x
+	}
+	return x, y
+}
