@@ -16,8 +16,8 @@
 
   const DEBOUNCE_MS = 40; // keys faster than QUIET_MS apart: wait this long for the next
   const QUIET_MS = 60; // an edit this long after the last one solves at once
-  const BUSY_MS = 250; // show that the engine is working after this long
-  const CANCEL_MS = 600; // a stale solve running longer is cancelled
+  let BUSY_MS = 250; // show that the engine is working after this long
+  let CANCEL_MS = 600; // a stale solve running longer is cancelled
   const LEVELS = 12; // isoline levels asked for
 
   let current = null; // the last project that solved
@@ -338,12 +338,12 @@
     if (!S) return;
     for (const p of list) {
       const hit = (S.result.probes || []).find((q) => q.label === p.label && q.x === p.x && q.y === p.y);
-      let v, qx, qy, approx = false;
+      let v, gx, gy, qx, qy, approx = false;
       if (hit) {
-        v = hit.value; qx = hit.flux[0]; qy = hit.flux[1];
+        v = hit.value; gx = hit.gradient[0]; gy = hit.gradient[1]; qx = hit.flux[0]; qy = hit.flux[1];
       } else {
         const g = EW.sample(p.x, p.y);
-        v = g.u; qx = -S.kx * g.ux; qy = -S.ky * g.uy; approx = true;
+        v = g.u; gx = g.ux; gy = g.uy; qx = -S.kx * g.ux; qy = -S.ky * g.uy; approx = true;
       }
       const tr = document.createElement("tr");
       tr.dataset.label = p.label;
@@ -361,6 +361,7 @@
       td(EW.num(p.x, 4) + ", " + EW.num(p.y, 4));
       const vc = td((approx ? "≈ " : "") + EW.num(v, 6), "num probe-value");
       vc.dataset.value = String(v);
+      td(EW.num(Math.hypot(gx, gy), 4), "num");
       td(EW.num(Math.hypot(qx, qy), 4), "num");
       const cell = document.createElement("td");
       const b = document.createElement("button");
@@ -456,10 +457,11 @@
     if (r.balance === null || infinite.length) {
       balanceText = "not defined (an edge flow is infinite)";
     } else {
-      // against the largest flow, or the flow a unit-aspect block with the
-      // field's range across it would carry, if larger (all-zero flows
-      // otherwise give a meaningless 100 %)
-      const scale = Math.max(largest, Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value));
+      // against the largest flow or, when every flow is near zero (which
+      // would give a meaningless 100 %), the flow a unit-aspect block with
+      // the field's range across it would carry
+      const kdu = Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value);
+      const scale = largest > 1e-6 * kdu ? largest : kdu;
       balanceText = EW.num(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
     }
     add("Balance", balanceText, "balance").id = "res-balance";
@@ -588,6 +590,14 @@
     // the solve in flight: how long it has run (ms, or null) and how many
     // times a stale solve was cancelled by restarting the worker
     engineState: () => ({ running: running ? performance.now() - running.started : null, restarts }),
+    // tune changes when the page shows that it works and when a stale
+    // solve is cancelled (tests use short times so that they do not depend
+    // on how fast the engine is)
+    tune: (t) => {
+      if (t.busyMs >= 0) BUSY_MS = t.busyMs;
+      if (t.cancelMs >= 0) CANCEL_MS = t.cancelMs;
+      return { busyMs: BUSY_MS, cancelMs: CANCEL_MS };
+    },
     units: (physics) => (EW.unitsets || {})[physics || (typed || current || {}).physics],
   };
 

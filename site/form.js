@@ -187,6 +187,7 @@
       block.querySelector(".lbl-amb").textContent = "Ambient " + (u.value || "value") + " " + unit(u.value_unit);
     }
     $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(u.value_unit);
+    $("probe-head-g").textContent = (phys === "electrostatic" ? "Field strength" : EW.capital(u.gradient || "gradient")) + " " + unit(u.gradient_unit);
     $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " " + unit(u.flux_unit);
     document.documentElement.dataset.physics = phys;
   }

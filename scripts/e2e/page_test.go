@@ -356,14 +356,16 @@ func TestEditCancelsLongSolve(t *testing.T) {
 	tb.loadPlate(t)
 	n := tb.solved(t)
 	// the finest grid and steps inside two edges (slowly converging
-	// series) make the solve long: several seconds where a plain one takes
-	// tens of milliseconds
+	// series) make the solve long, most of a second or more where a plain
+	// one takes tens of milliseconds; short page timings keep the test
+	// independent of the engine's speed
+	eval[map[string]any](t, tb, `window.edgewiseInternal.tune({busyMs: 50, cancelMs: 100})`)
 	eval[bool](t, tb, `(() => { const p = Object.assign(`+plate+`, {grid: {nx: 1024, ny: 1024}});
 	  p.edges.bottom.expr = "when(s < 0.13, 90, 30)"; p.edges.top.expr = "when(s < 0.27, 20, 60)";
 	  window.slow = window.edgewise.load(p).then(() => "solved", e => e.message);
 	  return true; })()`)
 	tb.waitFor(t, `document.documentElement.classList.contains("busy") && /Solving/.test(document.getElementById("status").textContent)`, "the working sign")
-	tb.waitFor(t, `(window.edgewiseInternal.engineState().running || 0) > 700`, "the solve to run long")
+	tb.waitFor(t, `(window.edgewiseInternal.engineState().running || 0) > 150`, "the solve to run long")
 	tb.pasteInto(t, "#in-top-expr", "33")
 	tb.waitSolved(t, n+1)
 	st := eval[map[string]any](t, tb, `window.edgewiseInternal.engineState()`)
@@ -632,6 +634,7 @@ func stopButton(t *testing.T, url string) {
 	tb.loadPlate(t)
 	before := eval[string](t, tb, `document.getElementById("field").toDataURL()`)
 	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewiseInternal.tune({busyMs: 50})`)
 	eval[bool](t, tb, `(() => { const p = Object.assign(`+plate+`, {grid: {nx: 1024, ny: 1024}});
 	  p.edges.bottom.expr = "when(s < 0.13, 90, 30)"; p.edges.top.expr = "when(s < 0.27, 20, 60)";
 	  window.slow = window.edgewise.load(p).then(() => "solved", e => e.message);
