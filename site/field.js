@@ -626,6 +626,9 @@
     if (on) $("profile-box").open = true;
   }
   $("btn-profile").addEventListener("click", () => setProfileMode(!profileMode));
+  document.addEventListener("keydown", (ev) => {
+    if (ev.key === "Escape" && profileMode && !drag) setProfileMode(false);
+  });
   for (const id of ["pf-x0", "pf-y0", "pf-x1", "pf-y1"]) $(id).addEventListener("change", readProfileInputs);
   $("profile-box").addEventListener("toggle", () => {
     if (!S) return;

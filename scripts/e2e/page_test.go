@@ -15,6 +15,7 @@ import (
 	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/cdproto/input"
 	"github.com/chromedp/chromedp"
+	"github.com/chromedp/chromedp/kb"
 )
 
 // plate is a value-edge project (all the engine in use solves today) with
@@ -251,8 +252,20 @@ func TestPinProbe(t *testing.T) {
 	if math.Abs(got-want) > 1e-5*math.Abs(want) {
 		t.Errorf("pinned probe shows %q = %g, engine gives %g", shown, got, want)
 	}
-	// keyboard: focus the picture and press Enter pins a second probe
-	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID("field")), chromedp.KeyEvent("\r")); err != nil {
+	// keyboard: focus the picture, move the cursor with the arrows (the
+	// readout follows), press Enter to pin a second probe
+	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID("field")), chromedp.KeyEvent(kb.ArrowRight)); err != nil {
+		t.Fatal(err)
+	}
+	r1 := eval[string](t, tb, `document.getElementById("readout").textContent`)
+	if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(kb.ArrowUp), chromedp.KeyEvent(kb.ArrowUp)); err != nil {
+		t.Fatal(err)
+	}
+	r2 := eval[string](t, tb, `document.getElementById("readout").textContent`)
+	if r1 == r2 || !strings.Contains(r2, "temperature") {
+		t.Errorf("the readout did not follow the keyboard cursor: %q then %q", r1, r2)
+	}
+	if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(kb.Enter)); err != nil {
 		t.Fatal(err)
 	}
 	tb.waitFor(t, `document.querySelectorAll("#probes tbody tr").length === 2`, "a second probe from the keyboard")
