@@ -211,6 +211,7 @@
     };
     current = project;
     lastGood = solve;
+    markStale(false);
     EW.clearErrors();
     EW.show(solve);
     renderResults(solve);
@@ -223,6 +224,13 @@
       detail: { project, result, nx: r.nx, ny: r.ny, u: r.u, ux: r.ux, uy: r.uy },
     }));
     return result;
+  }
+
+  // markStale says whether the numbers on show belong to other inputs
+  // than those typed (a bad field, a project that does not solve).
+  function markStale(on) {
+    $("stale").hidden = !on;
+    document.querySelector(".numbers").classList.toggle("stale", on);
   }
 
   // ---- edits ----
@@ -242,6 +250,7 @@
       EW.clearErrors();
       for (const e of errors) EW.showError(e.path, 0, e.path + ": " + e.msg);
       setStatus("Fix the marked field; the picture shows the last project that solved.", "error");
+      if (lastGood) markStale(true);
       return;
     }
     // debounce only while keys come very fast (key repeat, a burst of
@@ -267,6 +276,7 @@
       EW.clearErrors();
       const placed = EW.showError(e.path, e.col, e.message);
       setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + e.message, "error");
+      if (lastGood) markStale(true);
       return;
     }
     apply(project, out.reply, out.ms, t0);

@@ -178,6 +178,9 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 	if len(lines) != 2 || lines[0] != "40 + sinn(s)" || lines[1] != "     ^" {
 		t.Errorf("caret block %q, want the formula and a caret under column 6", caret)
 	}
+	if eval[bool](t, tb, `document.getElementById("stale").hidden`) {
+		t.Errorf("the old numbers are not marked as belonging to the last project that solved")
+	}
 	if inv := eval[string](t, tb, `document.getElementById("in-left-expr").getAttribute("aria-invalid") || ""`); inv != "true" {
 		t.Errorf("the bad input is not marked aria-invalid")
 	}
@@ -200,6 +203,9 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 	tb.waitSolved(t, n+1)
 	if eval[bool](t, tb, `!!document.querySelector("#err-left .caret")`) {
 		t.Errorf("the caret error stayed after the formula was fixed")
+	}
+	if !eval[bool](t, tb, `document.getElementById("stale").hidden`) {
+		t.Errorf("the stale mark stayed after a solve")
 	}
 	tb.noErrors(t)
 }
