@@ -41,12 +41,10 @@
     return document.getElementById("ew-wasm") !== null;
   }
 
+  // the single file's engine, decoded once by the decoder the bundler puts
+  // beside it (scripts/bundle: base-85 text of the gzip-compressed engine)
   async function engineBytes() {
-    if (wasmBytes) return wasmBytes.slice(0);
-    const b64 = document.getElementById("ew-wasm").textContent.trim();
-    const bin = Uint8Array.from(atob(b64), (c) => c.charCodeAt(0));
-    const stream = new Blob([bin]).stream().pipeThrough(new DecompressionStream("gzip"));
-    wasmBytes = await new Response(stream).arrayBuffer();
+    if (!wasmBytes) wasmBytes = await window.edgewiseEngineBytes();
     return wasmBytes.slice(0);
   }
 

@@ -14,9 +14,10 @@
 //   - the worker's source (wasm_exec.js then worker.js) sits in
 //     <script type="text/plain" id="ew-worker">, and the page starts the
 //     worker from a Blob URL made from it;
-//   - the engine sits gzip-compressed and base64-encoded in
-//     <script type="application/octet-stream" id="ew-wasm">, which the page
-//     decodes with DecompressionStream("gzip");
+//   - the engine sits gzip-compressed and base-85-encoded (base85.go) in
+//     <script type="application/octet-stream" id="ew-wasm">; an inline
+//     decoder defines edgewiseEngineBytes(), which the page calls, and which
+//     undoes the gzip with DecompressionStream("gzip");
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks";
 //   - the Content-Security-Policy meta tag is replaced by one that allows
@@ -143,7 +144,9 @@ func Bundle(dir string) ([]byte, error) {
 	extra.WriteString(`<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+workerJS) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(demo) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(checks) + "</script>\n")
-	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + base64.StdEncoding.EncodeToString(gz.Bytes()) + "</script>\n")
+	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
+	extra.WriteString("<script>" + decode85JS + "</script>\n")
+	scriptHashes = append(scriptHashes, hash(decode85JS))
 	i := strings.LastIndex(html, "</body>")
 	if i < 0 {
 		return nil, fmt.Errorf("index.html has no </body>")

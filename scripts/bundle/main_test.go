@@ -49,9 +49,9 @@ func TestBundle(t *testing.T) {
 	if strings.Contains(html, `src="`) || strings.Contains(html, `href="style.css"`) {
 		t.Errorf("an outside script or stylesheet is left")
 	}
-	// the only </script> sequences are the real closing tags: 5 blocks
-	if n := strings.Count(html, "</script"); n != 5 {
-		t.Errorf("%d </script sequences, want 5 (app, worker, demo, checks, wasm)", n)
+	// the only </script> sequences are the real closing tags: 6 blocks
+	if n := strings.Count(html, "</script"); n != 6 {
+		t.Errorf("%d </script sequences, want 6 (app, worker, demo, checks, engine and its decoder)", n)
 	}
 	// every executable inline script and style is allowed by its hash in
 	// the policy (CSP Level 3, hash-source), and nothing else is
@@ -68,16 +68,12 @@ func TestBundle(t *testing.T) {
 	if strings.Contains(csp[1], "unsafe-inline") || strings.Contains(csp[1], "http") {
 		t.Errorf("policy too loose: %s", csp[1])
 	}
-	// the engine round-trips through base64 and gzip
+	// the engine round-trips through base 85 and gzip
 	w := regexp.MustCompile(`<script type="application/octet-stream" id="ew-wasm">([^<]*)</script>`).FindStringSubmatch(html)
 	if w == nil {
 		t.Fatal("no engine block")
 	}
-	gz, err := base64.StdEncoding.DecodeString(w[1])
-	if err != nil {
-		t.Fatal(err)
-	}
-	zr, err := gzip.NewReader(bytes.NewReader(gz))
+	zr, err := gzip.NewReader(bytes.NewReader(decode85(w[1])))
 	if err != nil {
 		t.Fatal(err)
 	}
