@@ -42,7 +42,7 @@ func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string 
 				r.Max.Value, u.ValueUnit, where, r.Max.X, r.Max.Y, BurnTemperature, u.ValueUnit))
 		}
 	case Electrostatic:
-		peak, x, y := peakGradient(out, nil)
+		peak, x, y := peakGradient(out)
 		kvmm := peak / 1e6
 		var msg string
 		switch {
@@ -64,11 +64,13 @@ func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string 
 		}
 	case Seepage:
 		for _, side := range problem.Sides {
-			ef := edgeFlow(r, side)
-			if pr.Edges[side].Kind != problem.Value || !ef.Finite || *ef.Flow >= 0 {
+			if pr.Edges[side].Kind != problem.Value {
 				continue // exit faces are value edges where water leaves
 			}
-			g, x, y := peakGradient(out, &side)
+			g, x, y, found := exitGradient(pr, out, side)
+			if !found {
+				continue
+			}
 			level := "below"
 			if g >= CriticalGradient {
 				level = "at or above"
@@ -80,46 +82,57 @@ func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string 
 				"so designs keep a wide margin below it.", g, side, x, y, level))
 		}
 		if singular {
-			list = append(list, "The hydraulic gradient is unbounded at a corner where the prescribed head jumps; exit "+
-				"gradients near that corner are larger than any grid value shows.")
+			list = append(list, "The hydraulic gradient is unbounded where the prescribed head jumps (at a corner or "+
+				"inside an edge); exit gradients near that point are larger than any grid value shows.")
 		}
 	}
 	return append(list, Deferral)
 }
 
-// peakGradient returns the largest gradient magnitude on the output grid,
-// or along one edge when side is not nil, and where it is.
-func peakGradient(out *Output, side *problem.Side) (peak, x, y float64) {
+// exitGradient returns the largest gradient magnitude on the output grid
+// along a value edge, over the nodes where water leaves the region through
+// it (the flux -K grad h points out of the region), and where; found is
+// false when nothing leaves through that edge. Nodes where the gradient is
+// unbounded (NaN: a jump of head) are left out.
+func exitGradient(pr *problem.Problem, out *Output, side problem.Side) (g, x, y float64, found bool) {
 	nx, ny := out.Nx, out.Ny
-	consider := func(i, j int) {
+	var i0, j0, di, dj, n int
+	var nxo, nyo float64 // outward normal
+	switch side {
+	case problem.Bottom:
+		i0, j0, di, dj, n, nxo, nyo = 0, 0, 1, 0, nx, 0, -1
+	case problem.Top:
+		i0, j0, di, dj, n, nxo, nyo = 0, ny, 1, 0, nx, 0, 1
+	case problem.Left:
+		i0, j0, di, dj, n, nxo, nyo = 0, 0, 0, 1, ny, -1, 0
+	default:
+		i0, j0, di, dj, n, nxo, nyo = nx, 0, 0, 1, ny, 1, 0
+	}
+	for t := 0; t <= n; t++ {
+		i, j := i0+t*di, j0+t*dj
 		k := j*(nx+1) + i
-		g := math.Hypot(out.Ux[k], out.Uy[k])
-		if g > peak {
-			peak, x, y = g, float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny)
+		gx, gy := out.Ux[k], out.Uy[k]
+		// outward flux -(Kx gx, Ky gy) . n > 0
+		if gx-gx != 0 || gy-gy != 0 || -(pr.Kx*gx*nxo+pr.Ky*gy*nyo) <= 0 {
+			continue
+		}
+		if m := math.Hypot(gx, gy); m > g {
+			g, x, y, found = m, float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny), true
 		}
 	}
-	switch {
-	case side == nil:
-		for j := 0; j <= ny; j++ {
-			for i := 0; i <= nx; i++ {
-				consider(i, j)
-			}
-		}
-	case *side == problem.Bottom || *side == problem.Top:
-		j := 0
-		if *side == problem.Top {
-			j = ny
-		}
+	return g, x, y, found
+}
+
+// peakGradient returns the largest gradient magnitude on the output grid
+// and where it is; nodes where it is unbounded (NaN) are left out.
+func peakGradient(out *Output) (peak, x, y float64) {
+	nx, ny := out.Nx, out.Ny
+	for j := 0; j <= ny; j++ {
 		for i := 0; i <= nx; i++ {
-			consider(i, j)
-		}
-	default:
-		i := 0
-		if *side == problem.Right {
-			i = nx
-		}
-		for j := 0; j <= ny; j++ {
-			consider(i, j)
+			k := j*(nx+1) + i
+			if g := math.Hypot(out.Ux[k], out.Uy[k]); g > peak {
+				peak, x, y = g, float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny)
+			}
 		}
 	}
 	return peak, x, y
@@ -128,16 +141,4 @@ func peakGradient(out *Output, side *problem.Side) (peak, x, y float64) {
 func onBoundary(pr *problem.Problem, x, y float64) bool {
 	tol := 1e-9 * max(pr.W, pr.H)
 	return x <= tol || y <= tol || pr.W-x <= tol || pr.H-y <= tol
-}
-
-func edgeFlow(r *Result, side problem.Side) EdgeFlow {
-	switch side {
-	case problem.Bottom:
-		return r.Edges.Bottom
-	case problem.Top:
-		return r.Edges.Top
-	case problem.Left:
-		return r.Edges.Left
-	}
-	return r.Edges.Right
 }

@@ -17,9 +17,9 @@ const CrossCheckGrid = 24
 // solution (Richardson-extrapolated from two grids) at the coarse grid's
 // nodes, leaving out the neighbourhood of corners where the finite
 // differences are not meant to be accurate: two coarse cells around every
-// corner, and a fifth of the shorter side around corners where prescribed
-// values jump.
-func crossCheck(pr *problem.Problem, f field, r *Result) {
+// corner, and a fifth of the shorter side around corners and points inside
+// edges where prescribed values jump.
+func crossCheck(pr *problem.Problem, f field, r *Result, inner []jump) {
 	nx, ny := fdcheck.Sizes(pr.W, pr.H, CrossCheckGrid)
 	g, _, err := fdcheck.Richardson(pr, nx, ny)
 	if err != nil {
@@ -42,6 +42,10 @@ func crossCheck(pr *problem.Problem, f field, r *Result) {
 		for i := 0; i <= nx; i++ {
 			x, y := float64(i)*hx, float64(j)*hy
 			skip := false
+			for _, jp := range inner {
+				jx, jy := pr.Point(jp.side, jp.s)
+				skip = skip || near(x, y, jx, jy, 0.2*min(pr.W, pr.H))
+			}
 			for c, xy := range corners {
 				if near(x, y, xy[0], xy[1], 2.01*math.Hypot(hx, hy)) ||
 					(jumps[c] && near(x, y, xy[0], xy[1], 0.2*min(pr.W, pr.H))) {

@@ -88,10 +88,11 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
 	settleCorners(pr, out)
-	out.Result = report(p, pr, f, out)
+	jumps := findJumps(pr)
+	out.Result = report(p, pr, f, out, jumps)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	if !opt.NoCrossCheck {
-		crossCheck(pr, f, &out.Result)
+		crossCheck(pr, f, &out.Result, jumps)
 	}
 	for _, v := range out.U {
 		if v-v != 0 {
@@ -141,7 +142,7 @@ func wrapEngineError(pr *problem.Problem, err error) error {
 }
 
 // report computes the result numbers from the solved field.
-func report(p *Project, pr *problem.Problem, f field, out *Output) Result {
+func report(p *Project, pr *problem.Problem, f field, out *Output, jumps []jump) Result {
 	r := Result{
 		Schema:   ResultSchema,
 		Probes:   []ProbeResult{},
@@ -160,8 +161,14 @@ func report(p *Project, pr *problem.Problem, f field, out *Output) Result {
 	}
 	r.SourceTotal = pr.Source * pr.W * pr.H
 	sum, finite := r.SourceTotal, true
+	for _, j := range jumps {
+		r.Warnings = append(r.Warnings, j.warning(pr.Length(j.side)))
+	}
 	for _, side := range problem.Sides {
 		q, ok := f.Flow(side)
+		for _, j := range jumps {
+			ok = ok && j.side != side // infinite at a jump inside the edge
+		}
 		ef := EdgeFlow{Finite: ok}
 		if ok {
 			ef.Flow = &q

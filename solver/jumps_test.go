@@ -1,0 +1,111 @@
+package solver
+
+import (
+	"strings"
+	"testing"
+
+	"edgewise/solver/problem"
+)
+
+func TestFindJumps(t *testing.T) {
+	p := &problem.Problem{W: 12, H: 4, Kx: 1, Ky: 1}
+	for _, s := range problem.Sides {
+		p.Edges[s] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
+	}
+	compile := func(src string) func(float64) float64 {
+		f, err := compileFormula(src, "test", func(s float64) (float64, float64) { return s, 4 }, 12, 4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return f
+	}
+	tests := []struct {
+		formula string
+		want    []float64 // places of the jumps on the top edge
+	}{
+		{"when(s < 6, 8, 2)", []float64{6}},
+		{"when(s < 2.5, 1, s < 7.25, 3, 0)", []float64{2.5, 7.25}},
+		{"8 - 6*rise(s, 6, 0.1)", nil},          // steep but smooth
+		{"8 - 6*rise(s, 6, 1e-6)", nil},         // very steep, still smooth
+		{"5 + sin(pi*s/W)", nil},                // smooth
+		{"readings(s, 0, 1, 6, 3, 12, 0)", nil}, // kinks are not jumps
+		{"when(s < 12, 1, 5)", nil},             // at the corner: the engine's business
+		{"floor(s/4)", []float64{4, 8}},
+	}
+	for _, tc := range tests {
+		p.Edges[problem.Top].F = compile(tc.formula)
+		got := findJumps(p)
+		if len(got) != len(tc.want) {
+			t.Errorf("%s: jumps %+v, want at %v", tc.formula, got, tc.want)
+			continue
+		}
+		for _, w := range tc.want {
+			found := false
+			for _, j := range got {
+				found = found || (j.side == problem.Top && j.s > w-1e-9 && j.s < w+1e-9)
+			}
+			if !found {
+				t.Errorf("%s: jumps %+v, want one at s = %g", tc.formula, got, w)
+			}
+		}
+	}
+}
+
+// A step inside a value edge makes that edge's flow infinite; the result
+// says so, suggests a smooth step, and leaves the balance out.
+func TestJumpInsideEdgeInResult(t *testing.T) {
+	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"seepage","width":12,"height":4,"conductivity":1e-5,
+	 "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"value","expr":"when(s < 6, 8, 2)"},
+	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s Solver
+	out, err := s.Solve(p, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := out.Result
+	if r.Edges.Top.Finite || r.Edges.Top.Flow != nil || r.Balance != nil {
+		t.Errorf("top flow %+v, balance %v: want infinite and no balance", r.Edges.Top, r.Balance)
+	}
+	w := strings.Join(r.Warnings, "\n")
+	if !strings.Contains(w, "jumps from 8 to 2 at s = 6") || !strings.Contains(w, "8 + (-6)*rise(s, 6, 0.12)") {
+		t.Errorf("warnings %q", r.Warnings)
+	}
+	// the suggested formula is itself valid and smooth
+	p.Edges.Top.Expr = "8 + (-6)*rise(s, 6, 0.12)"
+	out, err = s.Solve(p, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !out.Result.Edges.Top.Finite || out.Result.Balance == nil {
+		t.Errorf("smoothed step: top %+v balance %v", out.Result.Edges.Top, out.Result.Balance)
+	}
+}
+
+// The exit-gradient caution looks at every place where water leaves
+// through a value edge, also when the edge as a whole takes water in (a
+// head that falls along the top edge: in at the high end, out at the low).
+func TestExitGradientWhereWaterLeaves(t *testing.T) {
+	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"seepage","width":12,"height":4,"conductivity":1e-5,
+	 "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"value","expr":"8 - 6*rise(s, 6, 1)"},
+	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s Solver
+	out, err := s.Solve(p, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := strings.Join(out.Result.Cautions, "\n")
+	if !strings.Contains(c, "Exit gradient") || !strings.Contains(c, "top edge") {
+		t.Fatalf("cautions %q, want an exit gradient on the top edge", out.Result.Cautions)
+	}
+	// water leaves on the low side (x > 6); the reported place is there
+	g, x, _, found := exitGradient(&problem.Problem{W: 12, H: 4, Kx: 1e-5, Ky: 1e-5}, out, problem.Top)
+	if !found || x <= 6 || g <= 0 {
+		t.Errorf("exit gradient %g at x = %g, want on the low side x > 6", g, x)
+	}
+}
