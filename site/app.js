@@ -387,6 +387,23 @@
 
   // ---- results ----
 
+  // kvRow appends a term and its value (with an optional note) to a
+  // description list and returns the value's element.
+  function kvRow(dl, k, v, note) {
+    const dt = document.createElement("dt");
+    dt.textContent = k;
+    const dd = document.createElement("dd");
+    dd.textContent = v;
+    if (note) {
+      const s = document.createElement("span");
+      s.className = "note";
+      s.textContent = " " + note;
+      dd.append(s);
+    }
+    dl.append(dt, dd);
+    return dd;
+  }
+
   function renderResults(S) {
     const r = S.result, u = S.units || {}, p = S.project;
     const box = $("results");
@@ -395,20 +412,7 @@
     const at = (e) => "at x = " + EW.num(e.x, 4) + ", y = " + EW.num(e.y, 4) + " " + L;
     const dl = document.createElement("dl");
     dl.className = "kv";
-    const row = (k, v, note) => {
-      const dt = document.createElement("dt");
-      dt.textContent = k;
-      const dd = document.createElement("dd");
-      dd.textContent = v;
-      if (note) {
-        const s = document.createElement("span");
-        s.className = "note";
-        s.textContent = " " + note;
-        dd.append(s);
-      }
-      dl.append(dt, dd);
-      return dd;
-    };
+    const row = (k, v, note) => kvRow(dl, k, v, note);
     row("Highest " + (u.value || "value"), EW.withUnit(EW.num(r.max.value, 5), vu), at(r.max)).id = "res-max";
     row("Lowest " + (u.value || "value"), EW.withUnit(EW.num(r.min.value, 5), vu), at(r.min)).id = "res-min";
     row("Mean " + (u.value || "value"), EW.withUnit(EW.num(r.mean, 5), vu), "over the rectangle").id = "res-mean";
@@ -491,19 +495,7 @@
     da.className = "kv";
     box.append(ha, da);
     const acc = r.accuracy || {};
-    const row2 = (k, v, note) => {
-      const dt = document.createElement("dt");
-      dt.textContent = k;
-      const dd = document.createElement("dd");
-      dd.textContent = v;
-      if (note) {
-        const s = document.createElement("span");
-        s.className = "note";
-        s.textContent = " " + note;
-        dd.append(s);
-      }
-      da.append(dt, dd);
-    };
+    const row2 = (k, v, note) => kvRow(da, k, v, note);
     row2("Series terms", String(acc.terms));
     row2("Error estimate", EW.withUnit(EW.num(acc.estimate, 2), vu), "largest, away from singular corners");
     if (acc.crosscheck !== null && acc.crosscheck !== undefined) {

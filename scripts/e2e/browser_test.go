@@ -228,3 +228,22 @@ const canvasColours = `(() => {
   for (let i = 0; i < d.length; i += 4 * 7) seen.add((d[i] << 16) | (d[i+1] << 8) | d[i+2]);
   return seen.size;
 })()`
+
+// bothPages runs f as subtests on the served site and on the single
+// offline file opened from disk.
+func bothPages(t *testing.T, f func(t *testing.T, url string)) {
+	for _, c := range []struct{ name, url string }{
+		{"served", siteURL},
+		{"offline file", "file://" + filepath.Join(root, "dist", "edgewise.html")},
+	} {
+		t.Run(c.name, func(t *testing.T) { f(t, c.url) })
+	}
+}
+
+// pageName names the page a URL opens, for screenshots.
+func pageName(url string) string {
+	if strings.HasPrefix(url, "file:") {
+		return "offline-file"
+	}
+	return "served"
+}

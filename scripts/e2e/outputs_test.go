@@ -143,161 +143,152 @@ func visible(t *testing.T, tb *tab, sel string) bool {
 // node or probe, the SVG is well-formed XML, the PNG has the chosen width,
 // the report holds its parts.
 func TestDownloads(t *testing.T) {
-	for _, c := range []struct{ name, url string }{
-		{"served", ""},
-		{"offline file", "file"},
-	} {
-		t.Run(c.name, func(t *testing.T) {
-			tb := newTab(t)
-			u := siteURL
-			if c.url == "file" {
-				u = "file://" + filepath.Join(root, "dist", "edgewise.html")
-			}
-			tb.open(t, u)
-			d := tb.catchDownloads(t)
-			want := tb.loadProject(t, probed)
+	bothPages(t, func(t *testing.T, u string) {
+		tb := newTab(t)
+		tb.open(t, u)
+		d := tb.catchDownloads(t)
+		want := tb.loadProject(t, probed)
 
-			// The project file re-loads to the same project.
-			name, data := d.click(t, tb, "#ew-dl-project")
-			if !strings.HasSuffix(name, ".edgewise.json") {
-				t.Errorf("project file named %q", name)
-			}
-			var got map[string]any
-			if err := json.Unmarshal(data, &got); err != nil {
-				t.Fatalf("project file is not JSON: %v", err)
-			}
-			if !reflect.DeepEqual(got, want) {
-				t.Errorf("project file %v\nwant %v", got, want)
-			}
-			eval[map[string]any](t, tb, `window.edgewise.load(`+string(data)+`)`)
-			if again := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(again, want) {
-				t.Errorf("re-loaded project %v\nwant %v", again, want)
-			}
+		// The project file re-loads to the same project.
+		name, data := d.click(t, tb, "#ew-dl-project")
+		if !strings.HasSuffix(name, ".edgewise.json") {
+			t.Errorf("project file named %q", name)
+		}
+		var got map[string]any
+		if err := json.Unmarshal(data, &got); err != nil {
+			t.Fatalf("project file is not JSON: %v", err)
+		}
+		if !reflect.DeepEqual(got, want) {
+			t.Errorf("project file %v\nwant %v", got, want)
+		}
+		eval[map[string]any](t, tb, `window.edgewise.load(`+string(data)+`)`)
+		if again := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(again, want) {
+			t.Errorf("re-loaded project %v\nwant %v", again, want)
+		}
 
-			// Field CSV: a header naming columns and units, a row per node.
-			name, data = d.click(t, tb, "#ew-dl-field")
-			rows, err := csv.NewReader(bytes.NewReader(data)).ReadAll()
-			if err != nil {
-				t.Fatalf("%s: %v", name, err)
-			}
-			head := strings.Join(rows[0], "|")
-			if head != "x [m]|y [m]|temperature [°C]|grad_x [K/m]|grad_y [K/m]|flux_x [W/m²]|flux_y [W/m²]" &&
-				!strings.HasPrefix(head, "x [m]|y [m]|temperature [°C]|grad_x") {
-				t.Errorf("field CSV header %q", head)
-			}
-			if len(rows) != 1+21*11 {
-				t.Errorf("field CSV has %d rows, want a header and 231 nodes (grid 20 x 10)", len(rows))
-			}
-			// The bottom edge holds 90 exactly (a value edge; away from the
-			// corners, so no jump is averaged in).
-			if v, err := strconv.ParseFloat(rows[1+10][2], 64); err != nil || v < 90-1e-6 || v > 90+1e-6 {
-				t.Errorf("bottom-middle node = %q, want 90", rows[1+10][2])
-			}
-			if x, _ := strconv.ParseFloat(rows[1+10][0], 64); x < 0.2-1e-12 || x > 0.2+1e-12 {
-				t.Errorf("node 10 of the bottom row at x = %q, want 0.2", rows[1+10][0])
-			}
+		// Field CSV: a header naming columns and units, a row per node.
+		name, data = d.click(t, tb, "#ew-dl-field")
+		rows, err := csv.NewReader(bytes.NewReader(data)).ReadAll()
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		head := strings.Join(rows[0], "|")
+		if head != "x [m]|y [m]|temperature [°C]|grad_x [K/m]|grad_y [K/m]|flux_x [W/m²]|flux_y [W/m²]" &&
+			!strings.HasPrefix(head, "x [m]|y [m]|temperature [°C]|grad_x") {
+			t.Errorf("field CSV header %q", head)
+		}
+		if len(rows) != 1+21*11 {
+			t.Errorf("field CSV has %d rows, want a header and 231 nodes (grid 20 x 10)", len(rows))
+		}
+		// The bottom edge holds 90 exactly (a value edge; away from the
+		// corners, so no jump is averaged in).
+		if v, err := strconv.ParseFloat(rows[1+10][2], 64); err != nil || v < 90-1e-6 || v > 90+1e-6 {
+			t.Errorf("bottom-middle node = %q, want 90", rows[1+10][2])
+		}
+		if x, _ := strconv.ParseFloat(rows[1+10][0], 64); x < 0.2-1e-12 || x > 0.2+1e-12 {
+			t.Errorf("node 10 of the bottom row at x = %q, want 0.2", rows[1+10][0])
+		}
 
-			// Probes CSV: the labels as text (a formula-like one guarded).
-			_, data = d.click(t, tb, "#ew-dl-probes")
+		// Probes CSV: the labels as text (a formula-like one guarded).
+		_, data = d.click(t, tb, "#ew-dl-probes")
+		rows, err = csv.NewReader(bytes.NewReader(data)).ReadAll()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(rows) != 3 || rows[0][0] != "label" || rows[1][0] != "'=P1, left" || rows[2][0] != "P2" {
+			t.Errorf("probes CSV %q", rows)
+		}
+
+		// SVG: well-formed XML with an svg root, isolines and the title as text.
+		name, data = d.click(t, tb, "#ew-dl-svg")
+		if !strings.HasSuffix(name, ".svg") {
+			t.Errorf("SVG named %q", name)
+		}
+		checkSVG(t, data)
+
+		// PNG at the chosen width.
+		eval[bool](t, tb, `(() => { const s = document.getElementById("ew-png-width"); s.value = "800"; return true; })()`)
+		name, data = d.click(t, tb, "#ew-dl-png")
+		img, err := png.Decode(bytes.NewReader(data))
+		if err != nil {
+			t.Fatalf("%s is not a PNG: %v", name, err)
+		}
+		if w := img.Bounds().Dx(); w != 800 {
+			t.Errorf("PNG is %d px wide, want 800", w)
+		}
+
+		// The report: title, date, version, inputs, picture, tables,
+		// methods; then its HTML download.
+		if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-btn"))); err != nil {
+			t.Fatal(err)
+		}
+		tb.until(t, `!!document.querySelector("#ew-report img") && document.querySelector("#ew-report img").complete && document.querySelector("#ew-report img").naturalWidth > 0`, "the report's picture")
+		rep := eval[map[string]any](t, tb, `(() => { const r = document.getElementById("ew-report");
+		  return {h1: r.querySelector("h1").textContent, meta: r.querySelector(".ew-meta").textContent,
+		    captions: [...r.querySelectorAll("caption")].map(c => c.textContent),
+		    methods: r.querySelectorAll("ol li").length, imgs: r.querySelectorAll("img").length,
+		    pwned: window.__pwned === 1}; })()`)
+		if rep["h1"] != want["title"] {
+			t.Errorf("report title %q, want the project's %q", rep["h1"], want["title"])
+		}
+		if meta, _ := rep["meta"].(string); !strings.Contains(meta, "Date: ") || !strings.Contains(meta, "edgewise ") {
+			t.Errorf("report meta line %q", meta)
+		}
+		caps := fmt.Sprint(rep["captions"])
+		for _, w := range []string{"Rectangle, material", "Edge conditions", "Extremes", "Flows", "Probes", "Accuracy"} {
+			if !strings.Contains(caps, w) {
+				t.Errorf("report has no %s table (captions %s)", w, caps)
+			}
+		}
+		// The report's link reopens the project.
+		if l := eval[string](t, tb, `document.querySelector("#ew-report .ew-report-link").href`); !strings.Contains(l, "#z=") ||
+			eval[string](t, tb, `window.edgewise.link()`) != l {
+			t.Errorf("report link %q is not the project's share link", l)
+		}
+		if n, _ := rep["methods"].(float64); n < 3 {
+			t.Errorf("report lists %v methods", rep["methods"])
+		}
+		if rep["pwned"] == true {
+			t.Errorf("the project title ran as markup")
+		}
+		tb.shot(t, "report-"+pageName(u))
+		name, data = d.click(t, tb, "#ew-report-html")
+		html := string(data)
+		if !strings.HasSuffix(name, "-report.html") || !strings.Contains(html, "Content-Security-Policy") ||
+			!strings.Contains(html, "data:image/svg+xml;base64,") || strings.Contains(html, "<script") ||
+			!strings.Contains(html, "&lt;img src=x") {
+			t.Errorf("report HTML %s: %.300s", name, html)
+		}
+		if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-close"))); err != nil {
+			t.Fatal(err)
+		}
+		if eval[bool](t, tb, `!!document.getElementById("ew-report")`) {
+			t.Errorf("the report did not close")
+		}
+		// The field CSV follows the page's detail choice.
+		if eval[bool](t, tb, `!!document.getElementById("opt-detail")`) {
+			n := eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
+			eval[bool](t, tb, `(() => { const s = document.getElementById("opt-detail"); s.value = "100";
+			  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+			tb.waitSolved(t, n+1)
+			grid := eval[[]int](t, tb, `[window.edgewiseInternal.last().nx, window.edgewiseInternal.last().ny]`)
+			_, data = d.click(t, tb, "#ew-dl-field")
 			rows, err = csv.NewReader(bytes.NewReader(data)).ReadAll()
 			if err != nil {
 				t.Fatal(err)
 			}
-			if len(rows) != 3 || rows[0][0] != "label" || rows[1][0] != "'=P1, left" || rows[2][0] != "P2" {
-				t.Errorf("probes CSV %q", rows)
+			if grid[0] != 100 || len(rows) != 1+(grid[0]+1)*(grid[1]+1) {
+				t.Errorf("detail 100: page grid %v, field CSV %d rows", grid, len(rows))
 			}
-
-			// SVG: well-formed XML with an svg root, isolines and the title as text.
-			name, data = d.click(t, tb, "#ew-dl-svg")
-			if !strings.HasSuffix(name, ".svg") {
-				t.Errorf("SVG named %q", name)
+		}
+		if strings.HasPrefix(u, "file:") {
+			if bad := outsideRequests(tb.requests(), "file"); len(bad) > 0 {
+				t.Errorf("requests outside the file: %v", bad)
 			}
-			checkSVG(t, data)
-
-			// PNG at the chosen width.
-			eval[bool](t, tb, `(() => { const s = document.getElementById("ew-png-width"); s.value = "800"; return true; })()`)
-			name, data = d.click(t, tb, "#ew-dl-png")
-			img, err := png.Decode(bytes.NewReader(data))
-			if err != nil {
-				t.Fatalf("%s is not a PNG: %v", name, err)
-			}
-			if w := img.Bounds().Dx(); w != 800 {
-				t.Errorf("PNG is %d px wide, want 800", w)
-			}
-
-			// The report: title, date, version, inputs, picture, tables,
-			// methods; then its HTML download.
-			if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-btn"))); err != nil {
-				t.Fatal(err)
-			}
-			tb.until(t, `!!document.querySelector("#ew-report img") && document.querySelector("#ew-report img").complete && document.querySelector("#ew-report img").naturalWidth > 0`, "the report's picture")
-			rep := eval[map[string]any](t, tb, `(() => { const r = document.getElementById("ew-report");
-			  return {h1: r.querySelector("h1").textContent, meta: r.querySelector(".ew-meta").textContent,
-			    captions: [...r.querySelectorAll("caption")].map(c => c.textContent),
-			    methods: r.querySelectorAll("ol li").length, imgs: r.querySelectorAll("img").length,
-			    pwned: window.__pwned === 1}; })()`)
-			if rep["h1"] != want["title"] {
-				t.Errorf("report title %q, want the project's %q", rep["h1"], want["title"])
-			}
-			if meta, _ := rep["meta"].(string); !strings.Contains(meta, "Date: ") || !strings.Contains(meta, "edgewise ") {
-				t.Errorf("report meta line %q", meta)
-			}
-			caps := fmt.Sprint(rep["captions"])
-			for _, w := range []string{"Rectangle, material", "Edge conditions", "Extremes", "Flows", "Probes", "Accuracy"} {
-				if !strings.Contains(caps, w) {
-					t.Errorf("report has no %s table (captions %s)", w, caps)
-				}
-			}
-			// The report's link reopens the project.
-			if l := eval[string](t, tb, `document.querySelector("#ew-report .ew-report-link").href`); !strings.Contains(l, "#z=") ||
-				eval[string](t, tb, `window.edgewise.link()`) != l {
-				t.Errorf("report link %q is not the project's share link", l)
-			}
-			if n, _ := rep["methods"].(float64); n < 3 {
-				t.Errorf("report lists %v methods", rep["methods"])
-			}
-			if rep["pwned"] == true {
-				t.Errorf("the project title ran as markup")
-			}
-			tb.shot(t, "report-"+strings.ReplaceAll(c.name, " ", "-"))
-			name, data = d.click(t, tb, "#ew-report-html")
-			html := string(data)
-			if !strings.HasSuffix(name, "-report.html") || !strings.Contains(html, "Content-Security-Policy") ||
-				!strings.Contains(html, "data:image/svg+xml;base64,") || strings.Contains(html, "<script") ||
-				!strings.Contains(html, "&lt;img src=x") {
-				t.Errorf("report HTML %s: %.300s", name, html)
-			}
-			if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-close"))); err != nil {
-				t.Fatal(err)
-			}
-			if eval[bool](t, tb, `!!document.getElementById("ew-report")`) {
-				t.Errorf("the report did not close")
-			}
-			// The field CSV follows the page's detail choice.
-			if eval[bool](t, tb, `!!document.getElementById("opt-detail")`) {
-				n := eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
-				eval[bool](t, tb, `(() => { const s = document.getElementById("opt-detail"); s.value = "100";
-				  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
-				tb.waitSolved(t, n+1)
-				grid := eval[[]int](t, tb, `[window.edgewiseInternal.last().nx, window.edgewiseInternal.last().ny]`)
-				_, data = d.click(t, tb, "#ew-dl-field")
-				rows, err = csv.NewReader(bytes.NewReader(data)).ReadAll()
-				if err != nil {
-					t.Fatal(err)
-				}
-				if grid[0] != 100 || len(rows) != 1+(grid[0]+1)*(grid[1]+1) {
-					t.Errorf("detail 100: page grid %v, field CSV %d rows", grid, len(rows))
-				}
-			}
-			if c.url == "file" {
-				if bad := outsideRequests(tb.requests(), "file"); len(bad) > 0 {
-					t.Errorf("requests outside the file: %v", bad)
-				}
-			} else if bad := outsideRequests(tb.requests(), siteURL); len(bad) > 0 {
-				t.Errorf("requests outside the page's origin: %v", bad)
-			}
-		})
-	}
+		} else if bad := outsideRequests(tb.requests(), siteURL); len(bad) > 0 {
+			t.Errorf("requests outside the page's origin: %v", bad)
+		}
+	})
 }
 
 func checkSVG(t *testing.T, data []byte) {
@@ -660,80 +651,71 @@ var knownEngineIssues = map[string]string{}
 // The checks panel runs every published case in the browser, shows each
 // against its published value with the source, and offers the record.
 func TestChecksPanel(t *testing.T) {
-	for _, c := range []struct{ name, url string }{
-		{"served", ""},
-		{"offline file", "file"},
-	} {
-		t.Run(c.name, func(t *testing.T) {
-			tb := newTab(t)
-			u := siteURL
-			if c.url == "file" {
-				u = "file://" + filepath.Join(root, "dist", "edgewise.html")
+	bothPages(t, func(t *testing.T, u string) {
+		tb := newTab(t)
+		tb.open(t, u)
+		d := tb.catchDownloads(t)
+		data, err := os.ReadFile(filepath.Join(root, "testdata", "checks.json"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var file struct {
+			Cases []struct {
+				ID, Source string
 			}
-			tb.open(t, u)
-			d := tb.catchDownloads(t)
-			data, err := os.ReadFile(filepath.Join(root, "testdata", "checks.json"))
-			if err != nil {
-				t.Fatal(err)
+		}
+		if err := json.Unmarshal(data, &file); err != nil {
+			t.Fatal(err)
+		}
+		eval[bool](t, tb, `(document.getElementById("ew-checks-panel").open = true, true)`)
+		if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-checks-run"))); err != nil {
+			t.Fatal(err)
+		}
+		tb.until(t, `document.getElementById("ew-checks-panel").dataset.state === "done"`, "the checks")
+		tb.shot(t, "checks-"+pageName(u))
+		rows := eval[[]map[string]string](t, tb, `[...document.querySelectorAll(".ew-checks-table tbody tr")].map(tr =>
+		  ({id: tr.dataset.id, result: tr.children[5].textContent, source: tr.children[6].textContent}))`)
+		if len(rows) != len(file.Cases) {
+			t.Fatalf("the panel shows %d cases, the file has %d", len(rows), len(file.Cases))
+		}
+		for i, r := range rows {
+			if r["id"] != file.Cases[i].ID || !strings.HasPrefix(r["source"], file.Cases[i].Source) {
+				t.Errorf("row %d: %v, want case %s with its source", i, r, file.Cases[i].ID)
 			}
-			var file struct {
-				Cases []struct {
-					ID, Source string
+			if why, known := knownEngineIssues[r["id"]]; known {
+				if r["result"] == "pass" {
+					t.Errorf("case %s passes now: remove it from knownEngineIssues (%s)", r["id"], why)
+				} else {
+					t.Logf("case %s: %s (known engine issue: %s)", r["id"], r["result"], why)
 				}
+				continue
 			}
-			if err := json.Unmarshal(data, &file); err != nil {
-				t.Fatal(err)
+			if r["result"] != "pass" {
+				t.Errorf("case %s: %s", r["id"], r["result"])
 			}
-			eval[bool](t, tb, `(document.getElementById("ew-checks-panel").open = true, true)`)
-			if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-checks-run"))); err != nil {
-				t.Fatal(err)
+		}
+		name, rec := d.click(t, tb, "#ew-checks-download")
+		var record struct {
+			Schema        string `json:"schema"`
+			Version       string `json:"edgewise_version"`
+			Total, Passed int
+			Failed        int
+			Outcomes      []map[string]any
+			ChecksFileSHA *string `json:"checks_file_sha256"`
+		}
+		if err := json.Unmarshal(rec, &record); err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		if record.Schema != "edgewise-verification/1" || record.Version == "" || record.Total != len(file.Cases) ||
+			record.Passed+record.Failed != record.Total || record.Failed > len(knownEngineIssues) || len(record.Outcomes) != record.Total {
+			t.Errorf("record %s: schema %q version %q total %d passed %d failed %d outcomes %d",
+				name, record.Schema, record.Version, record.Total, record.Passed, record.Failed, len(record.Outcomes))
+		}
+		for i, o := range record.Outcomes {
+			if o["id"] != rows[i]["id"] || o["source"] == "" || o["computed"] == nil || o["expected"] == nil ||
+				(o["pass"] == true) != (rows[i]["result"] == "pass") {
+				t.Errorf("record outcome %v does not match the panel's row %v", o, rows[i])
 			}
-			tb.until(t, `document.getElementById("ew-checks-panel").dataset.state === "done"`, "the checks")
-			tb.shot(t, "checks-"+strings.ReplaceAll(c.name, " ", "-"))
-			rows := eval[[]map[string]string](t, tb, `[...document.querySelectorAll(".ew-checks-table tbody tr")].map(tr =>
-			  ({id: tr.dataset.id, result: tr.children[5].textContent, source: tr.children[6].textContent}))`)
-			if len(rows) != len(file.Cases) {
-				t.Fatalf("the panel shows %d cases, the file has %d", len(rows), len(file.Cases))
-			}
-			for i, r := range rows {
-				if r["id"] != file.Cases[i].ID || !strings.HasPrefix(r["source"], file.Cases[i].Source) {
-					t.Errorf("row %d: %v, want case %s with its source", i, r, file.Cases[i].ID)
-				}
-				if why, known := knownEngineIssues[r["id"]]; known {
-					if r["result"] == "pass" {
-						t.Errorf("case %s passes now: remove it from knownEngineIssues (%s)", r["id"], why)
-					} else {
-						t.Logf("case %s: %s (known engine issue: %s)", r["id"], r["result"], why)
-					}
-					continue
-				}
-				if r["result"] != "pass" {
-					t.Errorf("case %s: %s", r["id"], r["result"])
-				}
-			}
-			name, rec := d.click(t, tb, "#ew-checks-download")
-			var record struct {
-				Schema        string `json:"schema"`
-				Version       string `json:"edgewise_version"`
-				Total, Passed int
-				Failed        int
-				Outcomes      []map[string]any
-				ChecksFileSHA *string `json:"checks_file_sha256"`
-			}
-			if err := json.Unmarshal(rec, &record); err != nil {
-				t.Fatalf("%s: %v", name, err)
-			}
-			if record.Schema != "edgewise-verification/1" || record.Version == "" || record.Total != len(file.Cases) ||
-				record.Passed+record.Failed != record.Total || record.Failed > len(knownEngineIssues) || len(record.Outcomes) != record.Total {
-				t.Errorf("record %s: schema %q version %q total %d passed %d failed %d outcomes %d",
-					name, record.Schema, record.Version, record.Total, record.Passed, record.Failed, len(record.Outcomes))
-			}
-			for i, o := range record.Outcomes {
-				if o["id"] != rows[i]["id"] || o["source"] == "" || o["computed"] == nil || o["expected"] == nil ||
-					(o["pass"] == true) != (rows[i]["result"] == "pass") {
-					t.Errorf("record outcome %v does not match the panel's row %v", o, rows[i])
-				}
-			}
-		})
-	}
+		}
+	})
 }

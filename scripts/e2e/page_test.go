@@ -638,13 +638,8 @@ func TestControlsLabelled(t *testing.T) {
 // A long solve can be stopped with the button the page shows while it
 // works; the last good picture stays and the next edit solves as usual.
 func TestStopButton(t *testing.T) {
-	for _, c := range []struct{ name, url string }{
-		{"served", siteURL},
-		// the single file restarts its engine from the bytes it carries
-		{"offline", "file://" + filepath.Join(root, "dist", "edgewise.html")},
-	} {
-		t.Run(c.name, func(t *testing.T) { stopButton(t, c.url) })
-	}
+	// the single file restarts its engine from the bytes it carries
+	bothPages(t, stopButton)
 }
 
 func stopButton(t *testing.T, url string) {
