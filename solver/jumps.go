@@ -10,10 +10,11 @@ import (
 
 // A jump is a point inside a value edge where the prescribed value
 // changes abruptly (a step written with when(...) or rise(s, at)). Near it
-// the gradient grows like 1/r, so the flow through that edge is infinite,
-// and the series converges slowly around it (Gibbs). The engine treats
-// jumps at corners; these, inside an edge, are found here so that the
-// result says so instead of printing a meaningless flow.
+// the gradient grows like 1/r, so the flow through that edge is infinite.
+// The series engine treats jumps at corners; these, inside an edge, are
+// found here, carried out of the series by angle functions (innerjump.go)
+// so that it converges fast, and reported so that the result says the flow
+// is infinite instead of printing a meaningless number.
 type jump struct {
 	side     problem.Side
 	s        float64 // where along the edge
@@ -102,7 +103,8 @@ func findJumps(pr *problem.Problem) []jump {
 // the edge's length L.
 func (j jump) warning(L float64) string {
 	return fmt.Sprintf("The prescribed value on the %v edge jumps from %.6g to %.6g at s = %.6g: the flow through "+
-		"that edge is infinite there (the gradient grows like 1/r) and the field converges slowly around it. "+
+		"that edge is infinite there (the gradient grows like 1/r near the jump; the field itself is exact, the jump "+
+		"being carried by an angle function). "+
 		"For finite flows give the step a width, for example %.6g + (%.6g)*rise(s, %.6g, %.3g).",
 		j.side, j.from, j.to, j.s, j.from, j.to-j.from, j.s, 0.01*L)
 }

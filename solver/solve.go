@@ -75,7 +75,13 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
-	f, err := solveSeries(pr)
+	jumps := findJumps(pr)
+	var f field
+	if len(jumps) > 0 {
+		f, err = solveWithJumps(pr, jumps, solveSeries)
+	} else {
+		f, err = solveSeries(pr)
+	}
 	if err != nil {
 		return nil, wrapEngineError(pr, err)
 	}
@@ -88,7 +94,6 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
 	settleCorners(pr, out)
-	jumps := findJumps(pr)
 	out.Result = report(p, pr, f, out, jumps)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	if !opt.NoCrossCheck {

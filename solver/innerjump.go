@@ -1,0 +1,266 @@
+package solver
+
+import (
+	"math"
+
+	"gonum.org/v1/gonum/integrate/quad"
+
+	"edgewise/solver/problem"
+)
+
+// An angle field carries one jump of prescribed value inside an edge out of
+// the series, the way the engine does at corners: with the jump J = from -
+// to at s0 on edge e,
+//
+//	phi = J theta / pi,   theta = atan2(d, t) in [0, pi],
+//
+// where d is the distance into the region from the edge and t the distance
+// along the edge past s0, both in the coordinates y' = y sqrt(Kx/Ky) in which
+// the problem is isotropic, so phi solves Kx u_xx + Ky u_yy = 0. On its own
+// edge phi is J before s0 and 0 after it: subtracting it leaves continuous
+// data, which the series sums fast; everywhere else on the boundary phi is
+// smooth and goes into the other edges' data. The field is then the series
+// plus the angle fields.
+type angleField struct {
+	side     problem.Side
+	s0, j    float64
+	w, h, c  float64 // rectangle and sqrt(Kx/Ky)
+	kx, ky   float64
+	dx, dy   float64 // derivatives of d
+	tx, ty   float64 // derivatives of t
+	d0, t0   float64 // d = d0 + dx x + dy y, t = t0 + tx x + ty y
+	withFlux bool
+}
+
+func newAngleField(pr *problem.Problem, jp jump) angleField {
+	c := math.Sqrt(pr.Kx / pr.Ky)
+	a := angleField{side: jp.side, s0: jp.s, j: jp.from - jp.to, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
+	switch jp.side {
+	case problem.Bottom: // d = c y, t = x - s0
+		a.dy, a.tx, a.t0 = c, 1, -jp.s
+	case problem.Top: // d = c (H - y), t = x - s0
+		a.d0, a.dy, a.tx, a.t0 = c*pr.H, -c, 1, -jp.s
+	case problem.Left: // d = x, t = c (y - s0)
+		a.dx, a.ty, a.t0 = 1, c, -c*jp.s
+	case problem.Right: // d = W - x, t = c (y - s0)
+		a.d0, a.dx, a.ty, a.t0 = pr.W, -1, c, -c*jp.s
+	}
+	return a
+}
+
+// at returns phi and its gradient at (x, y). At the jump point itself phi
+// is the mean J/2 and the gradient (unbounded there) is NaN.
+func (a *angleField) at(x, y float64) (phi, px, py float64) {
+	d := a.d0 + a.dx*x + a.dy*y
+	t := a.t0 + a.tx*x + a.ty*y
+	if d <= 0 {
+		d = 0 // on the edge (and not beyond it by rounding)
+	}
+	r2 := d*d + t*t
+	if r2 == 0 {
+		return a.j / 2, math.NaN(), math.NaN()
+	}
+	k := a.j / math.Pi
+	theta := math.Atan2(d, t)
+	// grad theta = (t grad d - d grad t) / (d^2 + t^2)
+	return k * theta, k * (t*a.dx - d*a.tx) / r2, k * (t*a.dy - d*a.ty) / r2
+}
+
+// entering returns the flux of phi entering the region through edge e at
+// (x, y) on it.
+func (a *angleField) entering(e problem.Side, x, y float64) float64 {
+	_, px, py := a.at(x, y)
+	switch e {
+	case problem.Bottom:
+		return -a.ky * py
+	case problem.Top:
+		return a.ky * py
+	case problem.Left:
+		return -a.kx * px
+	}
+	return a.kx * px
+}
+
+// gradedGauss integrates f over [a, b] with Gauss-Legendre rules on panels
+// that halve towards both ends, down to (b - a) 2^-depth, so that a peak of
+// width w near an end (the angle field of a jump at distance w from a
+// corner, seen along the neighbouring edge) is resolved whatever w is.
+func gradedGauss(f func(s float64) float64, a, b float64, depth int, x, w []float64) float64 {
+	L := b - a
+	breaks := []float64{a}
+	for k := depth; k >= 2; k-- {
+		breaks = append(breaks, a+math.Ldexp(L, -k))
+	}
+	breaks = append(breaks, a+L/2)
+	for k := 2; k <= depth; k++ {
+		breaks = append(breaks, b-math.Ldexp(L, -k))
+	}
+	breaks = append(breaks, b)
+	sum := 0.0
+	for i := 0; i+1 < len(breaks); i++ {
+		m, r := (breaks[i]+breaks[i+1])/2, (breaks[i+1]-breaks[i])/2
+		for q := range x {
+			sum += w[q] * r * f(m+r*x[q])
+		}
+	}
+	return sum
+}
+
+// Gauss-Legendre nodes and weights on [-1, 1] (gonum's quad): 16 points
+// for the flows along edges, 8 for the area mean.
+var (
+	gl16x, gl16w = legendre(16)
+	gl8x, gl8w   = legendre(8)
+)
+
+func legendre(n int) (x, w []float64) {
+	x, w = make([]float64, n), make([]float64, n)
+	quad.Legendre{}.FixedLocations(x, w, -1, 1)
+	return x, w
+}
+
+// jumpField is the series solution of the problem with its inner jumps
+// taken out, plus the angle fields that carry them.
+type jumpField struct {
+	v      field
+	phis   []angleField
+	inflow [4]float64 // flows of the angle fields through the edges
+	jumpAt [4]bool    // edges with a jump inside: infinite flow
+	mean   float64    // area mean of the angle fields
+}
+
+// solveWithJumps solves a problem whose value edges jump inside: the angle
+// fields take the jumps out of the data, solve (the series) sums the rest,
+// and the field returned adds them back.
+func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Problem) (field, error)) (field, error) {
+	jf := &jumpField{}
+	for _, jp := range jumps {
+		jf.phis = append(jf.phis, newAngleField(pr, jp))
+		jf.jumpAt[jp.side] = true
+	}
+	q := *pr
+	for _, side := range problem.Sides {
+		e, side := pr.Edges[side], side
+		at := func(s float64) (phi, in float64) {
+			x, y := pr.Point(side, s)
+			return jf.phi(x, y), jf.entering(side, x, y)
+		}
+		f := e.F
+		switch {
+		case e.Kind == problem.Value:
+			q.Edges[side].F = func(s float64) float64 { phi, _ := at(s); return f(s) - phi }
+		case e.Kind == problem.Flux:
+			q.Edges[side].F = func(s float64) float64 { _, in := at(s); return f(s) - in }
+		case e.Hc == 0: // insulated convection: the angle fields' flux must be undone
+			q.Edges[side] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { _, in := at(s); return -in }}
+		default: // Hc (a - v - phi) - in = Hc ((a - phi - in/Hc) - v)
+			hc := e.Hc
+			q.Edges[side].F = func(s float64) float64 { phi, in := at(s); return f(s) - phi - in/hc }
+		}
+	}
+	v, err := solve(&q)
+	if err != nil {
+		return nil, err
+	}
+	jf.v = v
+	for _, side := range problem.Sides {
+		if jf.jumpAt[side] {
+			continue
+		}
+		jf.inflow[side] = gradedGauss(func(s float64) float64 {
+			x, y := pr.Point(side, s)
+			return jf.entering(side, x, y)
+		}, 0, pr.Length(side), 40, gl16x, gl16w)
+	}
+	for _, a := range jf.phis {
+		jf.mean += a.mean() / (pr.W * pr.H)
+	}
+	return jf, nil
+}
+
+func (jf *jumpField) phi(x, y float64) float64 {
+	sum := 0.0
+	for i := range jf.phis {
+		p, _, _ := jf.phis[i].at(x, y)
+		sum += p
+	}
+	return sum
+}
+
+func (jf *jumpField) entering(e problem.Side, x, y float64) float64 {
+	in := 0.0
+	for i := range jf.phis {
+		in += jf.phis[i].entering(e, x, y)
+	}
+	return in
+}
+
+// mean returns the integral of phi over the rectangle: along its edge split
+// at the jump, across it towards the edge, both graded towards the jump.
+func (a *angleField) mean() float64 {
+	along, across := a.w, a.h
+	if a.side == problem.Left || a.side == problem.Right {
+		along, across = a.h, a.w
+	}
+	point := func(s, n float64) (x, y float64) { // s along the edge, n into the region
+		switch a.side {
+		case problem.Bottom:
+			return s, n
+		case problem.Top:
+			return s, a.h - n
+		case problem.Left:
+			return n, s
+		}
+		return a.w - n, s
+	}
+	inner := func(s float64) float64 {
+		return gradedGauss(func(n float64) float64 {
+			phi, _, _ := a.at(point(s, n))
+			return phi
+		}, 0, across, 12, gl8x, gl8w)
+	}
+	return gradedGauss(inner, 0, a.s0, 12, gl8x, gl8w) + gradedGauss(inner, a.s0, along, 12, gl8x, gl8w)
+}
+
+func (jf *jumpField) At(x, y float64) (u, ux, uy float64) {
+	u, ux, uy = jf.v.At(x, y)
+	for i := range jf.phis {
+		p, px, py := jf.phis[i].at(x, y)
+		u, ux, uy = u+p, ux+px, uy+py
+	}
+	return u, ux, uy
+}
+
+func (jf *jumpField) Grid(nx, ny int, u, ux, uy []float64) {
+	jf.v.Grid(nx, ny, u, ux, uy)
+	w, h := jf.phis[0].w, jf.phis[0].h
+	for j := 0; j <= ny; j++ {
+		for i := 0; i <= nx; i++ {
+			k := j*(nx+1) + i
+			x, y := float64(i)*w/float64(nx), float64(j)*h/float64(ny)
+			for a := range jf.phis {
+				p, px, py := jf.phis[a].at(x, y)
+				u[k] += p
+				if ux != nil {
+					ux[k] += px
+				}
+				if uy != nil {
+					uy[k] += py
+				}
+			}
+		}
+	}
+}
+
+func (jf *jumpField) Flow(e problem.Side) (float64, bool) {
+	q, ok := jf.v.Flow(e)
+	if jf.jumpAt[e] {
+		return 0, false
+	}
+	return q + jf.inflow[e], ok
+}
+
+func (jf *jumpField) Mean() float64          { return jf.v.Mean() + jf.mean }
+func (jf *jumpField) Terms() int             { return jf.v.Terms() }
+func (jf *jumpField) ErrorEstimate() float64 { return jf.v.ErrorEstimate() }
+func (jf *jumpField) Warnings() []string     { return jf.v.Warnings() }
