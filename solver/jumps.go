@@ -30,19 +30,32 @@ const (
 	jumpBisections = 60
 )
 
-// findJumps looks for jumps inside the value edges: it samples each edge,
-// takes the intervals where the value changes most, and halves each of
-// them towards the larger change. A jump keeps its size however short the
-// interval gets; a steep but smooth change (rise(s, at, width) with a small
-// width) shrinks away. Jumps smaller than 1e-6 of the edge's range of
-// values, and places within 1e-9 of a corner (the engine's own corner
-// treatment), are left out.
+// findJumps returns the jumps inside the value edges (see dataJumps).
 func findJumps(pr *problem.Problem) []jump {
+	var out []jump
+	for _, j := range dataJumps(pr) {
+		if pr.Edges[j.side].Kind == problem.Value {
+			out = append(out, j)
+		}
+	}
+	return out
+}
+
+// dataJumps finds the jumps inside every edge's data, whatever its kind
+// (for flux and convection edges a step of flux or of ambient, which the
+// series integrates piece by piece). It samples each edge, takes the
+// intervals where the data changes most, and halves each of them towards
+// the larger change. A jump keeps its size however short the interval
+// gets; a steep but smooth change (rise(s, at, width) with a small width)
+// shrinks away. Jumps smaller than 1e-6 of the edge's range of values, and
+// places within 1e-9 of a corner (the engine's own corner treatment), are
+// left out.
+func dataJumps(pr *problem.Problem) []jump {
 	var out []jump
 	for _, side := range problem.Sides {
 		e := pr.Edges[side]
-		if e.Kind != problem.Value {
-			continue
+		if e.Kind == problem.Convection && e.Hc == 0 {
+			continue // the ambient plays no part
 		}
 		L := pr.Length(side)
 		v := make([]float64, jumpSamples+1)

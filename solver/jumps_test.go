@@ -1,6 +1,7 @@
 package solver
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -107,5 +108,36 @@ func TestExitGradientWhereWaterLeaves(t *testing.T) {
 	g, x, _, found := exitGradient(&problem.Problem{W: 12, H: 4, Kx: 1e-5, Ky: 1e-5}, out, problem.Top)
 	if !found || x <= 6 || g <= 0 {
 		t.Errorf("exit gradient %g at x = %g, want on the low side x > 6", g, x)
+	}
+}
+
+// A step of flux on a flux edge (a heater strip written with when(...)):
+// the series integrates the data piece by piece, so the flows balance
+// (conservation, an exact identity) to the engine's tolerance, where one
+// Gauss rule across the step left 2e-4 of the total flow (a fixed bug
+// found by FuzzSolve).
+func TestFluxStepBalances(t *testing.T) {
+	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"heat","width":0.3,"height":0.2,"conductivity":{"x":150,"y":50},
+	 "edges":{"bottom":{"kind":"flux","expr":"when(0.1 <= s <= 0.17, 3000, 0)"},"top":{"kind":"convection","h":12,"ambient":"when(s < 0.2, 20, 30)"},
+	 "left":{"kind":"value","expr":"readings(s, 0, 1, 0.05, 0.4, 0.1, 3)"},"right":{"kind":"flux","expr":"when(s < W/2, 0.43, 0)"}}}`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s Solver
+	out, err := s.Solve(p, Options{NoCrossCheck: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := out.Result
+	if r.Balance == nil {
+		t.Fatalf("no balance: %+v", r.Edges)
+	}
+	// the heater strip puts in exactly 3000 x 0.07 = 210 W/m
+	if q := *r.Edges.Bottom.Flow; math.Abs(q-210) > 1e-9*210 {
+		t.Errorf("bottom flow %.12g, want 210", q)
+	}
+	total := math.Abs(*r.Edges.Bottom.Flow) + math.Abs(*r.Edges.Top.Flow) + math.Abs(*r.Edges.Left.Flow) + math.Abs(*r.Edges.Right.Flow)
+	if math.Abs(*r.Balance) > 1e-7*total {
+		t.Errorf("balance %.3g of total flow %.3g", *r.Balance, total)
 	}
 }

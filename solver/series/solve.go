@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"sort"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
@@ -20,6 +21,11 @@ type Options struct {
 	// MaxTerms caps the terms of each sub-problem; default 4096 (values
 	// are held within 16..65536).
 	MaxTerms int
+	// Breaks lists, per edge (indexed by problem.Side), the places s
+	// strictly inside the edge where its data jumps (a step of flux or of
+	// ambient). The projections and the integrals of the data are split
+	// there, so that a step costs no accuracy in them.
+	Breaks [4][]float64
 }
 
 // ImbalanceError reports an all-flux problem whose inflow and source do
@@ -77,6 +83,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	}
 	opt.MaxTerms = min(max(opt.MaxTerms, 16), 1<<16)
 	m := newModel(p)
+	m.setBreaks(opt.Breaks)
 	s := &Solution{m: m}
 	s.scale = m.dataScale()
 	if m.err != nil {
@@ -136,7 +143,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	for _, e := range problem.Sides {
 		e := e
 		r := func(t float64) float64 { return s.residual(e, t) }
-		s.subs[e] = newSub(m, e, r, s.tolAbs/4, opt.MaxTerms)
+		s.subs[e] = newSub(m, e, r, s.tolAbs/4, opt.MaxTerms, m.breaks[e])
 		if m.err != nil {
 			return nil, m.err
 		}
@@ -230,12 +237,45 @@ func (m *model) dataScale() float64 {
 func (m *model) integral(e problem.Side) float64 {
 	const n = 512
 	xs, ws := make([]float64, n), make([]float64, n)
-	quad.Legendre{}.FixedLocations(xs, ws, 0, m.length(e))
 	sum := 0.0
-	for i, x := range xs {
-		sum += ws[i] * m.data(e, x)
-	}
+	m.pieces(e, func(lo, hi float64) {
+		quad.Legendre{}.FixedLocations(xs, ws, lo, hi)
+		for i, x := range xs {
+			sum += ws[i] * m.data(e, x)
+		}
+	})
 	return sum
+}
+
+// setBreaks keeps the places where edge data jumps, in mapped s.
+func (m *model) setBreaks(b [4][]float64) {
+	for _, e := range problem.Sides {
+		L := m.length(e)
+		scale := 1.0
+		if e == problem.Left || e == problem.Right {
+			scale = m.a
+		}
+		var list []float64
+		for _, s := range b[e] {
+			if t := s * scale; t > 0 && t < L {
+				list = append(list, t)
+			}
+		}
+		sort.Float64s(list)
+		m.breaks[e] = list
+	}
+}
+
+// pieces calls f for the stretches of edge e between its breaks (mapped s).
+func (m *model) pieces(e problem.Side, f func(lo, hi float64)) {
+	lo := 0.0
+	for _, b := range m.breaks[e] {
+		if b > lo {
+			f(lo, b)
+			lo = b
+		}
+	}
+	f(lo, m.length(e))
 }
 
 // known returns u, ux, uy of the carried-out part (particular solution and

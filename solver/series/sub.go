@@ -46,7 +46,7 @@ func biot(m *model, e problem.Side, L float64) float64 {
 
 // newSub builds the sub-problem of edge e for the residual data r, adding
 // terms until the estimated tail is below tol or maxTerms is reached.
-func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, maxTerms int) *sub {
+func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, maxTerms int, breaks []float64) *sub {
 	na, nb, opp := neighbours(e)
 	sp := &sub{side: e, L: m.length(e), D: m.length(na)}
 	sp.sine = m.kinds[na] == problem.Value && m.kinds[nb] == problem.Value
@@ -57,7 +57,7 @@ func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, ma
 			n = maxTerms
 		}
 		sp.b.Grow(n)
-		c = project(sp.b, r, n, c)
+		c = project(sp.b, r, n, c, breaks)
 		sp.setTerms(m, e, opp, c, n)
 		sp.tail = sp.tailEstimate(n)
 		if sp.tail <= tol || n >= maxTerms {
@@ -170,32 +170,45 @@ func resize(s []float64, n int) []float64 {
 
 // project returns the first n generalised Fourier coefficients of r in
 // basis b by Gauss-Legendre quadrature with n+32 nodes.
-func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64) []float64 {
+func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64, breaks []float64) []float64 {
 	q := n + 32
 	xs := make([]float64, q)
 	ws := make([]float64, q)
-	quad.Legendre{}.FixedLocations(xs, ws, 0, b.L)
 	dst = resize(dst, n)
 	for i := range dst {
 		dst[i] = 0
 	}
-	for j, s := range xs {
-		wr := ws[j] * r(s)
-		if wr == 0 {
+	// one Gauss-Legendre rule per stretch between the breaks (where the
+	// data jumps), so that a jump costs the rule no accuracy
+	lo := 0.0
+	for k := 0; k <= len(breaks); k++ {
+		hi := b.L
+		if k < len(breaks) {
+			hi = breaks[k]
+		}
+		if hi <= lo {
 			continue
 		}
-		if b.Uniform {
-			// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
-			sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
-			ds, dc := math.Sincos(math.Pi * s / b.L)
-			for i := 0; i < n; i++ {
-				dst[i] += wr * sn
-				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+		quad.Legendre{}.FixedLocations(xs, ws, lo, hi)
+		lo = hi
+		for j, s := range xs {
+			wr := ws[j] * r(s)
+			if wr == 0 {
+				continue
 			}
-			continue
-		}
-		for i := 0; i < n; i++ {
-			dst[i] += wr * math.Sin(b.Lambda[i]*s+b.Phi[i])
+			if b.Uniform {
+				// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
+				sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
+				ds, dc := math.Sincos(math.Pi * s / b.L)
+				for i := 0; i < n; i++ {
+					dst[i] += wr * sn
+					sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+				}
+				continue
+			}
+			for i := 0; i < n; i++ {
+				dst[i] += wr * math.Sin(b.Lambda[i]*s+b.Phi[i])
+			}
 		}
 	}
 	for i := range dst {
