@@ -1,6 +1,8 @@
 package solver
 
 import (
+	"slices"
+
 	"edgewise/solver/problem"
 	"edgewise/solver/series"
 )
@@ -9,15 +11,21 @@ import (
 // data scale of a problem.
 const SeriesTolerance = 1e-9
 
-// solveSeries runs the series engine, telling it where the data of the
-// flux and convection edges jumps (value jumps are taken out before, see
-// solveWithJumps).
+// solveSeries runs the series engine.
 func solveSeries(p *problem.Problem) (field, error) {
-	opt := series.Options{Tol: SeriesTolerance}
+	return series.Solve(p, series.Options{Tol: SeriesTolerance})
+}
+
+// markBreaks records in the problem where the data of flux and convection
+// edges jumps, for the solvers that integrate it (value jumps are taken
+// out before, see solveWithJumps).
+func markBreaks(p *problem.Problem) {
 	for _, j := range dataJumps(p) {
-		if p.Edges[j.side].Kind != problem.Value {
-			opt.Breaks[j.side] = append(opt.Breaks[j.side], j.s)
+		if e := &p.Edges[j.side]; e.Kind != problem.Value {
+			e.Breaks = append(e.Breaks, j.s)
 		}
 	}
-	return series.Solve(p, opt)
+	for _, s := range problem.Sides {
+		slices.Sort(p.Edges[s].Breaks)
+	}
 }

@@ -75,6 +75,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
+	markBreaks(pr)
 	jumps := findJumps(pr)
 	var f field
 	if len(jumps) > 0 {

@@ -6,6 +6,7 @@ import (
 
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/lapack/lapack64"
 
 	"edgewise/solver/problem"
@@ -222,9 +223,51 @@ func newSystem(p *problem.Problem, nx, ny int) (*system, error) {
 			}
 			d[t] = v
 		}
+		if p.Edges[e].Kind != problem.Value && len(p.Edges[e].Breaks) > 0 {
+			if err := cellAverages(p, e, d, length/float64(m)); err != nil {
+				return nil, err
+			}
+		}
 		s.data[e] = d
 	}
 	return s, nil
+}
+
+// cellAverages replaces the node samples of flux or ambient data by their
+// average over the node's segment [s - h/2, s + h/2] (clipped to the edge)
+// where a jump of the data (problem.Edge.Breaks) falls inside the segment:
+// a sample there would count the whole segment on one side of the step.
+// The average is a Gauss-Legendre rule on each piece between the jumps.
+func cellAverages(p *problem.Problem, e problem.Side, d []float64, h float64) error {
+	breaks := p.Edges[e].Breaks
+	length := p.Length(e)
+	var xs, ws [8]float64
+	for t := range d {
+		lo, hi := max(0, float64(t)*h-h/2), min(length, float64(t)*h+h/2)
+		cut := []float64{lo}
+		for _, b := range breaks {
+			if b > lo && b < hi {
+				cut = append(cut, b)
+			}
+		}
+		if len(cut) == 1 {
+			continue
+		}
+		cut = append(cut, hi)
+		sum := 0.0
+		for k := 0; k+1 < len(cut); k++ {
+			quad.Legendre{}.FixedLocations(xs[:], ws[:], cut[k], cut[k+1])
+			for q := range xs {
+				v, err := p.Eval(e, xs[q])
+				if err != nil {
+					return err
+				}
+				sum += ws[q] * v
+			}
+		}
+		d[t] = sum / (hi - lo)
+	}
+	return nil
 }
 
 // weights returns the cell widths of a grid of n intervals of width h.

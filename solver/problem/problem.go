@@ -84,6 +84,11 @@ type Edge struct {
 	// Hc is the convection coefficient (>= 0) for Convection; unused
 	// otherwise.
 	Hc float64
+	// Breaks lists, in increasing order, places strictly inside the edge
+	// where F jumps (a step of flux or of ambient). Solvers that integrate
+	// F split their rules there, so that a step costs them no accuracy.
+	// Optional: nil when F is continuous or its jumps are not known.
+	Breaks []float64
 }
 
 // Problem is a steady field problem on a rectangle.

@@ -21,11 +21,6 @@ type Options struct {
 	// MaxTerms caps the terms of each sub-problem; default 4096 (values
 	// are held within 16..65536).
 	MaxTerms int
-	// Breaks lists, per edge (indexed by problem.Side), the places s
-	// strictly inside the edge where its data jumps (a step of flux or of
-	// ambient). The projections and the integrals of the data are split
-	// there, so that a step costs no accuracy in them.
-	Breaks [4][]float64
 }
 
 // ImbalanceError reports an all-flux problem whose inflow and source do
@@ -83,7 +78,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	}
 	opt.MaxTerms = min(max(opt.MaxTerms, 16), 1<<16)
 	m := newModel(p)
-	m.setBreaks(opt.Breaks)
+	m.setBreaks(p)
 	s := &Solution{m: m}
 	s.scale = m.dataScale()
 	if m.err != nil {
@@ -247,8 +242,9 @@ func (m *model) integral(e problem.Side) float64 {
 	return sum
 }
 
-// setBreaks keeps the places where edge data jumps, in mapped s.
-func (m *model) setBreaks(b [4][]float64) {
+// setBreaks keeps the places where edge data jumps (problem.Edge.Breaks),
+// in mapped s.
+func (m *model) setBreaks(p *problem.Problem) {
 	for _, e := range problem.Sides {
 		L := m.length(e)
 		scale := 1.0
@@ -256,7 +252,7 @@ func (m *model) setBreaks(b [4][]float64) {
 			scale = m.a
 		}
 		var list []float64
-		for _, s := range b[e] {
+		for _, s := range p.Edges[e].Breaks {
 			if t := s * scale; t > 0 && t < L {
 				list = append(list, t)
 			}
