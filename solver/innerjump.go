@@ -2,39 +2,45 @@ package solver
 
 import (
 	"math"
+	"slices"
 
 	"gonum.org/v1/gonum/integrate/quad"
 
 	"edgewise/solver/problem"
 )
 
-// An angle field carries one jump of prescribed value inside an edge out of
-// the series, the way the engine does at corners: with the jump J = from -
-// to at s0 on edge e,
+// An edge piece carries one jump inside an edge out of the series, the way
+// the engine does at corners. With d the distance into the region from the
+// edge and t the distance along it past the jump at s0, both in the
+// coordinates y' = y sqrt(Kx/Ky) in which the problem is isotropic, and
+// theta = atan2(d, t) in [0, pi], r^2 = d^2 + t^2:
 //
-//	phi = J theta / pi,   theta = atan2(d, t) in [0, pi],
+//	a jump of value, from A to B:  phi = (A - B) theta / pi
+//	a jump of entering flux:       phi = -a (t ln r - d theta) / pi = -a Re(w log w) / pi,  w = t + i d
 //
-// where d is the distance into the region from the edge and t the distance
-// along the edge past s0, both in the coordinates y' = y sqrt(Kx/Ky) in which
-// the problem is isotropic, so phi solves Kx u_xx + Ky u_yy = 0. On its own
-// edge phi is J before s0 and 0 after it: subtracting it leaves continuous
-// data, which the series sums fast; everywhere else on the boundary phi is
-// smooth and goes into the other edges' data. The field is then the series
-// plus the angle fields.
-type angleField struct {
-	side     problem.Side
-	s0, j    float64
-	w, h, c  float64 // rectangle and sqrt(Kx/Ky)
-	kx, ky   float64
-	dx, dy   float64 // derivatives of d
-	tx, ty   float64 // derivatives of t
-	d0, t0   float64 // d = d0 + dx x + dy y, t = t0 + tx x + ty y
-	withFlux bool
+// Both are harmonic in (x, y'), so they solve Kx u_xx + Ky u_yy = 0. On its
+// own edge the first is A - B before s0 and 0 after it; the second has
+// d phi/dd = a theta/pi, a before s0 and 0 after, so its entering flux
+// -kappa d phi/dd (kappa = sqrt(Kx Ky) on the bottom and top, Kx on the
+// sides) steps by kappa a; a convection edge whose ambient steps by D takes
+// the step Hc D of entering flux. Subtracting the pieces leaves continuous
+// data, which the series sums fast; everywhere else on the boundary the
+// pieces are smooth and go into the other edges' data. The field is then
+// the series plus the pieces.
+type edgePiece struct {
+	side    problem.Side
+	kink    bool    // a step of flux (w log w) rather than of value (angle)
+	s0, amp float64 // where, and (A - B) or a
+	w, h, c float64 // rectangle and sqrt(Kx/Ky)
+	kx, ky  float64
+	dx, dy  float64 // derivatives of d
+	tx, ty  float64 // derivatives of t
+	d0, t0  float64 // d = d0 + dx x + dy y, t = t0 + tx x + ty y
 }
 
-func newAngleField(pr *problem.Problem, jp jump) angleField {
+func newEdgePiece(pr *problem.Problem, jp jump) edgePiece {
 	c := math.Sqrt(pr.Kx / pr.Ky)
-	a := angleField{side: jp.side, s0: jp.s, j: jp.from - jp.to, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
+	a := edgePiece{side: jp.side, s0: jp.s, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
 	switch jp.side {
 	case problem.Bottom: // d = c y, t = x - s0
 		a.dy, a.tx, a.t0 = c, 1, -jp.s
@@ -45,12 +51,26 @@ func newAngleField(pr *problem.Problem, jp jump) angleField {
 	case problem.Right: // d = W - x, t = c (y - s0)
 		a.d0, a.dx, a.ty, a.t0 = pr.W, -1, c, -c*jp.s
 	}
+	e := pr.Edges[jp.side]
+	kappa := pr.Kx
+	if jp.side == problem.Bottom || jp.side == problem.Top {
+		kappa = math.Sqrt(pr.Kx * pr.Ky)
+	}
+	switch e.Kind {
+	case problem.Value:
+		a.amp = jp.from - jp.to
+	case problem.Flux:
+		a.kink, a.amp = true, (jp.to-jp.from)/kappa
+	default: // convection: the entering flux Hc (ambient - u) steps by Hc D
+		a.kink, a.amp = true, e.Hc*(jp.to-jp.from)/kappa
+	}
 	return a
 }
 
-// at returns phi and its gradient at (x, y). At the jump point itself phi
-// is the mean J/2 and the gradient (unbounded there) is NaN.
-func (a *angleField) at(x, y float64) (phi, px, py float64) {
+// at returns phi and its gradient at (x, y). At the jump point itself an
+// angle piece takes the mean of its two values and a flux piece 0; the
+// gradient (unbounded there) is NaN.
+func (a *edgePiece) at(x, y float64) (phi, px, py float64) {
 	d := a.d0 + a.dx*x + a.dy*y
 	t := a.t0 + a.tx*x + a.ty*y
 	if d <= 0 {
@@ -58,17 +78,26 @@ func (a *angleField) at(x, y float64) (phi, px, py float64) {
 	}
 	r2 := d*d + t*t
 	if r2 == 0 {
-		return a.j / 2, math.NaN(), math.NaN()
+		if a.kink {
+			return 0, math.NaN(), math.NaN()
+		}
+		return a.amp / 2, math.NaN(), math.NaN()
 	}
-	k := a.j / math.Pi
+	k := a.amp / math.Pi
 	theta := math.Atan2(d, t)
+	if a.kink {
+		// d/dt = -(ln r + 1) a/pi, d/dd = a theta/pi
+		lr := 0.5 * math.Log(r2)
+		gt, gd := -k*(lr+1), k*theta
+		return -k * (t*lr - d*theta), gt*a.tx + gd*a.dx, gt*a.ty + gd*a.dy
+	}
 	// grad theta = (t grad d - d grad t) / (d^2 + t^2)
 	return k * theta, k * (t*a.dx - d*a.tx) / r2, k * (t*a.dy - d*a.ty) / r2
 }
 
 // entering returns the flux of phi entering the region through edge e at
 // (x, y) on it.
-func (a *angleField) entering(e problem.Side, x, y float64) float64 {
+func (a *edgePiece) entering(e problem.Side, x, y float64) float64 {
 	_, px, py := a.at(x, y)
 	switch e {
 	case problem.Bottom:
@@ -120,23 +149,24 @@ func legendre(n int) (x, w []float64) {
 }
 
 // jumpField is the series solution of the problem with its inner jumps
-// taken out, plus the angle fields that carry them.
+// taken out, plus the edge pieces that carry them.
 type jumpField struct {
 	v      field
-	phis   []angleField
+	phis   []edgePiece
 	inflow [4]float64 // flows of the angle fields through the edges
 	jumpAt [4]bool    // edges with a jump inside: infinite flow
 	mean   float64    // area mean of the angle fields
 }
 
-// solveWithJumps solves a problem whose value edges jump inside: the angle
-// fields take the jumps out of the data, solve (the series) sums the rest,
-// and the field returned adds them back.
+// solveWithJumps solves a problem whose edge data jumps inside edges: the
+// edge pieces take the jumps out of the data, solve (the series) sums the
+// rest, and the field returned adds them back. Flows through edges whose
+// value jumps are infinite.
 func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Problem) (field, error)) (field, error) {
 	jf := &jumpField{}
 	for _, jp := range jumps {
-		jf.phis = append(jf.phis, newAngleField(pr, jp))
-		jf.jumpAt[jp.side] = true
+		jf.phis = append(jf.phis, newEdgePiece(pr, jp))
+		jf.jumpAt[jp.side] = jf.jumpAt[jp.side] || pr.Edges[jp.side].Kind == problem.Value
 	}
 	q := *pr
 	for _, side := range problem.Sides {
@@ -167,10 +197,23 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 		if jf.jumpAt[side] {
 			continue
 		}
-		jf.inflow[side] = gradedGauss(func(s float64) float64 {
-			x, y := pr.Point(side, s)
-			return jf.entering(side, x, y)
-		}, 0, pr.Length(side), 40, gl16x, gl16w)
+		// split at the pieces' own jumps on this edge, where their flux steps
+		cuts := []float64{0}
+		for _, a := range jf.phis {
+			if a.side == side {
+				cuts = append(cuts, a.s0)
+			}
+		}
+		cuts = append(cuts, pr.Length(side))
+		slices.Sort(cuts)
+		for k := 0; k+1 < len(cuts); k++ {
+			if cuts[k+1] > cuts[k] {
+				jf.inflow[side] += gradedGauss(func(s float64) float64 {
+					x, y := pr.Point(side, s)
+					return jf.entering(side, x, y)
+				}, cuts[k], cuts[k+1], 40, gl16x, gl16w)
+			}
+		}
 	}
 	for _, a := range jf.phis {
 		jf.mean += a.mean() / (pr.W * pr.H)
@@ -197,7 +240,7 @@ func (jf *jumpField) entering(e problem.Side, x, y float64) float64 {
 
 // mean returns the integral of phi over the rectangle: along its edge split
 // at the jump, across it towards the edge, both graded towards the jump.
-func (a *angleField) mean() float64 {
+func (a *edgePiece) mean() float64 {
 	along, across := a.w, a.h
 	if a.side == problem.Left || a.side == problem.Right {
 		along, across = a.h, a.w

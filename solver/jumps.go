@@ -90,6 +90,9 @@ func dataJumps(pr *problem.Problem) []jump {
 					break
 				}
 				fm := e.F(m)
+				if fm-fm != 0 {
+					break // not finite: the engine reports it with its place
+				}
 				if math.Abs(fm-fa) >= math.Abs(fb-fm) {
 					b, fb = m, fm
 				} else {

@@ -78,8 +78,8 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	markBreaks(pr)
 	jumps := findJumps(pr)
 	var f field
-	if len(jumps) > 0 {
-		f, err = solveWithJumps(pr, jumps, solveSeries)
+	if steps := dataJumps(pr); len(steps) > 0 {
+		f, err = solveWithJumps(pr, steps, solveSeries)
 	} else {
 		f, err = solveSeries(pr)
 	}
