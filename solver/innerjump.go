@@ -98,6 +98,11 @@ func (a *edgePiece) at(x, y float64) (phi, px, py float64) {
 // entering returns the flux of phi entering the region through edge e at
 // (x, y) on it.
 func (a *edgePiece) entering(e problem.Side, x, y float64) float64 {
+	if a.kink && e == a.side && math.Abs(a.t0+a.tx*x+a.ty*y) == 0 {
+		// at the step itself: the value just after it (the along-edge
+		// derivative, unbounded there, carries no flux through the edge)
+		return 0
+	}
 	_, px, py := a.at(x, y)
 	switch e {
 	case problem.Bottom:
@@ -155,7 +160,8 @@ type jumpField struct {
 	phis   []edgePiece
 	inflow [4]float64 // flows of the angle fields through the edges
 	jumpAt [4]bool    // edges with a jump inside: infinite flow
-	mean   float64    // area mean of the angle fields
+	mean   float64    // area mean of the pieces
+	shift  float64    // added to u: keeps the area mean 0 when only fluxes hold the field
 }
 
 // solveWithJumps solves a problem whose edge data jumps inside edges: the
@@ -218,6 +224,15 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 	for _, a := range jf.phis {
 		jf.mean += a.mean() / (pr.W * pr.H)
 	}
+	// With no value edge and no exchange by convection the level of u is
+	// free and fixed by the rule area mean = 0; the pieces must not move it.
+	fixed := false
+	for _, e := range pr.Edges {
+		fixed = fixed || e.Kind == problem.Value || (e.Kind == problem.Convection && e.Hc > 0)
+	}
+	if !fixed {
+		jf.shift = -jf.mean
+	}
 	return jf, nil
 }
 
@@ -267,6 +282,7 @@ func (a *edgePiece) mean() float64 {
 
 func (jf *jumpField) At(x, y float64) (u, ux, uy float64) {
 	u, ux, uy = jf.v.At(x, y)
+	u += jf.shift
 	for i := range jf.phis {
 		p, px, py := jf.phis[i].at(x, y)
 		u, ux, uy = u+p, ux+px, uy+py
@@ -281,6 +297,7 @@ func (jf *jumpField) Grid(nx, ny int, u, ux, uy []float64) {
 		for i := 0; i <= nx; i++ {
 			k := j*(nx+1) + i
 			x, y := float64(i)*w/float64(nx), float64(j)*h/float64(ny)
+			u[k] += jf.shift
 			for a := range jf.phis {
 				p, px, py := jf.phis[a].at(x, y)
 				u[k] += p
@@ -303,7 +320,7 @@ func (jf *jumpField) Flow(e problem.Side) (float64, bool) {
 	return q + jf.inflow[e], ok
 }
 
-func (jf *jumpField) Mean() float64          { return jf.v.Mean() + jf.mean }
+func (jf *jumpField) Mean() float64          { return jf.v.Mean() + jf.mean + jf.shift }
 func (jf *jumpField) Terms() int             { return jf.v.Terms() }
 func (jf *jumpField) ErrorEstimate() float64 { return jf.v.ErrorEstimate() }
 func (jf *jumpField) Warnings() []string     { return jf.v.Warnings() }
