@@ -52,7 +52,7 @@ func checkOneLine(t *testing.T, err error) {
 // fuzzFormulas are edge data shapes; %g takes a coefficient.
 var fuzzFormulas = []string{
 	"%g", "%g*s/W", "%g*sin(pi*s/H)", "20 + %g*(2*s/W - 1)^2", "when(s < W/2, %g, 0)",
-	"readings(s, 0, 1, 0.05, %g, 0.1, 3)", "%g*exp(-s/0.05)", "rise(s, 0.05, 0.02)*%g",
+	"readings(s, 0, 1, 0.05, %g, 0.1, 3)", "%g*exp(-s/0.05)", "rise(s, 0.05, 0.02)*%g", "when(s < 0.05, %g, 0)",
 }
 
 // FuzzSolve: random valid projects of every kind of edge solve without a
