@@ -31,6 +31,7 @@ type edgePiece struct {
 	side    problem.Side
 	kink    bool    // a step of flux (w log w) rather than of value (angle)
 	s0, amp float64 // where, and (A - B) or a
+	kappa   float64 // entering flux = -kappa d phi/dd
 	w, h, c float64 // rectangle and sqrt(Kx/Ky)
 	kx, ky  float64
 	dx, dy  float64 // derivatives of d
@@ -56,6 +57,7 @@ func newEdgePiece(pr *problem.Problem, jp jump) edgePiece {
 	if jp.side == problem.Bottom || jp.side == problem.Top {
 		kappa = math.Sqrt(pr.Kx * pr.Ky)
 	}
+	a.kappa = kappa
 	switch e.Kind {
 	case problem.Value:
 		a.amp = jp.from - jp.to
@@ -184,14 +186,37 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 		f := e.F
 		switch {
 		case e.Kind == problem.Value:
-			q.Edges[side].F = func(s float64) float64 { phi, _ := at(s); return f(s) - phi }
+			q.Edges[side].F = func(s float64) float64 {
+				v := f(s)
+				phi, _ := at(s)
+				for i := range jf.phis {
+					a := &jf.phis[i]
+					if a.side == side && !a.kink && s == a.s0 {
+						// at the jump itself the piece is taken on the side
+						// the data are on (the piece field shows the mean)
+						phi -= a.amp / 2
+						if math.Abs(v-(a.amp+jumpTo(a, f))) < math.Abs(v-jumpTo(a, f)) {
+							phi += a.amp
+						}
+					}
+				}
+				return v - phi
+			}
 		case e.Kind == problem.Flux:
-			q.Edges[side].F = func(s float64) float64 { _, in := at(s); return f(s) - in }
+			q.Edges[side].F = func(s float64) float64 {
+				v := f(s)
+				_, in := at(s)
+				return v - in - jf.stepSide(side, s, v, f)
+			}
 		case e.Hc == 0: // insulated convection: the angle fields' flux must be undone
 			q.Edges[side] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { _, in := at(s); return -in }}
 		default: // Hc (a - v - phi) - in = Hc ((a - phi - in/Hc) - v)
 			hc := e.Hc
-			q.Edges[side].F = func(s float64) float64 { phi, in := at(s); return f(s) - phi - in/hc }
+			q.Edges[side].F = func(s float64) float64 {
+				v := f(s)
+				phi, in := at(s)
+				return v - phi - (in+jf.stepSide(side, s, v, f))/hc
+			}
 		}
 	}
 	v, err := solve(&q)
@@ -234,6 +259,30 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 		jf.shift = -jf.mean
 	}
 	return jf, nil
+}
+
+// stepSide corrects the entering flux of the flux pieces at their own
+// step, where entering gives the value after the step: when the data v
+// there are on the side before it, the flux before it is used instead.
+func (jf *jumpField) stepSide(side problem.Side, s, v float64, f func(float64) float64) float64 {
+	add := 0.0
+	for i := range jf.phis {
+		a := &jf.phis[i]
+		if a.side == side && a.kink && s == a.s0 {
+			after := jumpTo(a, f)
+			before := f(math.Nextafter(a.s0, math.Inf(-1)))
+			if math.Abs(v-before) < math.Abs(v-after) {
+				add += -a.kappa * a.amp // the entering flux before the step
+			}
+		}
+	}
+	return add
+}
+
+// jumpTo returns the value an edge's data take just after the jump of
+// piece a.
+func jumpTo(a *edgePiece, f func(float64) float64) float64 {
+	return f(math.Nextafter(a.s0, math.Inf(1)))
 }
 
 func (jf *jumpField) phi(x, y float64) float64 {

@@ -304,3 +304,74 @@ func TestFluxStepAllFluxKeepsMeanZero(t *testing.T) {
 		t.Errorf("cross-check %v (%s)", cc, out.Result.Accuracy.CrosscheckReason)
 	}
 }
+
+// The data of a value edge with a jump stay continuous once the angle
+// piece is taken out, also at the jump itself, whichever side the formula
+// puts that point on (s < a or s <= a).
+func TestJumpPointTakesItsSide(t *testing.T) {
+	for _, formula := range []string{"when(s < 1.5, 8, 2)", "when(s <= 1.5, 8, 2)"} {
+		p := &problem.Problem{W: 3, H: 2, Kx: 1, Ky: 1}
+		for _, s := range problem.Sides {
+			p.Edges[s] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
+		}
+		f, err := compileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Value, F: f}
+		jumps := findJumps(p)
+		if len(jumps) != 1 {
+			t.Fatalf("%s: jumps %+v", formula, jumps)
+		}
+		jumps[0].s = 1.5 // the place the engine may sample exactly
+		var modified *problem.Problem
+		_, err = solveWithJumps(p, jumps, func(q *problem.Problem) (field, error) {
+			modified = q
+			return zeroField{}, nil
+		})
+		if err != nil {
+			t.Fatal(err)
+		}
+		g := modified.Edges[problem.Bottom].F
+		for _, s := range []float64{1.4, 1.5, math.Nextafter(1.5, 0), 1.6} {
+			if v := g(s); math.Abs(v-2) > 1e-12 {
+				t.Errorf("%s: data left for the series at s = %v is %v, want 2", formula, s, v)
+			}
+		}
+	}
+}
+
+// The same for a step of flux: continuous data for the series at the step,
+// whichever side the formula puts that point on.
+func TestFluxStepPointTakesItsSide(t *testing.T) {
+	for _, formula := range []string{"when(s < 1.5, 8, 2)", "when(s <= 1.5, 8, 2)"} {
+		p := &problem.Problem{W: 3, H: 2, Kx: 1, Ky: 1}
+		for _, s := range problem.Sides {
+			p.Edges[s] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
+		}
+		f, err := compileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Flux, F: f}
+		steps := dataJumps(p)
+		if len(steps) != 1 {
+			t.Fatalf("%s: steps %+v", formula, steps)
+		}
+		steps[0].s = 1.5 // the place the engine may sample exactly
+		var modified *problem.Problem
+		if _, err := solveWithJumps(p, steps, func(q *problem.Problem) (field, error) {
+			modified = q
+			return zeroField{}, nil
+		}); err != nil {
+			t.Fatal(err)
+		}
+		g := modified.Edges[problem.Bottom].F
+		want := g(1.6)
+		for _, s := range []float64{1.4, 1.5, math.Nextafter(1.5, 0)} {
+			if v := g(s); math.Abs(v-want) > 1e-9 {
+				t.Errorf("%s: data left for the series at s = %v is %v, want %v as around it", formula, s, v, want)
+			}
+		}
+	}
+}
