@@ -71,6 +71,10 @@ func Proportional(w, h float64, n int) (nx, ny int) {
 
 // Solve solves a decoded project.
 func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
+	nx, ny := GridFor(p, opt)
+	if nx < 2 || ny < 2 || nx > MaxGrid || ny > MaxGrid {
+		return nil, errorf("grid", "from 2 to %d intervals per side, got %d x %d", MaxGrid, nx, ny)
+	}
 	pr, err := Compile(p)
 	if err != nil {
 		return nil, err
@@ -85,10 +89,6 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	}
 	if err != nil {
 		return nil, wrapEngineError(pr, err)
-	}
-	nx, ny := GridFor(p, opt)
-	if nx > MaxGrid || ny > MaxGrid {
-		return nil, errorf("grid", "at most %d intervals per side", MaxGrid)
 	}
 	n := (nx + 1) * (ny + 1)
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
