@@ -265,17 +265,9 @@ func TestFluxStepsManufactured(t *testing.T) {
 // free level: the area mean of u is zero (the series and the finite
 // differences both use it), also with the step carried by a piece.
 func TestFluxStepAllFluxKeepsMeanZero(t *testing.T) {
-	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"generic","width":2,"height":1,"conductivity":3,
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"generic","width":2,"height":1,"conductivity":3,
 	 "edges":{"bottom":{"kind":"flux","expr":"when(0.5 <= s <= 1, 4, 0)"},"top":{"kind":"flux","expr":"-1"},
-	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"convection","h":0,"ambient":"7"}}}`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var s Solver
-	out, err := s.Solve(p, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"convection","h":0,"ambient":"7"}}}`, Options{})
 	// the strip puts 4 x 0.5 = 2 in, the top takes 1 x 2 = 2 out: balanced
 	if m := out.Result.Mean; math.Abs(m) > 1e-9 {
 		t.Errorf("area mean %g, want 0", m)

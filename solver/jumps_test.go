@@ -55,17 +55,9 @@ func TestFindJumps(t *testing.T) {
 // A step inside a value edge makes that edge's flow infinite; the result
 // says so, suggests a smooth step, and leaves the balance out.
 func TestJumpInsideEdgeInResult(t *testing.T) {
-	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"seepage","width":12,"height":4,"conductivity":1e-5,
+	p, out := mustSolve(t, `{"schema":"edgewise/1","physics":"seepage","width":12,"height":4,"conductivity":1e-5,
 	 "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"value","expr":"when(s < 6, 8, 2)"},
-	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var s Solver
-	out, err := s.Solve(p, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`, Options{})
 	r := out.Result
 	if r.Edges.Top.Finite || r.Edges.Top.Flow != nil || r.Balance != nil {
 		t.Errorf("top flow %+v, balance %v: want infinite and no balance", r.Edges.Top, r.Balance)
@@ -76,7 +68,8 @@ func TestJumpInsideEdgeInResult(t *testing.T) {
 	}
 	// the suggested formula is itself valid and smooth
 	p.Edges.Top.Expr = "8 + (-6)*rise(s, 6, 0.12)"
-	out, err = s.Solve(p, Options{})
+	var s Solver
+	out, err := s.Solve(p, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -89,17 +82,9 @@ func TestJumpInsideEdgeInResult(t *testing.T) {
 // through a value edge, also when the edge as a whole takes water in (a
 // head that falls along the top edge: in at the high end, out at the low).
 func TestExitGradientWhereWaterLeaves(t *testing.T) {
-	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"seepage","width":12,"height":4,"conductivity":1e-5,
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"seepage","width":12,"height":4,"conductivity":1e-5,
 	 "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"value","expr":"8 - 6*rise(s, 6, 1)"},
-	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var s Solver
-	out, err := s.Solve(p, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`, Options{})
 	c := strings.Join(out.Result.Cautions, "\n")
 	if !strings.Contains(c, "Exit gradient") || !strings.Contains(c, "top edge") {
 		t.Fatalf("cautions %q, want an exit gradient on the top edge", out.Result.Cautions)
@@ -117,17 +102,9 @@ func TestExitGradientWhereWaterLeaves(t *testing.T) {
 // Gauss rule across the step left 2e-4 of the total flow (a fixed bug
 // found by FuzzSolve).
 func TestFluxStepBalances(t *testing.T) {
-	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"heat","width":0.3,"height":0.2,"conductivity":{"x":150,"y":50},
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"heat","width":0.3,"height":0.2,"conductivity":{"x":150,"y":50},
 	 "edges":{"bottom":{"kind":"flux","expr":"when(0.1 <= s <= 0.17, 3000, 0)"},"top":{"kind":"convection","h":12,"ambient":"when(s < 0.2, 20, 30)"},
-	 "left":{"kind":"value","expr":"readings(s, 0, 1, 0.05, 0.4, 0.1, 3)"},"right":{"kind":"flux","expr":"when(s < W/2, 0.43, 0)"}}}`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var s Solver
-	out, err := s.Solve(p, Options{NoCrossCheck: true})
-	if err != nil {
-		t.Fatal(err)
-	}
+	 "left":{"kind":"value","expr":"readings(s, 0, 1, 0.05, 0.4, 0.1, 3)"},"right":{"kind":"flux","expr":"when(s < W/2, 0.43, 0)"}}}`, Options{NoCrossCheck: true})
 	r := out.Result
 	if r.Balance == nil {
 		t.Fatalf("no balance: %+v", r.Edges)

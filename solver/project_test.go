@@ -253,17 +253,9 @@ func TestResultJSON(t *testing.T) {
 // With a uniform source and all four edges at zero the largest value is at
 // the centre, by symmetry (exact), and it is positive.
 func TestMaxOfSourceAtCentre(t *testing.T) {
-	p, err := Decode([]byte(`{"schema":"edgewise/1","physics":"generic","width":2,"height":1,"conductivity":1,"source":2,
+	p, out := mustSolve(t, `{"schema":"edgewise/1","physics":"generic","width":2,"height":1,"conductivity":1,"source":2,
 	 "edges":{"bottom":{"kind":"value","expr":"0"},"top":{"kind":"value","expr":"0"},
-	 "left":{"kind":"value","expr":"0"},"right":{"kind":"value","expr":"0"}}, "grid":{"nx":7,"ny":5}}`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	var s Solver
-	out, err := s.Solve(p, Options{NoCrossCheck: true})
-	if err != nil {
-		t.Fatal(err)
-	}
+	 "left":{"kind":"value","expr":"0"},"right":{"kind":"value","expr":"0"}}, "grid":{"nx":7,"ny":5}}`, Options{NoCrossCheck: true})
 	mx := out.Result.Max
 	// the coarse 7 x 5 grid has no node at the centre; the search finds it
 	// to a thousandth of a cell (0.0003 in x, 0.0002 in y)
@@ -292,4 +284,19 @@ func solveAt(t *testing.T, p *Project, x, y float64) (u, ux, uy float64) {
 		t.Fatal(err)
 	}
 	return f.At(x, y)
+}
+
+// mustSolve decodes a project and solves it, failing the test on any error.
+func mustSolve(t *testing.T, text string, opt Options) (*Project, *Output) {
+	t.Helper()
+	p, err := Decode([]byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s Solver
+	out, err := s.Solve(p, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return p, out
 }
