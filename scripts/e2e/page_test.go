@@ -374,10 +374,10 @@ func TestEditCancelsLongSolve(t *testing.T) {
 	tb.open(t, siteURL)
 	tb.loadPlate(t)
 	n := tb.solved(t)
-	// the finest grid and steps inside two edges (slowly converging
-	// series) make the solve long, most of a second or more where a plain
-	// one takes tens of milliseconds; short page timings keep the test
-	// independent of the engine's speed
+	// the finest grid (about a million nodes, with gradients) makes the
+	// solve long, most of a second or more where a plain one takes tens of
+	// milliseconds; short page timings keep the test independent of the
+	// engine's speed
 	eval[map[string]any](t, tb, `window.edgewiseInternal.tune({busyMs: 50, cancelMs: 100})`)
 	eval[bool](t, tb, `(() => { const p = Object.assign(`+plate+`, {grid: {nx: 1024, ny: 1024}});
 	  p.edges.bottom.expr = "when(s < 0.13, 90, 30)"; p.edges.top.expr = "when(s < 0.27, 20, 60)";
