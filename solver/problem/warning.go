@@ -1,0 +1,28 @@
+package problem
+
+// Code names a kind of warning. The page and scripts branch on the code,
+// never on the English text, which may change.
+type Code string
+
+// The warning codes the engine emits. Add a code here, next to its
+// meaning, before emitting it anywhere.
+const (
+	// CornerJump: two prescribed values disagree at a corner; the flows
+	// through both edges that meet there are infinite (gradient ~ 1/r).
+	CornerJump Code = "corner-jump"
+	// StepJump: a prescribed value jumps inside an edge; the flow through
+	// that edge is infinite (gradient ~ 1/r).
+	StepJump Code = "step-jump"
+	// TermLimit: a series stopped at its largest number of terms before
+	// reaching the requested accuracy.
+	TermLimit Code = "term-limit"
+)
+
+// Warning is one structured warning: a code, the edges it concerns (for
+// example the edges whose flow it makes infinite) and a one-line text for
+// people.
+type Warning struct {
+	Code  Code
+	Edges []Side // the edges concerned, in canonical order; may be empty
+	Text  string
+}
