@@ -1,92 +1,48 @@
 package solver
 
 import (
-	"fmt"
 	"math"
 
+	"edgewise/solver/physics"
 	"edgewise/solver/problem"
 )
 
-// Rules of thumb behind the cautions.
-const (
-	// BurnTemperature: skin burns on brief contact with metal above about
-	// 60 °C (common practice).
-	BurnTemperature = 60.0
-	// AirBreakdown: breakdown field of dry air at sea level, about 3 kV/mm
-	// (AMS Glossary of Meteorology, read).
-	AirBreakdown = 3e6 // V/m
-	// CriticalGradient: critical hydraulic gradient (Gs - 1)/(1 + e), about 1
-	// for common soils (soil mechanics texts; common practice).
-	CriticalGradient = 1.0
-)
-
-// Deferral ends every list of cautions.
-const Deferral = "edgewise solves an idealised two-dimensional steady model: check what you take from it " +
-	"against the codes and standards that apply where you work, and have a licensed professional approve " +
-	"any decision that depends on it."
-
-// cautions computes the physics-specific cautions from a solved field.
+// cautions computes the physics-specific cautions from a solved field; the
+// thresholds and wording are in the physics table.
 func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string {
-	var list []string
-	u := Units(p.Physics)
-	singular := !(r.Edges.Bottom.Finite && r.Edges.Top.Finite && r.Edges.Left.Finite && r.Edges.Right.Finite)
-	switch p.Physics {
-	case Heat:
-		if r.Max.Value >= BurnTemperature {
-			where := "inside the section"
-			if onBoundary(pr, r.Max.X, r.Max.Y) {
-				where = "on its edge"
-			}
-			list = append(list, fmt.Sprintf("The hottest point is %.4g %s %s at (%.4g, %.4g) m: bare skin touching metal above "+
-				"about %g %s can burn within seconds (common practice). Guard or insulate surfaces people can reach.",
-				r.Max.Value, u.ValueUnit, where, r.Max.X, r.Max.Y, BurnTemperature, u.ValueUnit))
+	return physics.Get(p.Physics).Cautions(&solvedField{pr: pr, out: out, r: r})
+}
+
+// solvedField is what the cautions read (physics.Field).
+type solvedField struct {
+	pr  *problem.Problem
+	out *Output
+	r   *Result
+}
+
+func (f *solvedField) Max() (v, x, y float64, onEdge bool) {
+	m := f.r.Max
+	return m.Value, m.X, m.Y, onBoundary(f.pr, m.X, m.Y)
+}
+
+func (f *solvedField) PeakGradient() (g, x, y float64) { return peakGradient(f.out) }
+
+func (f *solvedField) Exits() []physics.Exit {
+	var list []physics.Exit
+	for _, side := range problem.Sides {
+		if f.pr.Edges[side].Kind != problem.Value {
+			continue // exit faces are value edges where water leaves
 		}
-	case Electrostatic:
-		peak, x, y := peakGradient(out)
-		kvmm := peak / 1e6
-		var msg string
-		switch {
-		case peak >= AirBreakdown:
-			msg = fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m exceeds about 3 kV/mm, the breakdown field of dry "+
-				"air at sea level (AMS Glossary of Meteorology): an air gap of this shape would spark over.", kvmm, x, y)
-		case peak >= AirBreakdown/3:
-			msg = fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m is more than a third of about 3 kV/mm, the "+
-				"breakdown field of dry air at sea level (AMS Glossary of Meteorology); humidity, altitude, dirt and sharp "+
-				"edges lower it in practice.", kvmm, x, y)
-		default:
-			msg = fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m, against about 3 kV/mm for the breakdown of dry "+
-				"air at sea level (AMS Glossary of Meteorology).", kvmm, x, y)
-		}
-		list = append(list, msg)
-		if singular {
-			list = append(list, "The field strength is unbounded at a corner where the prescribed potential jumps; the peak "+
-				"above is limited by the output grid. Real electrodes there need rounded edges or a gap.")
-		}
-	case Seepage:
-		for _, side := range problem.Sides {
-			if pr.Edges[side].Kind != problem.Value {
-				continue // exit faces are value edges where water leaves
-			}
-			g, x, y, found := exitGradient(pr, out, side)
-			if !found {
-				continue
-			}
-			level := "below"
-			if g >= CriticalGradient {
-				level = "at or above"
-			} else if g >= CriticalGradient/2 {
-				level = "more than half of"
-			}
-			list = append(list, fmt.Sprintf("Exit gradient %.3g on the %v edge (at %.4g, %.4g m) is %s the critical hydraulic "+
-				"gradient of about 1 ((Gs - 1)/(1 + e) for common soils; common practice): heave and piping start there, "+
-				"so designs keep a wide margin below it.", g, side, x, y, level))
-		}
-		if singular {
-			list = append(list, "The hydraulic gradient is unbounded where the prescribed head jumps (at a corner or "+
-				"inside an edge); exit gradients near that point are larger than any grid value shows.")
+		if g, x, y, found := exitGradient(f.pr, f.out, side); found {
+			list = append(list, physics.Exit{Edge: side.String(), G: g, X: x, Y: y})
 		}
 	}
-	return append(list, Deferral)
+	return list
+}
+
+func (f *solvedField) Singular() bool {
+	e := &f.r.Edges
+	return !(e.Bottom.Finite && e.Top.Finite && e.Left.Finite && e.Right.Finite)
 }
 
 // exitGradient returns the largest gradient magnitude on the output grid

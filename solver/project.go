@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/physics"
 )
 
 // Schema is the project-file schema this package reads and writes.
@@ -234,8 +235,8 @@ func (d *decoder) project(v any) *Project {
 		p.Title = d.text(t, "title")
 	}
 	p.Physics = d.text(m["physics"], "physics")
-	if d.err == nil && !contains([]string{Heat, Electrostatic, Seepage, Generic}, p.Physics) {
-		d.fail("physics", "unknown physics %q (use heat, electrostatic, seepage or generic)", p.Physics)
+	if _, known := physics.Lookup(p.Physics); d.err == nil && !known {
+		d.fail("physics", "unknown physics %q (use %s)", p.Physics, physics.Choices())
 	}
 	p.Width = d.positive(m["width"], "width")
 	p.Height = d.positive(m["height"], "height")

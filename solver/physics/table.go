@@ -1,0 +1,211 @@
+package physics
+
+// Ids of the physics in the table, as a project file writes them.
+const (
+	Heat          = "heat"
+	Electrostatic = "electrostatic"
+	Seepage       = "seepage"
+	Generic       = "generic"
+)
+
+// Physics is one entry of the table.
+type Physics struct {
+	ID   string // as written in a project file
+	Name string // the page's choice, e.g. "Heat conduction (temperature)"
+	Units
+	Kinds Kinds
+	Hints Hints
+	// Magnitude names the size of the gradient as a column heading;
+	// Readout names it in the pointer readout.
+	Magnitude, Readout string
+	// Also shows the size of the gradient in a second unit as well (the
+	// field strength in kV/mm); zero when there is none.
+	Also Also
+	// DefaultH is the h the page fills in when an edge turns to convection.
+	DefaultH string
+	// Cautions lists the physics-specific cautions of a solved field
+	// (without the Deferral, which Cautions adds); nil when there are none.
+	cautions func(p *Physics, f Field) []string
+}
+
+// Units names the quantities and units of one physics, for labels,
+// legends, CSV headers and cautions. Lengths are in metres throughout.
+type Units struct {
+	Physics      string
+	Value        string // name of the field
+	ValueUnit    string // its unit
+	Gradient     string // name of the gradient
+	GradientUnit string // unit of the gradient
+	Conductivity string // name of the material constant
+	CondUnit     string
+	Flux         string // name of the flux density
+	FluxUnit     string
+	FlowUnit     string // flow through an edge per metre of depth
+	Source       string
+	SourceUnit   string
+	Coefficient  string // the Robin (convection) coefficient
+	CoefUnit     string
+	Length       string
+}
+
+// Kinds names the three edge kinds for a physics, with the textbook name
+// of the condition after it.
+type Kinds struct{ Value, Flux, Convection string }
+
+// Hints are shown beside the inputs: typical values with their sources
+// (rules of thumb are marked as common practice).
+type Hints struct {
+	Physics      string // under the choice of physics
+	Conductivity string
+	Source       string
+	H            string // under a convection edge's coefficient
+}
+
+// Also is a second unit for the size of the gradient: Scale gradient units
+// make one Unit.
+type Also struct {
+	Unit  string
+	Scale float64
+}
+
+// table is every physics, in the order the page offers them.
+var table = []*Physics{
+	{
+		ID: Heat, Name: "Heat conduction (temperature)",
+		Units: Units{Physics: Heat,
+			Value: "temperature", ValueUnit: "°C",
+			Gradient: "temperature gradient", GradientUnit: "K/m",
+			Conductivity: "thermal conductivity", CondUnit: "W/(m·K)",
+			Flux: "heat flux", FluxUnit: "W/m²", FlowUnit: "W/m",
+			Source: "heat generation", SourceUnit: "W/m³",
+			Coefficient: "convection coefficient", CoefUnit: "W/(m²·K)", Length: "m"},
+		Kinds: Kinds{
+			Value:      "Fixed temperature (Dirichlet)",
+			Flux:       "Heat flux in; 0 = insulated (Neumann)",
+			Convection: "Convection to a fluid (Robin)",
+		},
+		Hints: Hints{
+			// the burn threshold: common practice (see BurnTemperature)
+			Physics: "Surfaces above about 60 °C burn skin on brief contact (common practice).",
+			// Incropera & DeWitt, Fundamentals of Heat and Mass Transfer, Table A.1 (read)
+			Conductivity: "Typical: stainless steel ≈ 15, carbon steel ≈ 50, aluminium 170–237, copper ≈ 400 W/(m·K) (Incropera, Table A.1).",
+			Source:       "Heat generated per unit volume, e.g. by a current or a reaction; 0 for none.",
+			// Incropera & DeWitt, Table 1.1 (from memory)
+			H: "Free convection in gases ≈ 2–25, forced ≈ 25–250 W/(m²·K) (Incropera, Table 1.1).",
+		},
+		Magnitude: "temperature gradient", Readout: "temperature gradient |∇|",
+		DefaultH: "10",
+		cautions: heatCautions,
+	},
+	{
+		ID: Electrostatic, Name: "Electrostatics (potential)",
+		Units: Units{Physics: Electrostatic,
+			Value: "potential", ValueUnit: "V",
+			Gradient: "potential gradient", GradientUnit: "V/m",
+			Conductivity: "permittivity", CondUnit: "F/m",
+			Flux: "electric displacement", FluxUnit: "C/m²", FlowUnit: "C/m",
+			Source: "charge density", SourceUnit: "C/m³",
+			Coefficient: "Robin coefficient", CoefUnit: "F/m²", Length: "m"},
+		Kinds: Kinds{
+			Value:      "Fixed potential, electrode (Dirichlet)",
+			Flux:       "Displacement flux in; 0 = symmetry line (Neumann)",
+			Convection: "Mixed condition (Robin)",
+		},
+		Hints: Hints{
+			// AMS Glossary of Meteorology (read); see AirBreakdown
+			Physics: "Dry air at sea level breaks down near 3 kV/mm (AMS Glossary of Meteorology).",
+			// the vacuum permittivity is the CODATA value
+			Conductivity: "Permittivity ε = εr × 8.854×10⁻¹² F/m; dry air εr ≈ 1.",
+			Source:       "Free charge per unit volume; 0 in an air or vacuum gap.",
+			H:            "Rarely needed: a Robin edge models a resistive or capacitive boundary layer.",
+		},
+		Magnitude: "field strength", Readout: "field strength",
+		Also:     Also{Unit: "kV/mm", Scale: 1e6},
+		DefaultH: "1",
+		cautions: electrostaticCautions,
+	},
+	{
+		ID: Seepage, Name: "Groundwater seepage (hydraulic head)",
+		Units: Units{Physics: Seepage,
+			Value: "hydraulic head", ValueUnit: "m",
+			Gradient: "hydraulic gradient", GradientUnit: "m/m",
+			Conductivity: "hydraulic conductivity", CondUnit: "m/s",
+			Flux: "Darcy flux", FluxUnit: "m/s", FlowUnit: "m²/s",
+			Source: "recharge", SourceUnit: "1/s",
+			Coefficient: "leakance", CoefUnit: "1/s", Length: "m"},
+		Kinds: Kinds{
+			Value:      "Fixed head, water level (Dirichlet)",
+			Flux:       "Inflow; 0 = impermeable (Neumann)",
+			Convection: "Leaky layer to a head (Robin)",
+		},
+		Hints: Hints{
+			// the critical gradient: common practice in soil mechanics (see CriticalGradient)
+			Physics:      "Exit gradients near (Gs − 1)/(1 + e) ≈ 1 start heave and piping (common practice).",
+			Conductivity: "Hydraulic conductivity of the ground; layered soils are often more permeable along the layers.",
+			Source:       "Recharge per unit volume (1/s); 0 for none.",
+			H:            "Leakance of a semi-pervious layer: its conductivity over its thickness.",
+		},
+		Magnitude: "hydraulic gradient", Readout: "hydraulic gradient |∇|",
+		DefaultH: "1",
+		cautions: seepageCautions,
+	},
+	{
+		ID: Generic, Name: "Generic (no units)",
+		Units: Units{Physics: Generic,
+			Value: "u", Gradient: "gradient", Conductivity: "conductivity",
+			Flux: "flux", Source: "source", Coefficient: "Robin coefficient", Length: "m"},
+		Kinds: Kinds{
+			Value:      "Value (Dirichlet)",
+			Flux:       "Flux in (Neumann)",
+			Convection: "Mixed, h (u_amb - u) in (Robin)",
+		},
+		Hints: Hints{
+			Conductivity: "Coefficient of the equation div(K grad u) + source = 0.",
+			Source:       "Uniform source term.",
+			H:            "Coefficient h of the mixed condition.",
+		},
+		Magnitude: "gradient", Readout: "gradient |∇|",
+		DefaultH: "1",
+	},
+}
+
+// All returns every physics in the page's order. The entries are shared:
+// callers must not change them.
+func All() []*Physics { return table }
+
+// Lookup returns the physics with this id.
+func Lookup(id string) (*Physics, bool) {
+	for _, p := range table {
+		if p.ID == id {
+			return p, true
+		}
+	}
+	return nil, false
+}
+
+// Get returns the physics with this id, or the generic one for an unknown
+// id.
+func Get(id string) *Physics {
+	if p, ok := Lookup(id); ok {
+		return p
+	}
+	p, _ := Lookup(Generic)
+	return p
+}
+
+// Choices lists the ids for an error message: "heat, electrostatic,
+// seepage or generic".
+func Choices() string {
+	s := ""
+	for i, p := range table {
+		switch {
+		case i == 0:
+		case i == len(table)-1:
+			s += " or "
+		default:
+			s += ", "
+		}
+		s += p.ID
+	}
+	return s
+}
