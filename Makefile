@@ -19,10 +19,14 @@ all: build
 
 ## build: the engine as WebAssembly next to the page, with the matching wasm_exec.js
 ## and the published check cases (testdata/checks.json) for the page's checks panel
-build: site/app.wasm site/wasm_exec.js site/checks.json
+build: site/app.wasm site/wasm_exec.js site/checks.json site/physics.json
 
 site/checks.json: $(wildcard testdata/checks.json)
 	@if [ -f testdata/checks.json ]; then cp testdata/checks.json $@; else echo '{"cases": []}' > $@; fi
+
+# the physics table (names, units, labels, hints) as the page reads it
+site/physics.json: $(wildcard solver/physics/*.go solver/jsonlite/*.go scripts/physicsjson/*.go)
+	$(GO) run ./scripts/physicsjson -o $@
 
 site/app.wasm: $(shell find solver wasm -name '*.go' -not -name '*_test.go') go.mod go.sum
 	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-s -w -X edgewise/solver/report.Release=$(RELEASE)' -o $@ ./wasm

@@ -19,7 +19,8 @@
 //     decoder defines edgewiseEngineBytes(), which the page calls, and which
 //     undoes the gzip with DecompressionStream("gzip");
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
-//     the published check cases (checks.json) in one with id="ew-checks";
+//     the published check cases (checks.json) in one with id="ew-checks",
+//     the physics table (physics.json) in one with id="ew-physics";
 //   - the Content-Security-Policy meta tag is replaced by one that allows
 //     exactly the inline scripts and styles by their SHA-256 hashes, the
 //     worker from blob:, WebAssembly, and nothing from any address.
@@ -131,6 +132,10 @@ func Bundle(dir string) ([]byte, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%w (run make build first)", err)
 	}
+	physicsTable, err := read("physics.json")
+	if err != nil {
+		return nil, fmt.Errorf("%w (run make build first)", err)
+	}
 	var gz bytes.Buffer
 	zw, _ := gzip.NewWriterLevel(&gz, gzip.BestCompression)
 	if _, err := zw.Write(wasm); err != nil {
@@ -144,6 +149,7 @@ func Bundle(dir string) ([]byte, error) {
 	extra.WriteString(`<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+workerJS) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(demo) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(checks) + "</script>\n")
+	extra.WriteString(`<script type="application/json" id="ew-physics">` + escapeScript(physicsTable) + "</script>\n")
 	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
 	extra.WriteString("<script>" + decode85JS + "</script>\n")
 	scriptHashes = append(scriptHashes, hash(decode85JS))

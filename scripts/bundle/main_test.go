@@ -38,6 +38,7 @@ var site = map[string]string{
 	"app.wasm":     "\x00asm\x01\x00\x00\x00 some engine bytes",
 	"demo.json":    `{"title": "</script>"}`,
 	"checks.json":  `{"cases": []}`,
+	"physics.json": `{"physics": [{"id": "</script>"}]}`,
 }
 
 func TestBundle(t *testing.T) {
@@ -49,9 +50,9 @@ func TestBundle(t *testing.T) {
 	if strings.Contains(html, `src="`) || strings.Contains(html, `href="style.css"`) {
 		t.Errorf("an outside script or stylesheet is left")
 	}
-	// the only </script> sequences are the real closing tags: 6 blocks
-	if n := strings.Count(html, "</script"); n != 6 {
-		t.Errorf("%d </script sequences, want 6 (app, worker, demo, checks, engine and its decoder)", n)
+	// the only </script> sequences are the real closing tags: 7 blocks
+	if n := strings.Count(html, "</script"); n != 7 {
+		t.Errorf("%d </script sequences, want 7 (app, worker, demo, checks, physics, engine and its decoder)", n)
 	}
 	// every executable inline script and style is allowed by its hash in
 	// the policy (CSP Level 3, hash-source), and nothing else is
@@ -80,6 +81,9 @@ func TestBundle(t *testing.T) {
 	raw, _ := io.ReadAll(zr)
 	if string(raw) != site["app.wasm"] {
 		t.Errorf("engine bytes changed in the bundle")
+	}
+	if !strings.Contains(html, `<script type="application/json" id="ew-physics">{"physics": [{"id": "<\/script>"}]}</script>`) {
+		t.Errorf("the physics table is not inlined as data")
 	}
 	if !strings.Contains(html, `id="ew-worker">class Go {}`) {
 		t.Errorf("worker source does not start with wasm_exec.js")
