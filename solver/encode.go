@@ -94,6 +94,8 @@ func (r *Result) JSON() []byte {
 	strs("warnings", r.Warnings)
 	strs("cautions", r.Cautions)
 	w.Key("grid").Open('{').Key("nx").Int(r.Grid.Nx).Key("ny").Int(r.Grid.Ny).Close('}')
+	c := r.Colour
+	w.Key("colour").Open('{').Key("map").Str(c.Map).Key("from").Num(c.From).Key("to").Num(c.To).Close('}')
 	return w.Close('}').Bytes()
 }
 

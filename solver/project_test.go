@@ -230,6 +230,7 @@ func TestResultJSON(t *testing.T) {
 		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
 		Accuracy: Accuracy{Terms: 120, Estimate: 1e-10, Crosscheck: &cc, CrosscheckGrid: "24x12"},
 		Warnings: []string{"w\n1"}, Cautions: []string{"c1", "c2"}, Grid: GridSize{Nx: 10, Ny: 5},
+		Colour: ColourScale{Map: "ember-tide", From: -2, To: 2},
 	}
 	for _, balance := range []*float64{nil, &f2} {
 		r.Balance = balance

@@ -20,6 +20,17 @@ type Result struct {
 	Warnings []string `json:"warnings"`
 	Cautions []string `json:"cautions"`
 	Grid     GridSize `json:"grid"`
+	// Colour is how every picture of this result is coloured (colour.Choose
+	// over Min.Value .. Max.Value).
+	Colour ColourScale `json:"colour"`
+}
+
+// ColourScale names a colour map (colour.Map.Name) and the values its two
+// ends stand for: {"map": "dusk", "from": 20, "to": 90}.
+type ColourScale struct {
+	Map  string  `json:"map"`
+	From float64 `json:"from"`
+	To   float64 `json:"to"`
 }
 
 // ProbeResult is the field at one probe.

@@ -97,6 +97,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	settleCorners(pr, out)
 	out.Result = report(p, pr, f, out, jumps)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
+	out.Result.chooseColour()
 	if !opt.NoCrossCheck {
 		crossCheck(pr, f, &out.Result, jumps)
 	}

@@ -220,7 +220,7 @@ func demoPicture() *Picture {
 	f := demoField()
 	return &Picture{
 		Field:      f,
-		Map:        colour.Sequential,
+		Scale:      colour.Scale{Map: colour.Sequential, From: 20, To: 52},
 		Levels:     contour.Levels(20, 52, 4),
 		Title:      `Plate <script>alert("x")</script> & "co"`,
 		LegendUnit: "temperature [°C] <b>",
@@ -362,7 +362,7 @@ func TestSVGShapesAndLines(t *testing.T) {
 	levels := []float64{30}
 	lines := [][][]float64{contour.Join(contour.Lines(nil, f.U, f.Nx, f.Ny, f.W, f.H, 30))}
 	var b bytes.Buffer
-	if err := SVG(&b, &Picture{Field: f, Levels: levels, Lines: lines, PixelW: 100, Map: colour.Diverging}); err != nil {
+	if err := SVG(&b, &Picture{Field: f, Levels: levels, Lines: lines, PixelW: 100, Scale: colour.Scale{Map: colour.Diverging, From: 20, To: 52}}); err != nil {
 		t.Fatal(err)
 	}
 	count, _, hrefs := svgElements(t, b.Bytes())
@@ -441,7 +441,7 @@ func TestLargeRasterDecodes(t *testing.T) {
 	for k := range f.U {
 		f.U[k] = float64(k%(n+1)) / float64(n) // u = x
 	}
-	data, err := raster(f, colour.Sequential, 0, 1, maxRaster, maxRaster)
+	data, err := raster(f, colour.Scale{Map: colour.Sequential, From: 0, To: 1}, maxRaster, maxRaster)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -16,9 +16,9 @@ import (
 // Picture is what SVG draws.
 type Picture struct {
 	Field *Field
-	// Map colours the field; nil means colour.Sequential. The map spans
-	// the smallest to the largest finite value of the field.
-	Map *colour.Map
+	// Scale colours the field; a zero Scale means colour.Choose over the
+	// smallest to the largest finite value of the field.
+	Scale colour.Scale
 	// Levels are the isoline values; nil draws no isolines.
 	Levels []float64
 	// Lines are the isolines per level as polylines (x, y pairs in field
@@ -66,9 +66,9 @@ func SVG(w io.Writer, p *Picture) error {
 	if p.PixelW < 0 {
 		return fmt.Errorf("export: negative picture width %d", p.PixelW)
 	}
-	m := p.Map
-	if m == nil {
-		m = colour.Sequential
+	sc := p.Scale
+	if sc.Map == nil {
+		sc = colour.Choose(finiteRange(f.U))
 	}
 	pw := float64(p.PixelW)
 	if pw == 0 {
@@ -89,7 +89,6 @@ func SVG(w io.Writer, p *Picture) error {
 	totalW := left + plotW + legendGap + legendW + margin
 	totalW = math.Max(totalW, left+textWidth(p.Title, 16)+margin)
 	totalH := top + math.Max(plotH, legendH) + sizeSpace + margin
-	lo, hi := finiteRange(f.U)
 
 	var b bytes.Buffer
 	b.WriteString(`<?xml version="1.0" encoding="UTF-8"?>` + "\n")
@@ -109,7 +108,7 @@ func SVG(w io.Writer, p *Picture) error {
 	// no more pixels than grid nodes: the raster adds nothing beyond them
 	rw := max(1, min(maxRaster, int(math.Round(plotW)), f.Nx+1))
 	rh := max(1, min(maxRaster, int(math.Round(plotH)), f.Ny+1))
-	pngData, err := raster(f, m, lo, hi, rw, rh)
+	pngData, err := raster(f, sc, rw, rh)
 	if err != nil {
 		return err
 	}
@@ -170,14 +169,16 @@ func SVG(w io.Writer, p *Picture) error {
 	escape(&b, "H = "+strconv.FormatFloat(f.H, 'g', 6, 64)+" "+f.LengthUnit)
 	b.WriteString("</text>\n</g>\n")
 
-	legend(&b, m, lo, hi, left+plotW+legendGap, top, legendH, p.LegendUnit)
+	legend(&b, sc, left+plotW+legendGap, top, legendH, p.LegendUnit)
 	b.WriteString("</svg>\n")
 	_, err = w.Write(b.Bytes())
 	return err
 }
 
-// legend draws the colour bar from lo (bottom) to hi (top) at (x, y).
-func legend(b *bytes.Buffer, m *colour.Map, lo, hi, x, y, h float64, unit string) {
+// legend draws the colour bar of the scale, From at the bottom and To at
+// the top, at (x, y).
+func legend(b *bytes.Buffer, sc colour.Scale, x, y, h float64, unit string) {
+	m, lo, hi := sc.Map, sc.From, sc.To
 	const stops = 32
 	b.WriteString(`<defs><linearGradient id="edgewise-legend" x1="0" y1="1" x2="0" y2="0">` + "\n")
 	tab := m.Table(stops + 1)
@@ -232,12 +233,13 @@ func legend(b *bytes.Buffer, m *colour.Map, lo, hi, x, y, h float64, unit string
 // nodes along each side: pixel (px, py) samples the field bilinearly at
 // x = px/(rw-1) W, y = (1 - py/(rh-1)) H, so at full resolution the pixels
 // are the nodes and the corners hold the corner values. Colours come from
-// a 256-entry table of m; NaN nodes make their neighbourhood transparent.
+// a 256-entry table of the scale's map, indexed as the page's canvas
+// indexes it (Scale.Index); NaN nodes make their neighbourhood transparent.
 // The viewer smooths the picture when it scales it to the drawing.
-func raster(f *Field, m *colour.Map, lo, hi float64, rw, rh int) ([]byte, error) {
-	tab := m.Table(256)
+func raster(f *Field, sc colour.Scale, rw, rh int) ([]byte, error) {
+	const n = 256
+	tab := sc.Map.Table(n)
 	img := struct{ Pix []uint8 }{make([]uint8, 4*rw*rh)}
-	span := hi - lo
 	for py := range rh {
 		// row 0 of the image is the top edge y = H
 		gy := (1 - float64(py)/float64(max(rh-1, 1))) * float64(f.Ny)
@@ -252,11 +254,7 @@ func raster(f *Field, m *colour.Map, lo, hi float64, rw, rh int) ([]byte, error)
 			if math.IsNaN(v) {
 				continue // transparent
 			}
-			t := 0.5
-			if span > 0 {
-				t = (v - lo) / span
-			}
-			c := int(math.Round(math.Max(0, math.Min(1, t)) * 255))
+			c := sc.Index(v, n)
 			copy(img.Pix[4*(py*rw+px):], []uint8{tab[3*c], tab[3*c+1], tab[3*c+2], 255})
 		}
 	}

@@ -60,6 +60,7 @@ func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions
 		}
 		pic := &export.Picture{
 			Field:      field(p, out, l),
+			Scale:      out.Result.Colour.Scale(),
 			Title:      p.Title,
 			LegendUnit: with(l.Value, l.ValueUnit),
 			PixelW:     opt.PixelW,
