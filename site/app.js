@@ -606,8 +606,7 @@
   setTimeout(async () => {
     let first = null;
     try {
-      const [units, colours] = await Promise.all([call("units"), call("colours", 256)]);
-      EW.unitsets = units.value;
+      const [, colours] = await Promise.all([EW.loadPhysics(), call("colours", 256)]);
       EW.colours = colours.value;
       first = (window.edgewiseBoot && (await window.edgewiseBoot())) || (await demo());
       await load(first);

@@ -1,7 +1,9 @@
-// edgewise page, part 2 of 4: the picture. Draws the solved field on the
-// canvas #field (heat map through the engine's colour tables, labelled
-// isolines, optional flux arrows, axes to scale, probes, the profile line),
-// the legend, the pointer readout and the line-profile plot.
+// edgewise page: the picture. Draws the solved field on the canvas #field
+// (heat map in the engine's colours (colour.js), labelled isolines,
+// optional flux arrows, axes to scale, probes, the profile line) with its
+// legend, and handles the pointer and the keyboard on it: the readout
+// (readout.js), pinning probes and drawing the profile line (profile.js).
+// Entry point: EW.show(solve); EW.showProbes(list) moves only the probes.
 "use strict";
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
@@ -16,13 +18,12 @@
   let box = null; // plot area in CSS pixels {x0, y0, w, h, scaled}
   let base = null; // offscreen canvas: everything but the pointer layer
   let heat = null; // offscreen canvas: the heat map, one pixel per node
-  let map = null; // {mode, table, lo, hi, t(v)}
+  let map = null; // the colour scale (EW.colour.scale)
   let cursor = null; // {x, y} in field coordinates (pointer or keyboard)
   let profile = null; // {a: {x, y}, b: {x, y}}
   let profileMode = false;
   let drag = null;
   const opts = { iso: true, arrows: false, colours: "auto" };
-  EW.colours = null; // {sequential, diverging: Uint8Array(3n), n}
 
   // ---- sampling ----
 
@@ -44,49 +45,13 @@
   // ---- colour ----
 
   function chooseMap() {
-    const r = S.result;
-    const lo = r.min.value, hi = r.max.value;
-    let mode = opts.colours;
-    if (mode === "auto") {
-      // two-sided when the field really changes sign: the smaller side
-      // reaches at least a tenth of the larger
-      mode = lo < 0 && hi > 0 && Math.min(-lo, hi) >= 0.1 * Math.max(-lo, hi) ? "diverging" : "sequential";
-    }
-    let table = EW.colours && EW.colours[mode];
-    if (!table || !table.length) {
-      // no tables from the engine: a plain grey ramp, still readable
-      table = new Uint8Array(3 * 256);
-      for (let k = 0; k < 256; k++) table[3 * k] = table[3 * k + 1] = table[3 * k + 2] = 40 + Math.round((k * 200) / 255);
-    }
-    const n = table.length / 3;
-    let a = lo, b = hi;
-    if (mode === "diverging") {
-      const m = Math.max(Math.abs(lo), Math.abs(hi)) || 1;
-      a = -m; b = m;
-    }
-    const span = b > a ? b - a : 1;
-    const t = (v) => Math.min(n - 1, Math.max(0, Math.round(((v - a) / span) * (n - 1))));
-    map = { mode, table, lo: a, hi: b, n, index: t };
+    map = EW.colour.scale(S.result, opts.colours);
   }
-  EW.colourMap = () => map && { mode: map.mode, lo: map.lo, hi: map.hi, table: map.table };
+  EW.colourMap = () => map && { mode: map.mode, map: map.map, lo: map.lo, hi: map.hi, table: map.table };
 
   function buildHeat() {
-    const { nx, ny, u } = S;
     heat = heat || document.createElement("canvas");
-    heat.width = nx + 1;
-    heat.height = ny + 1;
-    const ctx = heat.getContext("2d");
-    const img = ctx.createImageData(nx + 1, ny + 1);
-    const d = img.data, tab = map.table;
-    for (let j = 0; j <= ny; j++) {
-      const row = (ny - j) * (nx + 1); // y up
-      for (let i = 0; i <= nx; i++) {
-        const c = 3 * map.index(u[j * (nx + 1) + i]);
-        const k = 4 * (row + i);
-        d[k] = tab[c]; d[k + 1] = tab[c + 1]; d[k + 2] = tab[c + 2]; d[k + 3] = 255;
-      }
-    }
-    ctx.putImageData(img, 0, 0);
+    EW.colour.paint(heat, S, map);
   }
 
   // ---- layout ----
@@ -118,15 +83,7 @@
     y: (1 - (py - box.y0) / box.h) * S.h,
   });
 
-  function size(c, w, h) {
-    const dpr = window.devicePixelRatio || 1;
-    c.width = Math.round(w * dpr);
-    c.height = Math.round(h * dpr);
-    c.style.height = h + "px";
-    const ctx = c.getContext("2d");
-    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
-    return ctx;
-  }
+  const size = EW.sizeCanvas;
 
   // ---- drawing ----
 
@@ -270,83 +227,8 @@
     ctx.restore();
   }
 
-  // drawLegend draws the colour bar beside the picture, or under it on a
-  // narrow screen.
   function drawLegend() {
-    if (horizontal) return drawLegendBelow();
-    const w = 96;
-    const ctx = size(legend, w, box.cssH);
-    legend.style.width = w + "px";
-    ctx.fillStyle = PAPER;
-    ctx.fillRect(0, 0, w, box.cssH);
-    const top = box.y0, h = box.h, x = 6, bw = 16;
-    for (let py = 0; py < h; py++) {
-      const v = map.hi - ((py + 0.5) / h) * (map.hi - map.lo);
-      ctx.fillStyle = rgb(v);
-      ctx.fillRect(x, top + py, bw, 1.5);
-    }
-    ctx.strokeStyle = INK;
-    ctx.strokeRect(x, top, bw, h);
-    ctx.fillStyle = INK;
-    ctx.textAlign = "left";
-    ctx.textBaseline = "middle";
-    const yOf = (t) => top + ((map.hi - t) / (map.hi - map.lo || 1)) * h;
-    for (const [t, end] of legendMarks(yOf, Math.max(3, Math.floor(h / 34)), 13)) {
-      const py = yOf(t);
-      ctx.beginPath(); ctx.moveTo(x + bw, py); ctx.lineTo(x + bw + 4, py); ctx.stroke();
-      ctx.font = (end ? "600 " : "") + "11px system-ui, sans-serif";
-      ctx.fillText(EW.num(t, end ? 4 : 3), x + bw + 6, py);
-    }
-    const u = S.units || {};
-    ctx.textBaseline = "top";
-    ctx.font = "600 11px system-ui, sans-serif";
-    ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x, top + h + 8);
-    ctx.font = "11px system-ui, sans-serif";
-    ctx.fillText(u.value || "", x, top + h + 22);
-  }
-
-  function drawLegendBelow() {
-    const w = box.cssW, hh = 40;
-    const ctx = size(legend, w, hh);
-    legend.style.width = w + "px";
-    ctx.fillStyle = PAPER;
-    ctx.fillRect(0, 0, w, hh);
-    const x0 = box.x0, bw = box.w, y = 4, bh = 12;
-    for (let px = 0; px < bw; px++) {
-      ctx.fillStyle = rgb(map.lo + ((px + 0.5) / bw) * (map.hi - map.lo));
-      ctx.fillRect(x0 + px, y, 1.5, bh);
-    }
-    ctx.strokeStyle = INK;
-    ctx.strokeRect(x0, y, bw, bh);
-    ctx.fillStyle = INK;
-    ctx.textBaseline = "top";
-    const xOf = (t) => x0 + ((t - map.lo) / (map.hi - map.lo || 1)) * bw;
-    for (const [t, end] of legendMarks(xOf, Math.max(3, Math.floor(bw / 70)), 34)) {
-      const px = xOf(t);
-      ctx.beginPath(); ctx.moveTo(px, y + bh); ctx.lineTo(px, y + bh + 4); ctx.stroke();
-      ctx.font = (end ? "600 " : "") + "11px system-ui, sans-serif";
-      ctx.textAlign = t === map.lo ? "left" : t === map.hi ? "right" : "center";
-      ctx.fillText(EW.num(t, end ? 4 : 3), t === map.lo ? px - 2 : t === map.hi ? px + 2 : px, y + bh + 6);
-    }
-    const u = S.units || {};
-    ctx.textAlign = "right";
-    ctx.font = "600 11px system-ui, sans-serif";
-    ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x0 - 6, y);
-  }
-
-  function rgb(v) {
-    const c = 3 * map.index(v);
-    return "rgb(" + map.table[c] + "," + map.table[c + 1] + "," + map.table[c + 2] + ")";
-  }
-
-  // legendMarks returns the ends, labelled always, and round ticks at
-  // least gap pixels from them.
-  function legendMarks(pos, n, gap) {
-    const marks = [[map.hi, true], [map.lo, true]];
-    for (const t of EW.niceTicks(map.lo, map.hi, n)) {
-      if (Math.abs(pos(t) - pos(map.hi)) > gap && Math.abs(pos(t) - pos(map.lo)) > gap) marks.push([t, false]);
-    }
-    return marks;
+    EW.colour.legend(legend, map, box, horizontal, S.units);
   }
 
   // drawTop copies the base and adds what follows the pointer: probes, the
@@ -419,102 +301,14 @@
   // ---- readout ----
 
   function readout(x, y) {
-    const el = $("readout");
-    if (!S || x < 0 || y < 0 || x > S.w || y > S.h) {
-      el.textContent = "Point at the picture to read the field; click (or press Enter) to pin a probe.";
-      return;
-    }
-    el.replaceChildren();
-    const g = sample(x, y);
-    const u = S.units || {};
-    const L = u.length_unit || "m";
-    const gm = Math.hypot(g.ux, g.uy);
-    const qx = -S.kx * g.ux, qy = -S.ky * g.uy;
-    const parts = [
-      ["x, y", EW.num(x, 4) + ", " + EW.num(y, 4) + " " + L],
-      [u.value || "value", EW.withUnit(EW.num(g.u, 5), u.value_unit)],
-    ];
-    if (S.project.physics === "electrostatic") {
-      parts.push(["field strength", EW.withUnit(EW.num(gm, 4), u.gradient_unit) + " (" + EW.num(gm / 1e6, 3) + " kV/mm)"]);
-    } else {
-      parts.push([(u.gradient || "gradient") + " |∇|", EW.withUnit(EW.num(gm, 4), u.gradient_unit)]);
-    }
-    parts.push([u.flux || "flux", EW.withUnit(EW.num(Math.hypot(qx, qy), 4), u.flux_unit) + " " + arrow(qx, qy)]);
-    for (const [k, v] of parts) {
-      const part = document.createElement("span");
-      part.className = "part";
-      const b = document.createElement("b");
-      b.textContent = k + " ";
-      part.append(b, v);
-      el.append(part, " ");
-    }
-  }
-  function arrow(qx, qy) {
-    if (!(Math.hypot(qx, qy) > 0)) return "";
-    const a = (Math.atan2(qy, qx) * 180) / Math.PI;
-    const dirs = ["→", "↗", "↑", "↖", "←", "↙", "↓", "↘"];
-    return dirs[((Math.round(a / 45) % 8) + 8) % 8];
+    const on = S && x >= 0 && y >= 0 && x <= S.w && y <= S.h;
+    EW.readout($("readout"), S, x, y, on ? sample(x, y) : null);
   }
 
   // ---- profile ----
 
   function drawProfile() {
-    const box2 = profileCanvas.parentElement;
-    const cssW = Math.max(240, box2.clientWidth - 4);
-    const cssH = 180;
-    const ctx = size(profileCanvas, cssW, cssH);
-    ctx.fillStyle = PAPER;
-    ctx.fillRect(0, 0, cssW, cssH);
-    if (!S || !profile) return;
-    const { a, b } = profile;
-    const len = Math.hypot(b.x - a.x, b.y - a.y);
-    const N = 200;
-    const vs = [];
-    let lo = Infinity, hi = -Infinity;
-    for (let k = 0; k <= N; k++) {
-      const t = k / N;
-      const v = sample(a.x + t * (b.x - a.x), a.y + t * (b.y - a.y)).u;
-      vs.push(v);
-      if (v < lo) lo = v;
-      if (v > hi) hi = v;
-    }
-    if (!(hi > lo)) { hi = lo + 1; lo = lo - 1; }
-    const m = { l: 58, r: 12, t: 10, b: 34 };
-    const pw = cssW - m.l - m.r, ph = cssH - m.t - m.b;
-    const px = (d) => m.l + (len > 0 ? d / len : 0) * pw;
-    const py = (v) => m.t + (1 - (v - lo) / (hi - lo)) * ph;
-    const u = S.units || {};
-    ctx.strokeStyle = "#d8d3c7";
-    ctx.fillStyle = INK;
-    ctx.font = "11px system-ui, sans-serif";
-    ctx.lineWidth = 1;
-    ctx.textAlign = "right";
-    ctx.textBaseline = "middle";
-    for (const t of EW.niceTicks(lo, hi, 4)) {
-      ctx.beginPath(); ctx.moveTo(m.l, py(t)); ctx.lineTo(m.l + pw, py(t)); ctx.stroke();
-      ctx.fillText(EW.num(t, 4), m.l - 5, py(t));
-    }
-    ctx.textAlign = "center";
-    ctx.textBaseline = "top";
-    for (const t of EW.niceTicks(0, len, 5)) {
-      ctx.beginPath(); ctx.moveTo(px(t), m.t); ctx.lineTo(px(t), m.t + ph); ctx.stroke();
-      ctx.fillText(EW.num(t, 3), px(t), m.t + ph + 4);
-    }
-    ctx.fillText("distance from A to B [" + (u.length_unit || "m") + "]   ·   " + EW.withUnit(u.value || "value", u.value_unit ? "[" + u.value_unit + "]" : ""), m.l + pw / 2, m.t + ph + 18);
-    ctx.strokeStyle = INK;
-    ctx.strokeRect(m.l, m.t, pw, ph);
-    ctx.strokeStyle = "#7a1f4d";
-    ctx.lineWidth = 2;
-    ctx.beginPath();
-    vs.forEach((v, k) => {
-      const d = (k / N) * len;
-      if (k === 0) ctx.moveTo(px(d), py(v));
-      else ctx.lineTo(px(d), py(v));
-    });
-    ctx.stroke();
-    profileCanvas.setAttribute("aria-label", "Line profile from A (" + EW.num(a.x, 3) + ", " + EW.num(a.y, 3) + ") to B (" +
-      EW.num(b.x, 3) + ", " + EW.num(b.y, 3) + "): " + (u.value || "value") + " from " + EW.num(vs[0]) + " to " + EW.num(vs[N]) +
-      ", lowest " + EW.num(lo) + ", highest " + EW.num(hi) + ".");
+    EW.plotProfile(profileCanvas, S, profile, sample);
   }
 
   function setProfileInputs() {

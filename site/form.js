@@ -1,7 +1,7 @@
-// edgewise page, part 3 of 4: the inputs. Builds the four edge blocks,
-// reads the form into a project and fills it from one, labels everything
-// for the chosen physics, shows errors beside the field they name (with a
-// caret under the column for formulas) and draws the small edge previews.
+// edgewise page: the inputs. Builds the four edge blocks, reads the form
+// into a project and fills it from one, shows errors beside the field they
+// name (with a caret under the column for formulas) and draws the small
+// edge previews. The labels for the chosen physics come from physics.js.
 "use strict";
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
@@ -117,7 +117,7 @@
   // fill puts a project into the form.
   EW.fill = function (p) {
     $("in-title").value = p.title || "";
-    $("in-physics").value = ["heat", "electrostatic", "seepage", "generic"].includes(p.physics) ? p.physics : "generic";
+    $("in-physics").value = EW.physicsOf(p.physics).id;
     $("in-width").value = show(p.width);
     $("in-height").value = show(p.height);
     const k = p.conductivity;
@@ -146,52 +146,12 @@
     if (p.grid) extra.grid = p.grid;
     $("k-iso").hidden = ortho;
     $("k-ortho").hidden = !ortho;
-    relabel();
+    EW.relabel();
     clearErrors();
   };
 
   EW.probes = () => probes.map((q) => Object.assign({}, q));
   EW.setProbes = (list) => { probes = list.map((q) => Object.assign({}, q)); };
-
-  // ---- labels for the physics ----
-
-  function relabel() {
-    const phys = $("in-physics").value;
-    const u = (EW.unitsets && EW.unitsets[phys]) || {};
-    const hints = EW.hints[phys] || EW.hints.generic;
-    const kinds = EW.kinds[phys] || EW.kinds.generic;
-    const unit = (x) => (x ? "[" + x + "]" : "");
-    for (const i of document.querySelectorAll("[data-unit]")) {
-      const k = i.dataset.unit;
-      i.textContent = unit(k === "length" ? u.length_unit || "m" : k === "cond" ? u.conductivity_unit : k === "source" ? u.source_unit : "");
-    }
-    for (const b of document.querySelectorAll("[data-q]")) b.textContent = EW.capital(u[b.dataset.q] || b.dataset.q);
-    $("hint-k").textContent = hints.conductivity;
-    $("hint-physics").textContent = hints.value;
-    $("hint-source").textContent = hints.source;
-    for (const side of SIDES) {
-      const kind = $("in-" + side + "-kind");
-      for (const o of kind.options) o.textContent = kinds[o.value];
-      const k = kind.value;
-      const conv = k === "convection";
-      const block = kind.closest("fieldset");
-      block.querySelector(".f-expr").hidden = conv;
-      block.querySelector(".f-conv").hidden = !conv;
-      const hh = $("hint-h-" + side);
-      hh.hidden = !conv;
-      hh.textContent = hints.h;
-      $("in-" + side + "-expr-label").textContent = k === "value"
-        ? EW.capital(u.value || "value") + " " + unit(u.value_unit)
-        : EW.capital(u.flux || "flux") + " in " + unit(u.flux_unit);
-      block.querySelector(".lbl-h").textContent = EW.capital(u.coefficient || "h") + " " + unit(u.coefficient_unit);
-      block.querySelector(".lbl-amb").textContent = "Ambient " + (u.value || "value") + " " + unit(u.value_unit);
-    }
-    $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(u.value_unit);
-    $("probe-head-g").textContent = (phys === "electrostatic" ? "Field strength" : EW.capital(u.gradient || "gradient")) + " " + unit(u.gradient_unit);
-    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " " + unit(u.flux_unit);
-    document.documentElement.dataset.physics = phys;
-  }
-  EW.relabel = relabel;
 
   // ---- errors ----
 
@@ -305,14 +265,14 @@
       const side = t.id.split("-")[1];
       const expr = $("in-" + side + "-expr"), h = $("in-" + side + "-h"), amb = $("in-" + side + "-ambient");
       if (t.value === "convection") {
-        if (!h.value.trim()) h.value = $("in-physics").value === "heat" ? "10" : "1";
+        if (!h.value.trim()) h.value = EW.physicsOf($("in-physics").value).default_h || "1";
         if (!amb.value.trim()) amb.value = expr.value;
       } else if (!expr.value.trim()) {
         expr.value = amb.value.trim() || "0";
       }
     }
     if (t.id === "in-physics" || /-kind$/.test(t.id)) {
-      relabel();
+      EW.relabel();
       EW.edited && EW.edited(t);
     } else if (t.id === "in-ortho") {
       $("k-iso").hidden = t.checked;
@@ -322,9 +282,5 @@
       EW.edited && EW.edited(t);
     }
   });
-  EW.syncOrtho = () => {
-    $("k-iso").hidden = $("in-ortho").checked;
-    $("k-ortho").hidden = !$("in-ortho").checked;
-  };
   EW.SIDES = SIDES;
 })();

@@ -1,68 +1,9 @@
-// edgewise page, part 1 of 4: words and numbers shared by the other parts.
-// The quantity names and units come from the engine (edgewise_units); this
-// file holds what the page says around them: the names of the edge kinds
-// per physics, the typical values shown as hints (each with its source;
-// rules of thumb are marked as common practice), and number formatting.
+// edgewise page: number formatting shared by the other parts (the names,
+// units and hints of each physics come from the engine's physics table:
+// physics.js).
 "use strict";
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
-
-  // Names of the three edge kinds, per physics, with the textbook name as
-  // a secondary hint.
-  EW.kinds = {
-    heat: {
-      value: "Fixed temperature (Dirichlet)",
-      flux: "Heat flux in; 0 = insulated (Neumann)",
-      convection: "Convection to a fluid (Robin)",
-    },
-    electrostatic: {
-      value: "Fixed potential, electrode (Dirichlet)",
-      flux: "Displacement flux in; 0 = symmetry line (Neumann)",
-      convection: "Mixed condition (Robin)",
-    },
-    seepage: {
-      value: "Fixed head, water level (Dirichlet)",
-      flux: "Inflow; 0 = impermeable (Neumann)",
-      convection: "Leaky layer to a head (Robin)",
-    },
-    generic: {
-      value: "Value (Dirichlet)",
-      flux: "Flux in (Neumann)",
-      convection: "Mixed, h (u_amb - u) in (Robin)",
-    },
-  };
-
-  // Typical values shown next to the inputs. Sources: Incropera & DeWitt,
-  // Fundamentals of Heat and Mass Transfer, Tables A.1 (read) and 1.1
-  // (memory); AMS Glossary of Meteorology (read); the critical gradient is
-  // common practice in soil mechanics; the vacuum permittivity is the CODATA
-  // value.
-  EW.hints = {
-    heat: {
-      conductivity: "Typical: stainless steel ≈ 15, carbon steel ≈ 50, aluminium 170–237, copper ≈ 400 W/(m·K) (Incropera, Table A.1).",
-      source: "Heat generated per unit volume, e.g. by a current or a reaction; 0 for none.",
-      h: "Free convection in gases ≈ 2–25, forced ≈ 25–250 W/(m²·K) (Incropera, Table 1.1).",
-      value: "Surfaces above about 60 °C burn skin on brief contact (common practice).",
-    },
-    electrostatic: {
-      conductivity: "Permittivity ε = εr × 8.854×10⁻¹² F/m; dry air εr ≈ 1.",
-      source: "Free charge per unit volume; 0 in an air or vacuum gap.",
-      h: "Rarely needed: a Robin edge models a resistive or capacitive boundary layer.",
-      value: "Dry air at sea level breaks down near 3 kV/mm (AMS Glossary of Meteorology).",
-    },
-    seepage: {
-      conductivity: "Hydraulic conductivity of the ground; layered soils are often more permeable along the layers.",
-      source: "Recharge per unit volume (1/s); 0 for none.",
-      h: "Leakance of a semi-pervious layer: its conductivity over its thickness.",
-      value: "Exit gradients near (Gs − 1)/(1 + e) ≈ 1 start heave and piping (common practice).",
-    },
-    generic: {
-      conductivity: "Coefficient of the equation div(K grad u) + source = 0.",
-      source: "Uniform source term.",
-      h: "Coefficient h of the mixed condition.",
-      value: "",
-    },
-  };
 
   const sup = { "-": "⁻", "0": "⁰", "1": "¹", "2": "²", "3": "³", "4": "⁴", "5": "⁵", "6": "⁶", "7": "⁷", "8": "⁸", "9": "⁹" };
 
@@ -103,6 +44,18 @@
       out.push(Math.abs(t) < step * 1e-9 ? 0 : t);
     }
     return out;
+  };
+
+  // sizeCanvas sizes a canvas to w x h CSS pixels at the screen's pixel
+  // ratio and returns its context, drawing in CSS pixels.
+  EW.sizeCanvas = function (c, w, h) {
+    const dpr = window.devicePixelRatio || 1;
+    c.width = Math.round(w * dpr);
+    c.height = Math.round(h * dpr);
+    c.style.height = h + "px";
+    const ctx = c.getContext("2d");
+    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    return ctx;
   };
 
   // capital makes the first letter a capital.

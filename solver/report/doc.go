@@ -5,13 +5,8 @@
 // the page only lays out. Everything is made here, in Go, so that it is
 // tested natively; no user text is ever interpreted.
 //
-// Units follow the project's physics:
-//
-//	physics        field                  flux            flow (per m depth)  conductivity
-//	heat           temperature [°C]       W/m2            W/m                 W/(m K)
-//	electrostatic  potential [V]          C/m2            C/m                 F/m
-//	seepage        hydraulic head [m]     m/s             m2/s                m/s
-//	generic        value (no units)
-//
-// Lengths are in metres in every physics.
+// Names and units follow the project's physics, from the one table in
+// package physics (solver.Units); lengths are in metres in every physics.
+// Pictures are coloured by the scale the result names (Result.Colour, from
+// colour.Choose), the same as the page's canvas.
 package report
