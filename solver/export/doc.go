@@ -27,7 +27,8 @@
 // SVG: a standalone SVG 1.1/2 document in the SVG namespace only (no other
 // URL, no script, no external reference). The rectangle is drawn to scale
 // (PixelW pixels wide, at most twice that tall), the field as an embedded
-// PNG raster (a data: URL) coloured through a colour map, the isolines as
+// PNG raster (a data: URL) coloured by a colour.Scale (the result's, so
+// that it matches the page's canvas), the isolines as
 // paths with their values written along them, a legend bar with ticks and
 // unit, and the title. All user text passes through xml.EscapeText.
 package export
