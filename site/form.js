@@ -206,12 +206,7 @@
   EW.drawPreview = function (side, s, v, failed) {
     const c = $("pv-" + side);
     const cssW = Math.max(120, c.parentElement.clientWidth - 2), cssH = 46;
-    const dpr = window.devicePixelRatio || 1;
-    c.width = Math.round(cssW * dpr);
-    c.height = Math.round(cssH * dpr);
-    c.style.height = cssH + "px";
-    const ctx = c.getContext("2d");
-    ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    const ctx = EW.sizeCanvas(c, cssW, cssH);
     ctx.fillStyle = "#f1eee6";
     ctx.fillRect(0, 0, cssW, cssH);
     ctx.font = "10px system-ui, sans-serif";
