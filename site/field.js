@@ -49,6 +49,13 @@
   }
   EW.colourMap = () => map && { mode: map.mode, map: map.map, lo: map.lo, hi: map.hi, table: map.table };
 
+  // own tells whether the picture shows the engine's own colour choice,
+  // the one every download uses.
+  function own(r) {
+    const auto = EW.colour.scale(r, "auto");
+    return map.mode === auto.mode && map.lo === auto.lo && map.hi === auto.hi;
+  }
+
   function buildHeat() {
     heat = heat || document.createElement("canvas");
     EW.colour.paint(heat, S, map);
@@ -292,7 +299,8 @@
       EW.num(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
       EW.num(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
       EW.num(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
-      "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") + "." +
+      "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") +
+      (own(S.result) ? "" : " (chosen here; the SVG, PNG and report use the automatic colours)") + "." +
       (opts.arrows ? " Arrows: direction of the " + (u.flux || "flux") + ", length in proportion up to the 90th percentile of its size." : "");
     canvas.setAttribute("aria-label", "Picture of the field. " + text);
     $("field-summary").textContent = text;

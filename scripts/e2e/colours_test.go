@@ -87,6 +87,22 @@ func TestDownloadColoursMatchCanvas(t *testing.T) {
 			if len(distinct) < 4 {
 				t.Errorf("the canvas shows only %d colours at %d places: the test cannot tell maps apart", len(distinct), len(nodes))
 			}
+			// A colour choice of the user's own shows on screen only, and the
+			// page says so; back on automatic the note goes.
+			summary := func(mode string) string {
+				n := eval[int](t, tb, `Number(document.documentElement.dataset.drawn || 0)`)
+				eval[bool](t, tb, `(() => { const s = document.getElementById("opt-colours"); s.value = "`+mode+`";
+				  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+				tb.waitFor(t, fmt.Sprintf(`Number(document.documentElement.dataset.drawn || 0) > %d`, n), "the picture in "+mode+" colours")
+				return eval[string](t, tb, `document.getElementById("field-summary").textContent`)
+			}
+			other := map[string]string{"dusk": "diverging", "ember-tide": "sequential"}[tc.wantMap]
+			if s := summary(other); !strings.Contains(s, "the SVG, PNG and report use the automatic colours") {
+				t.Errorf("with %s colours chosen the summary %q does not say the downloads differ", other, s)
+			}
+			if s := summary("auto"); strings.Contains(s, "automatic colours") {
+				t.Errorf("on automatic colours the summary %q still says they differ", s)
+			}
 			tb.noErrors(t)
 		})
 	}
