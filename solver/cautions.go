@@ -29,7 +29,7 @@ const Deferral = "edgewise solves an idealised two-dimensional steady model: che
 func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string {
 	var list []string
 	u := Units(p.Physics)
-	singular := !(r.Edges.Bottom.Finite && r.Edges.Top.Finite && r.Edges.Left.Finite && r.Edges.Right.Finite)
+	singular := !(r.Edges[problem.Bottom].Finite && r.Edges[problem.Top].Finite && r.Edges[problem.Left].Finite && r.Edges[problem.Right].Finite)
 	switch p.Physics {
 	case Heat:
 		if r.Max.Value >= BurnTemperature {

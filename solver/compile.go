@@ -12,34 +12,18 @@ func Compile(p *Project) (*problem.Problem, error) {
 		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
 		Source: p.Source,
 	}
-	specs := map[problem.Side]EdgeSpec{
-		problem.Bottom: p.Edges.Bottom, problem.Right: p.Edges.Right,
-		problem.Top: p.Edges.Top, problem.Left: p.Edges.Left,
-	}
 	for _, side := range problem.Sides {
-		spec := specs[side]
-		path := "edges." + side.String()
+		spec := p.Edges[side]
+		src, path := spec.data(side)
 		point := func(s float64) (x, y float64) { return pr.Point(side, s) }
-		var e problem.Edge
-		var err error
-		switch spec.Kind {
-		case "value":
-			e.Kind = problem.Value
-			e.F, err = compileFormula(spec.Expr, path+".expr", point, p.Width, p.Height)
-		case "flux":
-			e.Kind = problem.Flux
-			e.F, err = compileFormula(spec.Expr, path+".expr", point, p.Width, p.Height)
-		case "convection":
-			e.Kind = problem.Convection
-			e.Hc = spec.H
-			e.F, err = compileFormula(spec.Ambient, path+".ambient", point, p.Width, p.Height)
-		default:
-			return nil, errorf(path+".kind", "unknown edge kind %q (use value, flux or convection)", spec.Kind)
-		}
+		f, err := compileFormula(src, path, point, p.Width, p.Height)
 		if err != nil {
 			return nil, err
 		}
-		pr.Edges[side] = e
+		pr.Edges[side] = problem.Edge{Kind: spec.Kind, F: f}
+		if spec.Kind == problem.Convection {
+			pr.Edges[side].Hc = spec.H
+		}
 	}
 	if err := pr.Validate(); err != nil {
 		return nil, errorf("", "%v", err)
@@ -47,10 +31,17 @@ func Compile(p *Project) (*problem.Problem, error) {
 	return pr, nil
 }
 
+// data returns the formula that holds the edge's data (the value, the
+// entering flux or the ambient) and its project path.
+func (e EdgeSpec) data(side problem.Side) (src, path string) {
+	if e.Kind == problem.Convection {
+		return e.Ambient, "edges." + side.String() + ".ambient"
+	}
+	return e.Expr, "edges." + side.String() + ".expr"
+}
+
 // exprPath is the project path of the formula that holds an edge's data.
 func exprPath(p *problem.Problem, side problem.Side) string {
-	if p.Edges[side].Kind == problem.Convection {
-		return "edges." + side.String() + ".ambient"
-	}
-	return "edges." + side.String() + ".expr"
+	_, path := EdgeSpec{Kind: p.Edges[side].Kind}.data(side)
+	return path
 }

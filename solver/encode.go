@@ -1,6 +1,9 @@
 package solver
 
-import "edgewise/solver/jsonlite"
+import (
+	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
+)
 
 // JSON returns the project file text (schema "edgewise/1"), in the field
 // order of the contract. A conductivity is one number when isotropic.
@@ -19,15 +22,13 @@ func (p *Project) JSON() []byte {
 	}
 	w.Key("source").Num(p.Source)
 	w.Key("edges").Open('{')
-	for _, e := range []struct {
-		name string
-		spec EdgeSpec
-	}{{"bottom", p.Edges.Bottom}, {"top", p.Edges.Top}, {"left", p.Edges.Left}, {"right", p.Edges.Right}} {
-		w.Key(e.name).Open('{').Key("kind").Str(e.spec.Kind)
-		if e.spec.Kind == "convection" {
-			w.Key("h").Num(e.spec.H).Key("ambient").Str(e.spec.Ambient)
+	for _, side := range problem.Sides {
+		e := p.Edges[side]
+		w.Key(side.String()).Open('{').Key("kind").Str(e.Kind.String())
+		if e.Kind == problem.Convection {
+			w.Key("h").Num(e.H).Key("ambient").Str(e.Ambient)
 		} else {
-			w.Key("expr").Str(e.spec.Expr)
+			w.Key("expr").Str(e.Expr)
 		}
 		w.Close('}')
 	}
@@ -57,13 +58,11 @@ func (r *Result) JSON() []byte {
 	}
 	w.Close(']')
 	w.Key("edges").Open('{')
-	for _, e := range []struct {
-		name string
-		f    EdgeFlow
-	}{{"bottom", r.Edges.Bottom}, {"top", r.Edges.Top}, {"left", r.Edges.Left}, {"right", r.Edges.Right}} {
-		w.Key(e.name).Open('{').Key("flow")
-		numOrNull(&w, e.f.Flow)
-		w.Key("finite").Bool(e.f.Finite).Close('}')
+	for _, side := range problem.Sides {
+		f := r.Edges[side]
+		w.Key(side.String()).Open('{').Key("flow")
+		numOrNull(&w, f.Flow)
+		w.Key("finite").Bool(f.Finite).Close('}')
 	}
 	w.Close('}')
 	w.Key("source_total").Num(r.SourceTotal).Key("balance")

@@ -6,6 +6,8 @@ import (
 	"math"
 	"strings"
 	"testing"
+
+	"edgewise/solver/problem"
 )
 
 // FuzzDecode: no input panics; every error is one line that names a field
@@ -83,18 +85,18 @@ func FuzzSolve(f *testing.F) {
 		coef = math.Copysign(clamp(coef, 0, 1e3), coef)
 		p := &Project{Schema: Schema, Physics: Generic, Width: w, Height: h,
 			Conductivity: Conductivity{kx, ky}, Source: source, Grid: &GridSize{16, 12}}
-		specs := []*EdgeSpec{&p.Edges.Bottom, &p.Edges.Right, &p.Edges.Top, &p.Edges.Left}
 		k, fm := int(kinds)%81, int(forms)
-		for _, e := range specs {
+		for side := range p.Edges {
+			e := &p.Edges[side]
 			formula := fmt.Sprintf(fuzzFormulas[fm%len(fuzzFormulas)], coef)
 			fm /= 2
 			switch k % 3 {
 			case 0:
-				*e = EdgeSpec{Kind: "value", Expr: formula}
+				*e = EdgeSpec{Kind: problem.Value, Expr: formula}
 			case 1:
-				*e = EdgeSpec{Kind: "flux", Expr: formula}
+				*e = EdgeSpec{Kind: problem.Flux, Expr: formula}
 			case 2:
-				*e = EdgeSpec{Kind: "convection", H: hc, Ambient: formula}
+				*e = EdgeSpec{Kind: problem.Convection, H: hc, Ambient: formula}
 			}
 			k /= 3
 		}
@@ -112,7 +114,7 @@ func FuzzSolve(f *testing.F) {
 		}
 		if r.Balance != nil {
 			total := math.Abs(r.SourceTotal)
-			for _, e := range []EdgeFlow{r.Edges.Bottom, r.Edges.Top, r.Edges.Left, r.Edges.Right} {
+			for _, e := range r.Edges {
 				total += math.Abs(*e.Flow)
 			}
 			// conservation (exact identity). Flows are derivatives of the

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
 )
 
 // Schema is the project-file schema this package reads and writes.
@@ -39,20 +40,16 @@ type Project struct {
 // number when isotropic.
 type Conductivity struct{ X, Y float64 }
 
-// Edges holds the four edge conditions.
-type Edges struct {
-	Bottom EdgeSpec `json:"bottom"`
-	Top    EdgeSpec `json:"top"`
-	Left   EdgeSpec `json:"left"`
-	Right  EdgeSpec `json:"right"`
-}
+// Edges holds the four edge conditions, indexed by problem.Side. The JSON
+// object is keyed by the side names.
+type Edges [4]EdgeSpec
 
 // EdgeSpec is one edge condition as the user wrote it.
 type EdgeSpec struct {
-	Kind    string  `json:"kind"`              // "value", "flux" or "convection"
-	Expr    string  `json:"expr,omitempty"`    // value or entering flux (value, flux)
-	H       float64 `json:"h,omitempty"`       // convection coefficient (convection)
-	Ambient string  `json:"ambient,omitempty"` // ambient value (convection)
+	Kind    problem.Kind
+	Expr    string  // value or entering flux (value, flux)
+	H       float64 // convection coefficient (convection)
+	Ambient string  // ambient value (convection)
 }
 
 // Probe is a point where the user wants the value, gradient and flux.
@@ -256,12 +253,12 @@ func (d *decoder) project(v any) *Project {
 	if s, ok := m["source"]; ok {
 		p.Source = d.number(s, "source")
 	}
-	em := d.object(m["edges"], "edges", []string{"bottom", "top", "left", "right"})
-	if em != nil {
-		p.Edges.Bottom = d.edge(em["bottom"], "edges.bottom")
-		p.Edges.Top = d.edge(em["top"], "edges.top")
-		p.Edges.Left = d.edge(em["left"], "edges.left")
-		p.Edges.Right = d.edge(em["right"], "edges.right")
+	em := d.object(m["edges"], "edges", sideNames())
+	for _, side := range problem.Sides {
+		if em == nil {
+			break
+		}
+		p.Edges[side] = d.edge(em[side.String()], "edges."+side.String())
 	}
 	if pv, ok := m["probes"]; ok {
 		p.Probes = d.probes(pv, p)
@@ -294,17 +291,25 @@ func (d *decoder) edge(v any, path string) EdgeSpec {
 		return EdgeSpec{}
 	}
 	if _, ok := m["kind"]; !ok {
-		d.fail(path+".kind", "missing (use value, flux or convection)")
+		d.fail(path+".kind", "missing (use %s)", kindChoice())
 		return EdgeSpec{}
 	}
-	kind := d.text(m["kind"], path+".kind")
+	name := d.text(m["kind"], path+".kind")
+	if d.err != nil {
+		return EdgeSpec{}
+	}
+	kind, ok := problem.ParseKind(name)
+	if !ok {
+		d.fail(path+".kind", "unknown edge kind %q (use %s)", name, kindChoice())
+		return EdgeSpec{}
+	}
 	e := EdgeSpec{Kind: kind}
 	switch kind {
-	case "value", "flux":
+	case problem.Value, problem.Flux:
 		if m = d.object(v, path, []string{"kind", "expr"}); m != nil {
 			e.Expr = d.formula(m["expr"], path+".expr")
 		}
-	case "convection":
+	case problem.Convection:
 		if m = d.object(v, path, []string{"kind", "h", "ambient"}); m != nil {
 			e.H = d.number(m["h"], path+".h")
 			if d.err == nil && e.H < 0 {
@@ -312,10 +317,28 @@ func (d *decoder) edge(v any, path string) EdgeSpec {
 			}
 			e.Ambient = d.formula(m["ambient"], path+".ambient")
 		}
-	default:
-		d.fail(path+".kind", "unknown edge kind %q (use value, flux or convection)", kind)
 	}
 	return e
+}
+
+// sideNames lists the JSON keys of the four edges, in the side order.
+func sideNames() []string {
+	names := make([]string, len(problem.Sides))
+	for i, s := range problem.Sides {
+		names[i] = s.String()
+	}
+	return names
+}
+
+// kindChoice lists the edge kinds for an error message: "value, flux or
+// convection".
+func kindChoice() string {
+	n := len(problem.Kinds)
+	names := make([]string, n)
+	for i, k := range problem.Kinds {
+		names[i] = k.String()
+	}
+	return strings.Join(names[:n-1], ", ") + " or " + names[n-1]
 }
 
 func (d *decoder) probes(v any, p *Project) []Probe {

@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"reflect"
+	"slices"
 	"strings"
 	"testing"
 
@@ -51,8 +52,8 @@ func TestDecodeGood(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if p.Width != 0.4 || p.Conductivity != (Conductivity{50, 50}) || p.Edges.Top.H != 10 ||
-		p.Edges.Right.Expr != "20 + 5*sin(pi*s/H)" || len(p.Probes) != 1 || p.Grid.Nx != 40 {
+	if p.Width != 0.4 || p.Conductivity != (Conductivity{50, 50}) || p.Edges[problem.Top].H != 10 ||
+		p.Edges[problem.Right].Expr != "20 + 5*sin(pi*s/H)" || len(p.Probes) != 1 || p.Grid.Nx != 40 {
 		t.Errorf("decoded %+v", p)
 	}
 	// a round trip through JSON gives the same project
@@ -187,7 +188,7 @@ func TestPreviewEdge(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	s, v, err := PreviewEdge(p, "right", 4)
+	s, v, err := PreviewEdge(p, problem.Right, 4)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -199,8 +200,8 @@ func TestPreviewEdge(t *testing.T) {
 			t.Errorf("sample %d: s=%g v=%g, want s=%g v=%g", i, s[i], v[i], 0.2*float64(i)/4, want[i])
 		}
 	}
-	p.Edges.Top.Ambient = "1/(s - 0.2)"
-	if _, _, err := PreviewEdge(p, "top", 4); err == nil || err.Error() != "edges.top.ambient: not a finite number at s = 0.2" {
+	p.Edges[problem.Top].Ambient = "1/(s - 0.2)"
+	if _, _, err := PreviewEdge(p, problem.Top, 4); err == nil || err.Error() != "edges.top.ambient: not a finite number at s = 0.2" {
 		t.Errorf("error %v, want the place where the ambient is not finite", err)
 	}
 }
@@ -220,13 +221,15 @@ func TestDemoDecodes(t *testing.T) {
 }
 
 // Result.JSON writes the same document as encoding/json (the standard
-// library, the reference) would from the struct's field tags.
+// library, the reference) would from the struct's field tags, except that
+// the edges, an array indexed by side, are an object keyed by the side
+// names in the side order.
 func TestResultJSON(t *testing.T) {
 	f1, f2, cc := 12.5, -3.25e-7, 1.5e-9
 	r := Result{
 		Schema:      ResultSchema,
 		Probes:      []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
-		Edges:       EdgeFlows{Bottom: EdgeFlow{&f1, true}, Top: EdgeFlow{nil, false}, Left: EdgeFlow{&f2, true}, Right: EdgeFlow{&f1, true}},
+		Edges:       EdgeFlows{problem.Bottom: {&f1, true}, problem.Top: {nil, false}, problem.Left: {&f2, true}, problem.Right: {&f1, true}},
 		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
 		Accuracy: Accuracy{Terms: 120, Estimate: 1e-10, Crosscheck: &cc, CrosscheckGrid: "24x12"},
 		Warnings: []string{"w\n1"}, Cautions: []string{"c1", "c2"}, Grid: GridSize{Nx: 10, Ny: 5},
@@ -241,11 +244,21 @@ func TestResultJSON(t *testing.T) {
 		if err := json.Unmarshal(want, &a); err != nil {
 			t.Fatal(err)
 		}
+		a["edges"] = map[string]any{
+			"bottom": map[string]any{"flow": f1, "finite": true},
+			"right":  map[string]any{"flow": f1, "finite": true},
+			"top":    map[string]any{"flow": nil, "finite": false},
+			"left":   map[string]any{"flow": f2, "finite": true},
+		}
 		if err := json.Unmarshal(r.JSON(), &b); err != nil {
 			t.Fatalf("%v in %s", err, r.JSON())
 		}
 		if !reflect.DeepEqual(a, b) {
 			t.Errorf("Result.JSON differs from the struct tags:\n%s\n%s", r.JSON(), want)
+		}
+		text := string(r.JSON())
+		if i := []int{strings.Index(text, `"bottom"`), strings.Index(text, `"right"`), strings.Index(text, `"top"`), strings.Index(text, `"left"`)}; !slices.IsSorted(i) {
+			t.Errorf("edges not in the side order (bottom, right, top, left): %s", text)
 		}
 	}
 }

@@ -32,13 +32,9 @@ type ProbeResult struct {
 	Flux     [2]float64 `json:"flux"`
 }
 
-// EdgeFlows holds the flow through each edge.
-type EdgeFlows struct {
-	Bottom EdgeFlow `json:"bottom"`
-	Top    EdgeFlow `json:"top"`
-	Left   EdgeFlow `json:"left"`
-	Right  EdgeFlow `json:"right"`
-}
+// EdgeFlows holds the flow through each edge, indexed by problem.Side; the
+// JSON object is keyed by the side names.
+type EdgeFlows [4]EdgeFlow
 
 // EdgeFlow is the flow into the region through one edge, per unit depth;
 // Flow is nil (null) when it is infinite.

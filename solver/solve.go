@@ -182,16 +182,7 @@ func report(p *Project, pr *problem.Problem, f field, out *Output, jumps []jump)
 		} else {
 			finite = false
 		}
-		switch side {
-		case problem.Bottom:
-			r.Edges.Bottom = ef
-		case problem.Top:
-			r.Edges.Top = ef
-		case problem.Left:
-			r.Edges.Left = ef
-		case problem.Right:
-			r.Edges.Right = ef
-		}
+		r.Edges[side] = ef
 	}
 	if finite {
 		r.Balance = &sum

@@ -38,7 +38,7 @@ func TestSolveThroughJS(t *testing.T) {
 		t.Fatalf("solve failed: %s", msg)
 	}
 	text, _ := mustGet(t, reply, "result").String()
-	var r solver.Result
+	var r struct{ Probes []solver.ProbeResult }
 	if err := json.Unmarshal([]byte(text), &r); err != nil {
 		t.Fatal(err)
 	}

@@ -4,9 +4,11 @@ package main
 
 import (
 	"errors"
+	"fmt"
 
 	"edgewise/solver"
 	"edgewise/solver/colour"
+	"edgewise/solver/problem"
 
 	"github.com/hack-pad/safejs"
 )
@@ -68,10 +70,14 @@ func previewCall(args []safejs.Value) any {
 
 // previewText is the part of a preview that does not read JavaScript
 // arguments.
-func previewText(text, side string, n int) (s, v []float64, err error) {
+func previewText(text, sideName string, n int) (s, v []float64, err error) {
 	p, err := solver.Decode([]byte(text))
 	if err != nil {
 		return nil, nil, err
+	}
+	side, ok := problem.ParseSide(sideName)
+	if !ok {
+		return nil, nil, &solver.Error{Path: "edges", Msg: fmt.Sprintf("unknown edge %q", sideName)}
 	}
 	return solver.PreviewEdge(p, side, n)
 }

@@ -48,6 +48,19 @@ func (k Kind) String() string {
 	return kindNames[k]
 }
 
+// ParseKind returns the kind whose String is name.
+func ParseKind(name string) (Kind, bool) {
+	for k, n := range kindNames {
+		if n == name {
+			return Kind(k), true
+		}
+	}
+	return 0, false
+}
+
+// Kinds lists the edge kinds in their fixed order.
+var Kinds = [...]Kind{Value, Flux, Convection}
+
 // Side names one edge of the rectangle. The order is counter-clockwise
 // starting at the bottom, so that Side+1 (mod 4) is the next edge
 // counter-clockwise.
@@ -70,6 +83,16 @@ func (s Side) String() string {
 		return fmt.Sprintf("Side(%d)", int(s))
 	}
 	return sideNames[s]
+}
+
+// ParseSide returns the side whose String is name.
+func ParseSide(name string) (Side, bool) {
+	for s, n := range sideNames {
+		if n == name {
+			return Side(s), true
+		}
+	}
+	return 0, false
 }
 
 // Edge is the condition held on one edge.

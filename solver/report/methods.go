@@ -2,6 +2,7 @@ package report
 
 import (
 	"edgewise/solver"
+	"edgewise/solver/problem"
 )
 
 // Methods lists the published methods behind a solve of p, in the words of
@@ -10,18 +11,10 @@ func Methods(p *solver.Project, r *solver.Result) []string {
 	m := []string{
 		"Separation of variables with superposition: one sub-problem per edge carrying that edge's data, the other three edges homogeneous of their own kind.",
 	}
-	kinds := map[string]string{
-		"bottom": p.Edges.Bottom.Kind, "top": p.Edges.Top.Kind,
-		"left": p.Edges.Left.Kind, "right": p.Edges.Right.Kind,
-	}
-	neighbours := map[string][2]string{
-		"bottom": {"left", "right"}, "top": {"left", "right"},
-		"left": {"bottom", "top"}, "right": {"bottom", "top"},
-	}
 	seen := map[string]bool{}
-	for _, s := range []string{"bottom", "top", "left", "right"} {
-		nb := neighbours[s]
-		b := basis(kinds[nb[0]], kinds[nb[1]])
+	for _, s := range problem.Sides {
+		// the neighbours of a side are the sides before and after it
+		b := basis(p.Edges[(s+3)%4].Kind, p.Edges[(s+1)%4].Kind)
 		if !seen[b] {
 			seen[b] = true
 			m = append(m, b)
@@ -37,7 +30,7 @@ func Methods(p *solver.Project, r *solver.Result) []string {
 	if p.Conductivity.X != p.Conductivity.Y {
 		m = append(m, "Orthotropic conductivity mapped onto an isotropic problem by the change of variable y' = y sqrt(kx/ky).")
 	}
-	if allFlux(kinds) {
+	if allFlux(p) {
 		m = append(m, "All edges prescribe flux: a steady state exists only when inflow and source balance; the free constant is fixed by the engine's stated rule.")
 	}
 	m = append(m, "Number of terms chosen from the decay of the coefficient tail, with an error estimate from the tail.")
@@ -52,21 +45,21 @@ func Methods(p *solver.Project, r *solver.Result) []string {
 
 // basis names the Sturm-Liouville basis along an edge whose two
 // neighbouring edges have the given kinds.
-func basis(a, b string) string {
+func basis(a, b problem.Kind) string {
 	switch {
-	case a == "convection" || b == "convection":
+	case a == problem.Convection || b == problem.Convection:
 		return "Robin eigenfunctions along edges next to a convection edge, their eigenvalues the roots of x tan x = Bi, x cot x = -Bi or the two-sided form, found by a safeguarded Newton/bisection iteration."
-	case a == "value" && b == "value":
+	case a == problem.Value && b == problem.Value:
 		return "Sine series along edges between two value edges (coefficients by the discrete sine transform)."
-	case a == "flux" && b == "flux":
+	case a == problem.Flux && b == problem.Flux:
 		return "Cosine series with its constant mode along edges between two flux edges (coefficients by Gauss-Legendre quadrature)."
 	}
 	return "Quarter-wave sine and cosine series along edges between a value edge and a flux edge (coefficients by Gauss-Legendre quadrature)."
 }
 
-func allFlux(kinds map[string]string) bool {
-	for _, k := range kinds {
-		if k != "flux" {
+func allFlux(p *solver.Project) bool {
+	for _, e := range p.Edges {
+		if e.Kind != problem.Flux {
 			return false
 		}
 	}

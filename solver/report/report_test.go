@@ -11,6 +11,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
 )
 
 // square is a unit square with the top edge at 1 and the others at 0: the
@@ -189,8 +190,8 @@ func TestBuild(t *testing.T) {
 	if got := cell(rep.Edges, "top"); got != "value" {
 		t.Errorf("top kind %q", got)
 	}
-	if rep.Edges.Rows[1][2] != "temperature = 1 °C" {
-		t.Errorf("top condition %q", rep.Edges.Rows[1][2])
+	if rep.Edges.Rows[problem.Top][2] != "temperature = 1 °C" {
+		t.Errorf("top condition %q", rep.Edges.Rows[problem.Top][2])
 	}
 	if len(rep.Probes.Rows) != 2 || rep.Probes.Rows[0][0] != "=centre" {
 		t.Errorf("probe rows %q (labels stay as the user wrote them: the page shows them as text)", rep.Probes.Rows)
@@ -212,12 +213,15 @@ func TestBuild(t *testing.T) {
 }
 
 func TestLabelsAndBasis(t *testing.T) {
-	for _, c := range []struct{ a, b, want string }{
-		{"value", "value", "Sine"},
-		{"flux", "flux", "Cosine"},
-		{"value", "flux", "Quarter-wave"},
-		{"flux", "value", "Quarter-wave"},
-		{"flux", "convection", "Robin"},
+	for _, c := range []struct {
+		a, b problem.Kind
+		want string
+	}{
+		{problem.Value, problem.Value, "Sine"},
+		{problem.Flux, problem.Flux, "Cosine"},
+		{problem.Value, problem.Flux, "Quarter-wave"},
+		{problem.Flux, problem.Value, "Quarter-wave"},
+		{problem.Flux, problem.Convection, "Robin"},
 	} {
 		if got := basis(c.a, c.b); !strings.HasPrefix(got, c.want) {
 			t.Errorf("basis(%s, %s) = %q, want %s...", c.a, c.b, got, c.want)

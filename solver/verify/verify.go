@@ -8,6 +8,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
 )
 
 // Schema names the checks-file format.
@@ -36,7 +37,7 @@ type Case struct {
 type Quantity struct {
 	Formula string
 	Probe   string
-	Edge    string
+	Edge    string // a side name, for edge_flow
 }
 
 // Reference is a second solve whose quantity is the expected value (for
@@ -60,7 +61,6 @@ type Outcome struct {
 var (
 	bases    = []string{"exact", "read", "memory", "recomputed", "common practice"}
 	formulas = []string{"probe_value", "edge_flow", "balance", "mean", "torsion_beta", "duct_fre", "decay_rate"}
-	edges    = []string{"bottom", "top", "left", "right"}
 )
 
 // Parse reads a checks file strictly: unknown keys, a wrong schema,
@@ -282,7 +282,7 @@ func (q Quantity) check() error {
 	if needProbe != (q.Probe != "") {
 		return fmt.Errorf("%s: probe given or missing", q.Formula)
 	}
-	if needEdge != (q.Edge != "") || (needEdge && !contains(edges, q.Edge)) {
+	if _, known := problem.ParseSide(q.Edge); needEdge != (q.Edge != "") || (needEdge && !known) {
 		return fmt.Errorf("%s: edge %q (use bottom, top, left or right, only for edge_flow)", q.Formula, q.Edge)
 	}
 	return nil
@@ -396,17 +396,11 @@ func Evaluate(p *solver.Project, r *solver.Result, q Quantity) (float64, error) 
 		}
 		return -p.Height * pr.Gradient[0] / pr.Value, nil
 	case "edge_flow":
-		var f solver.EdgeFlow
-		switch q.Edge {
-		case "bottom":
-			f = r.Edges.Bottom
-		case "top":
-			f = r.Edges.Top
-		case "left":
-			f = r.Edges.Left
-		case "right":
-			f = r.Edges.Right
+		side, known := problem.ParseSide(q.Edge)
+		if !known {
+			return 0, fmt.Errorf("edge_flow: no edge %q", q.Edge)
 		}
+		f := r.Edges[side]
 		if !f.Finite || f.Flow == nil {
 			return 0, fmt.Errorf("edge_flow: the flow through the %s edge is infinite", q.Edge)
 		}
@@ -447,8 +441,8 @@ func zeroEdgesWithSource(p *solver.Project, source float64) error {
 	if p.Conductivity.X != 1 || p.Conductivity.Y != 1 {
 		return fmt.Errorf("needs isotropic conductivity 1")
 	}
-	for _, e := range []solver.EdgeSpec{p.Edges.Bottom, p.Edges.Top, p.Edges.Left, p.Edges.Right} {
-		if e.Kind != "value" || strings.TrimSpace(e.Expr) != "0" {
+	for _, e := range p.Edges {
+		if e.Kind != problem.Value || strings.TrimSpace(e.Expr) != "0" {
 			return fmt.Errorf("needs the four edges at value 0")
 		}
 	}

@@ -8,6 +8,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
 )
 
 // Every published case in the shared checks file passes. The expected
@@ -188,11 +189,11 @@ func meanDuct(a, b float64, m int) float64 {
 // values: this checks the formulas and their reading of the tables
 // independently of the engine.
 func TestDerivedFormulas(t *testing.T) {
-	zero := solver.EdgeSpec{Kind: "value", Expr: "0"}
+	zero := solver.EdgeSpec{Kind: problem.Value, Expr: "0"}
 	proj := func(w, h, source float64) *solver.Project {
 		return &solver.Project{Width: w, Height: h, Source: source,
 			Conductivity: solver.Conductivity{X: 1, Y: 1},
-			Edges:        solver.Edges{Bottom: zero, Top: zero, Left: zero, Right: zero}}
+			Edges:        solver.Edges{zero, zero, zero, zero}}
 	}
 	// Shah & London (1978), fully developed laminar flow, f Re for
 	// rectangular ducts (recalled from memory); three printed decimals.
@@ -221,7 +222,7 @@ func TestDerivedFormulas(t *testing.T) {
 	}
 	// The preconditions hold the formulas to their problems.
 	p := proj(1, 1, 2)
-	p.Edges.Top.Expr = "1"
+	p.Edges[problem.Top].Expr = "1"
 	if _, err := Evaluate(p, &solver.Result{Mean: 1}, Quantity{Formula: "torsion_beta"}); err == nil {
 		t.Errorf("torsion_beta accepted a project with an edge at 1")
 	}
