@@ -55,7 +55,7 @@ test-sweep:
 # healthy run with "context deadline exceeded") to look for new crashes;
 # `make fuzz` fuzzes every target longer, FuzzSolve (the whole engine on
 # random projects) included.
-FUZZ_QUICK := ./solver/expr:FuzzParse ./solver/expr:FuzzEval ./solver/jsonlite:FuzzParse ./solver:FuzzDecode
+FUZZ_QUICK := ./solver/expr:FuzzParse ./solver/expr:FuzzEval ./solver/jsonlite:FuzzParse ./solver/project:FuzzDecode
 FUZZ_ALL   := $(FUZZ_QUICK) ./solver:FuzzSolve
 
 test-fuzz:

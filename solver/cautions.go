@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Rules of thumb behind the cautions.
@@ -26,12 +27,12 @@ const Deferral = "edgewise solves an idealised two-dimensional steady model: che
 	"any decision that depends on it."
 
 // cautions computes the physics-specific cautions from a solved field.
-func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string {
+func cautions(p *project.Project, pr *problem.Problem, out *Output, r *Result) []string {
 	var list []string
 	u := Units(p.Physics)
 	singular := !(r.Edges[problem.Bottom].Finite && r.Edges[problem.Top].Finite && r.Edges[problem.Left].Finite && r.Edges[problem.Right].Finite)
 	switch p.Physics {
-	case Heat:
+	case project.Heat:
 		if r.Max.Value >= BurnTemperature {
 			where := "inside the section"
 			if onBoundary(pr, r.Max.X, r.Max.Y) {
@@ -41,7 +42,7 @@ func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string 
 				"about %g %s can burn within seconds (common practice). Guard or insulate surfaces people can reach.",
 				r.Max.Value, u.ValueUnit, where, r.Max.X, r.Max.Y, BurnTemperature, u.ValueUnit))
 		}
-	case Electrostatic:
+	case project.Electrostatic:
 		peak, x, y := peakGradient(out)
 		kvmm := peak / 1e6
 		var msg string
@@ -62,7 +63,7 @@ func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string 
 			list = append(list, "The field strength is unbounded at a corner where the prescribed potential jumps; the peak "+
 				"above is limited by the output grid. Real electrodes there need rounded edges or a gap.")
 		}
-	case Seepage:
+	case project.Seepage:
 		for _, side := range problem.Sides {
 			if pr.Edges[side].Kind != problem.Value {
 				continue // exit faces are value edges where water leaves

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 func TestFindJumps(t *testing.T) {
@@ -14,7 +15,7 @@ func TestFindJumps(t *testing.T) {
 		p.Edges[s] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
 	}
 	compile := func(src string) func(float64) float64 {
-		f, err := compileFormula(src, "test", func(s float64) (float64, float64) { return s, 4 }, 12, 4)
+		f, err := project.CompileFormula(src, "test", func(s float64) (float64, float64) { return s, 4 }, 12, 4)
 		if err != nil {
 			t.Fatal(err)
 		}

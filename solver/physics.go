@@ -1,5 +1,7 @@
 package solver
 
+import "edgewise/solver/project"
+
 // UnitSet names the quantities and units of one physics, for labels,
 // legends, CSV headers and cautions. Lengths are in metres throughout.
 type UnitSet struct {
@@ -24,24 +26,24 @@ type UnitSet struct {
 // gives the generic set.
 func Units(physics string) UnitSet {
 	switch physics {
-	case Heat:
-		return UnitSet{Physics: Heat,
+	case project.Heat:
+		return UnitSet{Physics: project.Heat,
 			Value: "temperature", ValueUnit: "°C",
 			Gradient: "temperature gradient", GradientUnit: "K/m",
 			Conductivity: "thermal conductivity", CondUnit: "W/(m·K)",
 			Flux: "heat flux", FluxUnit: "W/m²", FlowUnit: "W/m",
 			Source: "heat generation", SourceUnit: "W/m³",
 			Coefficient: "convection coefficient", CoefUnit: "W/(m²·K)", Length: "m"}
-	case Electrostatic:
-		return UnitSet{Physics: Electrostatic,
+	case project.Electrostatic:
+		return UnitSet{Physics: project.Electrostatic,
 			Value: "potential", ValueUnit: "V",
 			Gradient: "potential gradient", GradientUnit: "V/m",
 			Conductivity: "permittivity", CondUnit: "F/m",
 			Flux: "electric displacement", FluxUnit: "C/m²", FlowUnit: "C/m",
 			Source: "charge density", SourceUnit: "C/m³",
 			Coefficient: "Robin coefficient", CoefUnit: "F/m²", Length: "m"}
-	case Seepage:
-		return UnitSet{Physics: Seepage,
+	case project.Seepage:
+		return UnitSet{Physics: project.Seepage,
 			Value: "hydraulic head", ValueUnit: "m",
 			Gradient: "hydraulic gradient", GradientUnit: "m/m",
 			Conductivity: "hydraulic conductivity", CondUnit: "m/s",
@@ -49,7 +51,7 @@ func Units(physics string) UnitSet {
 			Source: "recharge", SourceUnit: "1/s",
 			Coefficient: "leakance", CoefUnit: "1/s", Length: "m"}
 	}
-	return UnitSet{Physics: Generic,
+	return UnitSet{Physics: project.Generic,
 		Value: "u", Gradient: "gradient", Conductivity: "conductivity",
 		Flux: "flux", Source: "source", Coefficient: "Robin coefficient", Length: "m"}
 }

@@ -8,6 +8,7 @@ import (
 	"unsafe"
 
 	"edgewise/solver"
+	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
@@ -46,7 +47,7 @@ func solveCall(args []safejs.Value) any {
 
 // solveText is the part of a call that does not read JavaScript arguments.
 func solveText(text string, opt solver.Options, levels int) any {
-	p, err := solver.Decode([]byte(text))
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return failure(err)
 	}
@@ -78,7 +79,7 @@ func solveText(text string, opt solver.Options, levels int) any {
 // the error has them.
 func failure(err error) map[string]any {
 	r := map[string]any{"ok": false, "error": err.Error(), "path": "", "col": 0}
-	var fe *solver.Error
+	var fe *project.Error
 	if errors.As(err, &fe) {
 		r["path"], r["col"] = fe.Path, fe.Col
 	}

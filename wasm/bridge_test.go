@@ -9,6 +9,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/colour"
+	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
@@ -196,8 +197,8 @@ func TestUnitsThroughJS(t *testing.T) {
 		t.Fatal(err)
 	}
 	heat := mustGet(t, reply, "heat")
-	if v, _ := mustGet(t, heat, "value").String(); v != solver.Units(solver.Heat).Value {
-		t.Errorf("heat value name = %q, want %q", v, solver.Units(solver.Heat).Value)
+	if v, _ := mustGet(t, heat, "value").String(); v != solver.Units(project.Heat).Value {
+		t.Errorf("heat value name = %q, want %q", v, solver.Units(project.Heat).Value)
 	}
 }
 

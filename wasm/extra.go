@@ -9,6 +9,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/colour"
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
@@ -71,13 +72,13 @@ func previewCall(args []safejs.Value) any {
 // previewText is the part of a preview that does not read JavaScript
 // arguments.
 func previewText(text, sideName string, n int) (s, v []float64, err error) {
-	p, err := solver.Decode([]byte(text))
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, nil, err
 	}
 	side, ok := problem.ParseSide(sideName)
 	if !ok {
-		return nil, nil, &solver.Error{Path: "edges", Msg: fmt.Sprintf("unknown edge %q", sideName)}
+		return nil, nil, &project.Error{Path: "edges", Msg: fmt.Sprintf("unknown edge %q", sideName)}
 	}
 	return solver.PreviewEdge(p, side, n)
 }
@@ -86,7 +87,7 @@ func previewText(text, sideName string, n int) (s, v []float64, err error) {
 // the physics name: {ok, heat: {value, value_unit, ...}, electrostatic, ...}.
 func unitsCall([]safejs.Value) any {
 	reply := map[string]any{"ok": true}
-	for _, name := range []string{solver.Heat, solver.Electrostatic, solver.Seepage, solver.Generic} {
+	for _, name := range []string{project.Heat, project.Electrostatic, project.Seepage, project.Generic} {
 		m, err := unitsMap(name)
 		if err != nil {
 			return failure(err)

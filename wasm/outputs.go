@@ -23,6 +23,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/project"
 	"edgewise/solver/report"
 
 	"github.com/hack-pad/safejs"
@@ -136,15 +137,15 @@ func parseOptions(text string) (callOptions, error) {
 	if o.PixelWidth < 0 {
 		return o, errors.New("options: pixel_width must not be negative")
 	}
-	if o.Nx > solver.MaxGrid || o.Ny > solver.MaxGrid {
-		return o, fmt.Errorf("options: at most %d grid intervals per side", solver.MaxGrid)
+	if o.Nx > project.MaxGrid || o.Ny > project.MaxGrid {
+		return o, fmt.Errorf("options: at most %d grid intervals per side", project.MaxGrid)
 	}
 	return o, nil
 }
 
 // solveProject decodes and solves a project for an output.
-func solveProject(text string, o callOptions, crossCheck bool) (*solver.Project, *solver.Output, error) {
-	p, err := solver.Decode([]byte(text))
+func solveProject(text string, o callOptions, crossCheck bool) (*project.Project, *solver.Output, error) {
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, nil, err
 	}
@@ -228,11 +229,11 @@ func validateCall(args []safejs.Value) (map[string]any, error) {
 
 // validateText checks a project as a solve would, without solving.
 func validateText(text string) (map[string]any, error) {
-	p, err := solver.Decode([]byte(text))
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, err
 	}
-	if _, err := solver.Compile(p); err != nil {
+	if _, err := project.Compile(p); err != nil {
 		return nil, err
 	}
 	return map[string]any{"ok": true}, nil

@@ -1,7 +1,7 @@
 // Package problem holds the resolved mathematical problem that every solver
 // in edgewise works on: a rectangle 0 <= x <= W, 0 <= y <= H with
 // conductivity Kx, Ky, a uniform volumetric source, and one condition on each
-// of its four edges. The project file (package solver) is decoded and its
+// of its four edges. The project file (package project) is decoded and its
 // formulas compiled into this form; the series engine and the
 // finite-difference cross-check both read it and never see JSON or text.
 //

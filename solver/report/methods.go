@@ -3,11 +3,12 @@ package report
 import (
 	"edgewise/solver"
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Methods lists the published methods behind a solve of p, in the words of
 // the report.
-func Methods(p *solver.Project, r *solver.Result) []string {
+func Methods(p *project.Project, r *solver.Result) []string {
 	m := []string{
 		"Separation of variables with superposition: one sub-problem per edge carrying that edge's data, the other three edges homogeneous of their own kind.",
 	}
@@ -57,7 +58,7 @@ func basis(a, b problem.Kind) string {
 	return "Quarter-wave sine and cosine series along edges between a value edge and a flux edge (coefficients by Gauss-Legendre quadrature)."
 }
 
-func allFlux(p *solver.Project) bool {
+func allFlux(p *project.Project) bool {
 	for _, e := range p.Edges {
 		if e.Kind != problem.Flux {
 			return false

@@ -6,6 +6,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Table is a titled table of text cells.
@@ -85,7 +86,7 @@ func (r *Report) JSON() []byte {
 }
 
 // Build makes the report of a solved project. date is printed as given.
-func Build(p *solver.Project, out *solver.Output, date, version string) *Report {
+func Build(p *project.Project, out *solver.Output, date, version string) *Report {
 	l := solver.Units(p.Physics)
 	r := &out.Result
 	title := p.Title
@@ -165,7 +166,7 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 }
 
 // condition describes one edge condition with units.
-func condition(e solver.EdgeSpec, l solver.UnitSet) string {
+func condition(e project.EdgeSpec, l solver.UnitSet) string {
 	switch e.Kind {
 	case problem.Value:
 		return l.Value + " = " + e.Expr + unitNote(l.ValueUnit)

@@ -12,6 +12,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // square is a unit square with the top edge at 1 and the others at 0: the
@@ -21,9 +22,9 @@ const square = `{"schema":"edgewise/1","title":"Plate <b>\"A\"</b>, test","physi
  "left":{"kind":"value","expr":"0"},"right":{"kind":"value","expr":"0"}},
  "probes":[{"x":0.5,"y":0.5,"label":"=centre"},{"x":0.25,"y":0.75,"label":"a, b"}],"grid":{"nx":8,"ny":6}}`
 
-func solved(t *testing.T, text string) (*solver.Project, *solver.Output) {
+func solved(t *testing.T, text string) (*project.Project, *solver.Output) {
 	t.Helper()
-	p, err := solver.Decode([]byte(text))
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -9,6 +9,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Schema names the checks-file format.
@@ -190,7 +191,7 @@ func describe(v any) string {
 	return fmt.Sprint(v)
 }
 
-// projectText writes a project subtree back to JSON text for solver.Decode
+// projectText writes a project subtree back to JSON text for project.Decode
 // (which reads it strictly).
 func projectText(v any, where string) ([]byte, error) {
 	if _, ok := v.(map[string]any); !ok {
@@ -357,8 +358,8 @@ func (c *Case) Run(s *solver.Solver) Outcome {
 }
 
 // Compute solves a project and evaluates a quantity of it.
-func Compute(s *solver.Solver, project []byte, q Quantity) (float64, error) {
-	p, err := solver.Decode(project)
+func Compute(s *solver.Solver, text []byte, q Quantity) (float64, error) {
+	p, err := project.Decode(text)
 	if err != nil {
 		return 0, err
 	}
@@ -378,7 +379,7 @@ func Compute(s *solver.Solver, project []byte, q Quantity) (float64, error) {
 }
 
 // Evaluate computes a quantity from a project and its result.
-func Evaluate(p *solver.Project, r *solver.Result, q Quantity) (float64, error) {
+func Evaluate(p *project.Project, r *solver.Result, q Quantity) (float64, error) {
 	switch q.Formula {
 	case "probe_value":
 		pr, err := probe(r, q.Probe)
@@ -434,7 +435,7 @@ func Evaluate(p *solver.Project, r *solver.Result, q Quantity) (float64, error) 
 
 // zeroEdgesWithSource checks the precondition of the derived formulas:
 // -lap(u) = source with u = 0 on the four edges.
-func zeroEdgesWithSource(p *solver.Project, source float64) error {
+func zeroEdgesWithSource(p *project.Project, source float64) error {
 	if p.Source != source {
 		return fmt.Errorf("needs source %g, the project has %g", source, p.Source)
 	}

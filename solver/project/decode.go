@@ -1,4 +1,4 @@
-package solver
+package project
 
 import (
 	"fmt"
@@ -91,7 +91,8 @@ func (e *Error) Error() string {
 	return e.Path + ": " + e.Msg
 }
 
-func errorf(path, format string, args ...any) *Error {
+// Errorf returns an *Error for the field at path.
+func Errorf(path, format string, args ...any) *Error {
 	return &Error{Path: path, Msg: fmt.Sprintf(format, args...)}
 }
 
@@ -100,11 +101,11 @@ func errorf(path, format string, args ...any) *Error {
 // name the field path. Formulas are checked by Compile, not here.
 func Decode(data []byte) (*Project, error) {
 	if len(data) > maxFileBytes {
-		return nil, errorf("", "project file is larger than %d bytes", maxFileBytes)
+		return nil, Errorf("", "project file is larger than %d bytes", maxFileBytes)
 	}
 	v, err := jsonlite.Parse(data)
 	if err != nil {
-		return nil, errorf("", "not a project file: %v", err)
+		return nil, Errorf("", "not a project file: %v", err)
 	}
 	d := decoder{}
 	p := d.project(v)
@@ -119,7 +120,7 @@ type decoder struct{ err *Error }
 
 func (d *decoder) fail(path, format string, args ...any) {
 	if d.err == nil {
-		d.err = errorf(path, format, args...)
+		d.err = Errorf(path, format, args...)
 	}
 }
 

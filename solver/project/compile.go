@@ -1,0 +1,56 @@
+package project
+
+import (
+	"edgewise/solver/problem"
+)
+
+// Compile turns a decoded project into the mathematical problem, compiling
+// every formula. Errors name the field path and, for formulas, the column.
+func Compile(p *Project) (*problem.Problem, error) {
+	pr := &problem.Problem{
+		W: p.Width, H: p.Height,
+		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
+		Source: p.Source,
+	}
+	for _, side := range problem.Sides {
+		f, _, err := p.EdgeData(side)
+		if err != nil {
+			return nil, err
+		}
+		spec := p.Edges[side]
+		pr.Edges[side] = problem.Edge{Kind: spec.Kind, F: f}
+		if spec.Kind == problem.Convection {
+			pr.Edges[side].Hc = spec.H
+		}
+	}
+	if err := pr.Validate(); err != nil {
+		return nil, Errorf("", "%v", err)
+	}
+	return pr, nil
+}
+
+// EdgeData compiles the formula that holds an edge's data (the value, the
+// entering flux or the ambient, whichever its kind takes) into a function
+// of the distance s along the edge, and returns its project path.
+func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, path string, err error) {
+	spec := p.Edges[side]
+	src := spec.Expr
+	if spec.Kind == problem.Convection {
+		src = spec.Ambient
+	}
+	path = DataPath(side, spec.Kind)
+	pr := problem.Problem{W: p.Width, H: p.Height}
+	point := func(s float64) (x, y float64) { return pr.Point(side, s) }
+	f, err = CompileFormula(src, path, point, p.Width, p.Height)
+	return f, path, err
+}
+
+// DataPath is the project path of the formula that holds the data of an
+// edge of the given kind: edges.<side>.ambient for convection,
+// edges.<side>.expr otherwise.
+func DataPath(side problem.Side, kind problem.Kind) string {
+	if kind == problem.Convection {
+		return "edges." + side.String() + ".ambient"
+	}
+	return "edges." + side.String() + ".expr"
+}
