@@ -51,11 +51,11 @@ func FuzzSolve(f *testing.F) {
 			fm /= 2
 			switch k % 3 {
 			case 0:
-				*e = project.EdgeSpec{Kind: problem.Value, Expr: formula}
+				*e = project.Whole(project.Segment{Kind: problem.Value, Expr: formula})
 			case 1:
-				*e = project.EdgeSpec{Kind: problem.Flux, Expr: formula}
+				*e = project.Whole(project.Segment{Kind: problem.Flux, Expr: formula})
 			case 2:
-				*e = project.EdgeSpec{Kind: problem.Convection, H: hc, Ambient: formula}
+				*e = project.Whole(project.Segment{Kind: problem.Convection, H: hc, Ambient: formula})
 			}
 			k /= 3
 		}

@@ -68,7 +68,7 @@ func TestJumpInsideEdgeInResult(t *testing.T) {
 		t.Errorf("warnings %q", r.Warnings)
 	}
 	// the suggested formula is itself valid and smooth
-	p.Edges[problem.Top].Expr = "8 + (-6)*rise(s, 6, 0.12)"
+	p.Edges[problem.Top].Segments[0].Expr = "8 + (-6)*rise(s, 6, 0.12)"
 	var s Solver
 	out, err := s.Solve(p, Options{})
 	if err != nil {

@@ -15,7 +15,7 @@ func PreviewEdge(p *project.Project, e problem.Side, n int) (s, v []float64, err
 	if n < 1 || n > 4096 {
 		panic("solver: PreviewEdge needs 1 <= n <= 4096")
 	}
-	f, path, err := p.EdgeData(e)
+	f, _, path, err := p.EdgeData(e)
 	if err != nil {
 		return nil, nil, err
 	}

@@ -43,7 +43,7 @@ func TestPreviewEdge(t *testing.T) {
 			t.Errorf("sample %d: s=%g v=%g, want s=%g v=%g", i, s[i], v[i], 0.2*float64(i)/4, want[i])
 		}
 	}
-	p.Edges[problem.Top].Ambient = "1/(s - 0.2)"
+	p.Edges[problem.Top].Segments[0].Ambient = "1/(s - 0.2)"
 	if _, _, err := PreviewEdge(p, problem.Top, 4); err == nil || err.Error() != "edges.top.ambient: not a finite number at s = 0.2" {
 		t.Errorf("error %v, want the place where the ambient is not finite", err)
 	}

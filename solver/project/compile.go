@@ -13,14 +13,13 @@ func Compile(p *Project) (*problem.Problem, error) {
 		Source: p.Source,
 	}
 	for _, side := range problem.Sides {
-		f, _, err := p.EdgeData(side)
+		f, seg, _, err := p.EdgeData(side)
 		if err != nil {
 			return nil, err
 		}
-		spec := p.Edges[side]
-		pr.Edges[side] = problem.Edge{Kind: spec.Kind, F: f}
-		if spec.Kind == problem.Convection {
-			pr.Edges[side].Hc = spec.H
+		pr.Edges[side] = problem.Edge{Kind: seg.Kind, F: f}
+		if seg.Kind == problem.Convection {
+			pr.Edges[side].Hc = seg.H
 		}
 	}
 	if err := pr.Validate(); err != nil {
@@ -31,18 +30,18 @@ func Compile(p *Project) (*problem.Problem, error) {
 
 // EdgeData compiles the formula that holds an edge's data (the value, the
 // entering flux or the ambient, whichever its kind takes) into a function
-// of the distance s along the edge, and returns its project path.
-func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, path string, err error) {
-	spec := p.Edges[side]
-	src := spec.Expr
-	if spec.Kind == problem.Convection {
-		src = spec.Ambient
+// of the distance s along the edge, and returns the edge's segment and the
+// formula's project path. The edge must be one segment.
+func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, seg Segment, path string, err error) {
+	seg, ok := p.Edges[side].Whole()
+	if !ok {
+		return nil, seg, "", Errorf("edges."+side.String(), "an edge of %d segments cannot be solved yet", len(p.Edges[side].Segments))
 	}
-	path = DataPath(side, spec.Kind)
+	path = DataPath(side, seg.Kind)
 	pr := problem.Problem{W: p.Width, H: p.Height}
 	point := func(s float64) (x, y float64) { return pr.Point(side, s) }
-	f, err = CompileFormula(src, path, point, p.Width, p.Height)
-	return f, path, err
+	f, err = CompileFormula(seg.data(), path, point, p.Width, p.Height)
+	return f, seg, path, err
 }
 
 // DataPath is the project path of the formula that holds the data of an

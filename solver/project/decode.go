@@ -40,18 +40,6 @@ type Project struct {
 // number when isotropic.
 type Conductivity struct{ X, Y float64 }
 
-// Edges holds the four edge conditions, indexed by problem.Side. The JSON
-// object is keyed by the side names.
-type Edges [4]EdgeSpec
-
-// EdgeSpec is one edge condition as the user wrote it.
-type EdgeSpec struct {
-	Kind    problem.Kind
-	Expr    string  // value or entering flux (value, flux)
-	H       float64 // convection coefficient (convection)
-	Ambient string  // ambient value (convection)
-}
-
 // Probe is a point where the user wants the value, gradient and flux.
 type Probe struct {
 	X     float64 `json:"x"`
@@ -285,26 +273,33 @@ func (d *decoder) conductivity(v any, path string) Conductivity {
 	return Conductivity{X: k, Y: k}
 }
 
-func (d *decoder) edge(v any, path string) EdgeSpec {
+// edge reads one edge in its one-condition form {"kind": ..} as an edge of
+// one segment.
+func (d *decoder) edge(v any, path string) Edge {
+	return Whole(d.segment(v, path))
+}
+
+// segment reads one condition: its kind and the data that kind takes.
+func (d *decoder) segment(v any, path string) Segment {
 	m, ok := v.(map[string]any)
 	if !ok {
 		d.fail(path, "expected an object {\"kind\": ..}, got %s", describe(v))
-		return EdgeSpec{}
+		return Segment{}
 	}
 	if _, ok := m["kind"]; !ok {
 		d.fail(path+".kind", "missing (use %s)", kindChoice())
-		return EdgeSpec{}
+		return Segment{}
 	}
 	name := d.text(m["kind"], path+".kind")
 	if d.err != nil {
-		return EdgeSpec{}
+		return Segment{}
 	}
 	kind, ok := problem.ParseKind(name)
 	if !ok {
 		d.fail(path+".kind", "unknown edge kind %q (use %s)", name, kindChoice())
-		return EdgeSpec{}
+		return Segment{}
 	}
-	e := EdgeSpec{Kind: kind}
+	e := Segment{Kind: kind}
 	switch kind {
 	case problem.Value, problem.Flux:
 		if m = d.object(v, path, []string{"kind", "expr"}); m != nil {

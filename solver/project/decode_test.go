@@ -50,8 +50,8 @@ func TestDecodeGood(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if p.Width != 0.4 || p.Conductivity != (Conductivity{50, 50}) || p.Edges[problem.Top].H != 10 ||
-		p.Edges[problem.Right].Expr != "20 + 5*sin(pi*s/H)" || len(p.Probes) != 1 || p.Grid.Nx != 40 {
+	if p.Width != 0.4 || p.Conductivity != (Conductivity{50, 50}) || p.Edges[problem.Top].Segments[0].H != 10 ||
+		p.Edges[problem.Right].Segments[0].Expr != "20 + 5*sin(pi*s/H)" || len(p.Probes) != 1 || p.Grid.Nx != 40 {
 		t.Errorf("decoded %+v", p)
 	}
 	// a round trip through JSON gives the same project
@@ -73,6 +73,43 @@ func TestDecodeGood(t *testing.T) {
 	b2 := q.JSON()
 	if string(b) != string(b2) {
 		t.Errorf("round trip changed the project:\n%s\n%s", b, b2)
+	}
+}
+
+// An edge in the one-condition form is one segment; the segments form is
+// not read yet (the engine cannot solve it), and an edge of more than one
+// segment built in Go is refused by Compile with its path, and written in
+// the segments form.
+func TestEdgeIsOneSegment(t *testing.T) {
+	p, err := Decode([]byte(baseProject))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, side := range problem.Sides {
+		if n := len(p.Edges[side].Segments); n != 1 {
+			t.Errorf("%v: %d segments, want 1", side, n)
+		}
+	}
+	want := Segment{Kind: problem.Convection, H: 10, Ambient: "20"}
+	if got, ok := p.Edges[problem.Top].Whole(); !ok || got != want {
+		t.Errorf("top edge %+v, %v; want %+v", got, ok, want)
+	}
+	_, err = Decode(mutate(t, func(m map[string]any) {
+		edges(m)["top"] = map[string]any{"segments": []any{map[string]any{"kind": "value", "expr": "1"}}}
+	}))
+	if err == nil || err.Error() != "edges.top.kind: missing (use value, flux or convection)" {
+		t.Errorf("segments form: error %v, want it refused as before", err)
+	}
+	p.Edges[problem.Top] = Edge{Segments: []Segment{
+		{To: 0.1, Kind: problem.Value, Expr: "12"},
+		{Kind: problem.Flux, Expr: "0"},
+	}}
+	if _, err := Compile(p); err == nil || err.Error() != "edges.top: an edge of 2 segments cannot be solved yet" {
+		t.Errorf("compile of two segments: error %v", err)
+	}
+	const top = `"top":{"segments":[{"to":0.1,"kind":"value","expr":"12"},{"kind":"flux","expr":"0"}]}`
+	if text := string(p.JSON()); !strings.Contains(text, top) {
+		t.Errorf("two segments written as\n%s\nwant %s", text, top)
 	}
 }
 

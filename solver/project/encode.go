@@ -23,14 +23,8 @@ func (p *Project) JSON() []byte {
 	w.Key("source").Num(p.Source)
 	w.Key("edges").Open('{')
 	for _, side := range problem.Sides {
-		e := p.Edges[side]
-		w.Key(side.String()).Open('{').Key("kind").Str(e.Kind.String())
-		if e.Kind == problem.Convection {
-			w.Key("h").Num(e.H).Key("ambient").Str(e.Ambient)
-		} else {
-			w.Key("expr").Str(e.Expr)
-		}
-		w.Close('}')
+		w.Key(side.String())
+		p.Edges[side].write(&w)
 	}
 	w.Close('}')
 	w.Key("probes").Open('[')

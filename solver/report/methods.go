@@ -14,11 +14,10 @@ func Methods(p *project.Project, r *solver.Result) []string {
 	}
 	seen := map[string]bool{}
 	for _, s := range problem.Sides {
-		// the neighbours of a side are the sides before and after it
-		b := basis(p.Edges[(s+3)%4].Kind, p.Edges[(s+1)%4].Kind)
-		if !seen[b] {
-			seen[b] = true
-			m = append(m, b)
+		desc := basis(neighbours(p, s))
+		if !seen[desc] {
+			seen[desc] = true
+			m = append(m, desc)
 		}
 	}
 	m = append(m,
@@ -58,10 +57,29 @@ func basis(a, b problem.Kind) string {
 	return "Quarter-wave sine and cosine series along edges between a value edge and a flux edge (coefficients by Gauss-Legendre quadrature)."
 }
 
+// neighbours returns the kinds held next to the two ends of side s: those
+// of the segments of the neighbouring edges that touch its corners.
+func neighbours(p *project.Project, s problem.Side) (atStart, atEnd problem.Kind) {
+	first := func(e project.Edge) problem.Kind { return e.Segments[0].Kind }
+	last := func(e project.Edge) problem.Kind { return e.Segments[len(e.Segments)-1].Kind }
+	e := &p.Edges
+	switch s {
+	case problem.Bottom:
+		return first(e[problem.Left]), first(e[problem.Right])
+	case problem.Top:
+		return last(e[problem.Left]), last(e[problem.Right])
+	case problem.Left:
+		return first(e[problem.Bottom]), first(e[problem.Top])
+	}
+	return last(e[problem.Bottom]), last(e[problem.Top])
+}
+
 func allFlux(p *project.Project) bool {
 	for _, e := range p.Edges {
-		if e.Kind != problem.Flux {
-			return false
+		for _, s := range e.Segments {
+			if s.Kind != problem.Flux {
+				return false
+			}
 		}
 	}
 	return true

@@ -117,8 +117,14 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 	rep.Edges = Table{Caption: "Edge conditions (s runs along the edge: bottom and top from the left, left and right from the bottom)",
 		Head: []string{"edge", "kind", "condition"}}
 	for _, side := range problem.Sides {
-		e := p.Edges[side]
-		add(&rep.Edges, side.String(), e.Kind.String(), condition(e, l))
+		segs := p.Edges[side].Segments
+		for i, s := range segs {
+			c := condition(s, l)
+			if i < len(segs)-1 {
+				c += " up to s = " + num(s.To) + unitNote(l.Length)
+			}
+			add(&rep.Edges, side.String(), s.Kind.String(), c)
+		}
 	}
 
 	rep.Extremes = Table{Caption: "Extremes on the output grid and mean",
@@ -166,7 +172,7 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 }
 
 // condition describes one edge condition with units.
-func condition(e project.EdgeSpec, l solver.UnitSet) string {
+func condition(e project.Segment, l solver.UnitSet) string {
 	switch e.Kind {
 	case problem.Value:
 		return l.Value + " = " + e.Expr + unitNote(l.ValueUnit)

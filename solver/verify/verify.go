@@ -443,8 +443,10 @@ func zeroEdgesWithSource(p *project.Project, source float64) error {
 		return fmt.Errorf("needs isotropic conductivity 1")
 	}
 	for _, e := range p.Edges {
-		if e.Kind != problem.Value || strings.TrimSpace(e.Expr) != "0" {
-			return fmt.Errorf("needs the four edges at value 0")
+		for _, s := range e.Segments {
+			if s.Kind != problem.Value || strings.TrimSpace(s.Expr) != "0" {
+				return fmt.Errorf("needs the four edges at value 0")
+			}
 		}
 	}
 	return nil

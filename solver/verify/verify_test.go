@@ -190,11 +190,11 @@ func meanDuct(a, b float64, m int) float64 {
 // values: this checks the formulas and their reading of the tables
 // independently of the engine.
 func TestDerivedFormulas(t *testing.T) {
-	zero := project.EdgeSpec{Kind: problem.Value, Expr: "0"}
+	zero := project.Segment{Kind: problem.Value, Expr: "0"}
 	proj := func(w, h, source float64) *project.Project {
 		return &project.Project{Width: w, Height: h, Source: source,
 			Conductivity: project.Conductivity{X: 1, Y: 1},
-			Edges:        project.Edges{zero, zero, zero, zero}}
+			Edges:        project.Edges{project.Whole(zero), project.Whole(zero), project.Whole(zero), project.Whole(zero)}}
 	}
 	// Shah & London (1978), fully developed laminar flow, f Re for
 	// rectangular ducts (recalled from memory); three printed decimals.
@@ -223,7 +223,7 @@ func TestDerivedFormulas(t *testing.T) {
 	}
 	// The preconditions hold the formulas to their problems.
 	p := proj(1, 1, 2)
-	p.Edges[problem.Top].Expr = "1"
+	p.Edges[problem.Top].Segments[0].Expr = "1"
 	if _, err := Evaluate(p, &solver.Result{Mean: 1}, Quantity{Formula: "torsion_beta"}); err == nil {
 		t.Errorf("torsion_beta accepted a project with an edge at 1")
 	}
