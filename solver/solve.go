@@ -58,16 +58,7 @@ func GridFor(p *project.Project, opt Options) (nx, ny int) {
 	case p.Grid != nil:
 		return p.Grid.Nx, p.Grid.Ny
 	}
-	return Proportional(p.Width, p.Height, DefaultGrid)
-}
-
-// Proportional returns n intervals along the longer side of a w x h
-// rectangle and the shorter side in proportion, at least 2 each.
-func Proportional(w, h float64, n int) (nx, ny int) {
-	if w >= h {
-		return n, max(2, int(math.Round(float64(n)*h/w)))
-	}
-	return max(2, int(math.Round(float64(n)*w/h))), n
+	return problem.Proportional(p.Width, p.Height, DefaultGrid)
 }
 
 // Solve solves a decoded project.

@@ -30,6 +30,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/export"
+	"edgewise/solver/problem"
 	"edgewise/solver/project"
 )
 
@@ -82,7 +83,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	}
 	opt := solver.Options{}
 	if *grid > 0 {
-		opt.Nx, opt.Ny = solver.Proportional(p.Width, p.Height, *grid)
+		opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, *grid)
 	}
 	var s solver.Solver
 	out, err := s.Solve(p, opt)

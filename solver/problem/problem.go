@@ -28,7 +28,10 @@
 // (s = x), left and right from the bottom end (s = y).
 package problem
 
-import "fmt"
+import (
+	"fmt"
+	"math"
+)
 
 // Kind is the kind of condition held on an edge.
 type Kind int
@@ -198,6 +201,34 @@ func (p *Problem) Validate() error {
 		}
 	}
 	return nil
+}
+
+// Proportional picks a grid (nx, ny) of intervals for a w x h rectangle:
+// n along the longer side and the shorter side in proportion. It is the one
+// rule for every grid edgewise makes: the output grid, the cross-check's
+// and the published checks'.
+//
+// The rule: the longer side gets max(n, 2) intervals, the shorter side
+// round(max(n, 2) * shorter/longer), but at least 2. So the grid never has
+// more than (n+1)^2 nodes, whatever the aspect; a very thin rectangle gets 2
+// intervals across and long, flat cells. For an orthotropic problem pass the
+// mapped height H*sqrt(Kx/Ky) to get cells that are square in the mapped
+// variables. If w or h is not a positive finite number (bad user data that
+// the decoder reports), both sides get max(n, 2) intervals.
+func Proportional(w, h float64, n int) (nx, ny int) {
+	n = max(n, 2)
+	if !(w > 0) || !(h > 0) || math.IsInf(w, 1) || math.IsInf(h, 1) {
+		return n, n
+	}
+	long, short := w, h
+	if h > w {
+		long, short = h, w
+	}
+	m := max(int(math.Round(float64(n)*(short/long))), 2)
+	if w >= h {
+		return n, m
+	}
+	return m, n
 }
 
 // Const returns an edge data function that is the constant v.

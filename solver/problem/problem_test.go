@@ -1,6 +1,9 @@
 package problem
 
-import "testing"
+import (
+	"math"
+	"testing"
+)
 
 func TestParseSideRoundTrip(t *testing.T) {
 	for _, s := range Sides {
@@ -45,6 +48,35 @@ func TestSidesCounterClockwise(t *testing.T) {
 		}
 		if x0 != x1 || y0 != y1 {
 			t.Errorf("%v ends at (%g, %g), %v starts at (%g, %g)", s, x1, y1, n, x0, y0)
+		}
+	}
+}
+
+// Proportional: the longer side gets n intervals, the shorter round(n * aspect)
+// but at least 2, for aspects from 1e-3 to 1e3.
+func TestProportional(t *testing.T) {
+	tests := []struct {
+		w, h   float64
+		n      int
+		nx, ny int
+	}{
+		{1, 1, 32, 32, 32},
+		{2, 1, 32, 32, 16},
+		{1, 2, 32, 16, 32},
+		{0.4, 0.15, 40, 40, 15},
+		{1, 1e-3, 32, 32, 2},
+		{1e-3, 1, 32, 2, 32},
+		{1e3, 1, 48, 48, 2},
+		{1, 1, 1, 2, 2}, // n below 2 is raised to 2
+		// errors: bad sides give n x n and leave the report to Solve
+		{math.NaN(), 1, 16, 16, 16},
+		{1, -2, 16, 16, 16},
+		{math.Inf(1), 1, 8, 8, 8},
+		{0, 0, 8, 8, 8},
+	}
+	for _, tt := range tests {
+		if nx, ny := Proportional(tt.w, tt.h, tt.n); nx != tt.nx || ny != tt.ny {
+			t.Errorf("Proportional(%g, %g, %d) = %d, %d, want %d, %d", tt.w, tt.h, tt.n, nx, ny, tt.nx, tt.ny)
 		}
 	}
 }

@@ -363,7 +363,7 @@ func Compute(s *solver.Solver, text []byte, q Quantity) (float64, error) {
 	if err != nil {
 		return 0, err
 	}
-	nx, ny := solver.Proportional(p.Width, p.Height, 16)
+	nx, ny := problem.Proportional(p.Width, p.Height, 16)
 	out, err := s.Solve(p, solver.Options{Nx: nx, Ny: ny, NoCrossCheck: true})
 	if err != nil {
 		return 0, err
