@@ -17,10 +17,7 @@ func Compile(p *Project) (*problem.Problem, error) {
 		if err != nil {
 			return nil, err
 		}
-		pr.Edges[side] = problem.Edge{Kind: seg.Kind, F: f}
-		if seg.Kind == problem.Convection {
-			pr.Edges[side].Hc = seg.H
-		}
+		pr.Edges[side] = problem.Edge{Kind: seg.Kind, F: f, Hc: seg.H}
 	}
 	if err := pr.Validate(); err != nil {
 		return nil, Errorf("", "%v", err)
@@ -37,19 +34,10 @@ func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, seg Se
 	if !ok {
 		return nil, seg, "", Errorf("edges."+side.String(), "an edge of %d segments cannot be solved yet", len(p.Edges[side].Segments))
 	}
-	path = DataPath(side, seg.Kind)
+	src, key := seg.data()
+	path = "edges." + side.String() + "." + key
 	pr := problem.Problem{W: p.Width, H: p.Height}
 	point := func(s float64) (x, y float64) { return pr.Point(side, s) }
-	f, err = CompileFormula(seg.data(), path, point, p.Width, p.Height)
+	f, err = CompileFormula(src, path, point, p.Width, p.Height)
 	return f, seg, path, err
-}
-
-// DataPath is the project path of the formula that holds the data of an
-// edge of the given kind: edges.<side>.ambient for convection,
-// edges.<side>.expr otherwise.
-func DataPath(side problem.Side, kind problem.Kind) string {
-	if kind == problem.Convection {
-		return "edges." + side.String() + ".ambient"
-	}
-	return "edges." + side.String() + ".expr"
 }

@@ -273,50 +273,6 @@ func (d *decoder) conductivity(v any, path string) Conductivity {
 	return Conductivity{X: k, Y: k}
 }
 
-// edge reads one edge in its one-condition form {"kind": ..} as an edge of
-// one segment.
-func (d *decoder) edge(v any, path string) Edge {
-	return Whole(d.segment(v, path))
-}
-
-// segment reads one condition: its kind and the data that kind takes.
-func (d *decoder) segment(v any, path string) Segment {
-	m, ok := v.(map[string]any)
-	if !ok {
-		d.fail(path, "expected an object {\"kind\": ..}, got %s", describe(v))
-		return Segment{}
-	}
-	if _, ok := m["kind"]; !ok {
-		d.fail(path+".kind", "missing (use %s)", kindChoice())
-		return Segment{}
-	}
-	name := d.text(m["kind"], path+".kind")
-	if d.err != nil {
-		return Segment{}
-	}
-	kind, ok := problem.ParseKind(name)
-	if !ok {
-		d.fail(path+".kind", "unknown edge kind %q (use %s)", name, kindChoice())
-		return Segment{}
-	}
-	e := Segment{Kind: kind}
-	switch kind {
-	case problem.Value, problem.Flux:
-		if m = d.object(v, path, []string{"kind", "expr"}); m != nil {
-			e.Expr = d.formula(m["expr"], path+".expr")
-		}
-	case problem.Convection:
-		if m = d.object(v, path, []string{"kind", "h", "ambient"}); m != nil {
-			e.H = d.number(m["h"], path+".h")
-			if d.err == nil && e.H < 0 {
-				d.fail(path+".h", "convection coefficient must be zero or more, got %g", e.H)
-			}
-			e.Ambient = d.formula(m["ambient"], path+".ambient")
-		}
-	}
-	return e
-}
-
 // sideNames lists the JSON keys of the four edges, in the side order.
 func sideNames() []string {
 	names := make([]string, len(problem.Sides))
@@ -324,17 +280,6 @@ func sideNames() []string {
 		names[i] = s.String()
 	}
 	return names
-}
-
-// kindChoice lists the edge kinds for an error message: "value, flux or
-// convection".
-func kindChoice() string {
-	n := len(problem.Kinds)
-	names := make([]string, n)
-	for i, k := range problem.Kinds {
-		names[i] = k.String()
-	}
-	return strings.Join(names[:n-1], ", ") + " or " + names[n-1]
 }
 
 func (d *decoder) probes(v any, p *Project) []Probe {

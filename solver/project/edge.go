@@ -1,6 +1,8 @@
 package project
 
 import (
+	"strings"
+
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
 )
@@ -43,13 +45,21 @@ func (e Edge) Whole() (Segment, bool) {
 	return e.Segments[0], true
 }
 
-// data returns the formula that holds the segment's data: the value, the
-// entering flux or the ambient, whichever its kind takes.
-func (s Segment) data() string {
+// data returns the formula that holds the segment's data (the value, the
+// entering flux or the ambient, whichever its kind takes) and its key.
+func (s Segment) data() (src, key string) {
 	if s.Kind == problem.Convection {
-		return s.Ambient
+		return s.Ambient, "ambient"
 	}
-	return s.Expr
+	return s.Expr, "expr"
+}
+
+// DataPath is the project path of the formula that holds the data of an
+// edge of the given kind: edges.<side>.ambient for convection,
+// edges.<side>.expr otherwise.
+func DataPath(side problem.Side, kind problem.Kind) string {
+	_, key := Segment{Kind: kind}.data()
+	return "edges." + side.String() + "." + key
 }
 
 // write writes the edge: an edge of one segment in the one-condition form
@@ -79,4 +89,59 @@ func (s Segment) write(w *jsonlite.Writer, to bool) {
 		w.Key("expr").Str(s.Expr)
 	}
 	w.Close('}')
+}
+
+// edge reads one edge in its one-condition form {"kind": ..} as an edge of
+// one segment.
+func (d *decoder) edge(v any, path string) Edge {
+	return Whole(d.segment(v, path))
+}
+
+// segment reads one condition: its kind and the data that kind takes.
+func (d *decoder) segment(v any, path string) Segment {
+	m, ok := v.(map[string]any)
+	if !ok {
+		d.fail(path, "expected an object {\"kind\": ..}, got %s", describe(v))
+		return Segment{}
+	}
+	if _, ok := m["kind"]; !ok {
+		d.fail(path+".kind", "missing (use %s)", kindChoice())
+		return Segment{}
+	}
+	name := d.text(m["kind"], path+".kind")
+	if d.err != nil {
+		return Segment{}
+	}
+	kind, ok := problem.ParseKind(name)
+	if !ok {
+		d.fail(path+".kind", "unknown edge kind %q (use %s)", name, kindChoice())
+		return Segment{}
+	}
+	e := Segment{Kind: kind}
+	switch kind {
+	case problem.Value, problem.Flux:
+		if m = d.object(v, path, []string{"kind", "expr"}); m != nil {
+			e.Expr = d.formula(m["expr"], path+".expr")
+		}
+	case problem.Convection:
+		if m = d.object(v, path, []string{"kind", "h", "ambient"}); m != nil {
+			e.H = d.number(m["h"], path+".h")
+			if d.err == nil && e.H < 0 {
+				d.fail(path+".h", "convection coefficient must be zero or more, got %g", e.H)
+			}
+			e.Ambient = d.formula(m["ambient"], path+".ambient")
+		}
+	}
+	return e
+}
+
+// kindChoice lists the edge kinds for an error message: "value, flux or
+// convection".
+func kindChoice() string {
+	n := len(problem.Kinds)
+	names := make([]string, n)
+	for i, k := range problem.Kinds {
+		names[i] = k.String()
+	}
+	return strings.Join(names[:n-1], ", ") + " or " + names[n-1]
 }
