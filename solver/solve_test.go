@@ -12,19 +12,10 @@ import (
 	"edgewise/solver/project"
 )
 
-// previewProject has a formula on every edge.
-const previewProject = `{
-  "schema": "edgewise/1", "title": "test plate", "physics": "heat",
-  "width": 0.4, "height": 0.2, "conductivity": 50, "source": 0,
-  "edges": {
-    "bottom": {"kind": "value", "expr": "100"},
-    "top": {"kind": "convection", "h": 10, "ambient": "20"},
-    "left": {"kind": "flux", "expr": "0"},
-    "right": {"kind": "value", "expr": "20 + 5*sin(pi*s/H)"}
-  },
-  "probes": [{"x": 0.2, "y": 0.1, "label": "P1"}],
-  "grid": {"nx": 40, "ny": 20}
-}`
+// previewProject has a formula on every edge; the right one varies.
+const previewProject = `{"schema": "edgewise/1", "physics": "heat", "width": 0.4, "height": 0.2, "conductivity": 50,
+  "edges": {"bottom": {"kind": "value", "expr": "100"}, "top": {"kind": "convection", "h": 10, "ambient": "20"},
+    "left": {"kind": "flux", "expr": "0"}, "right": {"kind": "value", "expr": "20 + 5*sin(pi*s/H)"}}}`
 
 func TestPreviewEdge(t *testing.T) {
 	p, err := project.Decode([]byte(previewProject))
