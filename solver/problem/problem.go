@@ -31,6 +31,7 @@ package problem
 import (
 	"fmt"
 	"math"
+	"slices"
 )
 
 // Kind is the kind of condition held on an edge.
@@ -42,23 +43,14 @@ const (
 	Convection             // entering flux = Hc (ambient - u) (Robin)
 )
 
-var kindNames = [...]string{Value: "value", Flux: "flux", Convection: "convection"}
+var kindNames = []string{Value: "value", Flux: "flux", Convection: "convection"}
 
-func (k Kind) String() string {
-	if k < 0 || int(k) >= len(kindNames) {
-		return fmt.Sprintf("Kind(%d)", int(k))
-	}
-	return kindNames[k]
-}
+func (k Kind) String() string { return nameOf(kindNames, int(k), "Kind") }
 
 // ParseKind returns the kind whose String is name.
 func ParseKind(name string) (Kind, bool) {
-	for k, n := range kindNames {
-		if n == name {
-			return Kind(k), true
-		}
-	}
-	return 0, false
+	k, ok := indexOf(kindNames, name)
+	return Kind(k), ok
 }
 
 // Kinds lists the edge kinds in their fixed order.
@@ -79,23 +71,28 @@ const (
 // Sides lists the four edges in their fixed order.
 var Sides = [4]Side{Bottom, Right, Top, Left}
 
-var sideNames = [...]string{Bottom: "bottom", Right: "right", Top: "top", Left: "left"}
+var sideNames = []string{Bottom: "bottom", Right: "right", Top: "top", Left: "left"}
 
-func (s Side) String() string {
-	if s < 0 || int(s) >= len(sideNames) {
-		return fmt.Sprintf("Side(%d)", int(s))
-	}
-	return sideNames[s]
-}
+func (s Side) String() string { return nameOf(sideNames, int(s), "Side") }
 
 // ParseSide returns the side whose String is name.
 func ParseSide(name string) (Side, bool) {
-	for s, n := range sideNames {
-		if n == name {
-			return Side(s), true
-		}
+	s, ok := indexOf(sideNames, name)
+	return Side(s), ok
+}
+
+// nameOf returns names[i], or typ(i) for a value that has no name.
+func nameOf(names []string, i int, typ string) string {
+	if i < 0 || i >= len(names) {
+		return fmt.Sprintf("%s(%d)", typ, i)
 	}
-	return 0, false
+	return names[i]
+}
+
+// indexOf returns the index of name in names (0 and false when absent).
+func indexOf(names []string, name string) (int, bool) {
+	i := slices.Index(names, name)
+	return max(i, 0), i >= 0
 }
 
 // Edge is the condition held on one edge.
