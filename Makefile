@@ -8,7 +8,6 @@ PORT      ?= 8080
 CHROMIUM  ?= $(shell command -v chromium 2>/dev/null || echo /usr/bin/chromium)
 WASMEXEC  := $(GOROOT)/lib/wasm/wasm_exec.js
 GOJSEXEC  := $(GOROOT)/lib/wasm/go_js_wasm_exec
-FUZZTIME  ?= 200000x
 # the build's name in reports: the commit it was built from
 RELEASE   ?= $(shell git describe --tags --always --dirty 2>/dev/null || echo unknown)
 NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
@@ -34,7 +33,7 @@ site/app.wasm: $(shell find solver wasm -name '*.go' -not -name '*_test.go') go.
 site/wasm_exec.js: $(WASMEXEC)
 	cp $< $@
 
-## run: build and serve the page on localhost with the demo project
+## run: build and serve the page on localhost:$(PORT) (default 8080) with the demo project
 run: build
 	$(GO) run ./scripts/serve -addr 127.0.0.1:$(PORT) -dir site
 
@@ -59,7 +58,7 @@ test-sweep:
 # healthy run with "context deadline exceeded") to look for new crashes;
 # `make fuzz` fuzzes every target longer, FuzzSolve (the whole engine on
 # random projects) included.
-FUZZ_QUICK := ./solver/expr:FuzzParse ./solver/expr:FuzzEval ./solver/jsonlite:FuzzParse ./solver:FuzzDecode
+FUZZ_QUICK := ./solver/expr:FuzzParse ./solver/expr:FuzzEval ./solver/jsonlite:FuzzParse ./solver/project:FuzzDecode
 FUZZ_ALL   := $(FUZZ_QUICK) ./solver:FuzzSolve
 
 test-fuzz:
@@ -113,7 +112,12 @@ bench:
 bench-browser: build chromium
 	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -run='^$$' -bench=. -benchtime=20x ./scripts/e2e/
 
-fuzz: FUZZTIME=2m
+# FUZZTIME from the environment or the command line wins; when it is unset
+# test-fuzz runs 200000 inputs per target and `make fuzz` two minutes.
+ifeq ($(origin FUZZTIME),undefined)
+test-fuzz: FUZZTIME = 200000x
+fuzz: FUZZTIME = 2m
+endif
 
 clean:
 	rm -rf dist site/app.wasm site/wasm_exec.js site/checks.json

@@ -3,6 +3,8 @@ package solver
 import (
 	"fmt"
 	"testing"
+
+	"edgewise/solver/project"
 )
 
 // benchProject has four value edges whose values jump at every corner and
@@ -15,7 +17,7 @@ const benchProject = `{"schema":"edgewise/1","physics":"heat","width":0.3,"heigh
 // series, output grid with gradients, result numbers; with and without the
 // finite-difference cross-check.
 func BenchmarkSolve(b *testing.B) {
-	p, err := Decode([]byte(benchProject))
+	p, err := project.Decode([]byte(benchProject))
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -5,11 +5,12 @@ import (
 
 	"edgewise/solver/physics"
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // cautions computes the physics-specific cautions from a solved field; the
 // thresholds and wording are in the physics table.
-func cautions(p *Project, pr *problem.Problem, out *Output, r *Result) []string {
+func cautions(p *project.Project, pr *problem.Problem, out *Output, r *Result) []string {
 	return physics.Get(p.Physics).Cautions(&solvedField{pr: pr, out: out, r: r})
 }
 
@@ -41,8 +42,12 @@ func (f *solvedField) Exits() []physics.Exit {
 }
 
 func (f *solvedField) Singular() bool {
-	e := &f.r.Edges
-	return !(e.Bottom.Finite && e.Top.Finite && e.Left.Finite && e.Right.Finite)
+	for _, e := range f.r.Edges {
+		if !e.Finite {
+			return true
+		}
+	}
+	return false
 }
 
 // exitGradient returns the largest gradient magnitude on the output grid

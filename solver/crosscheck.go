@@ -20,7 +20,7 @@ const CrossCheckGrid = 24
 // corner, and a fifth of the shorter side around corners and points inside
 // edges where prescribed values jump.
 func crossCheck(pr *problem.Problem, f field, r *Result, inner []jump) {
-	nx, ny := fdcheck.Sizes(pr.W, pr.H, CrossCheckGrid)
+	nx, ny := problem.Proportional(pr.W, pr.H, CrossCheckGrid)
 	g, _, err := fdcheck.Richardson(pr, nx, ny)
 	if err != nil {
 		var ie *fdcheck.ImbalanceError

@@ -1,53 +1,14 @@
 package solver
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"strings"
 	"testing"
+
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
-
-// FuzzDecode: no input panics; every error is one line that names a field
-// (or says the file is not a project); whatever decodes also compiles or
-// fails with a field error, and re-encodes to text that decodes again.
-func FuzzDecode(f *testing.F) {
-	f.Add([]byte(baseProject))
-	f.Add([]byte(`{"schema":"edgewise/1","physics":"generic","width":1,"height":1,"conductivity":{"x":1,"y":2},
-	  "edges":{"bottom":{"kind":"flux","expr":"sin(s)"},"top":{"kind":"value","expr":0},
-	  "left":{"kind":"convection","h":0,"ambient":"readings(s, 0, 1, 1, 2)"},"right":{"kind":"value","expr":"1/0"}}}`))
-	f.Add([]byte(`{"schema":"edgewise/1"}`))
-	f.Add([]byte(`[1,2,3]`))
-	f.Fuzz(func(t *testing.T, data []byte) {
-		p, err := Decode(data)
-		if err != nil {
-			checkOneLine(t, err)
-			return
-		}
-		if _, err := Compile(p); err != nil {
-			checkOneLine(t, err)
-			var fe *Error
-			if !errors.As(err, &fe) || fe.Path == "" {
-				t.Fatalf("compile error without a field path: %v", err)
-			}
-		}
-		q, err := Decode(p.JSON())
-		if err != nil {
-			t.Fatalf("re-encoded project does not decode: %v\n%s", err, p.JSON())
-		}
-		if string(q.JSON()) != string(p.JSON()) {
-			t.Fatalf("re-encoding is not stable:\n%s\n%s", p.JSON(), q.JSON())
-		}
-	})
-}
-
-func checkOneLine(t *testing.T, err error) {
-	t.Helper()
-	msg := err.Error()
-	if msg == "" || strings.Contains(msg, "\n") {
-		t.Fatalf("error is not one line: %q", msg)
-	}
-}
 
 // fuzzFormulas are edge data shapes; %g takes a coefficient.
 var fuzzFormulas = []string{
@@ -81,20 +42,20 @@ func FuzzSolve(f *testing.F) {
 		source = math.Copysign(clamp(source, 0, 1e5), source)
 		hc = clamp(hc, 0, 1e4)
 		coef = math.Copysign(clamp(coef, 0, 1e3), coef)
-		p := &Project{Schema: Schema, Physics: Generic, Width: w, Height: h,
-			Conductivity: Conductivity{kx, ky}, Source: source, Grid: &GridSize{16, 12}}
-		specs := []*EdgeSpec{&p.Edges.Bottom, &p.Edges.Right, &p.Edges.Top, &p.Edges.Left}
+		p := &project.Project{Schema: project.Schema, Physics: project.Generic, Width: w, Height: h,
+			Conductivity: project.Conductivity{X: kx, Y: ky}, Source: source, Grid: &project.GridSize{Nx: 16, Ny: 12}}
 		k, fm := int(kinds)%81, int(forms)
-		for _, e := range specs {
+		for side := range p.Edges {
+			e := &p.Edges[side]
 			formula := fmt.Sprintf(fuzzFormulas[fm%len(fuzzFormulas)], coef)
 			fm /= 2
 			switch k % 3 {
 			case 0:
-				*e = EdgeSpec{Kind: "value", Expr: formula}
+				*e = project.Whole(project.Segment{Kind: problem.Value, Expr: formula})
 			case 1:
-				*e = EdgeSpec{Kind: "flux", Expr: formula}
+				*e = project.Whole(project.Segment{Kind: problem.Flux, Expr: formula})
 			case 2:
-				*e = EdgeSpec{Kind: "convection", H: hc, Ambient: formula}
+				*e = project.Whole(project.Segment{Kind: problem.Convection, H: hc, Ambient: formula})
 			}
 			k /= 3
 		}
@@ -112,7 +73,7 @@ func FuzzSolve(f *testing.F) {
 		}
 		if r.Balance != nil {
 			total := math.Abs(r.SourceTotal)
-			for _, e := range []EdgeFlow{r.Edges.Bottom, r.Edges.Top, r.Edges.Left, r.Edges.Right} {
+			for _, e := range r.Edges {
 				total += math.Abs(*e.Flow)
 			}
 			// conservation (exact identity). Flows are derivatives of the
@@ -134,4 +95,12 @@ func FuzzSolve(f *testing.F) {
 			}
 		}
 	})
+}
+
+func checkOneLine(t *testing.T, err error) {
+	t.Helper()
+	msg := err.Error()
+	if msg == "" || strings.Contains(msg, "\n") {
+		t.Fatalf("error is not one line: %q", msg)
+	}
 }

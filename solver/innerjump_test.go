@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // zeroField is a field that is zero everywhere: it isolates the angle
@@ -306,7 +307,7 @@ func TestJumpPointTakesItsSide(t *testing.T) {
 		for _, s := range problem.Sides {
 			p.Edges[s] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
 		}
-		f, err := compileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
+		f, err := project.CompileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -341,7 +342,7 @@ func TestFluxStepPointTakesItsSide(t *testing.T) {
 		for _, s := range problem.Sides {
 			p.Edges[s] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
 		}
-		f, err := compileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
+		f, err := project.CompileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -6,6 +6,7 @@ import (
 	"testing"
 
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 func TestFindJumps(t *testing.T) {
@@ -14,7 +15,7 @@ func TestFindJumps(t *testing.T) {
 		p.Edges[s] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
 	}
 	compile := func(src string) func(float64) float64 {
-		f, err := compileFormula(src, "test", func(s float64) (float64, float64) { return s, 4 }, 12, 4)
+		f, err := project.CompileFormula(src, "test", func(s float64) (float64, float64) { return s, 4 }, 12, 4)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -59,22 +60,22 @@ func TestJumpInsideEdgeInResult(t *testing.T) {
 	 "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"value","expr":"when(s < 6, 8, 2)"},
 	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"}}}`, Options{})
 	r := out.Result
-	if r.Edges.Top.Finite || r.Edges.Top.Flow != nil || r.Balance != nil {
-		t.Errorf("top flow %+v, balance %v: want infinite and no balance", r.Edges.Top, r.Balance)
+	if r.Edges[problem.Top].Finite || r.Edges[problem.Top].Flow != nil || r.Balance != nil {
+		t.Errorf("top flow %+v, balance %v: want infinite and no balance", r.Edges[problem.Top], r.Balance)
 	}
 	w := strings.Join(r.Warnings, "\n")
 	if !strings.Contains(w, "jumps from 8 to 2 at s = 6") || !strings.Contains(w, "8 + (-6)*rise(s, 6, 0.12)") {
 		t.Errorf("warnings %q", r.Warnings)
 	}
 	// the suggested formula is itself valid and smooth
-	p.Edges.Top.Expr = "8 + (-6)*rise(s, 6, 0.12)"
+	p.Edges[problem.Top].Segments[0].Expr = "8 + (-6)*rise(s, 6, 0.12)"
 	var s Solver
 	out, err := s.Solve(p, Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if !out.Result.Edges.Top.Finite || out.Result.Balance == nil {
-		t.Errorf("smoothed step: top %+v balance %v", out.Result.Edges.Top, out.Result.Balance)
+	if !out.Result.Edges[problem.Top].Finite || out.Result.Balance == nil {
+		t.Errorf("smoothed step: top %+v balance %v", out.Result.Edges[problem.Top], out.Result.Balance)
 	}
 }
 
@@ -110,10 +111,10 @@ func TestFluxStepBalances(t *testing.T) {
 		t.Fatalf("no balance: %+v", r.Edges)
 	}
 	// the heater strip puts in exactly 3000 x 0.07 = 210 W/m
-	if q := *r.Edges.Bottom.Flow; math.Abs(q-210) > 1e-9*210 {
+	if q := *r.Edges[problem.Bottom].Flow; math.Abs(q-210) > 1e-9*210 {
 		t.Errorf("bottom flow %.12g, want 210", q)
 	}
-	total := math.Abs(*r.Edges.Bottom.Flow) + math.Abs(*r.Edges.Top.Flow) + math.Abs(*r.Edges.Left.Flow) + math.Abs(*r.Edges.Right.Flow)
+	total := math.Abs(*r.Edges[problem.Bottom].Flow) + math.Abs(*r.Edges[problem.Top].Flow) + math.Abs(*r.Edges[problem.Left].Flow) + math.Abs(*r.Edges[problem.Right].Flow)
 	if math.Abs(*r.Balance) > 1e-7*total {
 		t.Errorf("balance %.3g of total flow %.3g", *r.Balance, total)
 	}

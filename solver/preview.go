@@ -1,53 +1,31 @@
 package solver
 
-import "edgewise/solver/problem"
+import (
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
+)
 
-// PreviewEdge samples the formula of one edge ("bottom", "top", "left" or
-// "right") at n+1 evenly spaced points along it, for the page's small
-// profile plot: the value, the entering flux or the ambient, whichever the
-// edge's kind takes. Only the fields the preview needs are checked; the
-// error names the field path and, for a formula, the column. A sample that
-// is not a finite number is an error with its place along the edge.
-func PreviewEdge(p *Project, side string, n int) (s, v []float64, err error) {
+// PreviewEdge samples the formula of one edge at n+1 evenly spaced points
+// along it, for the page's small profile plot: the value, the entering flux
+// or the ambient, whichever the edge's kind takes. Only the fields the
+// preview needs are checked; the error names the field path and, for a
+// formula, the column. A sample that is not a finite number is an error
+// with its place along the edge.
+func PreviewEdge(p *project.Project, e problem.Side, n int) (s, v []float64, err error) {
 	if n < 1 || n > 4096 {
 		panic("solver: PreviewEdge needs 1 <= n <= 4096")
 	}
-	var spec EdgeSpec
-	var e problem.Side
-	switch side {
-	case "bottom":
-		spec, e = p.Edges.Bottom, problem.Bottom
-	case "top":
-		spec, e = p.Edges.Top, problem.Top
-	case "left":
-		spec, e = p.Edges.Left, problem.Left
-	case "right":
-		spec, e = p.Edges.Right, problem.Right
-	default:
-		return nil, nil, errorf("edges", "unknown edge %q", side)
-	}
-	pr := &problem.Problem{W: p.Width, H: p.Height}
-	path := "edges." + side
-	src := spec.Expr
-	switch spec.Kind {
-	case "value", "flux":
-		path += ".expr"
-	case "convection":
-		path, src = path+".ambient", spec.Ambient
-	default:
-		return nil, nil, errorf(path+".kind", "unknown edge kind %q (use value, flux or convection)", spec.Kind)
-	}
-	f, err := compileFormula(src, path, func(s float64) (x, y float64) { return pr.Point(e, s) }, p.Width, p.Height)
+	f, _, path, err := p.EdgeData(e)
 	if err != nil {
 		return nil, nil, err
 	}
-	L := pr.Length(e)
+	L := (&problem.Problem{W: p.Width, H: p.Height}).Length(e)
 	s, v = make([]float64, n+1), make([]float64, n+1)
 	for i := range s {
 		s[i] = L * float64(i) / float64(n)
 		v[i] = f(s[i])
 		if v[i]-v[i] != 0 {
-			return nil, nil, errorf(path, "not a finite number at s = %.6g", s[i])
+			return nil, nil, project.Errorf(path, "not a finite number at s = %.6g", s[i])
 		}
 	}
 	return s, v, nil

@@ -1,5 +1,11 @@
 package solver
 
+import (
+	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
+)
+
 // ResultSchema names the result format.
 const ResultSchema = "edgewise-result/1"
 
@@ -12,14 +18,14 @@ type Result struct {
 	SourceTotal float64       `json:"source_total"`
 	// Balance is the sum of the edge inflows and the source total (zero
 	// up to the accuracy); null when an edge flow is infinite.
-	Balance  *float64 `json:"balance"`
-	Mean     float64  `json:"mean"`
-	Min      Extreme  `json:"min"`
-	Max      Extreme  `json:"max"`
-	Accuracy Accuracy `json:"accuracy"`
-	Warnings []string `json:"warnings"`
-	Cautions []string `json:"cautions"`
-	Grid     GridSize `json:"grid"`
+	Balance  *float64         `json:"balance"`
+	Mean     float64          `json:"mean"`
+	Min      Extreme          `json:"min"`
+	Max      Extreme          `json:"max"`
+	Accuracy Accuracy         `json:"accuracy"`
+	Warnings []string         `json:"warnings"`
+	Cautions []string         `json:"cautions"`
+	Grid     project.GridSize `json:"grid"`
 	// Colour is how every picture of this result is coloured (colour.Choose
 	// over Min.Value .. Max.Value).
 	Colour ColourScale `json:"colour"`
@@ -43,13 +49,9 @@ type ProbeResult struct {
 	Flux     [2]float64 `json:"flux"`
 }
 
-// EdgeFlows holds the flow through each edge.
-type EdgeFlows struct {
-	Bottom EdgeFlow `json:"bottom"`
-	Top    EdgeFlow `json:"top"`
-	Left   EdgeFlow `json:"left"`
-	Right  EdgeFlow `json:"right"`
-}
+// EdgeFlows holds the flow through each edge, indexed by problem.Side; the
+// JSON object is keyed by the side names.
+type EdgeFlows [4]EdgeFlow
 
 // EdgeFlow is the flow into the region through one edge, per unit depth;
 // Flow is nil (null) when it is infinite.
@@ -75,4 +77,66 @@ type Accuracy struct {
 	Crosscheck       *float64 `json:"crosscheck"`
 	CrosscheckGrid   string   `json:"crosscheck_grid,omitempty"`
 	CrosscheckReason string   `json:"crosscheck_skipped,omitempty"`
+}
+
+// JSON returns the result text (schema "edgewise-result/1"). Numbers that
+// are not finite are written as null.
+func (r *Result) JSON() []byte {
+	var w jsonlite.Writer
+	w.Open('{').Key("schema").Str(ResultSchema)
+	w.Key("probes").Open('[')
+	for _, q := range r.Probes {
+		w.Open('{').Key("label").Str(q.Label).Key("x").Num(q.X).Key("y").Num(q.Y).Key("value").Num(q.Value)
+		w.Key("gradient").Open('[').Num(q.Gradient[0]).Num(q.Gradient[1]).Close(']')
+		w.Key("flux").Open('[').Num(q.Flux[0]).Num(q.Flux[1]).Close(']')
+		w.Close('}')
+	}
+	w.Close(']')
+	w.Key("edges").Open('{')
+	for _, side := range problem.Sides {
+		f := r.Edges[side]
+		w.Key(side.String()).Open('{').Key("flow")
+		numOrNull(&w, f.Flow)
+		w.Key("finite").Bool(f.Finite).Close('}')
+	}
+	w.Close('}')
+	w.Key("source_total").Num(r.SourceTotal).Key("balance")
+	numOrNull(&w, r.Balance)
+	w.Key("mean").Num(r.Mean)
+	extreme := func(k string, e Extreme) {
+		w.Key(k).Open('{').Key("value").Num(e.Value).Key("x").Num(e.X).Key("y").Num(e.Y).Close('}')
+	}
+	extreme("min", r.Min)
+	extreme("max", r.Max)
+	a := r.Accuracy
+	w.Key("accuracy").Open('{').Key("terms").Int(a.Terms).Key("estimate").Num(a.Estimate).Key("crosscheck")
+	numOrNull(&w, a.Crosscheck)
+	if a.CrosscheckGrid != "" {
+		w.Key("crosscheck_grid").Str(a.CrosscheckGrid)
+	}
+	if a.CrosscheckReason != "" {
+		w.Key("crosscheck_skipped").Str(a.CrosscheckReason)
+	}
+	w.Close('}')
+	strs := func(k string, list []string) {
+		w.Key(k).Open('[')
+		for _, s := range list {
+			w.Str(s)
+		}
+		w.Close(']')
+	}
+	strs("warnings", r.Warnings)
+	strs("cautions", r.Cautions)
+	w.Key("grid").Open('{').Key("nx").Int(r.Grid.Nx).Key("ny").Int(r.Grid.Ny).Close('}')
+	c := r.Colour
+	w.Key("colour").Open('{').Key("map").Str(c.Map).Key("from").Num(c.From).Key("to").Num(c.To).Close('}')
+	return w.Close('}').Bytes()
+}
+
+func numOrNull(w *jsonlite.Writer, v *float64) {
+	if v == nil {
+		w.Null()
+		return
+	}
+	w.Num(*v)
 }

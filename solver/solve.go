@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Options controls a solve.
@@ -50,32 +51,23 @@ type Solver struct {
 // GridFor returns the output grid for a project: the options' grid, the
 // project's, or DefaultGrid intervals along the longer side with the other
 // in proportion (at least 2).
-func GridFor(p *Project, opt Options) (nx, ny int) {
+func GridFor(p *project.Project, opt Options) (nx, ny int) {
 	switch {
 	case opt.Nx > 0 && opt.Ny > 0:
 		return opt.Nx, opt.Ny
 	case p.Grid != nil:
 		return p.Grid.Nx, p.Grid.Ny
 	}
-	return Proportional(p.Width, p.Height, DefaultGrid)
-}
-
-// Proportional returns n intervals along the longer side of a w x h
-// rectangle and the shorter side in proportion, at least 2 each.
-func Proportional(w, h float64, n int) (nx, ny int) {
-	if w >= h {
-		return n, max(2, int(math.Round(float64(n)*h/w)))
-	}
-	return max(2, int(math.Round(float64(n)*w/h))), n
+	return problem.Proportional(p.Width, p.Height, DefaultGrid)
 }
 
 // Solve solves a decoded project.
-func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
+func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	nx, ny := GridFor(p, opt)
-	if nx < 2 || ny < 2 || nx > MaxGrid || ny > MaxGrid {
-		return nil, errorf("grid", "from 2 to %d intervals per side, got %d x %d", MaxGrid, nx, ny)
+	if nx < 2 || ny < 2 || nx > project.MaxGrid || ny > project.MaxGrid {
+		return nil, project.Errorf("grid", "from 2 to %d intervals per side, got %d x %d", project.MaxGrid, nx, ny)
 	}
-	pr, err := Compile(p)
+	pr, err := project.Compile(p)
 	if err != nil {
 		return nil, err
 	}
@@ -103,7 +95,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	}
 	for _, v := range out.U {
 		if v-v != 0 {
-			return nil, errorf("", "the solution is not finite; please report this project")
+			return nil, project.Errorf("", "the solution is not finite; please report this project")
 		}
 	}
 	return out, nil
@@ -140,22 +132,22 @@ func settleCorners(pr *problem.Problem, out *Output) {
 // edge data.
 func wrapEngineError(pr *problem.Problem, err error) error {
 	if nf, ok := err.(*problem.NonFiniteError); ok {
-		return errorf(exprPath(pr, nf.Side), "not a finite number at s = %.6g", nf.S)
+		return project.Errorf(project.DataPath(nf.Side, pr.Edges[nf.Side].Kind), "not a finite number at s = %.6g", nf.S)
 	}
-	if _, ok := err.(*Error); ok {
+	if _, ok := err.(*project.Error); ok {
 		return err
 	}
-	return errorf("edges", "%v", err)
+	return project.Errorf("edges", "%v", err)
 }
 
 // report computes the result numbers from the solved field.
-func report(p *Project, pr *problem.Problem, f field, out *Output, jumps []jump) Result {
+func report(p *project.Project, pr *problem.Problem, f field, out *Output, jumps []jump) Result {
 	r := Result{
 		Schema:   ResultSchema,
 		Probes:   []ProbeResult{},
 		Warnings: append([]string{}, f.Warnings()...),
 		Cautions: []string{},
-		Grid:     GridSize{Nx: out.Nx, Ny: out.Ny},
+		Grid:     project.GridSize{Nx: out.Nx, Ny: out.Ny},
 		Mean:     f.Mean(),
 	}
 	for _, q := range p.Probes {
@@ -183,16 +175,7 @@ func report(p *Project, pr *problem.Problem, f field, out *Output, jumps []jump)
 		} else {
 			finite = false
 		}
-		switch side {
-		case problem.Bottom:
-			r.Edges.Bottom = ef
-		case problem.Top:
-			r.Edges.Top = ef
-		case problem.Left:
-			r.Edges.Left = ef
-		case problem.Right:
-			r.Edges.Right = ef
-		}
+		r.Edges[side] = ef
 	}
 	if finite {
 		r.Balance = &sum

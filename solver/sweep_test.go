@@ -77,7 +77,7 @@ func TestAllKindCombinationsAgainstFiniteDifferences(t *testing.T) {
 			t.Errorf("%s: %v", name, err)
 			continue
 		}
-		nx, ny := fdcheck.Sizes(p.W, p.H, n)
+		nx, ny := problem.Proportional(p.W, p.H, n)
 		g, _, err := fdcheck.Richardson(p, nx, ny)
 		if err != nil {
 			t.Errorf("%s: finite differences: %v", name, err)

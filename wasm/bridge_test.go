@@ -9,6 +9,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/colour"
+	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
@@ -38,7 +39,7 @@ func TestSolveThroughJS(t *testing.T) {
 		t.Fatalf("solve failed: %s", msg)
 	}
 	text, _ := mustGet(t, reply, "result").String()
-	var r solver.Result
+	var r struct{ Probes []solver.ProbeResult }
 	if err := json.Unmarshal([]byte(text), &r); err != nil {
 		t.Fatal(err)
 	}
@@ -68,12 +69,12 @@ func TestSolveThroughJS(t *testing.T) {
 // Bad input comes back as an error reply naming the field, not a panic.
 func TestErrorReply(t *testing.T) {
 	bad := strings.Replace(square, `"width":1`, `"width":-1`, 1)
-	r := solveText(bad, solver.Options{}, 0).(map[string]any)
+	_, err := solveText(bad, solver.Options{}, 0)
+	r := failure(err)
 	if r["ok"] != false || r["path"] != "width" || !strings.Contains(r["error"].(string), "width:") {
 		t.Errorf("reply = %v, want an error naming width", r)
 	}
-	r = solveText("{not json", solver.Options{}, 0).(map[string]any)
-	if r["ok"] != false {
+	if _, err := solveText("{not json", solver.Options{}, 0); err == nil {
 		t.Errorf("reply = %v, want an error", r)
 	}
 }
@@ -196,14 +197,14 @@ func TestUnitsThroughJS(t *testing.T) {
 		t.Fatal(err)
 	}
 	heat := mustGet(t, reply, "heat")
-	if v, _ := mustGet(t, heat, "value").String(); v != solver.Units(solver.Heat).Value {
-		t.Errorf("heat value name = %q, want %q", v, solver.Units(solver.Heat).Value)
+	if v, _ := mustGet(t, heat, "value").String(); v != solver.Units(project.Heat).Value {
+		t.Errorf("heat value name = %q, want %q", v, solver.Units(project.Heat).Value)
 	}
 }
 
 // A panic inside a call becomes an error reply, not a crash.
 func TestPanicBecomesError(t *testing.T) {
-	f := guarded("test", func([]safejs.Value) any { panic("boom") })
+	f := guarded("test", func([]safejs.Value) (map[string]any, error) { panic("boom") })
 	r, ok := f(safejs.Value{}, nil).(map[string]any)
 	if !ok || r["ok"] != false || !strings.Contains(r["error"].(string), "boom") {
 		t.Errorf("reply = %v, want an error reply naming the panic", r)

@@ -8,30 +8,17 @@ package main
 //	edgewise_checks(checksJSON) -> {ok, cases: "[{id, title, source, basis}, ...]"}
 //	edgewise_check(checksJSON, id) -> {ok, outcome: "<verify.Outcome JSON>"}
 //
-// The file is parsed (strictly) on every call: the functions keep no state.
+// The file is parsed (strictly) on every call; a case is solved on the
+// bridge's one Solver.
 
 import (
 	"fmt"
 
-	"edgewise/solver"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/verify"
 
 	"github.com/hack-pad/safejs"
 )
-
-var checker solver.Solver
-
-func init() {
-	for name, fn := range map[string]func([]safejs.Value) (map[string]any, error){
-		"edgewise_checks": checksCall,
-		"edgewise_check":  checkCall,
-	} {
-		if err := registerCall(name, fn); err != nil {
-			fmt.Println("edgewise:", name, err)
-		}
-	}
-}
 
 func checksCall(args []safejs.Value) (map[string]any, error) {
 	text, err := stringArg(args, 0, "the checks file", false)
@@ -78,6 +65,6 @@ func checkText(text, id string) (map[string]any, error) {
 	if c == nil {
 		return nil, fmt.Errorf("checks: no case %q", id)
 	}
-	o := c.Run(&checker)
+	o := c.Run(&engine)
 	return map[string]any{"ok": true, "outcome": string(o.JSON())}, nil
 }

@@ -2,27 +2,43 @@
 
 // Command wasm is the bridge between the edgewise page and the engine. It
 // runs inside the page's Web Worker, registers these JavaScript functions
-// and never returns:
+// (the table calls) and never returns:
 //
 //	edgewise_solve(projectJSON string, nx, ny, levels number) -> reply
 //	edgewise_colours(n number) -> {ok, sequential, diverging: Uint8Array(3n), names}
 //	edgewise_preview(projectJSON string, side string, n number) -> {ok, s, v: Float64Array}
 //	edgewise_units() -> {ok, heat, electrostatic, seepage, generic: {value, value_unit, ...}}
+//	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
+//	    kind: "field-csv" | "probes-csv" | "svg"; options (all optional):
+//	    {"nx": n, "ny": n, "pixel_width": px, "levels": n}
+//	edgewise_report(projectJSON, optionsJSON) -> {ok, report: "<report JSON>", svg}
+//	    options: {"date": "text printed as the report's date", "pixel_width": px}
+//	edgewise_validate(projectJSON) -> {ok} | {ok: false, error, path, col}
+//	edgewise_version() -> {ok, version}
+//	edgewise_checks(checksJSON) -> {ok, cases: "[{id, title, source, basis}, ...]"}
+//	edgewise_check(checksJSON, id) -> {ok, outcome: "<verify.Outcome JSON>"}
 //
 // A solve reply is a plain object: {ok: true, result: "<result JSON>", nx,
 // ny, w, h, u, ux, uy: Float64Array, and the isolines levels, segs, ends,
-// labels: Float64Array} on success (nx, ny 0 take the project's grid or the
-// default; levels is the number of isoline levels wanted, 0 for none), or
-// {ok: false, error: "one line", path: "edges.top.expr", col: 7} on bad
-// input. The typed arrays are fresh buffers at the top level of the reply,
-// which the worker transfers to the page without copying. Nothing panics
-// across the boundary: every callback recovers its own panics into an error
-// reply.
+// labels: Float64Array} (nx, ny 0 take the project's grid or the default;
+// levels is the number of isoline levels wanted, 0 for none). The typed
+// arrays are fresh buffers at the top level of the reply, which the worker
+// transfers to the page without copying.
+//
+// Every function answers {ok: false, error: "one line", path:
+// "edges.top.expr", col: 7} on bad input. Nothing panics across the
+// boundary: the one guard turns a panic into such a reply. All functions
+// share one solver.Solver (engine), whose buffers grow to the largest grid
+// asked for and are reused: WebAssembly memory never shrinks.
 package main
 
 import (
+	"errors"
 	"fmt"
 	"os"
+
+	"edgewise/solver"
+	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
@@ -34,35 +50,71 @@ func main() {
 	select {}
 }
 
+// call is a function the bridge offers to JavaScript: it reads its
+// arguments and returns the reply's fields, or an error for the reply.
+type call func(args []safejs.Value) (map[string]any, error)
+
 // calls are the functions the bridge registers, as edgewise_<name>.
-var calls = map[string]func(args []safejs.Value) any{
-	"solve":   solveCall,
-	"colours": coloursCall,
-	"preview": previewCall,
-	"units":   unitsCall,
+var calls = map[string]call{
+	"solve":    solveCall,
+	"colours":  coloursCall,
+	"preview":  previewCall,
+	"units":    unitsCall,
+	"export":   exportCall,
+	"report":   reportCall,
+	"validate": validateCall,
+	"version":  versionCall,
+	"checks":   checksCall,
+	"check":    checkCall,
 }
+
+// engine is the one Solver of the bridge. Calls run one at a time on the
+// worker's thread, and each copies what it needs out of the Solver's
+// buffers before it returns.
+var engine solver.Solver
 
 func register() error {
 	for name, f := range calls {
-		fn, err := safejs.FuncOf(guarded(name, f))
-		if err != nil {
-			return err
-		}
-		if err := safejs.Global().Set("edgewise_"+name, fn); err != nil {
+		if err := expose("edgewise_"+name, f); err != nil {
 			return err
 		}
 	}
 	return nil
 }
 
-// guarded wraps a call so that a panic inside it becomes an error reply.
-func guarded(name string, f func(args []safejs.Value) any) func(safejs.Value, []safejs.Value) any {
+// expose puts f on the global object as name, behind the guard.
+func expose(name string, f call) error {
+	fn, err := safejs.FuncOf(guarded(name, f))
+	if err != nil {
+		return err
+	}
+	return safejs.Global().Set(name, fn)
+}
+
+// guarded wraps a call so that an error or a panic inside it becomes an
+// error reply.
+func guarded(name string, f call) func(safejs.Value, []safejs.Value) any {
 	return func(_ safejs.Value, args []safejs.Value) (reply any) {
 		defer func() {
 			if r := recover(); r != nil {
-				reply = failure(fmt.Errorf("internal error in edgewise_%s: %v (please report this project)", name, r))
+				reply = failure(fmt.Errorf("internal error in %s: %v (please report this project)", name, r))
 			}
 		}()
-		return f(args)
+		m, err := f(args)
+		if err != nil {
+			return failure(err)
+		}
+		return m
 	}
+}
+
+// failure is the reply for an error, with the field path and column when
+// the error has them.
+func failure(err error) map[string]any {
+	r := map[string]any{"ok": false, "error": err.Error(), "path": "", "col": 0}
+	var fe *project.Error
+	if errors.As(err, &fe) {
+		r["path"], r["col"] = fe.Path, fe.Col
+	}
+	return r
 }

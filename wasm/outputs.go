@@ -4,18 +4,8 @@ package main
 
 // The outputs functions: downloads, the printable report's content, a
 // project check for share links and opened files, and the build's version.
-// All are stateless: they take the project JSON, solve it again and return
-// text.
-//
-//	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
-//	    kind: "field-csv" | "probes-csv" | "svg"; options (all optional):
-//	    {"nx": n, "ny": n, "pixel_width": px, "levels": n}
-//	edgewise_report(projectJSON, optionsJSON) -> {ok, report: "<report JSON>", svg}
-//	    options: {"date": "text printed as the report's date", "pixel_width": px}
-//	edgewise_validate(projectJSON) -> {ok} | {ok: false, error, path, col}
-//	edgewise_version() -> {ok, version}
-//
-// Errors come back as {ok: false, error: "one line", path, col}.
+// They take the project JSON, solve it again on the bridge's one Solver and
+// return text (see the package comment for their arguments and replies).
 
 import (
 	"errors"
@@ -23,48 +13,14 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/project"
 	"edgewise/solver/report"
 
 	"github.com/hack-pad/safejs"
 )
 
-// outputs keeps its own buffers, apart from the page's solves.
-var outputs solver.Solver
-
-func init() {
-	for name, fn := range map[string]func([]safejs.Value) (map[string]any, error){
-		"edgewise_export":   exportCall,
-		"edgewise_report":   reportCall,
-		"edgewise_validate": validateCall,
-		"edgewise_version": func([]safejs.Value) (map[string]any, error) {
-			return map[string]any{"ok": true, "version": report.Version()}, nil
-		},
-	} {
-		if err := registerCall(name, fn); err != nil {
-			fmt.Println("edgewise:", name, err)
-		}
-	}
-}
-
-// registerCall puts fn on the global object as name. The JavaScript
-// function recovers panics into an error reply.
-func registerCall(name string, fn func([]safejs.Value) (map[string]any, error)) error {
-	f, err := safejs.FuncOf(func(_ safejs.Value, args []safejs.Value) (reply any) {
-		defer func() {
-			if r := recover(); r != nil {
-				reply = failure(fmt.Errorf("internal error in %s: %v (please report this project)", name, r))
-			}
-		}()
-		m, err := fn(args)
-		if err != nil {
-			return failure(err)
-		}
-		return m
-	})
-	if err != nil {
-		return err
-	}
-	return safejs.Global().Set(name, f)
+func versionCall([]safejs.Value) (map[string]any, error) {
+	return map[string]any{"ok": true, "version": report.Version()}, nil
 }
 
 // callOptions are the options the outputs functions understand.
@@ -73,22 +29,6 @@ type callOptions struct {
 	PixelWidth int
 	Levels     int
 	Date       string
-}
-
-// stringArg reads argument i as a string; optional arguments may be
-// missing, undefined or null and then give "".
-func stringArg(args []safejs.Value, i int, what string, optional bool) (string, error) {
-	if i >= len(args) || args[i].IsUndefined() || args[i].IsNull() {
-		if optional {
-			return "", nil
-		}
-		return "", fmt.Errorf("missing %s", what)
-	}
-	s, err := args[i].String()
-	if err != nil {
-		return "", fmt.Errorf("%s must be text: %w", what, err)
-	}
-	return s, nil
 }
 
 func readOptions(args []safejs.Value, i int) (callOptions, error) {
@@ -136,15 +76,15 @@ func parseOptions(text string) (callOptions, error) {
 	if o.PixelWidth < 0 {
 		return o, errors.New("options: pixel_width must not be negative")
 	}
-	if o.Nx > solver.MaxGrid || o.Ny > solver.MaxGrid {
-		return o, fmt.Errorf("options: at most %d grid intervals per side", solver.MaxGrid)
+	if o.Nx > project.MaxGrid || o.Ny > project.MaxGrid {
+		return o, fmt.Errorf("options: at most %d grid intervals per side", project.MaxGrid)
 	}
 	return o, nil
 }
 
 // solveProject decodes and solves a project for an output.
-func solveProject(text string, o callOptions, crossCheck bool) (*solver.Project, *solver.Output, error) {
-	p, err := solver.Decode([]byte(text))
+func solveProject(text string, o callOptions, crossCheck bool) (*project.Project, *solver.Output, error) {
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, nil, err
 	}
@@ -152,7 +92,7 @@ func solveProject(text string, o callOptions, crossCheck bool) (*solver.Project,
 	if o.Nx > 0 && o.Ny > 0 {
 		opt.Nx, opt.Ny = o.Nx, o.Ny
 	}
-	out, err := outputs.Solve(p, opt)
+	out, err := engine.Solve(p, opt)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -228,11 +168,11 @@ func validateCall(args []safejs.Value) (map[string]any, error) {
 
 // validateText checks a project as a solve would, without solving.
 func validateText(text string) (map[string]any, error) {
-	p, err := solver.Decode([]byte(text))
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, err
 	}
-	if _, err := solver.Compile(p); err != nil {
+	if _, err := project.Compile(p); err != nil {
 		return nil, err
 	}
 	return map[string]any{"ok": true}, nil

@@ -12,9 +12,12 @@ import (
 	"github.com/hack-pad/safejs"
 )
 
-// The outputs functions are on the global object after init and answer
+// The outputs functions are on the global object after register and answer
 // through JavaScript.
 func TestOutputsThroughJS(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
 	for _, name := range []string{"edgewise_export", "edgewise_report", "edgewise_validate", "edgewise_version", "edgewise_checks", "edgewise_check"} {
 		fn, err := safejs.Global().Get(name)
 		if err != nil || fn.Type() != safejs.TypeFunction {
@@ -152,9 +155,9 @@ func TestChecksFunctions(t *testing.T) {
 	}
 }
 
-// A panic inside an outputs function comes back as an error reply.
-func TestRegisterCallRecovers(t *testing.T) {
-	if err := registerCall("edgewise_test_panic", func([]safejs.Value) (map[string]any, error) {
+// A runtime panic inside an exposed function comes back as an error reply.
+func TestExposeRecovers(t *testing.T) {
+	if err := expose("edgewise_test_panic", func([]safejs.Value) (map[string]any, error) {
 		var m map[string]int
 		m["x"]++ // a nil map write: a runtime panic
 		return nil, nil

@@ -35,6 +35,32 @@ func TestEveryFileIsTagged(t *testing.T) {
 	}
 }
 
+// The bridge has one registration point (safejs.FuncOf is called once, in
+// expose, for every function of the table) and one solver.Solver: the
+// downloads and the checks reuse the page's, whose buffers are the
+// largest thing the bridge keeps.
+func TestOneRegistrationAndOneSolver(t *testing.T) {
+	files, err := filepath.Glob("*.go")
+	if err != nil {
+		t.Fatal(err)
+	}
+	funcOf, solvers := 0, 0
+	for _, f := range files {
+		if strings.HasSuffix(f, "_test.go") {
+			continue
+		}
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		funcOf += strings.Count(string(b), "safejs.FuncOf(")
+		solvers += strings.Count(string(b), " solver.Solver\n")
+	}
+	if funcOf != 1 || solvers != 1 {
+		t.Errorf("safejs.FuncOf called in %d places and %d solver.Solver variables, want 1 and 1", funcOf, solvers)
+	}
+}
+
 // The engine stays small: packages that would add hundreds of kilobytes to
 // the WebAssembly binary for little use (reflection-driven JSON, image and
 // compression codecs, gonum's dense matrices with most of its LAPACK) must

@@ -30,6 +30,8 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/export"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 func main() {
@@ -59,8 +61,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		fs.Usage()
 		return 1
 	}
-	if *grid != 0 && (*grid < 2 || *grid > solver.MaxGrid) {
-		fmt.Fprintf(stderr, "-grid: must be from 2 to %d, got %d\n", solver.MaxGrid, *grid)
+	if *grid != 0 && (*grid < 2 || *grid > project.MaxGrid) {
+		fmt.Fprintf(stderr, "-grid: must be from 2 to %d, got %d\n", project.MaxGrid, *grid)
 		return 1
 	}
 	var data []byte
@@ -74,14 +76,14 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		fmt.Fprintln(stderr, err)
 		return 1
 	}
-	p, err := solver.Decode(data)
+	p, err := project.Decode(data)
 	if err != nil {
 		fmt.Fprintln(stderr, err)
 		return 1
 	}
 	opt := solver.Options{}
 	if *grid > 0 {
-		opt.Nx, opt.Ny = solver.Proportional(p.Width, p.Height, *grid)
+		opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, *grid)
 	}
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
@@ -102,7 +104,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	return 0
 }
 
-func writeCSV(path string, p *solver.Project, out *solver.Output) error {
+func writeCSV(path string, p *project.Project, out *solver.Output) error {
 	f, err := os.Create(path)
 	if err != nil {
 		return err

@@ -16,7 +16,7 @@ func ExampleRichardson() {
 		p.Edges[e] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
 	}
 	p.Edges[problem.Top].F = problem.Const(1)
-	nx, ny := fdcheck.Sizes(p.W, p.H, 32)
+	nx, ny := problem.Proportional(p.W, p.H, 32)
 	g, indicator, err := fdcheck.Richardson(p, nx, ny)
 	if err != nil {
 		fmt.Println(err)

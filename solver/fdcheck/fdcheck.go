@@ -147,32 +147,6 @@ func Richardson(p *problem.Problem, nx, ny int) (g *Grid, indicator float64, err
 	return coarse, indicator, nil
 }
 
-// Sizes picks (nx, ny) for a rectangle of aspect W/H so that the coarse grid has about n
-// intervals along the longer side and at least 2 along the shorter.
-//
-// The rule: the longer side gets max(n, 2) intervals, the shorter side
-// round(max(n, 2) * shorter/longer), but at least 2. So the grid never has
-// more than (n+1)^2 nodes, whatever the aspect; a very thin rectangle gets 2
-// intervals across and long, flat cells. For an orthotropic problem pass the
-// mapped height H*sqrt(Kx/Ky) to get cells that are square in the mapped
-// variables. If w or h is not a positive finite number (bad user data that
-// Solve will report), both sides get max(n, 2) intervals.
-func Sizes(w, h float64, n int) (nx, ny int) {
-	n = max(n, 2)
-	if !(w > 0) || !(h > 0) || math.IsInf(w, 1) || math.IsInf(h, 1) {
-		return n, n
-	}
-	long, short := w, h
-	if h > w {
-		long, short = h, w
-	}
-	m := max(int(math.Round(float64(n)*(short/long))), 2)
-	if w >= h {
-		return n, m
-	}
-	return m, n
-}
-
 // system is the assembled grid system. Nodes are numbered along the shorter
 // side first so that the band is as narrow as it can be.
 type system struct {

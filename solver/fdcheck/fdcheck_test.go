@@ -415,7 +415,7 @@ func TestConvergenceOrder(t *testing.T) {
 		k := c.k
 		p := exactProblem(w, h, kk, kk, 0, f, k, 3)
 		var errs []float64
-		nx0, ny0 := Sizes(w, h, 16) // then exact doublings: Sizes rounds ny
+		nx0, ny0 := problem.Proportional(w, h, 16) // then exact doublings: Proportional rounds ny
 		for _, m := range []int{1, 2, 4} {
 			g, err := Solve(p, m*nx0, m*ny0)
 			if err != nil {
@@ -496,7 +496,7 @@ func TestHarmonicFlows(t *testing.T) {
 	for _, c := range cases {
 		kd := c.k
 		p := exactProblem(w, h, kk, kk, 0, f, kd, 3)
-		nx0, ny0 := Sizes(w, h, 16)
+		nx0, ny0 := problem.Proportional(w, h, 16)
 		var errs []float64
 		for _, m := range []int{1, 2, 4} {
 			g, err := Solve(p, m*nx0, m*ny0)
@@ -546,7 +546,7 @@ func TestIncroperaPlate(t *testing.T) {
 	const l, w = 2.0, 1.0
 	p := &problem.Problem{W: l, H: w, Kx: 1, Ky: 1}
 	constEdges(p, kinds{V, V, V, V}, [4]float64{problem.Top: 1}, 0)
-	nx, ny := Sizes(l, w, 32)
+	nx, ny := problem.Proportional(l, w, 32)
 	g, ind, err := Richardson(p, nx, ny)
 	if err != nil {
 		t.Fatal(err)
@@ -599,7 +599,7 @@ func TestUniformSourcePublished(t *testing.T) {
 		a, b := c.aspect, 1.0
 		p := &problem.Problem{W: a, H: b, Kx: 1, Ky: 1, Source: 1}
 		constEdges(p, kinds{V, V, V, V}, [4]float64{}, 0)
-		nx, ny := Sizes(a, b, int(24*a))
+		nx, ny := problem.Proportional(a, b, int(24*a))
 		g, _, err := Richardson(p, nx, ny)
 		if err != nil {
 			t.Fatal(err)
@@ -723,35 +723,6 @@ func TestErrors(t *testing.T) {
 	Solve(p, 1, 4)
 }
 
-// Sizes: the longer side gets n intervals, the shorter round(n * aspect)
-// but at least 2, for aspects from 1e-3 to 1e3.
-func TestSizes(t *testing.T) {
-	tests := []struct {
-		w, h   float64
-		n      int
-		nx, ny int
-	}{
-		{1, 1, 32, 32, 32},
-		{2, 1, 32, 32, 16},
-		{1, 2, 32, 16, 32},
-		{0.4, 0.15, 40, 40, 15},
-		{1, 1e-3, 32, 32, 2},
-		{1e-3, 1, 32, 2, 32},
-		{1e3, 1, 48, 48, 2},
-		{1, 1, 1, 2, 2}, // n below 2 is raised to 2
-		// errors: bad sides give n x n and leave the report to Solve
-		{math.NaN(), 1, 16, 16, 16},
-		{1, -2, 16, 16, 16},
-		{math.Inf(1), 1, 8, 8, 8},
-		{0, 0, 8, 8, 8},
-	}
-	for _, tt := range tests {
-		if nx, ny := Sizes(tt.w, tt.h, tt.n); nx != tt.nx || ny != tt.ny {
-			t.Errorf("Sizes(%g, %g, %d) = %d, %d, want %d, %d", tt.w, tt.h, tt.n, nx, ny, tt.nx, tt.ny)
-		}
-	}
-}
-
 // Very thin rectangles (aspect 1e-3 and 1e3) stay small and well defined:
 // the quadratic identity still holds to round-off (1e-9 of the field
 // scale: the cells are ~500:1 and the condition number grows with it), and
@@ -766,7 +737,7 @@ func TestThinRectangles(t *testing.T) {
 		scale := 3 + 3*math.Max(dims[0], dims[1])*math.Max(dims[0], dims[1])
 		for _, k := range []kinds{{V, C, F, C}, {F, F, V, F}, {C, C, C, C}} {
 			p := exactProblem(dims[0], dims[1], 1, 1, 0, q, k, 2)
-			nx, ny := Sizes(dims[0], dims[1], 32)
+			nx, ny := problem.Proportional(dims[0], dims[1], 32)
 			g, _, err := Richardson(p, nx, ny)
 			if err != nil {
 				t.Fatalf("%v %v: %v", dims, k, err)
@@ -812,7 +783,7 @@ func BenchmarkRichardson(b *testing.B) {
 	}
 	for _, n := range []int{32, 48} {
 		b.Run(fmt.Sprint(n), func(b *testing.B) {
-			nx, ny := Sizes(1, 1, n) // square grid: the widest band
+			nx, ny := problem.Proportional(1, 1, n) // square grid: the widest band
 			for b.Loop() {
 				if _, _, err := Richardson(p, nx, ny); err != nil {
 					b.Fatal(err)

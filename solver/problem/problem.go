@@ -1,7 +1,7 @@
 // Package problem holds the resolved mathematical problem that every solver
 // in edgewise works on: a rectangle 0 <= x <= W, 0 <= y <= H with
 // conductivity Kx, Ky, a uniform volumetric source, and one condition on each
-// of its four edges. The project file (package solver) is decoded and its
+// of its four edges. The project file (package project) is decoded and its
 // formulas compiled into this form; the series engine and the
 // finite-difference cross-check both read it and never see JSON or text.
 //
@@ -28,7 +28,11 @@
 // (s = x), left and right from the bottom end (s = y).
 package problem
 
-import "fmt"
+import (
+	"fmt"
+	"math"
+	"slices"
+)
 
 // Kind is the kind of condition held on an edge.
 type Kind int
@@ -39,14 +43,18 @@ const (
 	Convection             // entering flux = Hc (ambient - u) (Robin)
 )
 
-var kindNames = [...]string{Value: "value", Flux: "flux", Convection: "convection"}
+var kindNames = []string{Value: "value", Flux: "flux", Convection: "convection"}
 
-func (k Kind) String() string {
-	if k < 0 || int(k) >= len(kindNames) {
-		return fmt.Sprintf("Kind(%d)", int(k))
-	}
-	return kindNames[k]
+func (k Kind) String() string { return nameOf(kindNames, int(k), "Kind") }
+
+// ParseKind returns the kind whose String is name.
+func ParseKind(name string) (Kind, bool) {
+	k, ok := indexOf(kindNames, name)
+	return Kind(k), ok
 }
+
+// Kinds lists the edge kinds in their fixed order.
+var Kinds = [...]Kind{Value, Flux, Convection}
 
 // Side names one edge of the rectangle. The order is counter-clockwise
 // starting at the bottom, so that Side+1 (mod 4) is the next edge
@@ -63,13 +71,28 @@ const (
 // Sides lists the four edges in their fixed order.
 var Sides = [4]Side{Bottom, Right, Top, Left}
 
-var sideNames = [...]string{Bottom: "bottom", Right: "right", Top: "top", Left: "left"}
+var sideNames = []string{Bottom: "bottom", Right: "right", Top: "top", Left: "left"}
 
-func (s Side) String() string {
-	if s < 0 || int(s) >= len(sideNames) {
-		return fmt.Sprintf("Side(%d)", int(s))
+func (s Side) String() string { return nameOf(sideNames, int(s), "Side") }
+
+// ParseSide returns the side whose String is name.
+func ParseSide(name string) (Side, bool) {
+	s, ok := indexOf(sideNames, name)
+	return Side(s), ok
+}
+
+// nameOf returns names[i], or typ(i) for a value that has no name.
+func nameOf(names []string, i int, typ string) string {
+	if i < 0 || i >= len(names) {
+		return fmt.Sprintf("%s(%d)", typ, i)
 	}
-	return sideNames[s]
+	return names[i]
+}
+
+// indexOf returns the index of name in names (0 and false when absent).
+func indexOf(names []string, name string) (int, bool) {
+	i := slices.Index(names, name)
+	return max(i, 0), i >= 0
 }
 
 // Edge is the condition held on one edge.
@@ -175,6 +198,34 @@ func (p *Problem) Validate() error {
 		}
 	}
 	return nil
+}
+
+// Proportional picks a grid (nx, ny) of intervals for a w x h rectangle:
+// n along the longer side and the shorter side in proportion. It is the one
+// rule for every grid edgewise makes: the output grid, the cross-check's
+// and the published checks'.
+//
+// The rule: the longer side gets max(n, 2) intervals, the shorter side
+// round(max(n, 2) * shorter/longer), but at least 2. So the grid never has
+// more than (n+1)^2 nodes, whatever the aspect; a very thin rectangle gets 2
+// intervals across and long, flat cells. For an orthotropic problem pass the
+// mapped height H*sqrt(Kx/Ky) to get cells that are square in the mapped
+// variables. If w or h is not a positive finite number (bad user data that
+// the decoder reports), both sides get max(n, 2) intervals.
+func Proportional(w, h float64, n int) (nx, ny int) {
+	n = max(n, 2)
+	if !(w > 0) || !(h > 0) || math.IsInf(w, 1) || math.IsInf(h, 1) {
+		return n, n
+	}
+	long, short := w, h
+	if h > w {
+		long, short = h, w
+	}
+	m := max(int(math.Round(float64(n)*(short/long))), 2)
+	if w >= h {
+		return n, m
+	}
+	return m, n
 }
 
 // Const returns an edge data function that is the constant v.

@@ -9,6 +9,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/contour"
 	"edgewise/solver/export"
+	"edgewise/solver/project"
 )
 
 // The kinds of download Make knows.
@@ -33,7 +34,7 @@ type PictureOptions struct {
 
 // Make builds one download of a solved project: FieldCSV, ProbesCSV or
 // Picture. An unknown kind is an error.
-func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions) (*Download, error) {
+func Make(kind string, p *project.Project, out *solver.Output, opt PictureOptions) (*Download, error) {
 	l := solver.Units(p.Physics)
 	var b bytes.Buffer
 	d := &Download{}
@@ -80,7 +81,7 @@ func Make(kind string, p *solver.Project, out *solver.Output, opt PictureOptions
 }
 
 // field is the export view of a solved output.
-func field(p *solver.Project, out *solver.Output, l solver.UnitSet) *export.Field {
+func field(p *project.Project, out *solver.Output, l solver.UnitSet) *export.Field {
 	return &export.Field{
 		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H,
 		U: out.U, Ux: out.Ux, Uy: out.Uy,

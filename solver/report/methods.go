@@ -2,73 +2,26 @@ package report
 
 import (
 	"edgewise/solver"
+	"edgewise/solver/contour"
+	"edgewise/solver/fdcheck"
+	"edgewise/solver/project"
+	"edgewise/solver/series"
 )
 
 // Methods lists the published methods behind a solve of p, in the words of
-// the report.
-func Methods(p *solver.Project, r *solver.Result) []string {
-	m := []string{
-		"Separation of variables with superposition: one sub-problem per edge carrying that edge's data, the other three edges homogeneous of their own kind.",
+// the report. Each package that implements a method describes it beside
+// its code (series.Method, solver.StepMethod, fdcheck.Method,
+// contour.Method); this only puts them in order.
+func Methods(p *project.Project, r *solver.Result) []string {
+	pr, err := project.Compile(p)
+	if err != nil { // a solved project compiles; say so rather than guess
+		return []string{"Methods not listed: " + err.Error()}
 	}
-	kinds := map[string]string{
-		"bottom": p.Edges.Bottom.Kind, "top": p.Edges.Top.Kind,
-		"left": p.Edges.Left.Kind, "right": p.Edges.Right.Kind,
-	}
-	neighbours := map[string][2]string{
-		"bottom": {"left", "right"}, "top": {"left", "right"},
-		"left": {"bottom", "top"}, "right": {"bottom", "top"},
-	}
-	seen := map[string]bool{}
-	for _, s := range []string{"bottom", "top", "left", "right"} {
-		nb := neighbours[s]
-		b := basis(kinds[nb[0]], kinds[nb[1]])
-		if !seen[b] {
-			seen[b] = true
-			m = append(m, b)
-		}
-	}
-	m = append(m,
-		"Hyperbolic functions across the region in overflow-free ratio form (exponentials of differences).",
-		"Harmonic corner functions (a bilinear fit to the corner values, and an angle function at a jump of prescribed value) subtracted before expanding, so that the coefficients fall like 1/n^3.",
-	)
-	if p.Source != 0 {
-		m = append(m, "A particular solution for the uniform source, its edge values and fluxes carried into the sub-problems.")
-	}
-	if p.Conductivity.X != p.Conductivity.Y {
-		m = append(m, "Orthotropic conductivity mapped onto an isotropic problem by the change of variable y' = y sqrt(kx/ky).")
-	}
-	if allFlux(kinds) {
-		m = append(m, "All edges prescribe flux: a steady state exists only when inflow and source balance; the free constant is fixed by the engine's stated rule.")
-	}
-	m = append(m, "Number of terms chosen from the decay of the coefficient tail, with an error estimate from the tail.")
+	m := append(series.Method(pr), solver.StepMethod(pr)...)
 	if r.Accuracy.Crosscheck != nil {
-		m = append(m, "Independent cross-check: finite differences on two grids with Richardson extrapolation (banded Cholesky solver).")
+		m = append(m, fdcheck.Method)
 	} else {
 		m = append(m, "Finite-difference cross-check (two grids, Richardson extrapolation): not run for this solve.")
 	}
-	m = append(m, "Isolines by marching squares on the output grid.")
-	return m
-}
-
-// basis names the Sturm-Liouville basis along an edge whose two
-// neighbouring edges have the given kinds.
-func basis(a, b string) string {
-	switch {
-	case a == "convection" || b == "convection":
-		return "Robin eigenfunctions along edges next to a convection edge, their eigenvalues the roots of x tan x = Bi, x cot x = -Bi or the two-sided form, found by a safeguarded Newton/bisection iteration."
-	case a == "value" && b == "value":
-		return "Sine series along edges between two value edges (coefficients by the discrete sine transform)."
-	case a == "flux" && b == "flux":
-		return "Cosine series with its constant mode along edges between two flux edges (coefficients by Gauss-Legendre quadrature)."
-	}
-	return "Quarter-wave sine and cosine series along edges between a value edge and a flux edge (coefficients by Gauss-Legendre quadrature)."
-}
-
-func allFlux(kinds map[string]string) bool {
-	for _, k := range kinds {
-		if k != "flux" {
-			return false
-		}
-	}
-	return true
+	return append(m, contour.Method)
 }

@@ -5,6 +5,8 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Table is a titled table of text cells.
@@ -84,7 +86,7 @@ func (r *Report) JSON() []byte {
 }
 
 // Build makes the report of a solved project. date is printed as given.
-func Build(p *solver.Project, out *solver.Output, date, version string) *Report {
+func Build(p *project.Project, out *solver.Output, date, version string) *Report {
 	l := solver.Units(p.Physics)
 	r := &out.Result
 	title := p.Title
@@ -114,8 +116,15 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 
 	rep.Edges = Table{Caption: "Edge conditions (s runs along the edge: bottom and top from the left, left and right from the bottom)",
 		Head: []string{"edge", "kind", "condition"}}
-	for _, e := range sides(&p.Edges) {
-		add(&rep.Edges, e.name, e.spec.Kind, condition(e.spec, l))
+	for _, side := range problem.Sides {
+		segs := p.Edges[side].Segments
+		for i, s := range segs {
+			c := condition(s, l)
+			if i < len(segs)-1 {
+				c += " up to s = " + num(s.To) + unitNote(l.Length)
+			}
+			add(&rep.Edges, side.String(), s.Kind.String(), c)
+		}
 	}
 
 	rep.Extremes = Table{Caption: "Extremes on the output grid and mean",
@@ -126,11 +135,8 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 
 	rep.Flows = Table{Caption: "Flows into the region per metre of depth",
 		Head: []string{"through", with("flow", l.FlowUnit)}}
-	for _, e := range []struct {
-		name string
-		f    solver.EdgeFlow
-	}{{"bottom edge", r.Edges.Bottom}, {"top edge", r.Edges.Top}, {"left edge", r.Edges.Left}, {"right edge", r.Edges.Right}} {
-		add(&rep.Flows, e.name, flow(e.f))
+	for _, side := range problem.Sides {
+		add(&rep.Flows, side.String()+" edge", flow(r.Edges[side]))
 	}
 	add(&rep.Flows, "source in the region", num(r.SourceTotal))
 	if r.Balance != nil {
@@ -165,26 +171,17 @@ func Build(p *solver.Project, out *solver.Output, date, version string) *Report 
 	return rep
 }
 
-type side struct {
-	name string
-	spec solver.EdgeSpec
-}
-
-func sides(e *solver.Edges) []side {
-	return []side{{"bottom", e.Bottom}, {"top", e.Top}, {"left", e.Left}, {"right", e.Right}}
-}
-
 // condition describes one edge condition with units.
-func condition(e solver.EdgeSpec, l solver.UnitSet) string {
+func condition(e project.Segment, l solver.UnitSet) string {
 	switch e.Kind {
-	case "value":
+	case problem.Value:
 		return l.Value + " = " + e.Expr + unitNote(l.ValueUnit)
-	case "flux":
+	case problem.Flux:
 		return "entering " + l.Flux + " = " + e.Expr + unitNote(l.FluxUnit)
-	case "convection":
+	case problem.Convection:
 		return l.Coefficient + " h = " + num(e.H) + unitNote(l.CoefUnit) + " to ambient " + e.Ambient + unitNote(l.ValueUnit)
 	}
-	return e.Kind
+	return e.Kind.String()
 }
 
 func unitNote(u string) string {

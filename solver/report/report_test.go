@@ -5,12 +5,18 @@ import (
 	"encoding/csv"
 	"encoding/xml"
 	"io"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
 
 	"edgewise/solver"
+	"edgewise/solver/contour"
+	"edgewise/solver/fdcheck"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
+	"edgewise/solver/series"
 )
 
 // square is a unit square with the top edge at 1 and the others at 0: the
@@ -20,9 +26,9 @@ const square = `{"schema":"edgewise/1","title":"Plate <b>\"A\"</b>, test","physi
  "left":{"kind":"value","expr":"0"},"right":{"kind":"value","expr":"0"}},
  "probes":[{"x":0.5,"y":0.5,"label":"=centre"},{"x":0.25,"y":0.75,"label":"a, b"}],"grid":{"nx":8,"ny":6}}`
 
-func solved(t *testing.T, text string) (*solver.Project, *solver.Output) {
+func solved(t *testing.T, text string) (*project.Project, *solver.Output) {
 	t.Helper()
-	p, err := solver.Decode([]byte(text))
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -189,8 +195,8 @@ func TestBuild(t *testing.T) {
 	if got := cell(rep.Edges, "top"); got != "value" {
 		t.Errorf("top kind %q", got)
 	}
-	if rep.Edges.Rows[1][2] != "temperature = 1 °C" {
-		t.Errorf("top condition %q", rep.Edges.Rows[1][2])
+	if rep.Edges.Rows[problem.Top][2] != "temperature = 1 °C" {
+		t.Errorf("top condition %q", rep.Edges.Rows[problem.Top][2])
 	}
 	if len(rep.Probes.Rows) != 2 || rep.Probes.Rows[0][0] != "=centre" {
 		t.Errorf("probe rows %q (labels stay as the user wrote them: the page shows them as text)", rep.Probes.Rows)
@@ -211,16 +217,48 @@ func TestBuild(t *testing.T) {
 	}
 }
 
-func TestLabelsAndBasis(t *testing.T) {
-	for _, c := range []struct{ a, b, want string }{
-		{"value", "value", "Sine"},
-		{"flux", "flux", "Cosine"},
-		{"value", "flux", "Quarter-wave"},
-		{"flux", "value", "Quarter-wave"},
-		{"flux", "convection", "Robin"},
-	} {
-		if got := basis(c.a, c.b); !strings.HasPrefix(got, c.want) {
-			t.Errorf("basis(%s, %s) = %q, want %s...", c.a, c.b, got, c.want)
+// The methods text is assembled from the packages that implement each
+// method: every sentence they give for the solved problem is in the
+// report, in their order. The project has every kind of edge, a step of
+// value and a step of flux inside edges, a source and orthotropy, so that
+// every conditional sentence is asked for.
+func TestMethodsComeFromEachPackage(t *testing.T) {
+	const text = `{"schema":"edgewise/1","physics":"heat","width":2,"height":1,"conductivity":{"x":2,"y":1},"source":5,
+	 "edges":{"bottom":{"kind":"value","expr":"when(s < 1, 8, 2)"},"top":{"kind":"convection","h":12,"ambient":"20"},
+	 "left":{"kind":"flux","expr":"when(s < 0.5, 100, 0)"},"right":{"kind":"value","expr":"5"}}, "grid":{"nx":8,"ny":6}}`
+	p, err := project.Decode([]byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s solver.Solver
+	out, err := s.Solve(p, solver.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	pr, err := project.Compile(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var want []string
+	want = append(want, series.Method(pr)...)
+	want = append(want, solver.StepMethod(pr)...)
+	want = append(want, fdcheck.Method, contour.Method)
+	got := Build(p, out, "today", "v").Methods
+	if len(solver.StepMethod(pr)) != 2 {
+		t.Errorf("step methods %q, want one for the value step and one for the flux step", solver.StepMethod(pr))
+	}
+	at := 0
+	for _, w := range want {
+		k := slices.Index(got[at:], w)
+		if k < 0 {
+			t.Errorf("the report's methods lack, or misplace, %q", w)
+			continue
+		}
+		at += k + 1
+	}
+	for _, stale := range []string{"bilinear", "discrete sine transform)", "1/n^3"} {
+		if joined := strings.Join(got, "\n"); strings.Contains(joined, stale) {
+			t.Errorf("methods still say %q:\n%s", stale, joined)
 		}
 	}
 }

@@ -8,6 +8,8 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Schema names the checks-file format.
@@ -36,7 +38,7 @@ type Case struct {
 type Quantity struct {
 	Formula string
 	Probe   string
-	Edge    string
+	Edge    string // a side name, for edge_flow
 }
 
 // Reference is a second solve whose quantity is the expected value (for
@@ -60,7 +62,6 @@ type Outcome struct {
 var (
 	bases    = []string{"exact", "read", "memory", "recomputed", "common practice"}
 	formulas = []string{"probe_value", "edge_flow", "balance", "mean", "torsion_beta", "duct_fre", "decay_rate"}
-	edges    = []string{"bottom", "top", "left", "right"}
 )
 
 // Parse reads a checks file strictly: unknown keys, a wrong schema,
@@ -190,7 +191,7 @@ func describe(v any) string {
 	return fmt.Sprint(v)
 }
 
-// projectText writes a project subtree back to JSON text for solver.Decode
+// projectText writes a project subtree back to JSON text for project.Decode
 // (which reads it strictly).
 func projectText(v any, where string) ([]byte, error) {
 	if _, ok := v.(map[string]any); !ok {
@@ -282,7 +283,7 @@ func (q Quantity) check() error {
 	if needProbe != (q.Probe != "") {
 		return fmt.Errorf("%s: probe given or missing", q.Formula)
 	}
-	if needEdge != (q.Edge != "") || (needEdge && !contains(edges, q.Edge)) {
+	if _, known := problem.ParseSide(q.Edge); needEdge != (q.Edge != "") || (needEdge && !known) {
 		return fmt.Errorf("%s: edge %q (use bottom, top, left or right, only for edge_flow)", q.Formula, q.Edge)
 	}
 	return nil
@@ -357,12 +358,12 @@ func (c *Case) Run(s *solver.Solver) Outcome {
 }
 
 // Compute solves a project and evaluates a quantity of it.
-func Compute(s *solver.Solver, project []byte, q Quantity) (float64, error) {
-	p, err := solver.Decode(project)
+func Compute(s *solver.Solver, text []byte, q Quantity) (float64, error) {
+	p, err := project.Decode(text)
 	if err != nil {
 		return 0, err
 	}
-	nx, ny := solver.Proportional(p.Width, p.Height, 16)
+	nx, ny := problem.Proportional(p.Width, p.Height, 16)
 	out, err := s.Solve(p, solver.Options{Nx: nx, Ny: ny, NoCrossCheck: true})
 	if err != nil {
 		return 0, err
@@ -378,7 +379,7 @@ func Compute(s *solver.Solver, project []byte, q Quantity) (float64, error) {
 }
 
 // Evaluate computes a quantity from a project and its result.
-func Evaluate(p *solver.Project, r *solver.Result, q Quantity) (float64, error) {
+func Evaluate(p *project.Project, r *solver.Result, q Quantity) (float64, error) {
 	switch q.Formula {
 	case "probe_value":
 		pr, err := probe(r, q.Probe)
@@ -396,17 +397,11 @@ func Evaluate(p *solver.Project, r *solver.Result, q Quantity) (float64, error) 
 		}
 		return -p.Height * pr.Gradient[0] / pr.Value, nil
 	case "edge_flow":
-		var f solver.EdgeFlow
-		switch q.Edge {
-		case "bottom":
-			f = r.Edges.Bottom
-		case "top":
-			f = r.Edges.Top
-		case "left":
-			f = r.Edges.Left
-		case "right":
-			f = r.Edges.Right
+		side, known := problem.ParseSide(q.Edge)
+		if !known {
+			return 0, fmt.Errorf("edge_flow: no edge %q", q.Edge)
 		}
+		f := r.Edges[side]
 		if !f.Finite || f.Flow == nil {
 			return 0, fmt.Errorf("edge_flow: the flow through the %s edge is infinite", q.Edge)
 		}
@@ -440,16 +435,18 @@ func Evaluate(p *solver.Project, r *solver.Result, q Quantity) (float64, error) 
 
 // zeroEdgesWithSource checks the precondition of the derived formulas:
 // -lap(u) = source with u = 0 on the four edges.
-func zeroEdgesWithSource(p *solver.Project, source float64) error {
+func zeroEdgesWithSource(p *project.Project, source float64) error {
 	if p.Source != source {
 		return fmt.Errorf("needs source %g, the project has %g", source, p.Source)
 	}
 	if p.Conductivity.X != 1 || p.Conductivity.Y != 1 {
 		return fmt.Errorf("needs isotropic conductivity 1")
 	}
-	for _, e := range []solver.EdgeSpec{p.Edges.Bottom, p.Edges.Top, p.Edges.Left, p.Edges.Right} {
-		if e.Kind != "value" || strings.TrimSpace(e.Expr) != "0" {
-			return fmt.Errorf("needs the four edges at value 0")
+	for _, e := range p.Edges {
+		for _, s := range e.Segments {
+			if s.Kind != problem.Value || strings.TrimSpace(s.Expr) != "0" {
+				return fmt.Errorf("needs the four edges at value 0")
+			}
 		}
 	}
 	return nil

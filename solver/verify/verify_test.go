@@ -8,6 +8,8 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
 )
 
 // Every published case in the shared checks file passes. The expected
@@ -188,11 +190,11 @@ func meanDuct(a, b float64, m int) float64 {
 // values: this checks the formulas and their reading of the tables
 // independently of the engine.
 func TestDerivedFormulas(t *testing.T) {
-	zero := solver.EdgeSpec{Kind: "value", Expr: "0"}
-	proj := func(w, h, source float64) *solver.Project {
-		return &solver.Project{Width: w, Height: h, Source: source,
-			Conductivity: solver.Conductivity{X: 1, Y: 1},
-			Edges:        solver.Edges{Bottom: zero, Top: zero, Left: zero, Right: zero}}
+	zero := project.Segment{Kind: problem.Value, Expr: "0"}
+	proj := func(w, h, source float64) *project.Project {
+		return &project.Project{Width: w, Height: h, Source: source,
+			Conductivity: project.Conductivity{X: 1, Y: 1},
+			Edges:        project.Edges{project.Whole(zero), project.Whole(zero), project.Whole(zero), project.Whole(zero)}}
 	}
 	// Shah & London (1978), fully developed laminar flow, f Re for
 	// rectangular ducts (recalled from memory); three printed decimals.
@@ -221,7 +223,7 @@ func TestDerivedFormulas(t *testing.T) {
 	}
 	// The preconditions hold the formulas to their problems.
 	p := proj(1, 1, 2)
-	p.Edges.Top.Expr = "1"
+	p.Edges[problem.Top].Segments[0].Expr = "1"
 	if _, err := Evaluate(p, &solver.Result{Mean: 1}, Quantity{Formula: "torsion_beta"}); err == nil {
 		t.Errorf("torsion_beta accepted a project with an edge at 1")
 	}
@@ -256,7 +258,7 @@ func TestDecayRate(t *testing.T) {
 		u := math.Cos(l*y/H) * math.Exp(-l*x/H)
 		r := &solver.Result{Probes: []solver.ProbeResult{{Label: "p", X: x, Y: y, Value: u,
 			Gradient: [2]float64{-l / H * u, -l / H * math.Sin(l*y/H) * math.Exp(-l*x/H)}}}}
-		got, err := Evaluate(&solver.Project{Width: 50, Height: H}, r, Quantity{Formula: "decay_rate", Probe: "p"})
+		got, err := Evaluate(&project.Project{Width: 50, Height: H}, r, Quantity{Formula: "decay_rate", Probe: "p"})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -265,7 +267,7 @@ func TestDecayRate(t *testing.T) {
 			t.Errorf("decay_rate = %.15g, want %.15g", got, l)
 		}
 	}
-	if _, err := Evaluate(&solver.Project{Height: 1}, &solver.Result{}, Quantity{Formula: "decay_rate", Probe: "p"}); err == nil {
+	if _, err := Evaluate(&project.Project{Height: 1}, &solver.Result{}, Quantity{Formula: "decay_rate", Probe: "p"}); err == nil {
 		t.Errorf("decay_rate found a probe that is not there")
 	}
 }

@@ -2,18 +2,25 @@
 
 package main
 
+// The data the page's form and legend ask for: the colour tables, a
+// preview of one edge's formula, and the quantities and units of each
+// physics.
+
 import (
 	"errors"
+	"fmt"
 
 	"edgewise/solver"
 	"edgewise/solver/colour"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
 
 // coloursCall returns the two colour maps as tables of n colours (default
 // 256), so that the page, the SVG and the PNG share one design.
-func coloursCall(args []safejs.Value) any {
+func coloursCall(args []safejs.Value) (map[string]any, error) {
 	n := 256
 	if len(args) >= 1 {
 		if v, err := args[0].Int(); err == nil && v >= 2 && v <= 4096 {
@@ -22,28 +29,28 @@ func coloursCall(args []safejs.Value) any {
 	}
 	seq, err := uint8Array(colour.Sequential.Table(n))
 	if err != nil {
-		return failure(err)
+		return nil, err
 	}
 	div, err := uint8Array(colour.Diverging.Table(n))
 	if err != nil {
-		return failure(err)
+		return nil, err
 	}
 	return map[string]any{
 		"ok": true, "n": n, "sequential": seq, "diverging": div,
 		"names": map[string]any{"sequential": colour.Sequential.Name(), "diverging": colour.Diverging.Name()},
-	}
+	}, nil
 }
 
 // previewCall samples one edge's formula (the ambient for a convection
 // edge) at n+1 points along it, for the page's small profile plot.
-func previewCall(args []safejs.Value) any {
+func previewCall(args []safejs.Value) (map[string]any, error) {
 	if len(args) < 2 {
-		return failure(errors.New("edgewise_preview needs the project JSON and a side"))
+		return nil, errors.New("edgewise_preview needs the project JSON and a side")
 	}
 	text, err1 := args[0].String()
 	side, err2 := args[1].String()
 	if err1 != nil || err2 != nil {
-		return failure(errors.New("edgewise_preview: project and side must be text"))
+		return nil, errors.New("edgewise_preview: project and side must be text")
 	}
 	n := 64
 	if len(args) >= 3 {
@@ -53,41 +60,45 @@ func previewCall(args []safejs.Value) any {
 	}
 	s, v, err := previewText(text, side, n)
 	if err != nil {
-		return failure(err)
+		return nil, err
 	}
 	sa, err := float64Array(s)
 	if err != nil {
-		return failure(err)
+		return nil, err
 	}
 	va, err := float64Array(v)
 	if err != nil {
-		return failure(err)
+		return nil, err
 	}
-	return map[string]any{"ok": true, "s": sa, "v": va}
+	return map[string]any{"ok": true, "s": sa, "v": va}, nil
 }
 
 // previewText is the part of a preview that does not read JavaScript
 // arguments.
-func previewText(text, side string, n int) (s, v []float64, err error) {
-	p, err := solver.Decode([]byte(text))
+func previewText(text, sideName string, n int) (s, v []float64, err error) {
+	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, nil, err
+	}
+	side, ok := problem.ParseSide(sideName)
+	if !ok {
+		return nil, nil, &project.Error{Path: "edges", Msg: fmt.Sprintf("unknown edge %q", sideName)}
 	}
 	return solver.PreviewEdge(p, side, n)
 }
 
 // unitsCall returns the quantities and units of every physics, keyed by
 // the physics name: {ok, heat: {value, value_unit, ...}, electrostatic, ...}.
-func unitsCall([]safejs.Value) any {
+func unitsCall([]safejs.Value) (map[string]any, error) {
 	reply := map[string]any{"ok": true}
-	for _, name := range []string{solver.Heat, solver.Electrostatic, solver.Seepage, solver.Generic} {
+	for _, name := range []string{project.Heat, project.Electrostatic, project.Seepage, project.Generic} {
 		m, err := unitsMap(name)
 		if err != nil {
-			return failure(err)
+			return nil, err
 		}
 		reply[name] = m
 	}
-	return reply
+	return reply, nil
 }
 
 // unitsMap is the unit set of one physics as a plain map with the names

@@ -1,4 +1,4 @@
-package solver
+package project
 
 import (
 	"fmt"
@@ -8,6 +8,7 @@ import (
 
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/physics"
+	"edgewise/solver/problem"
 )
 
 // Schema is the project-file schema this package reads and writes.
@@ -39,22 +40,6 @@ type Project struct {
 // Conductivity is isotropic (X == Y) or orthotropic. It encodes as a single
 // number when isotropic.
 type Conductivity struct{ X, Y float64 }
-
-// Edges holds the four edge conditions.
-type Edges struct {
-	Bottom EdgeSpec `json:"bottom"`
-	Top    EdgeSpec `json:"top"`
-	Left   EdgeSpec `json:"left"`
-	Right  EdgeSpec `json:"right"`
-}
-
-// EdgeSpec is one edge condition as the user wrote it.
-type EdgeSpec struct {
-	Kind    string  `json:"kind"`              // "value", "flux" or "convection"
-	Expr    string  `json:"expr,omitempty"`    // value or entering flux (value, flux)
-	H       float64 `json:"h,omitempty"`       // convection coefficient (convection)
-	Ambient string  `json:"ambient,omitempty"` // ambient value (convection)
-}
 
 // Probe is a point where the user wants the value, gradient and flux.
 type Probe struct {
@@ -95,7 +80,8 @@ func (e *Error) Error() string {
 	return e.Path + ": " + e.Msg
 }
 
-func errorf(path, format string, args ...any) *Error {
+// Errorf returns an *Error for the field at path.
+func Errorf(path, format string, args ...any) *Error {
 	return &Error{Path: path, Msg: fmt.Sprintf(format, args...)}
 }
 
@@ -104,11 +90,11 @@ func errorf(path, format string, args ...any) *Error {
 // name the field path. Formulas are checked by Compile, not here.
 func Decode(data []byte) (*Project, error) {
 	if len(data) > maxFileBytes {
-		return nil, errorf("", "project file is larger than %d bytes", maxFileBytes)
+		return nil, Errorf("", "project file is larger than %d bytes", maxFileBytes)
 	}
 	v, err := jsonlite.Parse(data)
 	if err != nil {
-		return nil, errorf("", "not a project file: %v", err)
+		return nil, Errorf("", "not a project file: %v", err)
 	}
 	d := decoder{}
 	p := d.project(v)
@@ -123,7 +109,7 @@ type decoder struct{ err *Error }
 
 func (d *decoder) fail(path, format string, args ...any) {
 	if d.err == nil {
-		d.err = errorf(path, format, args...)
+		d.err = Errorf(path, format, args...)
 	}
 }
 
@@ -257,12 +243,12 @@ func (d *decoder) project(v any) *Project {
 	if s, ok := m["source"]; ok {
 		p.Source = d.number(s, "source")
 	}
-	em := d.object(m["edges"], "edges", []string{"bottom", "top", "left", "right"})
-	if em != nil {
-		p.Edges.Bottom = d.edge(em["bottom"], "edges.bottom")
-		p.Edges.Top = d.edge(em["top"], "edges.top")
-		p.Edges.Left = d.edge(em["left"], "edges.left")
-		p.Edges.Right = d.edge(em["right"], "edges.right")
+	em := d.object(m["edges"], "edges", sideNames())
+	for _, side := range problem.Sides {
+		if em == nil {
+			break
+		}
+		p.Edges[side] = d.edge(em[side.String()], "edges."+side.String())
 	}
 	if pv, ok := m["probes"]; ok {
 		p.Probes = d.probes(pv, p)
@@ -288,35 +274,13 @@ func (d *decoder) conductivity(v any, path string) Conductivity {
 	return Conductivity{X: k, Y: k}
 }
 
-func (d *decoder) edge(v any, path string) EdgeSpec {
-	m, ok := v.(map[string]any)
-	if !ok {
-		d.fail(path, "expected an object {\"kind\": ..}, got %s", describe(v))
-		return EdgeSpec{}
+// sideNames lists the JSON keys of the four edges, in the side order.
+func sideNames() []string {
+	names := make([]string, len(problem.Sides))
+	for i, s := range problem.Sides {
+		names[i] = s.String()
 	}
-	if _, ok := m["kind"]; !ok {
-		d.fail(path+".kind", "missing (use value, flux or convection)")
-		return EdgeSpec{}
-	}
-	kind := d.text(m["kind"], path+".kind")
-	e := EdgeSpec{Kind: kind}
-	switch kind {
-	case "value", "flux":
-		if m = d.object(v, path, []string{"kind", "expr"}); m != nil {
-			e.Expr = d.formula(m["expr"], path+".expr")
-		}
-	case "convection":
-		if m = d.object(v, path, []string{"kind", "h", "ambient"}); m != nil {
-			e.H = d.number(m["h"], path+".h")
-			if d.err == nil && e.H < 0 {
-				d.fail(path+".h", "convection coefficient must be zero or more, got %g", e.H)
-			}
-			e.Ambient = d.formula(m["ambient"], path+".ambient")
-		}
-	default:
-		d.fail(path+".kind", "unknown edge kind %q (use value, flux or convection)", kind)
-	}
-	return e
+	return names
 }
 
 func (d *decoder) probes(v any, p *Project) []Probe {

@@ -1,4 +1,4 @@
-package solver
+package project
 
 import (
 	"errors"
@@ -10,17 +10,17 @@ import (
 // takes their values.
 var formulaVars = []string{"x", "y", "s", "W", "H"}
 
-// compileFormula compiles the text of an edge formula into a function of
+// CompileFormula compiles the text of an edge formula into a function of
 // the distance s along the edge; point maps s to (x, y). Errors carry the
 // field path and the column.
-func compileFormula(src, path string, point func(s float64) (x, y float64), w, h float64) (func(float64) float64, error) {
+func CompileFormula(src, path string, point func(s float64) (x, y float64), w, h float64) (func(float64) float64, error) {
 	e, err := expr.Compile(src, formulaVars...)
 	if err != nil {
 		var xe *expr.Error
 		if errors.As(err, &xe) {
 			return nil, &Error{Path: path, Col: xe.Col, Msg: xe.Msg}
 		}
-		return nil, errorf(path, "%v", err)
+		return nil, Errorf(path, "%v", err)
 	}
 	if v, ok := e.Const(); ok {
 		return func(float64) float64 { return v }, nil

@@ -1,0 +1,50 @@
+package series
+
+import (
+	"edgewise/solver/problem"
+	"edgewise/solver/series/basis"
+)
+
+// Method describes, in the words of the report, the series method as Solve
+// applies it to p, one sentence per step (see the package comment for the
+// details). The bases and the steps for a source, orthotropy and an
+// all-flux problem appear only when p has them.
+func Method(p *problem.Problem) []string {
+	m := []string{
+		"Separation of variables with superposition: one sub-problem per edge carrying that edge's residual data, the other three edges homogeneous of their own kind.",
+	}
+	md := newModel(p)
+	seen := map[string]bool{}
+	for _, e := range problem.Sides {
+		a, b, _ := neighbours(e)
+		L := md.length(e)
+		d := basis.Method(biot(md, a, L), biot(md, b, L))
+		if !seen[d] {
+			seen[d] = true
+			m = append(m, d)
+		}
+	}
+	m = append(m,
+		"Series coefficients by Gauss-Legendre projection of the edge data (n+32 nodes for n terms, one rule between each pair of steps in the data).",
+		"Exponentials across the region in overflow-free form, exp(-lambda t) and exp(-lambda (2D - t)), so that any aspect ratio from 1e-3 to 1e3 is safe.",
+		"Corner pieces subtracted before expanding: the angle function where two prescribed values jump at a corner, "+
+			"zeta log zeta, zeta^2 log zeta and zeta^3 log zeta where the data of two edges disagree at a corner, "+
+			"and harmonic polynomials of degree up to 5 (minimum norm) fitted to the remaining corner conditions, "+
+			"so that the coefficients fall like about n^-5 instead of n^-1.",
+	)
+	if p.Source != 0 {
+		m = append(m, "A quadratic particular solution for the uniform source, its edge values and fluxes carried into the sub-problems.")
+	}
+	if p.Kx != p.Ky {
+		m = append(m, "Orthotropic conductivity mapped onto an isotropic problem by the change of variable y' = y sqrt(kx/ky).")
+	}
+	if md.allFlx {
+		m = append(m, "All edges prescribe flux: a steady state exists only when inflow and source balance (to 1e-9); the free constant makes the area mean of the field zero.")
+	}
+	m = append(m,
+		"Terms doubled until the estimated tail is below the tolerance: the last two octaves of the coefficients give their rate of decay, "+
+			"the dropped terms are summed on the loaded edge and extrapolated geometrically, and that estimate is doubled for safety.",
+		"Output grid summed row by row with per-row truncation, by the discrete sine transform (DST-I) for edges between two value edges.",
+	)
+	return m
+}
