@@ -22,7 +22,6 @@
 package main
 
 import (
-	"bufio"
 	"flag"
 	"fmt"
 	"io"
@@ -107,16 +106,12 @@ func writeCSV(path string, p *solver.Project, out *solver.Output) error {
 	if err != nil {
 		return err
 	}
-	w := bufio.NewWriter(f)
 	u := solver.Units(p.Physics)
-	err = export.FieldCSV(w, &export.Field{
+	err = export.FieldCSV(f, &export.Field{
 		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H, U: out.U, Ux: out.Ux, Uy: out.Uy,
 		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
 		Units: export.Units{Quantity: u.Value, Unit: u.ValueUnit, FluxUnit: u.FluxUnit, LengthUnit: u.Length},
 	})
-	if err == nil {
-		err = w.Flush()
-	}
 	if cerr := f.Close(); err == nil {
 		err = cerr
 	}

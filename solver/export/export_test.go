@@ -7,6 +7,7 @@ import (
 	"encoding/xml"
 	"errors"
 	"flag"
+	"fmt"
 	"image/png"
 	"io"
 	"math"
@@ -15,6 +16,7 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"unicode"
 
 	"edgewise/solver/colour"
 	"edgewise/solver/contour"
@@ -161,6 +163,52 @@ var hostile = []struct{ in, back string }{
 	{`-5 mm`, `'-5 mm`},
 	{` padded `, ` padded `},
 	{"", ""},
+	// fixed bugs: the guard looked only at the first character
+	{`a;=1+1;b`, `a;'=1+1;b`},
+	{` =1+1`, `' =1+1`},
+	{"\u00a0=1+1", "'\u00a0=1+1"},
+	{"\uff1d1+1", "'\uff1d1+1"},
+	{"\n=1+1", "'\n'=1+1"},
+	{"\nP2", "'\nP2"},
+	{"P3,@SUM(A1)", "P3,'@SUM(A1)"},
+	{"P4\t+1", "P4\t'+1"},
+	{"P5; \u3000-2", "P5;' \u3000-2"},
+	{"left; lower", "left; lower"},
+}
+
+// TestGuardEverySeparator reads each guarded label back and splits it the
+// way a spreadsheet could (on comma, semicolon, tab or a line break): no
+// piece may start, after spaces, with a formula starter unless the
+// apostrophe is in front of it.
+func TestGuardEverySeparator(t *testing.T) {
+	in := []string{"=1", "a,=1", "a;+1", "a\t-1", "a\r\n@1", "\u00a0\u2003=1", "\ufeff=1", "\u200b+1",
+		"\uff0b1", "\uff0d1", "\uff201", "\u22121", "x; ; =1", ";;;", "=", "a\n\n-1"}
+	for _, h := range hostile {
+		in = append(in, h.in)
+	}
+	for _, s := range in {
+		var b bytes.Buffer
+		if err := ProbesCSV(&b, []Probe{{Label: s}}, Units{}); err != nil {
+			t.Fatal(err)
+		}
+		recs, err := csv.NewReader(&b).ReadAll()
+		if err != nil {
+			t.Fatalf("%q: re-read: %v", s, err)
+		}
+		back := recs[1][0]
+		if strings.ReplaceAll(back, "'", "") != strings.ReplaceAll(strings.ReplaceAll(s, "'", ""), "\r", "") {
+			t.Errorf("%q came back as %q: more than apostrophes changed", s, back)
+		}
+		for _, piece := range strings.FieldsFunc(back, func(r rune) bool { return strings.ContainsRune(",;\t\r\n", r) }) {
+			rest := strings.TrimLeftFunc(piece, func(r rune) bool { return unicode.IsSpace(r) || r == '\u200b' || r == '\ufeff' })
+			if rest != "" && strings.ContainsRune("=+-@\uff1d\uff0b\uff0d\uff20\u2212", []rune(rest)[0]) && piece[0] != '\'' {
+				t.Errorf("%q came back as %q: the piece %q runs as a formula", s, back, piece)
+			}
+		}
+		if s != "" && strings.ContainsRune("\t\r\n", rune(s[0])) && back[0] != '\'' {
+			t.Errorf("%q came back as %q: a leading tab or line break must be guarded", s, back)
+		}
+	}
 }
 
 func TestProbesCSV(t *testing.T) {
@@ -410,9 +458,27 @@ func BenchmarkSVG(b *testing.B) {
 	b.ReportMetric(float64(buf.Len()), "bytes")
 }
 
-// BenchmarkFieldCSV writes a 513 x 513 node field with gradients.
+// BenchmarkFieldCSV writes an (n+1) x (n+1) node field with gradients, the
+// file the runner's -csv and the page's field download make.
 func BenchmarkFieldCSV(b *testing.B) {
-	const n = 512
+	for _, n := range []int{64, 256, 512, 1024} {
+		f := benchField(n)
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			var buf bytes.Buffer
+			for b.Loop() {
+				buf.Reset()
+				if err := FieldCSV(&buf, f); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.SetBytes(int64(buf.Len()))
+		})
+	}
+}
+
+// benchField is an invented smooth field on 0.4 m x 0.15 m with its exact
+// gradient.
+func benchField(n int) *Field {
 	f := &Field{Nx: n, Ny: n, W: 0.4, H: 0.15, Kx: 167, Ky: 167, Units: Units{Quantity: "temperature", Unit: "°C", FluxUnit: "W/m2", LengthUnit: "m"}}
 	for j := 0; j <= n; j++ {
 		for i := 0; i <= n; i++ {
@@ -422,14 +488,7 @@ func BenchmarkFieldCSV(b *testing.B) {
 			f.Uy = append(f.Uy, -145*7.85*math.Sin(7.85*x)*math.Exp(-7.85*y))
 		}
 	}
-	var buf bytes.Buffer
-	for b.Loop() {
-		buf.Reset()
-		if err := FieldCSV(&buf, f); err != nil {
-			b.Fatal(err)
-		}
-	}
-	b.ReportMetric(float64(buf.Len()), "bytes")
+	return f
 }
 
 // A fine grid is rastered at no more than maxRaster pixels a side, and the
