@@ -12,7 +12,7 @@ GOJSEXEC  := $(GOROOT)/lib/wasm/go_js_wasm_exec
 RELEASE   ?= $(shell git describe --tags --always --dirty 2>/dev/null || echo unknown)
 NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
 
-.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist bench bench-browser fuzz clean
+.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist sizes size-baseline bench bench-browser fuzz clean
 
 all: build
 
@@ -93,16 +93,43 @@ chromium:
 	  exit 1; \
 	fi
 
-## dist: dist/site/ for any static server, dist/edgewise.html for offline use
+## dist: dist/site/ for any static server, dist/edgewise.html for offline use;
+## prints both sizes and fails if one grew by more than 5% over testdata/size-baseline.txt
 dist: build
 	rm -rf dist/site && mkdir -p dist/site
 	cp site/*.html site/*.js site/*.css site/*.json site/app.wasm dist/site/
 	$(GO) run ./scripts/bundle -site site -o dist/edgewise.html
-	@wasm=$$(stat -c %s site/app.wasm); html=$$(stat -c %s dist/edgewise.html); \
-	  awk -v w=$$wasm -v h=$$html 'BEGIN { \
-	    printf "size: app.wasm %.2f MiB (target <= 3.5 MiB)\n", w/1048576; \
-	    printf "size: edgewise.html %.2f MiB (target <= 1.5 MiB)\n", h/1048576; \
-	    if (w > 3.5*1048576 || h > 1.5*1048576) print "size: WARNING: over target" }'
+	@$(MAKE) --no-print-directory sizes
+
+# The size report. testdata/size-baseline.txt holds one line per artefact,
+# "NAME BYTES"; a size more than 5% over its baseline fails the build (a
+# size over its target only warns). After a change that grows or shrinks
+# the engine on purpose, record the new sizes with `make size-baseline`
+# and commit the file with that change.
+SIZE_BASELINE := testdata/size-baseline.txt
+SIZE_FILES    := app.wasm=site/app.wasm edgewise.html=dist/edgewise.html
+SIZE_TARGETS  := app.wasm=3.5 edgewise.html=1.5
+
+sizes:
+	@status=0; for f in $(SIZE_FILES); do \
+	  name=$${f%%=*}; path=$${f#*=}; bytes=$$(stat -c %s $$path); \
+	  target=$$(for t in $(SIZE_TARGETS); do [ "$${t%%=*}" = $$name ] && echo $${t#*=}; done); \
+	  base=$$(awk -v n=$$name '$$1 == n { print $$2 }' $(SIZE_BASELINE) 2>/dev/null); \
+	  awk -v n=$$name -v b=$$bytes -v t=$$target -v base="$$base" 'BEGIN { \
+	    line = sprintf("size: %s %.2f MiB (%d bytes; target <= %s MiB", n, b/1048576, b, t); \
+	    if (base == "") { print line "; no baseline in $(SIZE_BASELINE))"; exit 0 } \
+	    d = 100 * (b - base) / base; \
+	    printf "%s; baseline %d bytes, %+.1f%%)\n", line, base, d; \
+	    if (b > t * 1048576) print "size: warning: " n " is over its target"; \
+	    if (d > 5) { print "size: FAILED: " n " grew " sprintf("%.1f", d) "% over the baseline (more than 5%); if that is intended, run make size-baseline and commit $(SIZE_BASELINE) with the change"; exit 1 } }' \
+	  || status=1; \
+	done; exit $$status
+
+## size-baseline: record the current sizes (after make dist) as the baseline
+size-baseline:
+	@{ echo "# make dist fails when an artefact grows more than 5% over its size here (bytes)"; \
+	  for f in $(SIZE_FILES); do echo "$${f%%=*} $$(stat -c %s $${f#*=})"; done; } > $(SIZE_BASELINE)
+	@cat $(SIZE_BASELINE)
 
 ## bench: the Go benchmarks
 bench:

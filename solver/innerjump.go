@@ -4,8 +4,7 @@ import (
 	"math"
 	"slices"
 
-	"gonum.org/v1/gonum/integrate/quad"
-
+	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
 )
 
@@ -142,7 +141,7 @@ func gradedGauss(f func(s float64) float64, a, b float64, depth int, x, w []floa
 	return sum
 }
 
-// Gauss-Legendre nodes and weights on [-1, 1] (gonum's quad): 16 points
+// Gauss-Legendre nodes and weights on [-1, 1] (solver/gauss): 16 points
 // for the flows along edges, 8 for the area mean.
 var (
 	gl16x, gl16w = legendre(16)
@@ -151,7 +150,7 @@ var (
 
 func legendre(n int) (x, w []float64) {
 	x, w = make([]float64, n), make([]float64, n)
-	quad.Legendre{}.FixedLocations(x, w, -1, 1)
+	gauss.Legendre(x, w, -1, 1)
 	return x, w
 }
 

@@ -11,7 +11,8 @@
 //	-csv FILE  also write the field on that grid as CSV (x, y, value,
 //	           gradient and flux, with units in the header)
 //
-// PROJECT.json may be "-" for standard input. On bad input it exits with
+// PROJECT.json may be "-" for standard input; either is read only up to
+// the size limit of a project file (1 MiB). On bad input it exits with
 // status 1 and one line on standard error that names the field and, for a
 // formula, the column:
 //
@@ -22,11 +23,13 @@
 package main
 
 import (
-	"bufio"
+	"errors"
 	"flag"
 	"fmt"
 	"io"
 	"os"
+	"strconv"
+	"strings"
 
 	"edgewise/solver"
 	"edgewise/solver/export"
@@ -48,7 +51,8 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	}()
 	fs := flag.NewFlagSet("solve", flag.ContinueOnError)
 	fs.SetOutput(stderr)
-	grid := fs.Int("grid", 0, "output grid: `N` intervals along the longer side")
+	var gridText string // checked below, so that a bad value gives one line, not the usage
+	fs.StringVar(&gridText, "grid", "", "output grid: `N` intervals along the longer side")
 	csvPath := fs.String("csv", "", "write the field on the output grid as CSV to `FILE`")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: solve [-grid N] [-csv FILE] PROJECT.json")
@@ -61,47 +65,117 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		fs.Usage()
 		return 1
 	}
-	if *grid != 0 && (*grid < 2 || *grid > project.MaxGrid) {
-		fmt.Fprintf(stderr, "-grid: must be from 2 to %d, got %d\n", project.MaxGrid, *grid)
+	grid, err := gridFlag(gridText)
+	if err != nil {
+		fmt.Fprintln(stderr, shorten(err.Error()))
 		return 1
 	}
-	var data []byte
-	var err error
-	if name := fs.Arg(0); name == "-" {
-		data, err = io.ReadAll(stdin)
-	} else {
-		data, err = os.ReadFile(name)
-	}
+	data, err := readProject(fs.Arg(0), stdin)
 	if err != nil {
-		fmt.Fprintln(stderr, err)
+		fmt.Fprintln(stderr, shorten(err.Error()))
 		return 1
 	}
 	p, err := project.Decode(data)
 	if err != nil {
-		fmt.Fprintln(stderr, err)
+		fmt.Fprintln(stderr, shorten(err.Error()))
 		return 1
 	}
 	opt := solver.Options{}
-	if *grid > 0 {
-		opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, *grid)
+	if grid > 0 {
+		opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, grid)
 	}
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
 	if err != nil {
-		fmt.Fprintln(stderr, err)
+		fmt.Fprintln(stderr, shorten(err.Error()))
 		return 1
 	}
 	if *csvPath != "" {
 		if err := writeCSV(*csvPath, p, out); err != nil {
-			fmt.Fprintln(stderr, err)
+			fmt.Fprintln(stderr, shorten(err.Error()))
 			return 1
 		}
 	}
 	if _, err := stdout.Write(append(out.Result.JSON(), '\n')); err != nil {
-		fmt.Fprintln(stderr, err)
+		fmt.Fprintln(stderr, shorten(err.Error()))
 		return 1
 	}
 	return 0
+}
+
+// gridFlag reads the -grid value: empty or 0 for the project's own grid,
+// else a whole number from 2 to project.MaxGrid. A bad value is one line
+// naming the flag and the range.
+func gridFlag(text string) (int, error) {
+	if text == "" {
+		return 0, nil
+	}
+	n, err := strconv.Atoi(strings.TrimSpace(text))
+	if err != nil && !errors.Is(err, strconv.ErrRange) {
+		if len(text) > 40 {
+			text = text[:32] + "..."
+		}
+		return 0, fmt.Errorf("-grid: must be a whole number from 2 to %d, got %q", project.MaxGrid, text)
+	}
+	if n == 0 && err == nil {
+		return 0, nil // as if not given, as before
+	}
+	if err != nil || n < 2 || n > project.MaxGrid {
+		return 0, fmt.Errorf("-grid: must be from 2 to %d, got %s", project.MaxGrid, strings.TrimSpace(text))
+	}
+	return n, nil
+}
+
+// readProject reads the project file, or standard input for "-", through
+// a limit: it reads at most project.MaxFileBytes + 1 bytes, so that a huge
+// or endless input (a pipe from /dev/zero) is refused in bounded time and
+// memory.
+func readProject(name string, stdin io.Reader) ([]byte, error) {
+	r := stdin
+	if name != "-" {
+		f, err := os.Open(name)
+		if err != nil {
+			return nil, err
+		}
+		defer f.Close()
+		r = f
+	}
+	data, err := io.ReadAll(io.LimitReader(r, project.MaxFileBytes+1))
+	if err != nil {
+		return nil, err
+	}
+	if len(data) > project.MaxFileBytes {
+		return nil, fmt.Errorf("project file is larger than %d bytes", project.MaxFileBytes)
+	}
+	return data, nil
+}
+
+// maxDigits is the longest run of digits a message shows in full.
+const maxDigits = 20
+
+// shorten cuts every run of more than maxDigits digits in a message to its
+// first digits and its length, so that a 5000-digit number in the input
+// is never echoed back in full: "12345678...(5000 digits)".
+func shorten(msg string) string {
+	var b strings.Builder
+	for i := 0; i < len(msg); {
+		j := i
+		for j < len(msg) && msg[j] >= '0' && msg[j] <= '9' {
+			j++
+		}
+		switch {
+		case j-i > maxDigits:
+			fmt.Fprintf(&b, "%s...(%d digits)", msg[i:i+8], j-i)
+			i = j
+		case j > i:
+			b.WriteString(msg[i:j])
+			i = j
+		default:
+			b.WriteByte(msg[i])
+			i++
+		}
+	}
+	return b.String()
 }
 
 func writeCSV(path string, p *project.Project, out *solver.Output) error {
@@ -109,16 +183,12 @@ func writeCSV(path string, p *project.Project, out *solver.Output) error {
 	if err != nil {
 		return err
 	}
-	w := bufio.NewWriter(f)
 	u := solver.Units(p.Physics)
-	err = export.FieldCSV(w, &export.Field{
+	err = export.FieldCSV(f, &export.Field{
 		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H, U: out.U, Ux: out.Ux, Uy: out.Uy,
 		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
 		Units: export.Units{Quantity: u.Value, Unit: u.ValueUnit, FluxUnit: u.FluxUnit, LengthUnit: u.Length},
 	})
-	if err == nil {
-		err = w.Flush()
-	}
 	if cerr := f.Close(); err == nil {
 		err = cerr
 	}

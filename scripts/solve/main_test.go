@@ -4,10 +4,13 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"edgewise/solver/project"
 )
 
 const square = `{"schema":"edgewise/1","physics":"heat","width":1,"height":1,"conductivity":2,
@@ -68,6 +71,16 @@ func TestSolveBadInput(t *testing.T) {
 			"width: must be greater than zero, got 0"},
 		{"not json", `{"schema": `, nil, "not a project file: JSON syntax error at line 1, col 12: unexpected end of text"},
 		{"grid flag", square, []string{"-grid", "1"}, "-grid: must be from 2 to 1024, got 1"},
+		// fixed bugs: out of int range it printed the usage (seven lines)
+		{"grid out of range", square, []string{"-grid", "1" + strings.Repeat("0", 5000)},
+			"-grid: must be from 2 to 1024, got 10000000...(5001 digits)"},
+		{"grid negative", square, []string{"-grid", "-99999999999999999999"}, "-grid: must be from 2 to 1024, got -99999999999999999999"},
+		{"grid not a number", square, []string{"-grid", "ten"}, `-grid: must be a whole number from 2 to 1024, got "ten"`},
+		{"grid long text", square, []string{"-grid", strings.Repeat("x", 5000)},
+			`-grid: must be a whole number from 2 to 1024, got "` + strings.Repeat("x", 32) + `..."`},
+		// fixed bug: a 5000-digit width was echoed back in full
+		{"long number", strings.Replace(square, `"width":1`, `"width":1`+strings.Repeat("7", 5000), 1), nil,
+			"width: 17777777...(5001 digits) is not a finite number"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -84,5 +97,91 @@ func TestSolveBadInput(t *testing.T) {
 				t.Errorf("stdout %q, want nothing", out.String())
 			}
 		})
+	}
+}
+
+// hugeInput is a project that never ends: a title of n bytes of "a" in
+// one line, made as it is read, so that the test holds none of it.
+type hugeInput struct {
+	head string
+	n    int64 // bytes of title still to give
+	read int64 // bytes given so far
+}
+
+func (h *hugeInput) Read(p []byte) (int, error) {
+	if h.n <= 0 {
+		return 0, io.EOF
+	}
+	k := 0
+	for k < len(p) && h.read < int64(len(h.head)) {
+		p[k] = h.head[h.read]
+		k++
+		h.read++
+	}
+	m := int(min(int64(len(p)-k), h.n))
+	for i := range m {
+		p[k+i] = 'a'
+	}
+	h.n -= int64(m)
+	h.read += int64(m)
+	return k + m, nil
+}
+
+// Fixed bug: the runner read all of its input before checking the size,
+// 2.7 GB of memory for 1 GiB. 300 MB in one line on standard input is
+// refused with the one-line reason after reading no more than the limit
+// and one byte. (That it takes well under 5 s is checked by
+// BenchmarkRefuseHugeInput, not here.)
+func TestSolveRefusesHugeInput(t *testing.T) {
+	in := &hugeInput{head: `{"schema":"edgewise/1","title":"`, n: 300 << 20}
+	var out, errb bytes.Buffer
+	if st := run([]string{"-"}, in, &out, &errb); st != 1 {
+		t.Errorf("exit %d, want 1", st)
+	}
+	if want := "project file is larger than 1048576 bytes\n"; errb.String() != want {
+		t.Errorf("stderr %q, want %q", errb.String(), want)
+	}
+	if in.read > project.MaxFileBytes+1 {
+		t.Errorf("read %d bytes of input, want at most the limit and one (%d)", in.read, project.MaxFileBytes+1)
+	}
+	if out.Len() != 0 {
+		t.Errorf("stdout %q, want nothing", out.String())
+	}
+}
+
+// The same limit holds for a file: one byte over is refused, the limit
+// itself is read and parsed.
+func TestSolveFileLimit(t *testing.T) {
+	dir := t.TempDir()
+	for _, c := range []struct {
+		size int
+		want string
+	}{
+		{project.MaxFileBytes + 1, "project file is larger than 1048576 bytes"},
+		{project.MaxFileBytes, "physics: missing"}, // read and parsed: the error is about what it holds
+	} {
+		data := []byte(`{"schema":"edgewise/1","title":"`)
+		data = append(data, bytes.Repeat([]byte("a"), c.size-len(data)-2)...)
+		data = append(data, '"', '}')
+		path := filepath.Join(dir, "big.json")
+		if err := os.WriteFile(path, data, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		var out, errb bytes.Buffer
+		run([]string{path}, nil, &out, &errb)
+		if got := strings.TrimSuffix(errb.String(), "\n"); got != c.want {
+			t.Errorf("%d bytes: stderr %q, want %q", c.size, got, c.want)
+		}
+	}
+}
+
+// BenchmarkRefuseHugeInput pipes 300 MB of one line into the runner (the
+// target: refused in under 5 s, in bounded memory).
+func BenchmarkRefuseHugeInput(b *testing.B) {
+	for b.Loop() {
+		in := &hugeInput{head: `{"schema":"edgewise/1","title":"`, n: 300 << 20}
+		if st := run([]string{"-"}, in, io.Discard, io.Discard); st != 1 {
+			b.Fatalf("exit %d", st)
+		}
 	}
 }

@@ -7,10 +7,17 @@
 // they hold a comma, a quote or a line break (quotes doubled). The first
 // line names every column with its unit in square brackets. Numbers are
 // written with strconv 'g' and the shortest representation that reads back
-// exactly (precision -1); a missing value is written NaN. A text cell that
-// starts with = + - @ or a tab or carriage return gets a leading apostrophe,
-// so that a spreadsheet shows it as text instead of running it as a formula
-// (common practice against formula injection).
+// exactly (precision -1); a missing value is written NaN, a zero 0 (never
+// -0).
+//
+// Text cells (labels, the header) are guarded against formula injection
+// (common practice): the text is cut at every comma, semicolon, tab and
+// line break, the separators a spreadsheet may split on, and each piece
+// that starts, after any spaces (Unicode ones too, such as U+00A0), with
+// = + - @, a full-width form of one of them (U+FF1D U+FF0B U+FF0D U+FF20),
+// the minus sign U+2212, a tab or a line break gets an apostrophe in front,
+// so that a spreadsheet shows it as text instead of running it; a guarded
+// cell is always quoted. The label a;=1+1;b is written "a;'=1+1;b".
 //
 // Field CSV: one row per grid node, y outer and x inner (row j = 0 at the
 // bottom first), columns

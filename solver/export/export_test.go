@@ -7,14 +7,17 @@ import (
 	"encoding/xml"
 	"errors"
 	"flag"
+	"fmt"
 	"image/png"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
+	"runtime"
 	"strconv"
 	"strings"
 	"testing"
+	"unicode"
 
 	"edgewise/solver/colour"
 	"edgewise/solver/contour"
@@ -102,6 +105,52 @@ func TestFieldCSV(t *testing.T) {
 	}
 }
 
+// A field large enough for many bands (and, natively, bands formatted in
+// parallel) comes out the same with one processor and with several, and
+// every row reads back exactly in its place.
+func TestFieldCSVBands(t *testing.T) {
+	f := benchField(300)
+	f.Nx, f.Ny = 300, 300
+	f.U[7] = math.NaN()
+	f.Ux[8] = math.Copysign(0, -1)
+	var one, many bytes.Buffer
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
+	if err := FieldCSV(&one, f); err != nil {
+		t.Fatal(err)
+	}
+	runtime.GOMAXPROCS(4)
+	if err := FieldCSV(&many, f); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(one.Bytes(), many.Bytes()) {
+		t.Fatal("the output depends on the number of processors")
+	}
+	if rows := newFieldWriter(f).rows; rows*4 > f.Ny {
+		t.Fatalf("%d rows per band: too few bands to test", rows)
+	}
+	recs, err := csv.NewReader(bytes.NewReader(many.Bytes())).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(recs) != 1+301*301 {
+		t.Fatalf("%d records, want %d", len(recs), 1+301*301)
+	}
+	for r, rec := range recs[1:] {
+		i, j := r%301, r/301
+		k := j*301 + i
+		want := []float64{f.x(i), f.y(j), f.U[k], f.Ux[k], f.Uy[k], -f.Kx * f.Ux[k], -f.Ky * f.Uy[k]}
+		for c, w := range want {
+			v, err := strconv.ParseFloat(rec[c], 64)
+			if err != nil || !(v == w || math.IsNaN(v) && math.IsNaN(w)) {
+				t.Fatalf("row %d (node %d, %d) col %d: %q, want %v", r+1, i, j, c, rec[c], w)
+			}
+		}
+	}
+	if !strings.Contains(one.String(), ",NaN,") || strings.Contains(one.String(), ",-0,") {
+		t.Error("NaN must be written NaN and -0 as 0")
+	}
+}
+
 func TestFieldCSVWithoutGradient(t *testing.T) {
 	f := demoField()
 	f.Ux, f.Uy = nil, nil
@@ -161,6 +210,52 @@ var hostile = []struct{ in, back string }{
 	{`-5 mm`, `'-5 mm`},
 	{` padded `, ` padded `},
 	{"", ""},
+	// fixed bugs: the guard looked only at the first character
+	{`a;=1+1;b`, `a;'=1+1;b`},
+	{` =1+1`, `' =1+1`},
+	{"\u00a0=1+1", "'\u00a0=1+1"},
+	{"\uff1d1+1", "'\uff1d1+1"},
+	{"\n=1+1", "'\n'=1+1"},
+	{"\nP2", "'\nP2"},
+	{"P3,@SUM(A1)", "P3,'@SUM(A1)"},
+	{"P4\t+1", "P4\t'+1"},
+	{"P5; \u3000-2", "P5;' \u3000-2"},
+	{"left; lower", "left; lower"},
+}
+
+// TestGuardEverySeparator reads each guarded label back and splits it the
+// way a spreadsheet could (on comma, semicolon, tab or a line break): no
+// piece may start, after spaces, with a formula starter unless the
+// apostrophe is in front of it.
+func TestGuardEverySeparator(t *testing.T) {
+	in := []string{"=1", "a,=1", "a;+1", "a\t-1", "a\r\n@1", "\u00a0\u2003=1", "\ufeff=1", "\u200b+1",
+		"\uff0b1", "\uff0d1", "\uff201", "\u22121", "x; ; =1", ";;;", "=", "a\n\n-1"}
+	for _, h := range hostile {
+		in = append(in, h.in)
+	}
+	for _, s := range in {
+		var b bytes.Buffer
+		if err := ProbesCSV(&b, []Probe{{Label: s}}, Units{}); err != nil {
+			t.Fatal(err)
+		}
+		recs, err := csv.NewReader(&b).ReadAll()
+		if err != nil {
+			t.Fatalf("%q: re-read: %v", s, err)
+		}
+		back := recs[1][0]
+		if strings.ReplaceAll(back, "'", "") != strings.ReplaceAll(strings.ReplaceAll(s, "'", ""), "\r", "") {
+			t.Errorf("%q came back as %q: more than apostrophes changed", s, back)
+		}
+		for _, piece := range strings.FieldsFunc(back, func(r rune) bool { return strings.ContainsRune(",;\t\r\n", r) }) {
+			rest := strings.TrimLeftFunc(piece, func(r rune) bool { return unicode.IsSpace(r) || r == '\u200b' || r == '\ufeff' })
+			if rest != "" && strings.ContainsRune("=+-@\uff1d\uff0b\uff0d\uff20\u2212", []rune(rest)[0]) && piece[0] != '\'' {
+				t.Errorf("%q came back as %q: the piece %q runs as a formula", s, back, piece)
+			}
+		}
+		if s != "" && strings.ContainsRune("\t\r\n", rune(s[0])) && back[0] != '\'' {
+			t.Errorf("%q came back as %q: a leading tab or line break must be guarded", s, back)
+		}
+	}
 }
 
 func TestProbesCSV(t *testing.T) {
@@ -410,9 +505,27 @@ func BenchmarkSVG(b *testing.B) {
 	b.ReportMetric(float64(buf.Len()), "bytes")
 }
 
-// BenchmarkFieldCSV writes a 513 x 513 node field with gradients.
+// BenchmarkFieldCSV writes an (n+1) x (n+1) node field with gradients, the
+// file the runner's -csv and the page's field download make.
 func BenchmarkFieldCSV(b *testing.B) {
-	const n = 512
+	for _, n := range []int{64, 256, 512, 1024} {
+		f := benchField(n)
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			var buf bytes.Buffer
+			for b.Loop() {
+				buf.Reset()
+				if err := FieldCSV(&buf, f); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.SetBytes(int64(buf.Len()))
+		})
+	}
+}
+
+// benchField is an invented smooth field on 0.4 m x 0.15 m with its exact
+// gradient.
+func benchField(n int) *Field {
 	f := &Field{Nx: n, Ny: n, W: 0.4, H: 0.15, Kx: 167, Ky: 167, Units: Units{Quantity: "temperature", Unit: "°C", FluxUnit: "W/m2", LengthUnit: "m"}}
 	for j := 0; j <= n; j++ {
 		for i := 0; i <= n; i++ {
@@ -422,14 +535,7 @@ func BenchmarkFieldCSV(b *testing.B) {
 			f.Uy = append(f.Uy, -145*7.85*math.Sin(7.85*x)*math.Exp(-7.85*y))
 		}
 	}
-	var buf bytes.Buffer
-	for b.Loop() {
-		buf.Reset()
-		if err := FieldCSV(&buf, f); err != nil {
-			b.Fatal(err)
-		}
-	}
-	b.ReportMetric(float64(buf.Len()), "bytes")
+	return f
 }
 
 // A fine grid is rastered at no more than maxRaster pixels a side, and the

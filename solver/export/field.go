@@ -1,13 +1,12 @@
 package export
 
 import (
-	"bufio"
-	"encoding/csv"
 	"fmt"
 	"io"
 	"math"
+	"runtime"
 	"strconv"
-	"strings"
+	"sync"
 )
 
 // Units names what the numbers in an export mean.
@@ -89,70 +88,136 @@ func (u Units) header(gradient bool) []string {
 	return h
 }
 
-// text makes user text safe for a spreadsheet cell (see the package
-// comment); the csv writer does the RFC 4180 quoting.
-func text(s string) string {
-	if s != "" && strings.ContainsRune("=+-@\t\r", rune(s[0])) {
-		return "'" + s
-	}
-	return s
-}
-
-func writeHeader(w io.Writer, cols []string) error {
-	cw := csv.NewWriter(w)
-	cw.UseCRLF = true
-	for i := range cols {
-		cols[i] = text(cols[i])
-	}
-	if err := cw.Write(cols); err != nil {
-		return err
-	}
-	cw.Flush()
-	return cw.Error()
-}
-
-// appendNums appends numbers as one CSV record (numbers never need
-// quoting) ending in CRLF.
-func appendNums(b []byte, v ...float64) []byte {
-	for k, x := range v {
-		if x == 0 {
-			x = 0 // no "-0"
-		}
+// appendHeader appends the header line: text cells (guarded and quoted as
+// appendText does) ending in CRLF.
+func appendHeader(b []byte, cols []string) []byte {
+	for k, c := range cols {
 		if k > 0 {
 			b = append(b, ',')
 		}
-		b = strconv.AppendFloat(b, x, 'g', -1, 64)
+		b = appendText(b, c)
 	}
 	return append(b, '\r', '\n')
 }
 
+// appendNum appends one number in the shortest form that reads back
+// exactly; a zero is written 0, never -0, and a missing value NaN.
+func appendNum(b []byte, x float64) []byte {
+	if x == 0 {
+		return append(b, '0')
+	}
+	return strconv.AppendFloat(b, x, 'g', -1, 64)
+}
+
+// bandBytes is about how much text one band of rows is formatted into
+// before it is written: large enough that writes are few, small enough to
+// stay in cache.
+const bandBytes = 256 << 10
+
 // FieldCSV writes the field as CSV, one row per node (see the package
 // comment for the columns). It returns an error for a malformed field or a
 // failed write.
+//
+// The text is made in bands of whole grid rows, each band appended into
+// one reused buffer and written with one Write call (w needs no buffering
+// of its own). The x column repeats on every grid row and y is the same
+// along one, so each is formatted once. Where more than one processor is
+// available (natively; WebAssembly has one) the bands are formatted in
+// parallel and written in order: the output is the same byte for byte.
 func FieldCSV(w io.Writer, f *Field) error {
 	if err := f.check(); err != nil {
 		return err
 	}
-	bw := bufio.NewWriterSize(w, 1<<16)
-	grad := f.Ux != nil
-	if err := writeHeader(bw, f.header(grad)); err != nil {
+	cw := newFieldWriter(f)
+	if _, err := w.Write(appendHeader(nil, f.header(f.Ux != nil))); err != nil {
 		return err
 	}
-	var line []byte
-	for j := 0; j <= f.Ny; j++ {
-		for i := 0; i <= f.Nx; i++ {
-			k := j*(f.Nx+1) + i
-			if grad {
-				line = appendNums(line[:0], f.x(i), f.y(j), f.U[k], f.Ux[k], f.Uy[k], -f.Kx*f.Ux[k], -f.Ky*f.Uy[k])
-			} else {
-				line = appendNums(line[:0], f.x(i), f.y(j), f.U[k])
+	workers := min(runtime.GOMAXPROCS(0), 8, (f.Ny+1+cw.rows-1)/cw.rows)
+	bufs := make([][]byte, workers)
+	for k := range bufs {
+		bufs[k] = make([]byte, 0, cw.size)
+	}
+	for j := 0; j <= f.Ny; j += workers * cw.rows {
+		// one round: worker k formats band k of the round
+		var wg sync.WaitGroup
+		for k := 1; k < workers; k++ {
+			lo := j + k*cw.rows
+			if lo > f.Ny {
+				bufs[k] = bufs[k][:0]
+				continue
 			}
-			if _, err := bw.Write(line); err != nil {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				bufs[k] = cw.band(bufs[k][:0], lo, min(lo+cw.rows, f.Ny+1))
+			}()
+		}
+		bufs[0] = cw.band(bufs[0][:0], j, min(j+cw.rows, f.Ny+1))
+		wg.Wait()
+		for _, b := range bufs {
+			if len(b) == 0 {
+				continue
+			}
+			if _, err := w.Write(b); err != nil {
 				return err
 			}
 		}
 	}
-	return bw.Flush()
+	return nil
+}
+
+// fieldWriter formats the rows of one field.
+type fieldWriter struct {
+	f    *Field
+	xs   []byte // the x column's texts, each followed by a comma
+	xoff []int  // xs[xoff[i]:xoff[i+1]] is node i's
+	rows int    // grid rows per band
+	size int    // bytes a band can take
+}
+
+func newFieldWriter(f *Field) *fieldWriter {
+	cw := &fieldWriter{f: f, xoff: make([]int, f.Nx+2)}
+	for i := 0; i <= f.Nx; i++ {
+		cw.xs = append(appendNum(cw.xs, f.x(i)), ',')
+		cw.xoff[i+1] = len(cw.xs)
+	}
+	perNode := len(cw.xs)/(f.Nx+1) + 3*24 // x, then up to 24 bytes a number
+	if f.Ux != nil {
+		perNode += 4 * 24
+	}
+	cw.rows = max(1, bandBytes/(perNode*(f.Nx+1)))
+	cw.size = cw.rows * perNode * (f.Nx + 1)
+	return cw
+}
+
+// band appends grid rows lo to hi-1 to b.
+func (cw *fieldWriter) band(b []byte, lo, hi int) []byte {
+	f := cw.f
+	var y []byte
+	for j := lo; j < hi; j++ {
+		y = append(appendNum(y[:0], f.y(j)), ',')
+		row := f.U[j*(f.Nx+1) : (j+1)*(f.Nx+1)]
+		if f.Ux == nil {
+			for i, u := range row {
+				b = append(b, cw.xs[cw.xoff[i]:cw.xoff[i+1]]...)
+				b = append(b, y...)
+				b = append(appendNum(b, u), '\r', '\n')
+			}
+			continue
+		}
+		ux := f.Ux[j*(f.Nx+1) : (j+1)*(f.Nx+1)]
+		uy := f.Uy[j*(f.Nx+1) : (j+1)*(f.Nx+1)]
+		for i, u := range row {
+			b = append(b, cw.xs[cw.xoff[i]:cw.xoff[i+1]]...)
+			b = append(b, y...)
+			b = append(appendNum(b, u), ',')
+			b = append(appendNum(b, ux[i]), ',')
+			b = append(appendNum(b, uy[i]), ',')
+			b = append(appendNum(b, -f.Kx*ux[i]), ',')
+			b = append(appendNum(b, -f.Ky*uy[i]), '\r', '\n')
+		}
+	}
+	return b
 }
 
 // Probe is the solution at one user-chosen point.
@@ -164,32 +229,18 @@ type Probe struct {
 	Qx, Qy float64 // flux
 }
 
-// ProbesCSV writes the probes as CSV, one row per probe, labels quoted as
-// RFC 4180 asks (see the package comment). It returns an error only for a
+// ProbesCSV writes the probes as CSV, one row per probe, labels guarded
+// and quoted (see the package comment). It returns an error only for a
 // failed write.
 func ProbesCSV(w io.Writer, ps []Probe, u Units) error {
-	cw := csv.NewWriter(w)
-	cw.UseCRLF = true
-	cols := append([]string{"label"}, u.header(true)...)
-	for i := range cols {
-		cols[i] = text(cols[i])
-	}
-	if err := cw.Write(cols); err != nil {
-		return err
-	}
-	rec := make([]string, 8)
+	b := appendHeader(nil, append([]string{"label"}, u.header(true)...))
 	for _, p := range ps {
-		rec[0] = text(p.Label)
-		for k, v := range []float64{p.X, p.Y, p.Value, p.Gx, p.Gy, p.Qx, p.Qy} {
-			if v == 0 {
-				v = 0 // no "-0"
-			}
-			rec[k+1] = strconv.FormatFloat(v, 'g', -1, 64)
+		b = appendText(b, p.Label)
+		for _, v := range []float64{p.X, p.Y, p.Value, p.Gx, p.Gy, p.Qx, p.Qy} {
+			b = appendNum(append(b, ','), v)
 		}
-		if err := cw.Write(rec); err != nil {
-			return err
-		}
+		b = append(b, '\r', '\n')
 	}
-	cw.Flush()
-	return cw.Error()
+	_, err := w.Write(b)
+	return err
 }

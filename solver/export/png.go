@@ -2,6 +2,7 @@ package export
 
 import (
 	"encoding/binary"
+	"hash/adler32"
 	"hash/crc32"
 )
 
@@ -34,7 +35,7 @@ func storedPNG(rw, rh int, pix []uint8) []byte {
 			break
 		}
 	}
-	z = binary.BigEndian.AppendUint32(z, adler32(raw))
+	z = binary.BigEndian.AppendUint32(z, adler32.Checksum(raw))
 
 	out := []byte("\x89PNG\r\n\x1a\n")
 	ihdr := make([]byte, 13)
@@ -52,21 +53,4 @@ func chunk(out []byte, kind string, data []byte) []byte {
 	out = append(out, kind...)
 	out = append(out, data...)
 	return binary.BigEndian.AppendUint32(out, crc32.ChecksumIEEE(out[start:]))
-}
-
-// adler32 is the zlib checksum of RFC 1950.
-func adler32(p []byte) uint32 {
-	const mod = 65521
-	a, b := uint32(1), uint32(0)
-	for len(p) > 0 {
-		n := min(len(p), 5552) // largest run before the sums can overflow
-		for _, c := range p[:n] {
-			a += uint32(c)
-			b += a
-		}
-		a %= mod
-		b %= mod
-		p = p[n:]
-	}
-	return b<<16 | a
 }

@@ -99,6 +99,35 @@ func TestValues(t *testing.T) {
 }
 
 // TestErrors checks the whole message, column included.
+// At the limits a formula compiles: exactly MaxLen (4096) bytes, and
+// exactly MaxDepth (40) levels of parentheses, of signs, of calls and of
+// powers. TestErrors refuses one past each.
+func TestLimitsExactlyAt(t *testing.T) {
+	if MaxLen != 4096 || MaxDepth != 40 {
+		t.Fatalf("MaxLen %d, MaxDepth %d: the README states 4096 bytes and 40 levels", MaxLen, MaxDepth)
+	}
+	for _, c := range []struct {
+		name, src string
+		want      float64
+	}{
+		{"length", "1+" + strings.Repeat(" ", MaxLen-3) + "2", 3},
+		{"parentheses", strings.Repeat("(", MaxDepth) + "7" + strings.Repeat(")", MaxDepth), 7},
+		{"signs", strings.Repeat("-", MaxDepth) + "7", 7},
+		{"calls", strings.Repeat("abs(", MaxDepth) + "7" + strings.Repeat(")", MaxDepth), 7},
+		{"powers", strings.Repeat("1^", MaxDepth) + "1", 1},
+		{"mixed", strings.Repeat("-(", MaxDepth/2) + "7" + strings.Repeat(")", MaxDepth/2), 7},
+	} {
+		x, err := Compile(c.src, edgeVars...)
+		if err != nil {
+			t.Errorf("%s (%d bytes): %v", c.name, len(c.src), err)
+			continue
+		}
+		if got := x.Eval(at); got != c.want {
+			t.Errorf("%s: %v, want %v", c.name, got, c.want)
+		}
+	}
+}
+
 func TestErrors(t *testing.T) {
 	tests := []struct{ src, want string }{
 		// errors
@@ -163,9 +192,13 @@ func TestErrors(t *testing.T) {
 		{"readings(s, 0, 1, -1, 2)", `col 19: the positions in readings must increase: -1 comes after 0`},
 		{"readings(s, 0, 1, s, 2)", `col 19: the points of readings must be constant numbers (they may use pi and e, not variables)`},
 		{"readings(s, 0, 1, 1, 1/0)", `col 22: the points of readings must be finite numbers, got +Inf`},
-		{strings.Repeat("(", MaxDepth+1) + "1" + strings.Repeat(")", MaxDepth+1), `col 41: formula nested too deeply (more than 40 levels)`},
-		{strings.Repeat("-", 100) + "1", `col 41: formula nested too deeply (more than 40 levels)`},
-		{strings.Repeat("1", MaxLen+1), `col 8193: formula longer than 8192 bytes`},
+		// one past each limit (TestLimitsExactlyAt passes at them); fixed
+		// bug: 40 levels were refused although 40 are allowed
+		{strings.Repeat("(", MaxDepth+1) + "1" + strings.Repeat(")", MaxDepth+1), `col 42: formula nested too deeply (more than 40 levels)`},
+		{strings.Repeat("-", MaxDepth+1) + "1", `col 42: formula nested too deeply (more than 40 levels)`},
+		{strings.Repeat("-", 100) + "1", `col 42: formula nested too deeply (more than 40 levels)`},
+		{"1" + strings.Repeat(" ", MaxLen), `col 4097: formula longer than 4096 bytes`},
+		{strings.Repeat("1", MaxLen+1), `col 4097: formula longer than 4096 bytes`},
 		// fixed bugs
 		// A constant condition folded when(...) to one branch and skipped checking the other.
 		{"when(1 < 2, 1, x < 1)", `col 18: a comparison (<) can only be the condition of when(...)`},

@@ -9,8 +9,8 @@ import (
 // Limits that keep a hostile or mistaken formula from exhausting the small
 // WebAssembly stack or the evaluator's fixed stack.
 const (
-	MaxLen   = 8192 // bytes of source
-	MaxDepth = 40   // nesting of parentheses, calls, unary minus and powers
+	MaxLen   = 4096 // bytes of source, the same as any text in a project file (solver.MaxTextBytes)
+	MaxDepth = 40   // levels of nesting of parentheses, calls, signs and powers: 40 pass, 41 do not
 )
 
 // nodeKind is the kind of a syntax tree node.
@@ -131,9 +131,10 @@ func (p *parser) parseBinary(minPrec int) *node {
 
 // parseUnary: unary = ("-" | "+") unary | power.
 // Every level of nesting passes through here, so the depth cap lives here.
+// The formula itself is level 0, so depth counts one more than the nesting.
 func (p *parser) parseUnary() *node {
 	p.depth++
-	if p.depth > MaxDepth {
+	if p.depth > MaxDepth+1 {
 		failAt(p.tok.pos, "formula nested too deeply (more than %d levels)", MaxDepth)
 	}
 	defer func() { p.depth-- }()

@@ -6,9 +6,9 @@ import (
 
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/lapack/lapack64"
 
+	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
 )
 
@@ -230,7 +230,7 @@ func cellAverages(p *problem.Problem, e problem.Side, d []float64, h float64) er
 		cut = append(cut, hi)
 		sum := 0.0
 		for k := 0; k+1 < len(cut); k++ {
-			quad.Legendre{}.FixedLocations(xs[:], ws[:], cut[k], cut[k+1])
+			gauss.Legendre(xs[:], ws[:], cut[k], cut[k+1])
 			for q := range xs {
 				v, err := p.Eval(e, xs[q])
 				if err != nil {

@@ -60,6 +60,7 @@ const (
 	MaxProbes    = 100
 	MaxTextBytes = 4096 // title, labels and formulas
 	maxFileBytes = 1 << 20
+	MaxFileBytes = maxFileBytes // the largest project file Decode reads, for readers to stop at
 )
 
 // Error is a problem with one field of a project. Col is the 1-based byte

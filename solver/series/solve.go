@@ -6,8 +6,7 @@ import (
 	"math"
 	"sort"
 
-	"gonum.org/v1/gonum/integrate/quad"
-
+	"edgewise/solver/gauss"
 	"edgewise/solver/linalg"
 	"edgewise/solver/problem"
 )
@@ -234,7 +233,7 @@ func (m *model) integral(e problem.Side) float64 {
 	xs, ws := make([]float64, n), make([]float64, n)
 	sum := 0.0
 	m.pieces(e, func(lo, hi float64) {
-		quad.Legendre{}.FixedLocations(xs, ws, lo, hi)
+		gauss.Legendre(xs, ws, lo, hi)
 		for i, x := range xs {
 			sum += ws[i] * m.data(e, x)
 		}

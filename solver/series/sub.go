@@ -3,8 +3,7 @@ package series
 import (
 	"math"
 
-	"gonum.org/v1/gonum/integrate/quad"
-
+	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
 	"edgewise/solver/series/basis"
 )
@@ -189,7 +188,7 @@ func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64, br
 		if hi <= lo {
 			continue
 		}
-		quad.Legendre{}.FixedLocations(xs, ws, lo, hi)
+		gauss.Legendre(xs, ws, lo, hi)
 		lo = hi
 		for j, s := range xs {
 			wr := ws[j] * r(s)
