@@ -17,8 +17,8 @@
 //  3. Corners: harmonic pieces carry the corner behaviour out of the series
 //     (zeta is the local complex coordinate at the corner, one edge along
 //     the real axis, the other along the imaginary axis):
-//     at a value/value corner the angle function J (1 - 2 theta/pi) when
-//     the two values jump, and Im(zeta^2 log zeta) when the data's
+//     at a value/value corner the angle function J (1 - 2 theta/pi) at a
+//     corner break (the two values differ by J), and Im(zeta^2 log zeta) when the data's
 //     curvatures are not those of a harmonic function; at a value/flux or
 //     value/convection corner zeta log zeta when the data disagree about
 //     the normal derivative (plus Im(zeta^2 log zeta) taking back the
@@ -64,7 +64,18 @@
 // otherwise Solve returns *ImbalanceError. The free constant is fixed so
 // that the area mean of u is zero (the rule package fdcheck uses too).
 //
-// Flow through an edge adjacent to a jump of prescribed value is infinite
-// (the gradient grows like 1/r): Flow reports finite = false and Warnings
-// says where.
+// Breaks: the places where edge data stop being smooth are found once per
+// problem by FindBreaks, classified (BreakClass: a value break inside a
+// value edge, a flux break of flux or ambient inside a flux or convection
+// edge, a corner break where two prescribed values differ; a break of
+// slope is the class to add next), and carried out of the series
+// analytically: corner breaks by the angle function above, breaks inside
+// an edge by break pieces (breakfield.go: the angle function, or
+// Re(w log w) for a flux break, about the break's place), the rest of the
+// data summed by the series (SolveBreaks). Quadratures split at flux
+// breaks.
+//
+// Flow through an edge with a value break inside it or a corner break at
+// one of its ends is infinite (the gradient grows like 1/r): Flow reports
+// finite = false and Warnings says where.
 package series

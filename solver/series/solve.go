@@ -41,6 +41,47 @@ func (q *quadratic) value(x, y float64) (u, ux, uy float64) {
 	return q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E, 2*q.A*x + q.B, 2*q.C*y + q.D
 }
 
+// Field is a solved problem: the series, and the break pieces when the
+// data break inside edges.
+type Field interface {
+	// At returns the field and its gradient at (x, y).
+	At(x, y float64) (u, ux, uy float64)
+	// Grid fills the field on a grid (see Solution.Grid).
+	Grid(nx, ny int, u, ux, uy []float64)
+	// Flow returns the flow entering through edge e, and whether it is
+	// finite.
+	Flow(e problem.Side) (flow float64, finite bool)
+	Mean() float64
+	Terms() int
+	ErrorEstimate() float64
+	Warnings() []string
+}
+
+// SolveBreaks solves p, whose breaks FindBreaks has found: the corner
+// breaks go to the corner pieces, the breaks inside edges to break pieces
+// (see breakfield.go), the series sums the rest. Errors as for Solve.
+func SolveBreaks(p *problem.Problem, breaks []Break, opt Options) (Field, error) {
+	var corners, inner []Break
+	for _, b := range breaks {
+		if b.Class == CornerBreak {
+			corners = append(corners, b)
+		} else {
+			inner = append(inner, b)
+		}
+	}
+	series := func(q *problem.Problem) (Field, error) {
+		s, err := solve(q, opt, corners)
+		if err != nil {
+			return nil, err
+		}
+		return s, nil
+	}
+	if len(inner) == 0 {
+		return series(p)
+	}
+	return solveWithBreaks(p, inner, series)
+}
+
 // Solution is a solved problem. It is safe for concurrent use except Grid,
 // which reuses internal buffers.
 type Solution struct {
@@ -51,10 +92,10 @@ type Solution struct {
 	scale    float64
 	tolAbs   float64
 	est      float64
-	jump     [4]bool
-	jumpSize [4]float64
-	jumpFrom [4][2]float64 // values on the corner's first and second edge
-	third    [4]bool       // value/flux corner with a third-order condition
+	corners  []Break    // the corner breaks, with the values of the user's data
+	corner   [4]bool    // a corner break, carried by an angle function
+	cornerJ  [4]float64 // its size J: value on Side(c) minus value on Side(c+3)
+	third    [4]bool    // value/flux corner with a third-order condition
 	flows    [4]float64
 	finite   [4]bool
 	mean     float64
@@ -62,11 +103,23 @@ type Solution struct {
 	gw       gridWork
 }
 
-// Solve solves p by superposition of separated series. Bad input returns
-// an error: problem validation errors, *problem.NonFiniteError for edge
-// data that is not finite (returned unchanged), *ImbalanceError for an
-// all-flux problem without a steady state.
+// Solve solves p by superposition of separated series, with the corner
+// breaks carried by corner pieces and flux breaks at p.Edges[e].Breaks
+// splitting the quadratures (value breaks inside edges are left to the
+// series: see SolveBreaks). Bad input returns an error: problem validation
+// errors, *problem.NonFiniteError for edge data that is not finite
+// (returned unchanged), *ImbalanceError for an all-flux problem without a
+// steady state.
 func Solve(p *problem.Problem, opt Options) (*Solution, error) {
+	if err := p.Validate(); err != nil {
+		return nil, err
+	}
+	m := newModel(p)
+	return solve(p, opt, cornerBreaks(m, m.dataScale()))
+}
+
+// solve is Solve with the corner breaks given.
+func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
 	}
@@ -79,7 +132,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	opt.MaxTerms = min(max(opt.MaxTerms, 16), 1<<16)
 	m := newModel(p)
 	m.setBreaks(p)
-	s := &Solution{m: m}
+	s := &Solution{m: m, corners: corners}
 	s.scale = m.dataScale()
 	if m.err != nil {
 		return nil, m.err
@@ -116,7 +169,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	// that adding them up would lose digits (large Biot numbers on short
 	// edges make the amplitudes grow like (beta L)^k).
 	for level := 2; level >= -1; level-- {
-		s.pieces, s.third, s.jump = s.pieces[:0], [4]bool{}, [4]bool{}
+		s.pieces, s.third, s.corner = s.pieces[:0], [4]bool{}, [4]bool{}
 		s.cornerPieces(level)
 		if m.err != nil {
 			return nil, m.err
@@ -131,7 +184,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 			break
 		}
 	}
-	s.jumpWarnings()
+	s.cornerWarnings()
 	if m.allFlx {
 		s.fluxQuadratic(fluxInt)
 	}
@@ -242,7 +295,7 @@ func (m *model) integral(e problem.Side) float64 {
 	return sum
 }
 
-// setBreaks keeps the places where edge data jumps (problem.Edge.Breaks),
+// setBreaks keeps the places of the flux breaks (problem.Edge.Breaks),
 // in mapped s.
 func (m *model) setBreaks(p *problem.Problem) {
 	for _, e := range problem.Sides {
@@ -391,14 +444,15 @@ func (s *Solution) cornerPieces(level int) {
 		case k1 == problem.Value && k2 == problem.Value:
 			f1, _, s1, _ := m.derivs(e1, c)
 			f2, _, s2, _ := m.derivs(e2, c)
-			jmp := f1 - f2
-			if math.Abs(jmp) > 1e-14*s.scale {
-				// J (1 - 2 theta / pi): J on the first edge, 0 on the second.
+			if s.hasCornerBreak(c) {
+				// J (1 - 2 theta / pi): J on the first edge, 0 on the second,
+				// J measured on the data solved (break pieces inside the
+				// edges, continuous at the corner, leave it unchanged).
+				jmp := f1 - f2
 				add(powPiece, 0, complex(jmp, 0))
 				add(logPiece, 0, complex(0, 2*jmp/math.Pi))
-				s.jump[c] = true
-				s.jumpSize[c] = jmp
-				s.jumpFrom[c] = [2]float64{f1, f2}
+				s.corner[c] = true
+				s.cornerJ[c] = jmp
 			}
 			b := -(s1 + s2 - m.lap) / math.Pi
 			if level >= 1 && math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > pieceFloor[2]*s.scale {
@@ -478,14 +532,26 @@ func (s *Solution) cornerPieces(level int) {
 	}
 }
 
-// jumpWarnings says which flows are infinite and why.
-func (s *Solution) jumpWarnings() {
-	for c := 0; c < 4; c++ {
-		if !s.jump[c] {
+// hasCornerBreak reports whether corner c has a corner break.
+func (s *Solution) hasCornerBreak(c int) bool {
+	for _, b := range s.corners {
+		if b.Corner == c {
+			return true
+		}
+	}
+	return false
+}
+
+// cornerWarnings says which flows are infinite and why, with the values of
+// the user's data at the corner.
+func (s *Solution) cornerWarnings() {
+	for _, b := range s.corners {
+		c := b.Corner
+		if !s.corner[c] {
 			continue
 		}
 		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
-		f1, f2 := s.jumpFrom[c][0], s.jumpFrom[c][1]
+		f1, f2 := b.From, b.To
 		s.warnings = append(s.warnings,
 			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
 			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c]))
@@ -514,7 +580,7 @@ func (s *Solution) pieceMagnitude() float64 {
 	return big
 }
 
-// fitSmooth fits harmonic polynomials of degree <= 4 (minimum norm) so
+// fitSmooth fits harmonic polynomials of degree <= 5 (minimum norm) so
 // that, with the singular pieces, the residual data meet the corner
 // conditions that make the series coefficients fall fast: at a value/value
 // corner the residual and its second derivative along both edges vanish;
@@ -550,7 +616,7 @@ func (s *Solution) fitSmooth(level int) error {
 			f1, _, s1, _ := m.derivs(e1, c)
 			dir := dirAway(e1, edgeEnd(e1, c))
 			own := 0.0
-			if s.jump[c] {
+			if s.corner[c] {
 				own = real(s.pieces[s.cornerIndex(c, powPiece)].c)
 			}
 			row := make([]float64, len(cols))
@@ -707,16 +773,16 @@ func (s *Solution) flowOf(e problem.Side) (float64, bool) {
 	}
 	x0, y0 = m.cornerPoint(c0)
 	x1, y1 = m.cornerPoint(c1)
-	if s.jump[c0] || s.jump[c1] {
-		// Near a jump corner the inflow density is k (A - B)(2/pi)/r with A
+	if s.corner[c0] || s.corner[c1] {
+		// Near a corner break the inflow density is k (A - B)(2/pi)/r with A
 		// this edge's value and B the neighbour's: +Inf or -Inf, NaN when
 		// the two corners disagree.
 		sign := 0.0
 		for _, c := range [2]int{c0, c1} {
-			if !s.jump[c] {
+			if !s.corner[c] {
 				continue
 			}
-			j := s.jumpSize[c] // value on Side(c) minus value on Side(c+3)
+			j := s.cornerJ[c] // value on Side(c) minus value on Side(c+3)
 			if problem.Side(c) != e {
 				j = -j
 			}
@@ -756,8 +822,8 @@ func (s *Solution) flowOf(e problem.Side) (float64, bool) {
 }
 
 // At returns the field and its gradient at (x, y) in the original
-// coordinates (inside or on the boundary). At a corner where the prescribed
-// value jumps, u is the mean of the two values and the gradient is NaN.
+// coordinates (inside or on the boundary). At a corner break u is the mean
+// of the two values and the gradient is NaN.
 func (s *Solution) At(x, y float64) (u, ux, uy float64) {
 	m := s.m
 	yp := y * m.a
@@ -772,8 +838,8 @@ func (s *Solution) At(x, y float64) (u, ux, uy float64) {
 }
 
 // Flow returns the flow per unit depth entering through edge e, and false
-// if it is infinite (a jump of prescribed value at one of its corners);
-// the flow is then +Inf or -Inf by the direction of the jump(s), or NaN if
+// if it is infinite (a corner break at one of its ends);
+// the flow is then +Inf or -Inf by the direction of the break(s), or NaN if
 // its two corners push opposite ways, never a finite number.
 // Flux edges report the integral of their data; the others are computed
 // from the solution.
