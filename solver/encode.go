@@ -91,7 +91,11 @@ func (r *Result) JSON() []byte {
 		}
 		w.Close(']')
 	}
-	strs("warnings", r.Warnings)
+	w.Key("warnings").Open('[')
+	for _, x := range r.Warnings {
+		x.WriteJSON(&w)
+	}
+	w.Close(']')
 	strs("cautions", r.Cautions)
 	w.Key("grid").Open('{').Key("nx").Int(r.Grid.Nx).Key("ny").Int(r.Grid.Ny).Close('}')
 	return w.Close('}').Bytes()

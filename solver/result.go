@@ -1,5 +1,7 @@
 package solver
 
+import "edgewise/solver/problem"
+
 // ResultSchema names the result format.
 const ResultSchema = "edgewise-result/1"
 
@@ -17,9 +19,11 @@ type Result struct {
 	Min      Extreme  `json:"min"`
 	Max      Extreme  `json:"max"`
 	Accuracy Accuracy `json:"accuracy"`
-	Warnings []string `json:"warnings"`
-	Cautions []string `json:"cautions"`
-	Grid     GridSize `json:"grid"`
+	// Warnings are the engine's warnings: a code, the edges concerned
+	// and a text (JSON {"code": .., "edges": ["bottom", ..], "text": ..}).
+	Warnings []problem.Warning `json:"warnings"`
+	Cautions []string          `json:"cautions"`
+	Grid     GridSize          `json:"grid"`
 }
 
 // ProbeResult is the field at one probe.

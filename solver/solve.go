@@ -145,7 +145,7 @@ func report(p *Project, pr *problem.Problem, f field, out *Output) Result {
 	r := Result{
 		Schema:   ResultSchema,
 		Probes:   []ProbeResult{},
-		Warnings: append([]string{}, f.Warnings()...),
+		Warnings: append([]problem.Warning{}, f.Warnings()...),
 		Cautions: []string{},
 		Grid:     GridSize{Nx: out.Nx, Ny: out.Ny},
 		Mean:     f.Mean(),

@@ -1,5 +1,7 @@
 package problem
 
+import "edgewise/solver/jsonlite"
+
 // Code names a kind of warning. The page and scripts branch on the code,
 // never on the English text, which may change.
 type Code string
@@ -25,4 +27,36 @@ type Warning struct {
 	Code  Code
 	Edges []Side // the edges concerned, in canonical order; may be empty
 	Text  string
+}
+
+// EdgeNames returns the names of the edges concerned in canonical order
+// (bottom, right, top, left), each once; never nil.
+func (w Warning) EdgeNames() []string {
+	names := []string{}
+	for _, s := range Sides {
+		for _, e := range w.Edges {
+			if e == s {
+				names = append(names, s.String())
+				break
+			}
+		}
+	}
+	return names
+}
+
+// WriteJSON writes the warning as {"code": .., "edges": [..], "text": ..},
+// the edges by name in canonical order ([] when none).
+func (w Warning) WriteJSON(jw *jsonlite.Writer) {
+	jw.Open('{').Key("code").Str(string(w.Code)).Key("edges").Open('[')
+	for _, n := range w.EdgeNames() {
+		jw.Str(n)
+	}
+	jw.Close(']').Key("text").Str(w.Text).Close('}')
+}
+
+// MarshalJSON encodes the warning as WriteJSON does.
+func (w Warning) MarshalJSON() ([]byte, error) {
+	var jw jsonlite.Writer
+	w.WriteJSON(&jw)
+	return jw.Bytes(), nil
 }

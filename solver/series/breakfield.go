@@ -379,11 +379,11 @@ func (bf *breakField) Terms() int             { return bf.v.Terms() }
 func (bf *breakField) ErrorEstimate() float64 { return bf.v.ErrorEstimate() }
 
 // Warnings returns the series' warnings, then one for each value break.
-func (bf *breakField) Warnings() []string {
+func (bf *breakField) Warnings() []problem.Warning {
 	w := bf.v.Warnings()
 	for _, b := range bf.breaks {
 		if b.Class == ValueBreak {
-			w = append(w, b.warning(bf.length[b.Side]))
+			w = append(w, problem.Warning{Code: problem.StepJump, Edges: b.Edges(), Text: b.warning(bf.length[b.Side])})
 		}
 	}
 	return w

@@ -18,7 +18,7 @@ func (zeroField) Flow(problem.Side) (float64, bool)    { return 0, true }
 func (zeroField) Mean() float64                        { return 0 }
 func (zeroField) Terms() int                           { return 0 }
 func (zeroField) ErrorEstimate() float64               { return 0 }
-func (zeroField) Warnings() []string                   { return nil }
+func (zeroField) Warnings() []problem.Warning          { return nil }
 
 // insideBreaks returns the breaks inside p's edges (FindBreaks without the
 // corner breaks).

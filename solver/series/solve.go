@@ -54,7 +54,7 @@ type Field interface {
 	Mean() float64
 	Terms() int
 	ErrorEstimate() float64
-	Warnings() []string
+	Warnings() []problem.Warning
 }
 
 // SolveBreaks solves p, whose breaks FindBreaks has found: the corner
@@ -99,7 +99,7 @@ type Solution struct {
 	flows    [4]float64
 	finite   [4]bool
 	mean     float64
-	warnings []string
+	warnings []problem.Warning
 	gw       gridWork
 }
 
@@ -197,7 +197,8 @@ func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) 
 		}
 		s.est += s.subs[e].tail
 		if s.subs[e].capped {
-			s.warnings = append(s.warnings, fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, s.subs[e].n, s.subs[e].tail))
+			s.warnings = append(s.warnings, problem.Warning{Code: problem.TermLimit, Edges: []problem.Side{e},
+				Text: fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, s.subs[e].n, s.subs[e].tail)})
 		}
 	}
 	s.est += 1e-14 * s.scale
@@ -553,8 +554,10 @@ func (s *Solution) cornerWarnings() {
 		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
 		f1, f2 := b.From, b.To
 		s.warnings = append(s.warnings,
-			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
-			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c]))
+			problem.Warning{Code: problem.CornerJump, Edges: []problem.Side{e1},
+				Text: fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c])},
+			problem.Warning{Code: problem.CornerJump, Edges: []problem.Side{e2},
+				Text: fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c])})
 	}
 }
 
@@ -868,4 +871,4 @@ func (s *Solution) ErrorEstimate() float64 { return s.est }
 func (s *Solution) Scale() float64 { return s.scale }
 
 // Warnings returns notes about the solution for the user.
-func (s *Solution) Warnings() []string { return append([]string(nil), s.warnings...) }
+func (s *Solution) Warnings() []problem.Warning { return append([]problem.Warning(nil), s.warnings...) }
