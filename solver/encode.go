@@ -83,6 +83,7 @@ func (r *Result) JSON() []byte {
 	if a.CrosscheckReason != "" {
 		w.Key("crosscheck_skipped").Str(a.CrosscheckReason)
 	}
+	w.Key("converged").Bool(a.Converged)
 	w.Close('}')
 	strs := func(k string, list []string) {
 		w.Key(k).Open('[')

@@ -68,4 +68,8 @@ type Accuracy struct {
 	Crosscheck       *float64 `json:"crosscheck"`
 	CrosscheckGrid   string   `json:"crosscheck_grid,omitempty"`
 	CrosscheckReason string   `json:"crosscheck_skipped,omitempty"`
+	// Converged is false when the result failed the maximum-principle
+	// check or the series stopped far from its tolerance (see
+	// checkConverged); a warning with code not-converged says why.
+	Converged bool `json:"converged"`
 }

@@ -2,6 +2,7 @@ package solver
 
 import (
 	"math"
+	"strings"
 
 	"edgewise/solver/problem"
 	"edgewise/solver/series"
@@ -86,6 +87,7 @@ func (s *Solver) Solve(p *Project, opt Options) (*Output, error) {
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
 	settleCorners(pr, out, breaks)
 	out.Result = report(p, pr, f, out)
+	checkConverged(pr, &out.Result)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	if !opt.NoCrossCheck {
 		crossCheck(pr, f, &out.Result, breaks)
@@ -134,10 +136,14 @@ func wrapEngineError(pr *problem.Problem, err error) error {
 	if pe, ok := err.(*series.PoleError); ok {
 		return errorf(exprPath(pr, pe.Side), "grows without bound near s = %.6g (a pole, not a step); the data must be finite along the whole edge", pe.S)
 	}
+	if re, ok := err.(*series.DataRangeError); ok {
+		return errorf(exprPath(pr, re.Side), "%g at s = %.6g is outside the range the engine handles (magnitude up to %g)", re.V, re.S, series.MaxData)
+	}
 	if _, ok := err.(*Error); ok {
 		return err
 	}
-	return errorf("edges", "%v", err)
+	// the engine's own prefix means nothing to the user
+	return errorf("edges", "%s", strings.TrimPrefix(err.Error(), "series: "))
 }
 
 // report computes the result numbers from the solved field.

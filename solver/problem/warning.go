@@ -18,6 +18,19 @@ const (
 	// TermLimit: a series stopped at its largest number of terms before
 	// reaching the requested accuracy.
 	TermLimit Code = "term-limit"
+	// MeanFixed: every edge holds a flux (no value edge, no exchange by
+	// convection), so the field is fixed only up to a constant: its area
+	// mean is set to zero and only differences of value are meaningful.
+	MeanFixed Code = "mean-fixed"
+	// WeakExchange: the convection edges exchange so weakly (Biot
+	// numbers below 1e-4, no value edge) that the field is nearly uniform; its level is
+	// fixed by the balance of the exchange, as in the limit h -> 0.
+	WeakExchange Code = "weak-exchange"
+	// NotConverged: the result failed a check (an extreme outside the
+	// range the maximum principle allows) or the series could not reach a
+	// useful accuracy; Accuracy.Converged is false and the numbers are not
+	// to be relied on.
+	NotConverged Code = "not-converged"
 )
 
 // Warning is one structured warning: a code, the edges it concerns (for

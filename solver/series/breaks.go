@@ -83,6 +83,20 @@ func (e *PoleError) Error() string {
 	return fmt.Sprintf("%v: the data grow without bound near s = %.6g (a pole, not a step)", e.Side, e.S)
 }
 
+// MaxData is the largest magnitude of edge data the engine handles (its
+// products with sizes and powers of them must not overflow).
+const MaxData = 1e100
+
+// DataRangeError reports edge data beyond MaxData in magnitude.
+type DataRangeError struct {
+	Side problem.Side
+	S, V float64 // where along the edge, and the value there
+}
+
+func (e *DataRangeError) Error() string {
+	return fmt.Sprintf("%v: %g at s = %.6g is outside the range the engine handles (magnitude up to %g)", e.Side, e.V, e.S, MaxData)
+}
+
 // Sampling for the breaks inside edges: samples along each edge, the
 // largest number of candidate intervals refined, and bisection steps (each
 // halves the interval; 60 take it below the resolution of float64
@@ -98,7 +112,8 @@ const (
 // places of the flux breaks in p.Edges[e].Breaks (replacing what was
 // there), where every solver that integrates the data reads them. Data
 // that grow without bound near a place inside an edge return a
-// *PoleError.
+// *PoleError, data that are not finite at a sample point a
+// *problem.NonFiniteError, data beyond MaxData a *DataRangeError.
 //
 // Inside an edge: each edge is sampled, the intervals where the data
 // change most are taken, and each is halved towards the larger change. A
@@ -149,12 +164,18 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 	for i := range v {
 		v[i] = e.F(L * float64(i) / breakSamples)
 		if v[i]-v[i] != 0 {
-			return nil, nil // not finite: the engine reports it with its place
+			return nil, &problem.NonFiniteError{Side: side, S: L * float64(i) / breakSamples}
+		}
+		if math.Abs(v[i]) > MaxData {
+			return nil, &DataRangeError{Side: side, S: L * float64(i) / breakSamples, V: v[i]}
 		}
 		lo, hi = min(lo, v[i]), max(hi, v[i])
 	}
 	if hi-lo <= 0 {
 		return nil, nil
+	}
+	if s0, ok := findPole(e.F, v, L); ok {
+		return nil, &PoleError{Side: side, S: s0}
 	}
 	idx := make([]int, breakSamples)
 	for i := range idx {
@@ -178,7 +199,8 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 			}
 			fm := e.F(m)
 			if fm-fm != 0 {
-				return nil, nil // not finite: the engine reports it with its place
+				// infinite where the data change most: a pole hit exactly
+				return nil, &PoleError{Side: side, S: m}
 			}
 			if math.Abs(fm-fa) >= math.Abs(fb-fm) {
 				b, fb = m, fm
@@ -186,12 +208,12 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 				a, fa = m, fm
 			}
 		}
+		s0 := (a + b) / 2
+		if a >= 1e-9*L && b <= L*(1-1e-9) && isPole(e.F, s0, L) {
+			return nil, &PoleError{Side: side, S: s0}
+		}
 		if math.Abs(fb-fa) < 0.5*size || a < 1e-9*L || b > L*(1-1e-9) {
 			continue // smooth after all, or the corner
-		}
-		s0 := (a + b) / 2
-		if isPole(e.F, s0, fa, fb, L) {
-			return nil, &PoleError{Side: side, S: s0}
 		}
 		dup := false
 		for _, o := range out {
@@ -204,16 +226,61 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 	return out, nil
 }
 
-// isPole tells a pole from a step at s0, where bisection left the values
-// fa and fb a rounding step apart: at a step the data next to s0 are of
-// the size they have 1e-6 L away from it; near a pole they are larger by
-// a power of the ratio of the distances (1e10 for 1/(s - s0), 1e5 for
-// 1/sqrt|s - s0|). A factor of 100 tells the two apart.
-func isPole(f func(float64) float64, s0, fa, fb, L float64) bool {
-	near := max(math.Abs(fa), math.Abs(fb))
-	d := 1e-6 * L
-	far := max(math.Abs(f(max(s0-d, 0))), math.Abs(f(min(s0+d, L))))
-	return near > 100*far
+// isPole tells a pole from a step (or a steep but smooth change) at s0,
+// where bisection ended: at a step the data stay bounded as s0 is
+// approached; near a pole they grow like a power of the distance. The
+// largest |data| at distances 1e-4, 1e-7 and 1e-10 of L on either side
+// must grow tenfold at each stage (a thousandfold for 1/(s - s0), thirty
+// for 1/sqrt|s - s0|; a logarithm, bounded at every distance the data can
+// be sampled at, is not taken for a pole).
+func isPole(f func(float64) float64, s0, L float64) bool {
+	g := func(d float64) float64 {
+		return max(math.Abs(f(max(s0-d*L, 0))), math.Abs(f(min(s0+d*L, L))))
+	}
+	g1, g2, g3 := g(1e-4), g(1e-7), g(1e-10)
+	return g3 > 10*g2 && g2 > 10*g1
+}
+
+// poleCandidates is the number of largest local maxima of |data| among
+// the samples that findPole examines.
+const poleCandidates = 4
+
+// findPole looks for a pole between the samples v of f (at L i/(len(v)-1)):
+// from each of the largest local maxima of |v| inside the edge it climbs
+// |f| by ternary search over the two neighbouring intervals, and tests the
+// top with isPole. A non-finite value met on the way is a pole hit exactly.
+func findPole(f func(float64) float64, v []float64, L float64) (float64, bool) {
+	n := len(v) - 1
+	var peaks []int
+	for i := 1; i < n; i++ {
+		if math.Abs(v[i]) >= math.Abs(v[i-1]) && math.Abs(v[i]) >= math.Abs(v[i+1]) && math.Abs(v[i]) > 0 {
+			peaks = append(peaks, i)
+		}
+	}
+	sort.Slice(peaks, func(a, b int) bool { return math.Abs(v[peaks[a]]) > math.Abs(v[peaks[b]]) })
+	for _, i := range peaks[:min(len(peaks), poleCandidates)] {
+		a, b := L*float64(i-1)/float64(n), L*float64(i+1)/float64(n)
+		for k := 0; k < 120 && b > a; k++ {
+			m1, m2 := a+(b-a)/3, b-(b-a)/3
+			f1, f2 := f(m1), f(m2)
+			if f1-f1 != 0 {
+				return m1, true
+			}
+			if f2-f2 != 0 {
+				return m2, true
+			}
+			if math.Abs(f1) < math.Abs(f2) {
+				a = m1
+			} else {
+				b = m2
+			}
+		}
+		s0 := (a + b) / 2
+		if s0 > 1e-9*L && s0 < L*(1-1e-9) && isPole(f, s0, L) {
+			return s0, true
+		}
+	}
+	return 0, false
 }
 
 // cornerBreaks returns the corners where two value edges disagree by more

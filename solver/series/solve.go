@@ -21,6 +21,9 @@ type Options struct {
 	// MaxTerms caps the terms of each sub-problem; default 4096 (values
 	// are held within 16..65536).
 	MaxTerms int
+	// balanced: an all-flux problem balanced by construction (the weak
+	// exchange limit); its imbalance, rounding, is not checked.
+	balanced bool
 }
 
 // ImbalanceError reports an all-flux problem whose inflow and source do
@@ -75,6 +78,9 @@ func SolveBreaks(p *problem.Problem, breaks []Break, opt Options) (Field, error)
 			return nil, err
 		}
 		return s, nil
+	}
+	if weakExchange(p) && !opt.balanced {
+		return solveWeak(p, breaks, opt)
 	}
 	if len(inner) == 0 {
 		return series(p)
@@ -154,7 +160,7 @@ func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) 
 			mag += math.Abs(m.k * fluxInt[e])
 		}
 		src := p.Source * p.W * p.H
-		if math.Abs(in+src) > 1e-9*math.Max(mag+math.Abs(src), 1e-300) {
+		if !opt.balanced && math.Abs(in+src) > 1e-9*math.Max(mag+math.Abs(src), 1e-300) {
 			return nil, &ImbalanceError{Inflow: in, SourceTotal: src}
 		}
 	} else if m.lap != 0 {
@@ -198,7 +204,7 @@ func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) 
 		s.est += s.subs[e].tail
 		if s.subs[e].capped {
 			s.warnings = append(s.warnings, problem.Warning{Code: problem.TermLimit, Edges: []problem.Side{e},
-				Text: fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, s.subs[e].n, s.subs[e].tail)})
+				Text: fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, opt.MaxTerms, s.subs[e].tail)})
 		}
 	}
 	s.est += 1e-14 * s.scale
@@ -206,6 +212,9 @@ func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) 
 	if m.allFlx {
 		s.quad.E -= s.mean
 		s.mean = 0
+		s.warnings = append(s.warnings, problem.Warning{Code: problem.MeanFixed, Edges: []problem.Side{},
+			Text: "every edge holds a flux (no value edge, no exchange by convection), so the field is fixed only up to a constant: " +
+				"it is shown with area mean 0, and only differences of value are meaningful"})
 	}
 	for _, e := range problem.Sides {
 		if m.kinds[e] == problem.Flux {
@@ -724,7 +733,7 @@ func (s *Solution) fitSmooth(level int) error {
 	coef := linalg.MinNorm(A, len(rows), len(cols), b, 1e-12)
 	for _, c := range coef {
 		if c-c != 0 {
-			return errors.New("series: corner fit failed")
+			return errors.New("series: the corner fit overflowed on these data; please report this project")
 		}
 	}
 	for j := range cols {
