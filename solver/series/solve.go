@@ -598,11 +598,10 @@ func (s *Solution) pieceMagnitude() float64 {
 // corner the residual and its second derivative along both edges vanish;
 // at a value/flux or value/convection corner the residual of the value
 // edge meets the other edge's homogeneous condition and the other edge's
-// residual vanishes.
+// residual vanishes. At the last-resort level (-1) only the values at the
+// value/value corners are fitted: the series vanishes there, so without
+// them such a corner would show 0 instead of its value.
 func (s *Solution) fitSmooth(level int) error {
-	if level < 0 {
-		return nil
-	}
 	m := s.m
 	S := math.Max(m.W, m.H) / 2
 	z0 := complex(m.W/2, m.H/2)
