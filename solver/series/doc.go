@@ -62,7 +62,9 @@
 // All-flux problems (no value edge and no convection with Hc > 0) have a
 // steady state only if the inflow plus Source*W*H is zero (relative 1e-9);
 // otherwise Solve returns *ImbalanceError. The free constant is fixed so
-// that the area mean of u is zero (the rule package fdcheck uses too).
+// that the area mean of u is zero (the rule package fdcheck uses too), and
+// a warning with code mean-fixed says that only differences are
+// meaningful.
 //
 // Breaks: the places where edge data stop being smooth are found once per
 // problem by FindBreaks, classified (BreakClass: a value break inside a
@@ -74,6 +76,19 @@
 // Re(w log w) for a flux break, about the break's place), the rest of the
 // data summed by the series (SolveBreaks). Quadratures split at flux
 // breaks.
+//
+// FindBreaks also refuses data the series cannot carry: a pole between
+// sample points (the data grow like a power of the distance near it, where
+// at a step they stay bounded) returns *PoleError, data beyond MaxData in
+// magnitude *DataRangeError.
+//
+// Weak exchange: with no value edge and every convection edge's Biot
+// number h L/k below 1e-4, the sub-problems' smallest eigenvalue, about
+// sqrt(2 Bi)/L, leaves too few digits for the nearly uniform level.
+// SolveBreaks then solves the limit h -> 0 (weak.go): the field is a level,
+// fixed by the balance of the exchange with the ambients, plus an all-flux
+// part of mean zero whose convection data are the flux h (ambient - u)
+// they carry, corrected until Bi^n is below the tolerance.
 //
 // Flow through an edge with a value break inside it or a corner break at
 // one of its ends is infinite (the gradient grows like 1/r): Flow reports
