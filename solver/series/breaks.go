@@ -73,7 +73,7 @@ func (b Break) Edges() []problem.Side {
 
 // PoleError reports edge data that grow without bound near a place inside
 // an edge (a pole between sample points, as in 1/(s - a) or tan(k s)):
-// neither a step nor finite data.
+// neither a break nor finite data.
 type PoleError struct {
 	Side problem.Side
 	S    float64 // where along the edge
@@ -121,7 +121,7 @@ const (
 // smooth change (rise(s, at, width) with a small width) shrinks away.
 // Breaks smaller than 1e-6 of the edge's range of values, and places
 // within 1e-9 of a corner (the corner pieces' business), are left out.
-// A pole is told from a step by how the data grow near it: at a step they
+// A pole is told from a break by how the data grow near it: at a break they
 // stay bounded as the place is approached, at a pole they grow like a
 // power of the distance.
 //
@@ -226,8 +226,8 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 	return out, nil
 }
 
-// isPole tells a pole from a step (or a steep but smooth change) at s0,
-// where bisection ended: at a step the data stay bounded as s0 is
+// isPole tells a pole from a break (or a steep but smooth change) at s0,
+// where bisection ended: at a break the data stay bounded as s0 is
 // approached; near a pole they grow like a power of the distance. The
 // largest |data| at distances 1e-4, 1e-7 and 1e-10 of L on either side
 // must grow tenfold at each stage (a thousandfold for 1/(s - s0), thirty
