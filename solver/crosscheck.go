@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"edgewise/solver/fdcheck"
 	"edgewise/solver/problem"
@@ -22,10 +23,11 @@ const CrossCheckGrid = 24
 // breaks inside edges.
 func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) {
 	nx, ny := fdcheck.Sizes(pr.W, pr.H, CrossCheckGrid)
-	// the series has found an all-flux problem balanced (it refuses it
-	// otherwise) with a quadrature far finer than the grid's trapezoid rule
-	// a weakly exchanging problem is checked through the flux problem
-	// its varying part solves (nearly singular for the grid as it is)
+	// A weakly exchanging problem is checked through the flux problem its
+	// varying part solves (nearly singular for the grid as it is). An
+	// all-flux problem is balanced: the series has checked that (and
+	// refused it otherwise) with a quadrature far finer than the grid's
+	// trapezoid rule, whose imbalance is its own error.
 	pq, shift := pr, 0.0
 	if w, ok := f.(interface {
 		Equivalent() (*problem.Problem, float64)
@@ -34,11 +36,12 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 	}
 	g, _, err := fdcheck.RichardsonBalanced(pq, nx, ny)
 	if err != nil {
+		msg := strings.TrimPrefix(err.Error(), "fdcheck: ") // the package's prefix means nothing to the user
 		var ie *fdcheck.ImbalanceError
 		if errors.As(err, &ie) {
-			r.Accuracy.CrosscheckReason = "the finite-difference check could not balance the problem: " + err.Error()
+			r.Accuracy.CrosscheckReason = "the finite-difference check could not balance the problem: " + msg
 		} else {
-			r.Accuracy.CrosscheckReason = "the finite-difference check failed: " + err.Error()
+			r.Accuracy.CrosscheckReason = "the finite-difference check failed: " + msg
 		}
 		return
 	}
