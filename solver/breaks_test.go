@@ -60,6 +60,12 @@ func TestFindBreaks(t *testing.T) {
 		{"readings(s, 0, 1, 6, 3, 12, 0)", nil}, // kinks are not jumps
 		{"when(s < 12, 1, 5)", nil},             // at the corner: the engine's business
 		{"floor(s/4)", []float64{4, 8}},
+		// not poles: a bounded peak, steep but finite growth, an
+		// oscillation, a large step
+		{"100*exp(-((s - 6.0001)/0.003)^2)", nil},
+		{"1/(s + 1e-3)", nil},
+		{"1e3*sin(200*s)", nil},
+		{"when(s < 6, 1e8, -1e8)", []float64{6}},
 	}
 	for _, tc := range tests {
 		p.Edges[problem.Top].F = compile(tc.formula)

@@ -45,6 +45,30 @@ func dataRange(pr *problem.Problem) (lo, hi float64, applies bool) {
 	return lo, hi, hi >= lo
 }
 
+// boundingData returns the data at (x, y) of an edge through it that holds
+// a value or exchanges (its ambient), and whether there is one.
+func boundingData(pr *problem.Problem, x, y float64) (float64, bool) {
+	for _, side := range problem.Sides {
+		e := pr.Edges[side]
+		if e.Kind == problem.Flux || (e.Kind == problem.Convection && e.Hc == 0) {
+			continue
+		}
+		var s float64
+		switch {
+		case side == problem.Bottom && y == 0, side == problem.Top && y == pr.H:
+			s = x
+		case side == problem.Left && x == 0, side == problem.Right && x == pr.W:
+			s = y
+		default:
+			continue
+		}
+		if v := e.F(s); v-v == 0 {
+			return v, true
+		}
+	}
+	return 0, false
+}
+
 // checkConverged sets r.Accuracy.Converged: false, with a warning, when
 // the field's extremes leave the range the maximum principle allows (by
 // more than twice the estimate, or 1e-9 of the range for rounding) or a
@@ -54,6 +78,13 @@ func checkConverged(pr *problem.Problem, r *Result) {
 	r.Accuracy.Converged = true
 	est := r.Accuracy.Estimate
 	if lo, hi, ok := dataRange(pr); ok {
+		// an extreme on a bounding edge may sit on a peak of its data
+		// narrower than the samples: the data there count too
+		for _, e := range []Extreme{r.Min, r.Max} {
+			if v, on := boundingData(pr, e.X, e.Y); on {
+				lo, hi = min(lo, v), max(hi, v)
+			}
+		}
 		tol := 2*est + 1e-9*max(hi-lo, math.Abs(lo), math.Abs(hi))
 		if r.Min.Value < lo-tol || r.Max.Value > hi+tol || r.Min.Value != r.Min.Value || r.Max.Value != r.Max.Value {
 			r.Accuracy.Converged = false
