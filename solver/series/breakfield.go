@@ -39,32 +39,32 @@ type breakPiece struct {
 	d0, t0  float64 // d = d0 + dx x + dy y, t = t0 + tx x + ty y
 }
 
-func newBreakPiece(pr *problem.Problem, jp Break) breakPiece {
+func newBreakPiece(pr *problem.Problem, br Break) breakPiece {
 	c := math.Sqrt(pr.Kx / pr.Ky)
-	a := breakPiece{side: jp.Side, s0: jp.S, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
-	switch jp.Side {
+	a := breakPiece{side: br.Side, s0: br.S, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
+	switch br.Side {
 	case problem.Bottom: // d = c y, t = x - s0
-		a.dy, a.tx, a.t0 = c, 1, -jp.S
+		a.dy, a.tx, a.t0 = c, 1, -br.S
 	case problem.Top: // d = c (H - y), t = x - s0
-		a.d0, a.dy, a.tx, a.t0 = c*pr.H, -c, 1, -jp.S
+		a.d0, a.dy, a.tx, a.t0 = c*pr.H, -c, 1, -br.S
 	case problem.Left: // d = x, t = c (y - s0)
-		a.dx, a.ty, a.t0 = 1, c, -c*jp.S
+		a.dx, a.ty, a.t0 = 1, c, -c*br.S
 	case problem.Right: // d = W - x, t = c (y - s0)
-		a.d0, a.dx, a.ty, a.t0 = pr.W, -1, c, -c*jp.S
+		a.d0, a.dx, a.ty, a.t0 = pr.W, -1, c, -c*br.S
 	}
-	e := pr.Edges[jp.Side]
+	e := pr.Edges[br.Side]
 	kappa := pr.Kx
-	if jp.Side == problem.Bottom || jp.Side == problem.Top {
+	if br.Side == problem.Bottom || br.Side == problem.Top {
 		kappa = math.Sqrt(pr.Kx * pr.Ky)
 	}
 	a.kappa = kappa
 	switch e.Kind {
 	case problem.Value:
-		a.amp = jp.From - jp.To
+		a.amp = br.From - br.To
 	case problem.Flux:
-		a.flux, a.amp = true, (jp.To-jp.From)/kappa
+		a.flux, a.amp = true, (br.To-br.From)/kappa
 	default: // convection: the entering flux Hc (ambient - u) breaks by Hc D
-		a.flux, a.amp = true, e.Hc*(jp.To-jp.From)/kappa
+		a.flux, a.amp = true, e.Hc*(br.To-br.From)/kappa
 	}
 	return a
 }
@@ -177,9 +177,9 @@ func solveWithBreaks(pr *problem.Problem, breaks []Break, solve func(*problem.Pr
 	for _, side := range problem.Sides {
 		bf.length[side] = pr.Length(side)
 	}
-	for _, jp := range breaks {
-		bf.phis = append(bf.phis, newBreakPiece(pr, jp))
-		bf.valueBreak[jp.Side] = bf.valueBreak[jp.Side] || pr.Edges[jp.Side].Kind == problem.Value
+	for _, br := range breaks {
+		bf.phis = append(bf.phis, newBreakPiece(pr, br))
+		bf.valueBreak[br.Side] = bf.valueBreak[br.Side] || pr.Edges[br.Side].Kind == problem.Value
 	}
 	q := *pr
 	for _, side := range problem.Sides {

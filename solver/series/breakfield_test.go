@@ -114,8 +114,8 @@ func TestAngleFieldFlowAndMean(t *testing.T) {
 func TestAngleFieldIsHarmonic(t *testing.T) {
 	for _, side := range problem.Sides {
 		pr := &problem.Problem{W: 3, H: 2, Kx: 9, Ky: 1}
-		jp := Break{Class: ValueBreak, Side: side, Corner: -1, S: 0.4 * pr.Length(side), From: 3, To: -1}
-		a := newBreakPiece(pr, jp)
+		br := Break{Class: ValueBreak, Side: side, Corner: -1, S: 0.4 * pr.Length(side), From: 3, To: -1}
+		a := newBreakPiece(pr, br)
 		h := 1e-3
 		for _, pt := range [][2]float64{{1, 1}, {0.5, 1.5}, {2.5, 0.3}} {
 			x, y := pt[0], pt[1]
@@ -135,7 +135,7 @@ func TestAngleFieldIsHarmonic(t *testing.T) {
 			x, y := pr.Point(side, s)
 			v, _, _ := a.at(x, y)
 			want := 0.0
-			if s < jp.S {
+			if s < br.S {
 				want = 4
 			}
 			if math.Abs(v-want) > 1e-12 {
