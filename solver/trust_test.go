@@ -1,8 +1,10 @@
 package solver
 
 import (
+	"encoding/json"
 	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
 
@@ -282,6 +284,34 @@ func TestTinyExchange(t *testing.T) {
 		}
 		if warningText(r.Warnings, problem.WeakExchange) == "" {
 			t.Errorf("h %g: no weak-exchange warning in %+v", tc.h, r.Warnings)
+		}
+	}
+}
+
+// The published check cases (testdata/checks.json), which agree with
+// their references, are all converged: the flag is kept for results that
+// cannot be relied on, not raised by a pessimistic estimate.
+func TestPublishedChecksConverged(t *testing.T) {
+	data, err := os.ReadFile("../testdata/checks.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var file struct {
+		Cases []struct {
+			ID      string          `json:"id"`
+			Project json.RawMessage `json:"project"`
+		} `json:"cases"`
+	}
+	if err := json.Unmarshal(data, &file); err != nil {
+		t.Fatal(err)
+	}
+	if len(file.Cases) == 0 {
+		t.Fatal("no cases")
+	}
+	for _, c := range file.Cases {
+		_, out := mustSolve(t, string(c.Project), Options{NoCrossCheck: true, Nx: 16, Ny: 16})
+		if !out.Result.Accuracy.Converged {
+			t.Errorf("%s: not converged: %s", c.ID, warningText(out.Result.Warnings, problem.NotConverged))
 		}
 	}
 }
