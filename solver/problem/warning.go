@@ -1,6 +1,10 @@
 package problem
 
-import "edgewise/solver/jsonlite"
+import (
+	"fmt"
+
+	"edgewise/solver/jsonlite"
+)
 
 // Code names a kind of warning. The page and scripts branch on the code,
 // never on the English text, which may change.
@@ -72,4 +76,33 @@ func (w Warning) MarshalJSON() ([]byte, error) {
 	var jw jsonlite.Writer
 	w.WriteJSON(&jw)
 	return jw.Bytes(), nil
+}
+
+// UnmarshalJSON reads what MarshalJSON writes.
+func (w *Warning) UnmarshalJSON(data []byte) error {
+	v, err := jsonlite.Parse(data)
+	if err != nil {
+		return err
+	}
+	m, ok := v.(map[string]any)
+	if !ok {
+		return fmt.Errorf("problem: a warning is an object, got %s", data)
+	}
+	code, _ := m["code"].(string)
+	text, _ := m["text"].(string)
+	list, _ := m["edges"].([]any)
+	*w = Warning{Code: Code(code), Text: text, Edges: []Side{}}
+	for _, e := range list {
+		name, _ := e.(string)
+		found := false
+		for _, s := range Sides {
+			if s.String() == name {
+				w.Edges, found = append(w.Edges, s), true
+			}
+		}
+		if !found {
+			return fmt.Errorf("problem: unknown edge %q in a warning", name)
+		}
+	}
+	return nil
 }

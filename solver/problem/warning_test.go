@@ -28,5 +28,18 @@ func TestWarningJSON(t *testing.T) {
 		if string(got) != tc.want {
 			t.Errorf("%+v: %s, want %s", tc.w, got, tc.want)
 		}
+		// and back: the edges in canonical order, each once
+		var back Warning
+		if err := json.Unmarshal(got, &back); err != nil {
+			t.Fatal(err)
+		}
+		again, _ := json.Marshal(back)
+		if string(again) != tc.want || back.Code != tc.w.Code || back.Text != tc.w.Text {
+			t.Errorf("round trip of %s gave %+v", got, back)
+		}
+	}
+	var w Warning
+	if err := json.Unmarshal([]byte(`{"code":"x","edges":["middle"],"text":""}`), &w); err == nil {
+		t.Errorf("an unknown edge was accepted: %+v", w)
 	}
 }
