@@ -18,14 +18,16 @@ type Result struct {
 	SourceTotal float64       `json:"source_total"`
 	// Balance is the sum of the edge inflows and the source total (zero
 	// up to the accuracy); null when an edge flow is infinite.
-	Balance  *float64         `json:"balance"`
-	Mean     float64          `json:"mean"`
-	Min      Extreme          `json:"min"`
-	Max      Extreme          `json:"max"`
-	Accuracy Accuracy         `json:"accuracy"`
-	Warnings []string         `json:"warnings"`
-	Cautions []string         `json:"cautions"`
-	Grid     project.GridSize `json:"grid"`
+	Balance  *float64 `json:"balance"`
+	Mean     float64  `json:"mean"`
+	Min      Extreme  `json:"min"`
+	Max      Extreme  `json:"max"`
+	Accuracy Accuracy `json:"accuracy"`
+	// Warnings are the engine's warnings: a code, the edges concerned
+	// and a text (JSON {"code": .., "edges": ["bottom", ..], "text": ..}).
+	Warnings []problem.Warning `json:"warnings"`
+	Cautions []string          `json:"cautions"`
+	Grid     project.GridSize  `json:"grid"`
 	// Colour is how every picture of this result is coloured (colour.Choose
 	// over Min.Value .. Max.Value).
 	Colour ColourScale `json:"colour"`
@@ -77,6 +79,10 @@ type Accuracy struct {
 	Crosscheck       *float64 `json:"crosscheck"`
 	CrosscheckGrid   string   `json:"crosscheck_grid,omitempty"`
 	CrosscheckReason string   `json:"crosscheck_skipped,omitempty"`
+	// Converged is false when the result failed the maximum-principle
+	// check or the series stopped far from its tolerance (see
+	// checkConverged); a warning with code not-converged says why.
+	Converged bool `json:"converged"`
 }
 
 // JSON returns the result text (schema "edgewise-result/1"). Numbers that
@@ -117,6 +123,7 @@ func (r *Result) JSON() []byte {
 	if a.CrosscheckReason != "" {
 		w.Key("crosscheck_skipped").Str(a.CrosscheckReason)
 	}
+	w.Key("converged").Bool(a.Converged)
 	w.Close('}')
 	strs := func(k string, list []string) {
 		w.Key(k).Open('[')
@@ -125,7 +132,11 @@ func (r *Result) JSON() []byte {
 		}
 		w.Close(']')
 	}
-	strs("warnings", r.Warnings)
+	w.Key("warnings").Open('[')
+	for _, x := range r.Warnings {
+		x.WriteJSON(&w)
+	}
+	w.Close(']')
 	strs("cautions", r.Cautions)
 	w.Key("grid").Open('{').Key("nx").Int(r.Grid.Nx).Key("ny").Int(r.Grid.Ny).Close('}')
 	c := r.Colour

@@ -1,8 +1,6 @@
 package solver
 
 import (
-	"slices"
-
 	"edgewise/solver/problem"
 	"edgewise/solver/series"
 )
@@ -11,21 +9,14 @@ import (
 // data scale of a problem.
 const SeriesTolerance = 1e-9
 
-// solveSeries runs the series engine.
-func solveSeries(p *problem.Problem) (field, error) {
-	return series.Solve(p, series.Options{Tol: SeriesTolerance})
-}
+// seriesOptions are the series engine's options for every solve.
+var seriesOptions = series.Options{Tol: SeriesTolerance}
 
-// markBreaks records in the problem where the data of flux and convection
-// edges jumps, for the solvers that integrate it (value jumps are taken
-// out before, see solveWithJumps).
-func markBreaks(p *problem.Problem) {
-	for _, j := range dataJumps(p) {
-		if e := &p.Edges[j.side]; e.Kind != problem.Value {
-			e.Breaks = append(e.Breaks, j.s)
-		}
+// solveSeries finds the breaks of p and runs the series engine.
+func solveSeries(p *problem.Problem) (field, error) {
+	breaks, err := series.FindBreaks(p)
+	if err != nil {
+		return nil, err
 	}
-	for _, s := range problem.Sides {
-		slices.Sort(p.Edges[s].Breaks)
-	}
+	return series.SolveBreaks(p, breaks, seriesOptions)
 }

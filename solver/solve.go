@@ -2,9 +2,11 @@ package solver
 
 import (
 	"math"
+	"strings"
 
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
+	"edgewise/solver/series"
 )
 
 // Options controls a solve.
@@ -32,15 +34,7 @@ type Output struct {
 }
 
 // field is what the engine provides.
-type field interface {
-	At(x, y float64) (u, ux, uy float64)
-	Grid(nx, ny int, u, ux, uy []float64)
-	Flow(e problem.Side) (flow float64, finite bool)
-	Mean() float64
-	Terms() int
-	ErrorEstimate() float64
-	Warnings() []string
-}
+type field = series.Field
 
 // A Solver keeps work buffers between solves (WebAssembly memory never
 // shrinks, so the page reuses one Solver). It is not safe for concurrent use.
@@ -71,14 +65,11 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	if err != nil {
 		return nil, err
 	}
-	markBreaks(pr)
-	jumps := findJumps(pr)
-	var f field
-	if steps := dataJumps(pr); len(steps) > 0 {
-		f, err = solveWithJumps(pr, steps, solveSeries)
-	} else {
-		f, err = solveSeries(pr)
+	breaks, err := series.FindBreaks(pr)
+	if err != nil {
+		return nil, wrapEngineError(pr, err)
 	}
+	f, err := series.SolveBreaks(pr, breaks, seriesOptions)
 	if err != nil {
 		return nil, wrapEngineError(pr, err)
 	}
@@ -86,12 +77,13 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
-	settleCorners(pr, out)
-	out.Result = report(p, pr, f, out, jumps)
+	settleCorners(pr, out, breaks)
+	out.Result = report(p, pr, f, out)
+	checkConverged(pr, &out.Result)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	out.Result.chooseColour()
 	if !opt.NoCrossCheck {
-		crossCheck(pr, f, &out.Result, jumps)
+		crossCheck(pr, f, &out.Result, breaks)
 	}
 	for _, v := range out.U {
 		if v-v != 0 {
@@ -108,17 +100,17 @@ func grow(b []float64, n int) []float64 {
 	return b[:n]
 }
 
-// settleCorners gives the corner nodes where two prescribed values meet
-// with a jump the mean of the two values (the field has no value there; the
-// mean is what the picture and the isolines need). The gradient there is
-// unbounded and stays NaN.
-func settleCorners(pr *problem.Problem, out *Output) {
-	jumps := jumpCorners(pr)
+// settleCorners gives the corner nodes with a corner break (two
+// prescribed values that differ) the mean of the two values (the field has
+// no value there; the mean is what the picture and the isolines need). The
+// gradient there is unbounded and stays NaN.
+func settleCorners(pr *problem.Problem, out *Output, breaks []series.Break) {
+	broken := cornerBreaks(breaks)
 	nodes := [4]int{0, out.Nx, (out.Nx+1)*(out.Ny+1) - 1, out.Ny * (out.Nx + 1)}
 	ends := [4][2]problem.Side{{problem.Bottom, problem.Left}, {problem.Bottom, problem.Right},
 		{problem.Top, problem.Right}, {problem.Top, problem.Left}}
 	for c, k := range nodes {
-		if !jumps[c] || out.U[k]-out.U[k] == 0 {
+		if !broken[c] || out.U[k]-out.U[k] == 0 {
 			continue
 		}
 		x, y := float64(k%(out.Nx+1))*pr.W/float64(out.Nx), float64(k/(out.Nx+1))*pr.H/float64(out.Ny)
@@ -134,18 +126,25 @@ func wrapEngineError(pr *problem.Problem, err error) error {
 	if nf, ok := err.(*problem.NonFiniteError); ok {
 		return project.Errorf(project.DataPath(nf.Side, pr.Edges[nf.Side].Kind), "not a finite number at s = %.6g", nf.S)
 	}
+	if pe, ok := err.(*series.PoleError); ok {
+		return project.Errorf(project.DataPath(pe.Side, pr.Edges[pe.Side].Kind), "grows without bound near s = %.6g (a pole, not a step); the data must be finite along the whole edge", pe.S)
+	}
+	if re, ok := err.(*series.DataRangeError); ok {
+		return project.Errorf(project.DataPath(re.Side, pr.Edges[re.Side].Kind), "%g at s = %.6g is outside the range the engine handles (magnitude up to %g)", re.V, re.S, series.MaxData)
+	}
 	if _, ok := err.(*project.Error); ok {
 		return err
 	}
-	return project.Errorf("edges", "%v", err)
+	// the engine's own prefix means nothing to the user
+	return project.Errorf("edges", "%s", strings.TrimPrefix(err.Error(), "series: "))
 }
 
 // report computes the result numbers from the solved field.
-func report(p *project.Project, pr *problem.Problem, f field, out *Output, jumps []jump) Result {
+func report(p *project.Project, pr *problem.Problem, f field, out *Output) Result {
 	r := Result{
 		Schema:   ResultSchema,
 		Probes:   []ProbeResult{},
-		Warnings: append([]string{}, f.Warnings()...),
+		Warnings: append([]problem.Warning{}, f.Warnings()...),
 		Cautions: []string{},
 		Grid:     project.GridSize{Nx: out.Nx, Ny: out.Ny},
 		Mean:     f.Mean(),
@@ -160,14 +159,8 @@ func report(p *project.Project, pr *problem.Problem, f field, out *Output, jumps
 	}
 	r.SourceTotal = pr.Source * pr.W * pr.H
 	sum, finite := r.SourceTotal, true
-	for _, j := range jumps {
-		r.Warnings = append(r.Warnings, j.warning(pr.Length(j.side)))
-	}
 	for _, side := range problem.Sides {
 		q, ok := f.Flow(side)
-		for _, j := range jumps {
-			ok = ok && j.side != side // infinite at a jump inside the edge
-		}
 		ef := EdgeFlow{Finite: ok}
 		if ok {
 			ef.Flow = &q
@@ -189,8 +182,8 @@ func report(p *project.Project, pr *problem.Problem, f field, out *Output, jumps
 // extremes finds the smallest and largest values: the extreme nodes of
 // the output grid, then a compass search on the series itself from there,
 // with steps from one grid cell down to a thousandth of one, kept inside the
-// rectangle. Corner nodes with no value of their own (a jump of prescribed
-// value) are left out.
+// rectangle. Corner nodes with no value of their own (a corner break) are
+// left out.
 func extremes(pr *problem.Problem, f field, out *Output) (lo, hi Extreme) {
 	nx, ny := out.Nx, out.Ny
 	ilo, ihi := -1, -1

@@ -52,7 +52,7 @@ func TestResultJSON(t *testing.T) {
 		Edges:       EdgeFlows{problem.Bottom: {&f1, true}, problem.Top: {nil, false}, problem.Left: {&f2, true}, problem.Right: {&f1, true}},
 		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
 		Accuracy: Accuracy{Terms: 120, Estimate: 1e-10, Crosscheck: &cc, CrosscheckGrid: "24x12"},
-		Warnings: []string{"w\n1"}, Cautions: []string{"c1", "c2"}, Grid: project.GridSize{Nx: 10, Ny: 5},
+		Warnings: []problem.Warning{{Code: problem.TermLimit, Edges: []problem.Side{problem.Top, problem.Bottom}, Text: "w\n1"}}, Cautions: []string{"c1", "c2"}, Grid: project.GridSize{Nx: 10, Ny: 5},
 		Colour: ColourScale{Map: "ember-tide", From: -2, To: 2},
 	}
 	for _, balance := range []*float64{nil, &f2} {

@@ -41,3 +41,33 @@ func TestFluxStepIntegratedExactly(t *testing.T) {
 		}
 	}
 }
+
+// An all-flux problem that balances exactly (bottom s^2 in, a uniform
+// W^2/3 out through the top: both integrate to W^3/3) does not balance
+// under the grid's trapezoid rule, which overestimates the integral of s^2
+// by W h^2/6. Richardson refuses it; RichardsonBalanced, told the balance
+// is known, spreads that error and solves, with the mean at zero.
+func TestRichardsonBalanced(t *testing.T) {
+	const W, H = 2.0, 1.0
+	p := &problem.Problem{W: W, H: H, Kx: 3, Ky: 3}
+	p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { return s * s }}
+	p.Edges[problem.Top] = problem.Edge{Kind: problem.Flux, F: problem.Const(-W * W / 3)}
+	p.Edges[problem.Left] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
+	p.Edges[problem.Right] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
+	if _, _, err := Richardson(p, 24, 12); err == nil {
+		t.Fatal("Richardson balanced the trapezoid rule's error")
+	}
+	g, _, err := RichardsonBalanced(p, 24, 12)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// tolerance: rounding of a mean of values of order 0.1
+	if math.Abs(g.Mean) > 1e-12 {
+		t.Errorf("mean %g, want 0", g.Mean)
+	}
+	// the inflows balance to the trapezoid rule's error, W h^2/6 with
+	// h = W/48 on the fine grid, Richardson removing most of it
+	if in := g.Inflow[problem.Bottom] + g.Inflow[problem.Top]; math.Abs(in) > W*math.Pow(W/48, 2)/6 {
+		t.Errorf("net inflow %g", in)
+	}
+}

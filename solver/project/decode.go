@@ -260,6 +260,7 @@ func (d *decoder) project(v any) *Project {
 			p.Grid = &GridSize{Nx: d.integer(gm["nx"], "grid.nx", 2, MaxGrid), Ny: d.integer(gm["ny"], "grid.ny", 2, MaxGrid)}
 		}
 	}
+	d.inRange(p)
 	return p
 }
 

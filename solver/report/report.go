@@ -96,8 +96,11 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 	rep := &Report{
 		Title: title, Date: date, Version: version, Physics: p.Physics,
 		Cautions: append([]string{}, r.Cautions...),
-		Warnings: append([]string{}, r.Warnings...),
+		Warnings: []string{},
 		Methods:  Methods(p, r),
+	}
+	for _, w := range r.Warnings {
+		rep.Warnings = append(rep.Warnings, w.Text)
 	}
 
 	rep.Inputs = Table{Caption: "Rectangle, material and source", Head: []string{"input", "value"}}

@@ -241,11 +241,11 @@ func TestMethodsComeFromEachPackage(t *testing.T) {
 	}
 	var want []string
 	want = append(want, series.Method(pr)...)
-	want = append(want, solver.StepMethod(pr)...)
+	want = append(want, series.BreakMethod(pr)...)
 	want = append(want, fdcheck.Method, contour.Method)
 	got := Build(p, out, "today", "v").Methods
-	if len(solver.StepMethod(pr)) != 2 {
-		t.Errorf("step methods %q, want one for the value step and one for the flux step", solver.StepMethod(pr))
+	if len(series.BreakMethod(pr)) != 2 {
+		t.Errorf("step methods %q, want one for the value step and one for the flux step", series.BreakMethod(pr))
 	}
 	at := 0
 	for _, w := range want {

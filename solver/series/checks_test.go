@@ -383,7 +383,8 @@ func TestJumpWarnings(t *testing.T) {
 	}
 	found := false
 	for _, w := range s.Warnings() {
-		if strings.Contains(w, "left edge is infinite") && strings.Contains(w, "from 0 to 100 at the bottom-left corner") {
+		if w.Code == problem.CornerJump && len(w.Edges) == 1 && w.Edges[0] == problem.Left &&
+			strings.Contains(w.Text, "left edge is infinite") && strings.Contains(w.Text, "from 0 to 100 at the bottom-left corner") {
 			found = true
 		}
 	}

@@ -17,8 +17,8 @@
 //  3. Corners: harmonic pieces carry the corner behaviour out of the series
 //     (zeta is the local complex coordinate at the corner, one edge along
 //     the real axis, the other along the imaginary axis):
-//     at a value/value corner the angle function J (1 - 2 theta/pi) when
-//     the two values jump, and Im(zeta^2 log zeta) when the data's
+//     at a value/value corner the angle function J (1 - 2 theta/pi) at a
+//     corner break (the two values differ by J), and Im(zeta^2 log zeta) when the data's
 //     curvatures are not those of a harmonic function; at a value/flux or
 //     value/convection corner zeta log zeta when the data disagree about
 //     the normal derivative (plus Im(zeta^2 log zeta) taking back the
@@ -62,9 +62,35 @@
 // All-flux problems (no value edge and no convection with Hc > 0) have a
 // steady state only if the inflow plus Source*W*H is zero (relative 1e-9);
 // otherwise Solve returns *ImbalanceError. The free constant is fixed so
-// that the area mean of u is zero (the rule package fdcheck uses too).
+// that the area mean of u is zero (the rule package fdcheck uses too), and
+// a warning with code mean-fixed says that only differences are
+// meaningful.
 //
-// Flow through an edge adjacent to a jump of prescribed value is infinite
-// (the gradient grows like 1/r): Flow reports finite = false and Warnings
-// says where.
+// Breaks: the places where edge data stop being smooth are found once per
+// problem by FindBreaks, classified (BreakClass: a value break inside a
+// value edge, a flux break of flux or ambient inside a flux or convection
+// edge, a corner break where two prescribed values differ; a break of
+// slope is the class to add next), and carried out of the series
+// analytically: corner breaks by the angle function above, breaks inside
+// an edge by break pieces (breakfield.go: the angle function, or
+// Re(w log w) for a flux break, about the break's place), the rest of the
+// data summed by the series (SolveBreaks). Quadratures split at flux
+// breaks.
+//
+// FindBreaks also refuses data the series cannot carry: a pole between
+// sample points (the data grow like a power of the distance near it, where
+// at a step they stay bounded) returns *PoleError, data beyond MaxData in
+// magnitude *DataRangeError.
+//
+// Weak exchange: with no value edge and every convection edge's Biot
+// number h L/k below 1e-4, the sub-problems' smallest eigenvalue, about
+// sqrt(2 Bi)/L, leaves too few digits for the nearly uniform level.
+// SolveBreaks then solves the limit h -> 0 (weak.go): the field is a level,
+// fixed by the balance of the exchange with the ambients, plus an all-flux
+// part of mean zero whose convection data are the flux h (ambient - u)
+// they carry, corrected until Bi^n is below the tolerance.
+//
+// Flow through an edge with a value break inside it or a corner break at
+// one of its ends is infinite (the gradient grows like 1/r): Flow reports
+// finite = false and Warnings says where.
 package series

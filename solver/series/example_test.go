@@ -26,7 +26,7 @@ func ExampleSolve() {
 	fmt.Printf("centre %.9f\n", u)
 	_, finite := s.Flow(problem.Top)
 	fmt.Println("top flow finite:", finite)
-	fmt.Println(s.Warnings()[0])
+	fmt.Println(s.Warnings()[0].Text)
 	// Output:
 	// centre 25.000000000
 	// top flow finite: false

@@ -100,7 +100,7 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 }
 
 // cornerSum is the sum of the pieces at one corner:
-// a0 + a1 zeta + (b0 + b1 zeta + b2 zeta^2) log zeta.
+// a0 + a1 zeta + a2 zeta^2 + a3 zeta^3 + (b0 + b1 zeta + b2 zeta^2 + b3 zeta^3) log zeta.
 type cornerSum struct {
 	on                             bool
 	a0, a1, a2, a3, b0, b1, b2, b3 complex128
@@ -162,9 +162,10 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			cr.logs = true
 		}
 	}
-	// Angles only (the angle function alone, no gradient wanted) need one
-	// arctangent per node, shared by the four corners through symmetry;
-	// otherwise a complex logarithm per node.
+	// When the only logarithmic pieces are angle functions (corner breaks,
+	// b0 imaginary) and the corners carry no power above the first, one
+	// arctangent per node, shared by the four corners through symmetry,
+	// does (gridPiecesFast); otherwise a complex logarithm per node.
 	needLogs, fullLogs := false, false
 	for c := range corner {
 		cr := &corner[c]
@@ -249,32 +250,6 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 		if !cr.on {
 			continue
 		}
-		if cr.logs && !fullLogs {
-			// u = Re(a0) - Im(b0) theta (+ Re(a1 zeta)).
-			a0, bi := real(cr.a0), imag(cr.b0)
-			for j := 0; j <= ny; j++ {
-				for i := 0; i <= nx; i++ {
-					var th float64
-					switch c {
-					case 0:
-						th = w.theta[j*(nx+1)+i]
-					case 1:
-						th = math.Pi/2 - w.theta[j*(nx+1)+nx-i]
-					case 2:
-						th = w.theta[(ny-j)*(nx+1)+nx-i]
-					case 3:
-						th = math.Pi/2 - w.theta[(ny-j)*(nx+1)+i]
-					}
-					v := a0 - bi*th
-					if cr.a1 != 0 {
-						zc := cr.rho * complex(float64(i)*hx-real(cr.z0), float64(j)*hy-imag(cr.z0))
-						v += real(cr.a1 * zc)
-					}
-					u[j*(nx+1)+i] += v
-				}
-			}
-			continue
-		}
 		for j := 0; j <= ny; j++ {
 			y := float64(j) * hy
 			for i := 0; i <= nx; i++ {
@@ -320,10 +295,11 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	}
 }
 
-// gridPiecesFast adds the pieces when no gradient is wanted and the only
-// logarithmic pieces are angle functions: every power piece is folded into
-// one polynomial about the centre, expanded per row into powers of x, and
-// the four angle functions are summed in one pass from the shared table.
+// gridPiecesFast adds the pieces when the only logarithmic pieces are
+// angle functions and the corners carry no power above the first: every
+// power piece is folded into one polynomial about the centre, expanded per
+// row into powers of x, and the four angle functions are summed in one pass
+// from the shared table (the gradient, when wanted, by fastGradRow).
 func (s *Solution) gridPiecesFast(nx, ny int, u, ux, uy []float64, poly [6]complex128, pz0, prho complex128, corner *[4]cornerSum) {
 	m := s.m
 	hx, hy := m.W/float64(nx), m.H/float64(ny)

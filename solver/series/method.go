@@ -48,3 +48,29 @@ func Method(p *problem.Problem) []string {
 	)
 	return m
 }
+
+// BreakMethod describes, in the words of the report, how the breaks inside
+// the edges of p (FindBreaks) are carried; nil when the edge data have none.
+func BreakMethod(p *problem.Problem) []string {
+	breaks, err := FindBreaks(p)
+	if err != nil {
+		return nil // such a project is refused before it is solved
+	}
+	var value, flux bool
+	for _, b := range breaks {
+		switch b.Class {
+		case ValueBreak:
+			value = true
+		case FluxBreak:
+			flux = true
+		}
+	}
+	var m []string
+	if value {
+		m = append(m, "Breaks of prescribed value inside an edge, found once by sampling and bisection, carried out of the series by angle functions (A - B) theta/pi; the flow through such an edge is infinite.")
+	}
+	if flux {
+		m = append(m, "Breaks of flux or of ambient inside an edge, found once by sampling and bisection, carried out of the series by the harmonic piece Re(w log w), w the local complex coordinate at the break, so that a step costs no accuracy.")
+	}
+	return m
+}

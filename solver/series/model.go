@@ -26,7 +26,7 @@ type model struct {
 	kinds  [4]problem.Kind
 	beta   [4]float64
 	allFlx bool
-	breaks [4][]float64 // mapped places where edge data jumps (Options.Breaks)
+	breaks [4][]float64 // mapped places of the flux breaks (problem.Edge.Breaks)
 	err    error
 }
 

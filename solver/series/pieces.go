@@ -11,7 +11,7 @@ type pieceKind int
 
 const (
 	powPiece   pieceKind = iota // zeta^n
-	logPiece                    // log zeta: the angle function at a value jump
+	logPiece                    // log zeta: the angle function at a corner break
 	zlogPiece                   // zeta log zeta: value/flux corner mismatch
 	z2logPiece                  // zeta^2 log zeta: curvature mismatch at a value/value corner
 	z3logPiece                  // zeta^3 log zeta: third-order mismatch at a value/flux corner

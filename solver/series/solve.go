@@ -20,6 +20,9 @@ type Options struct {
 	// MaxTerms caps the terms of each sub-problem; default 4096 (values
 	// are held within 16..65536).
 	MaxTerms int
+	// balanced: an all-flux problem balanced by construction (the weak
+	// exchange limit); its imbalance, rounding, is not checked.
+	balanced bool
 }
 
 // ImbalanceError reports an all-flux problem whose inflow and source do
@@ -40,6 +43,50 @@ func (q *quadratic) value(x, y float64) (u, ux, uy float64) {
 	return q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E, 2*q.A*x + q.B, 2*q.C*y + q.D
 }
 
+// Field is a solved problem: the series, and the break pieces when the
+// data break inside edges.
+type Field interface {
+	// At returns the field and its gradient at (x, y).
+	At(x, y float64) (u, ux, uy float64)
+	// Grid fills the field on a grid (see Solution.Grid).
+	Grid(nx, ny int, u, ux, uy []float64)
+	// Flow returns the flow entering through edge e, and whether it is
+	// finite.
+	Flow(e problem.Side) (flow float64, finite bool)
+	Mean() float64
+	Terms() int
+	ErrorEstimate() float64
+	Warnings() []problem.Warning
+}
+
+// SolveBreaks solves p, whose breaks FindBreaks has found: the corner
+// breaks go to the corner pieces, the breaks inside edges to break pieces
+// (see breakfield.go), the series sums the rest. Errors as for Solve.
+func SolveBreaks(p *problem.Problem, breaks []Break, opt Options) (Field, error) {
+	var corners, inner []Break
+	for _, b := range breaks {
+		if b.Class == CornerBreak {
+			corners = append(corners, b)
+		} else {
+			inner = append(inner, b)
+		}
+	}
+	series := func(q *problem.Problem) (Field, error) {
+		s, err := solve(q, opt, corners)
+		if err != nil {
+			return nil, err
+		}
+		return s, nil
+	}
+	if weakExchange(p) && !opt.balanced {
+		return solveWeak(p, breaks, opt)
+	}
+	if len(inner) == 0 {
+		return series(p)
+	}
+	return solveWithBreaks(p, inner, series)
+}
+
 // Solution is a solved problem. It is safe for concurrent use except Grid,
 // which reuses internal buffers.
 type Solution struct {
@@ -50,22 +97,34 @@ type Solution struct {
 	scale    float64
 	tolAbs   float64
 	est      float64
-	jump     [4]bool
-	jumpSize [4]float64
-	jumpFrom [4][2]float64 // values on the corner's first and second edge
-	third    [4]bool       // value/flux corner with a third-order condition
+	corners  []Break    // the corner breaks, with the values of the user's data
+	corner   [4]bool    // a corner break, carried by an angle function
+	cornerJ  [4]float64 // its size J: value on Side(c) minus value on Side(c+3)
+	third    [4]bool    // value/flux corner with a third-order condition
 	flows    [4]float64
 	finite   [4]bool
 	mean     float64
-	warnings []string
+	warnings []problem.Warning
 	gw       gridWork
 }
 
-// Solve solves p by superposition of separated series. Bad input returns
-// an error: problem validation errors, *problem.NonFiniteError for edge
-// data that is not finite (returned unchanged), *ImbalanceError for an
-// all-flux problem without a steady state.
+// Solve solves p by superposition of separated series, with the corner
+// breaks carried by corner pieces and flux breaks at p.Edges[e].Breaks
+// splitting the quadratures (value breaks inside edges are left to the
+// series: see SolveBreaks). Bad input returns an error: problem validation
+// errors, *problem.NonFiniteError for edge data that is not finite
+// (returned unchanged), *ImbalanceError for an all-flux problem without a
+// steady state.
 func Solve(p *problem.Problem, opt Options) (*Solution, error) {
+	if err := p.Validate(); err != nil {
+		return nil, err
+	}
+	m := newModel(p)
+	return solve(p, opt, cornerBreaks(m, m.dataScale()))
+}
+
+// solve is Solve with the corner breaks given.
+func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
 	}
@@ -78,7 +137,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	opt.MaxTerms = min(max(opt.MaxTerms, 16), 1<<16)
 	m := newModel(p)
 	m.setBreaks(p)
-	s := &Solution{m: m}
+	s := &Solution{m: m, corners: corners}
 	s.scale = m.dataScale()
 	if m.err != nil {
 		return nil, m.err
@@ -100,7 +159,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 			mag += math.Abs(m.k * fluxInt[e])
 		}
 		src := p.Source * p.W * p.H
-		if math.Abs(in+src) > 1e-9*math.Max(mag+math.Abs(src), 1e-300) {
+		if !opt.balanced && math.Abs(in+src) > 1e-9*math.Max(mag+math.Abs(src), 1e-300) {
 			return nil, &ImbalanceError{Inflow: in, SourceTotal: src}
 		}
 	} else if m.lap != 0 {
@@ -115,7 +174,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	// that adding them up would lose digits (large Biot numbers on short
 	// edges make the amplitudes grow like (beta L)^k).
 	for level := 2; level >= -1; level-- {
-		s.pieces, s.third, s.jump = s.pieces[:0], [4]bool{}, [4]bool{}
+		s.pieces, s.third, s.corner = s.pieces[:0], [4]bool{}, [4]bool{}
 		s.cornerPieces(level)
 		if m.err != nil {
 			return nil, m.err
@@ -130,7 +189,7 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 			break
 		}
 	}
-	s.jumpWarnings()
+	s.cornerWarnings()
 	if m.allFlx {
 		s.fluxQuadratic(fluxInt)
 	}
@@ -143,7 +202,8 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 		}
 		s.est += s.subs[e].tail
 		if s.subs[e].capped {
-			s.warnings = append(s.warnings, fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, s.subs[e].n, s.subs[e].tail))
+			s.warnings = append(s.warnings, problem.Warning{Code: problem.TermLimit, Edges: []problem.Side{e},
+				Text: fmt.Sprintf("the series for the %v edge stopped at %d terms before reaching the requested accuracy (estimated error %.3g)", e, opt.MaxTerms, s.subs[e].tail)})
 		}
 	}
 	s.est += 1e-14 * s.scale
@@ -151,6 +211,9 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 	if m.allFlx {
 		s.quad.E -= s.mean
 		s.mean = 0
+		s.warnings = append(s.warnings, problem.Warning{Code: problem.MeanFixed, Edges: []problem.Side{},
+			Text: "every edge holds a flux (no value edge, no exchange by convection), so the field is fixed only up to a constant: " +
+				"it is shown with area mean 0, and only differences of value are meaningful"})
 	}
 	for _, e := range problem.Sides {
 		if m.kinds[e] == problem.Flux {
@@ -241,7 +304,7 @@ func (m *model) integral(e problem.Side) float64 {
 	return sum
 }
 
-// setBreaks keeps the places where edge data jumps (problem.Edge.Breaks),
+// setBreaks keeps the places of the flux breaks (problem.Edge.Breaks),
 // in mapped s.
 func (m *model) setBreaks(p *problem.Problem) {
 	for _, e := range problem.Sides {
@@ -390,14 +453,15 @@ func (s *Solution) cornerPieces(level int) {
 		case k1 == problem.Value && k2 == problem.Value:
 			f1, _, s1, _ := m.derivs(e1, c)
 			f2, _, s2, _ := m.derivs(e2, c)
-			jmp := f1 - f2
-			if math.Abs(jmp) > 1e-14*s.scale {
-				// J (1 - 2 theta / pi): J on the first edge, 0 on the second.
+			if s.hasCornerBreak(c) {
+				// J (1 - 2 theta / pi): J on the first edge, 0 on the second,
+				// J measured on the data solved (break pieces inside the
+				// edges, continuous at the corner, leave it unchanged).
+				jmp := f1 - f2
 				add(powPiece, 0, complex(jmp, 0))
 				add(logPiece, 0, complex(0, 2*jmp/math.Pi))
-				s.jump[c] = true
-				s.jumpSize[c] = jmp
-				s.jumpFrom[c] = [2]float64{f1, f2}
+				s.corner[c] = true
+				s.cornerJ[c] = jmp
 			}
 			b := -(s1 + s2 - m.lap) / math.Pi
 			if level >= 1 && math.Abs(b)*math.Pow(math.Max(m.W, m.H), 2) > pieceFloor[2]*s.scale {
@@ -477,17 +541,31 @@ func (s *Solution) cornerPieces(level int) {
 	}
 }
 
-// jumpWarnings says which flows are infinite and why.
-func (s *Solution) jumpWarnings() {
-	for c := 0; c < 4; c++ {
-		if !s.jump[c] {
+// hasCornerBreak reports whether corner c has a corner break.
+func (s *Solution) hasCornerBreak(c int) bool {
+	for _, b := range s.corners {
+		if b.Corner == c {
+			return true
+		}
+	}
+	return false
+}
+
+// cornerWarnings says which flows are infinite and why, with the values of
+// the user's data at the corner.
+func (s *Solution) cornerWarnings() {
+	for _, b := range s.corners {
+		c := b.Corner
+		if !s.corner[c] {
 			continue
 		}
 		e1, e2 := problem.Side(c), problem.Side((c+3)%4)
-		f1, f2 := s.jumpFrom[c][0], s.jumpFrom[c][1]
+		f1, f2 := b.From, b.To
 		s.warnings = append(s.warnings,
-			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c]),
-			fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c]))
+			problem.Warning{Code: problem.CornerJump, Edges: []problem.Side{e1},
+				Text: fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e1, f1, f2, cornerNames[c])},
+			problem.Warning{Code: problem.CornerJump, Edges: []problem.Side{e2},
+				Text: fmt.Sprintf("flow through the %v edge is infinite: the value jumps from %.6g to %.6g at the %s corner", e2, f2, f1, cornerNames[c])})
 	}
 }
 
@@ -513,17 +591,16 @@ func (s *Solution) pieceMagnitude() float64 {
 	return big
 }
 
-// fitSmooth fits harmonic polynomials of degree <= 4 (minimum norm) so
+// fitSmooth fits harmonic polynomials of degree <= 5 (minimum norm) so
 // that, with the singular pieces, the residual data meet the corner
 // conditions that make the series coefficients fall fast: at a value/value
 // corner the residual and its second derivative along both edges vanish;
 // at a value/flux or value/convection corner the residual of the value
 // edge meets the other edge's homogeneous condition and the other edge's
-// residual vanishes.
+// residual vanishes. At the last-resort level (-1) only the values at the
+// value/value corners are fitted: the series vanishes there, so without
+// them such a corner would show 0 instead of its value.
 func (s *Solution) fitSmooth(level int) error {
-	if level < 0 {
-		return nil
-	}
 	m := s.m
 	S := math.Max(m.W, m.H) / 2
 	z0 := complex(m.W/2, m.H/2)
@@ -549,7 +626,7 @@ func (s *Solution) fitSmooth(level int) error {
 			f1, _, s1, _ := m.derivs(e1, c)
 			dir := dirAway(e1, edgeEnd(e1, c))
 			own := 0.0
-			if s.jump[c] {
+			if s.corner[c] {
 				own = real(s.pieces[s.cornerIndex(c, powPiece)].c)
 			}
 			row := make([]float64, len(cols))
@@ -654,7 +731,7 @@ func (s *Solution) fitSmooth(level int) error {
 	coef := linalg.MinNorm(A, len(rows), len(cols), b, 1e-12)
 	for _, c := range coef {
 		if c-c != 0 {
-			return errors.New("series: corner fit failed")
+			return errors.New("series: the corner fit overflowed on these data; please report this project")
 		}
 	}
 	for j := range cols {
@@ -706,16 +783,16 @@ func (s *Solution) flowOf(e problem.Side) (float64, bool) {
 	}
 	x0, y0 = m.cornerPoint(c0)
 	x1, y1 = m.cornerPoint(c1)
-	if s.jump[c0] || s.jump[c1] {
-		// Near a jump corner the inflow density is k (A - B)(2/pi)/r with A
+	if s.corner[c0] || s.corner[c1] {
+		// Near a corner break the inflow density is k (A - B)(2/pi)/r with A
 		// this edge's value and B the neighbour's: +Inf or -Inf, NaN when
 		// the two corners disagree.
 		sign := 0.0
 		for _, c := range [2]int{c0, c1} {
-			if !s.jump[c] {
+			if !s.corner[c] {
 				continue
 			}
-			j := s.jumpSize[c] // value on Side(c) minus value on Side(c+3)
+			j := s.cornerJ[c] // value on Side(c) minus value on Side(c+3)
 			if problem.Side(c) != e {
 				j = -j
 			}
@@ -755,8 +832,8 @@ func (s *Solution) flowOf(e problem.Side) (float64, bool) {
 }
 
 // At returns the field and its gradient at (x, y) in the original
-// coordinates (inside or on the boundary). At a corner where the prescribed
-// value jumps, u is the mean of the two values and the gradient is NaN.
+// coordinates (inside or on the boundary). At a corner break u is the mean
+// of the two values and the gradient is NaN.
 func (s *Solution) At(x, y float64) (u, ux, uy float64) {
 	m := s.m
 	yp := y * m.a
@@ -771,8 +848,8 @@ func (s *Solution) At(x, y float64) (u, ux, uy float64) {
 }
 
 // Flow returns the flow per unit depth entering through edge e, and false
-// if it is infinite (a jump of prescribed value at one of its corners);
-// the flow is then +Inf or -Inf by the direction of the jump(s), or NaN if
+// if it is infinite (a corner break at one of its ends);
+// the flow is then +Inf or -Inf by the direction of the break(s), or NaN if
 // its two corners push opposite ways, never a finite number.
 // Flux edges report the integral of their data; the others are computed
 // from the solution.
@@ -801,4 +878,4 @@ func (s *Solution) ErrorEstimate() float64 { return s.est }
 func (s *Solution) Scale() float64 { return s.scale }
 
 // Warnings returns notes about the solution for the user.
-func (s *Solution) Warnings() []string { return append([]string(nil), s.warnings...) }
+func (s *Solution) Warnings() []problem.Warning { return append([]problem.Warning(nil), s.warnings...) }

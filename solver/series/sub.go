@@ -177,8 +177,8 @@ func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64, br
 	for i := range dst {
 		dst[i] = 0
 	}
-	// one Gauss-Legendre rule per stretch between the breaks (where the
-	// data jumps), so that a jump costs the rule no accuracy
+	// one Gauss-Legendre rule per stretch between the flux breaks, so that
+	// a break costs the rule no accuracy
 	lo := 0.0
 	for k := 0; k <= len(breaks); k++ {
 		hi := b.L

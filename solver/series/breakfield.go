@@ -1,4 +1,4 @@
-package solver
+package series
 
 import (
 	"math"
@@ -8,27 +8,27 @@ import (
 	"edgewise/solver/problem"
 )
 
-// An edge piece carries one jump inside an edge out of the series, the way
-// the engine does at corners. With d the distance into the region from the
-// edge and t the distance along it past the jump at s0, both in the
+// A break piece carries one break inside an edge out of the series, the
+// way the corner pieces do at corners. With d the distance into the region
+// from the edge and t the distance along it past the break at s0, both in the
 // coordinates y' = y sqrt(Kx/Ky) in which the problem is isotropic, and
 // theta = atan2(d, t) in [0, pi], r^2 = d^2 + t^2:
 //
-//	a jump of value, from A to B:  phi = (A - B) theta / pi
-//	a jump of entering flux:       phi = -a (t ln r - d theta) / pi = -a Re(w log w) / pi,  w = t + i d
+//	a value break, from A to B:  phi = (A - B) theta / pi
+//	a flux break:                phi = -a (t ln r - d theta) / pi = -a Re(w log w) / pi,  w = t + i d
 //
 // Both are harmonic in (x, y'), so they solve Kx u_xx + Ky u_yy = 0. On its
 // own edge the first is A - B before s0 and 0 after it; the second has
 // d phi/dd = a theta/pi, a before s0 and 0 after, so its entering flux
 // -kappa d phi/dd (kappa = sqrt(Kx Ky) on the bottom and top, Kx on the
-// sides) steps by kappa a; a convection edge whose ambient steps by D takes
-// the step Hc D of entering flux. Subtracting the pieces leaves continuous
+// sides) breaks by kappa a; a convection edge whose ambient breaks by D takes
+// the break Hc D of entering flux. Subtracting the pieces leaves continuous
 // data, which the series sums fast; everywhere else on the boundary the
 // pieces are smooth and go into the other edges' data. The field is then
 // the series plus the pieces.
-type edgePiece struct {
+type breakPiece struct {
 	side    problem.Side
-	kink    bool    // a step of flux (w log w) rather than of value (angle)
+	flux    bool    // a flux break (w log w) rather than a value break (angle)
 	s0, amp float64 // where, and (A - B) or a
 	kappa   float64 // entering flux = -kappa d phi/dd
 	w, h, c float64 // rectangle and sqrt(Kx/Ky)
@@ -38,40 +38,40 @@ type edgePiece struct {
 	d0, t0  float64 // d = d0 + dx x + dy y, t = t0 + tx x + ty y
 }
 
-func newEdgePiece(pr *problem.Problem, jp jump) edgePiece {
+func newBreakPiece(pr *problem.Problem, br Break) breakPiece {
 	c := math.Sqrt(pr.Kx / pr.Ky)
-	a := edgePiece{side: jp.side, s0: jp.s, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
-	switch jp.side {
+	a := breakPiece{side: br.Side, s0: br.S, w: pr.W, h: pr.H, c: c, kx: pr.Kx, ky: pr.Ky}
+	switch br.Side {
 	case problem.Bottom: // d = c y, t = x - s0
-		a.dy, a.tx, a.t0 = c, 1, -jp.s
+		a.dy, a.tx, a.t0 = c, 1, -br.S
 	case problem.Top: // d = c (H - y), t = x - s0
-		a.d0, a.dy, a.tx, a.t0 = c*pr.H, -c, 1, -jp.s
+		a.d0, a.dy, a.tx, a.t0 = c*pr.H, -c, 1, -br.S
 	case problem.Left: // d = x, t = c (y - s0)
-		a.dx, a.ty, a.t0 = 1, c, -c*jp.s
+		a.dx, a.ty, a.t0 = 1, c, -c*br.S
 	case problem.Right: // d = W - x, t = c (y - s0)
-		a.d0, a.dx, a.ty, a.t0 = pr.W, -1, c, -c*jp.s
+		a.d0, a.dx, a.ty, a.t0 = pr.W, -1, c, -c*br.S
 	}
-	e := pr.Edges[jp.side]
+	e := pr.Edges[br.Side]
 	kappa := pr.Kx
-	if jp.side == problem.Bottom || jp.side == problem.Top {
+	if br.Side == problem.Bottom || br.Side == problem.Top {
 		kappa = math.Sqrt(pr.Kx * pr.Ky)
 	}
 	a.kappa = kappa
 	switch e.Kind {
 	case problem.Value:
-		a.amp = jp.from - jp.to
+		a.amp = br.From - br.To
 	case problem.Flux:
-		a.kink, a.amp = true, (jp.to-jp.from)/kappa
-	default: // convection: the entering flux Hc (ambient - u) steps by Hc D
-		a.kink, a.amp = true, e.Hc*(jp.to-jp.from)/kappa
+		a.flux, a.amp = true, (br.To-br.From)/kappa
+	default: // convection: the entering flux Hc (ambient - u) breaks by Hc D
+		a.flux, a.amp = true, e.Hc*(br.To-br.From)/kappa
 	}
 	return a
 }
 
-// at returns phi and its gradient at (x, y). At the jump point itself an
-// angle piece takes the mean of its two values and a flux piece 0; the
+// at returns phi and its gradient at (x, y). At the break itself a value
+// piece takes the mean of its two values and a flux piece 0; the
 // gradient (unbounded there) is NaN.
-func (a *edgePiece) at(x, y float64) (phi, px, py float64) {
+func (a *breakPiece) at(x, y float64) (phi, px, py float64) {
 	d := a.d0 + a.dx*x + a.dy*y
 	t := a.t0 + a.tx*x + a.ty*y
 	if d <= 0 {
@@ -79,14 +79,14 @@ func (a *edgePiece) at(x, y float64) (phi, px, py float64) {
 	}
 	r2 := d*d + t*t
 	if r2 == 0 {
-		if a.kink {
+		if a.flux {
 			return 0, math.NaN(), math.NaN()
 		}
 		return a.amp / 2, math.NaN(), math.NaN()
 	}
 	k := a.amp / math.Pi
 	theta := math.Atan2(d, t)
-	if a.kink {
+	if a.flux {
 		// d/dt = -(ln r + 1) a/pi, d/dd = a theta/pi
 		lr := 0.5 * math.Log(r2)
 		gt, gd := -k*(lr+1), k*theta
@@ -98,9 +98,9 @@ func (a *edgePiece) at(x, y float64) (phi, px, py float64) {
 
 // entering returns the flux of phi entering the region through edge e at
 // (x, y) on it.
-func (a *edgePiece) entering(e problem.Side, x, y float64) float64 {
-	if a.kink && e == a.side && math.Abs(a.t0+a.tx*x+a.ty*y) == 0 {
-		// at the step itself: the value just after it (the along-edge
+func (a *breakPiece) entering(e problem.Side, x, y float64) float64 {
+	if a.flux && e == a.side && math.Abs(a.t0+a.tx*x+a.ty*y) == 0 {
+		// at the break itself: the value just after it (the along-edge
 		// derivative, unbounded there, carries no flux through the edge)
 		return 0
 	}
@@ -118,7 +118,7 @@ func (a *edgePiece) entering(e problem.Side, x, y float64) float64 {
 
 // gradedGauss integrates f over [a, b] with Gauss-Legendre rules on panels
 // that halve towards both ends, down to (b - a) 2^-depth, so that a peak of
-// width w near an end (the angle field of a jump at distance w from a
+// width w near an end (the angle field of a break at distance w from a
 // corner, seen along the neighbouring edge) is resolved whatever w is.
 func gradedGauss(f func(s float64) float64, a, b float64, depth int, x, w []float64) float64 {
 	L := b - a
@@ -154,33 +154,38 @@ func legendre(n int) (x, w []float64) {
 	return x, w
 }
 
-// jumpField is the series solution of the problem with its inner jumps
-// taken out, plus the edge pieces that carry them.
-type jumpField struct {
-	v      field
-	phis   []edgePiece
-	inflow [4]float64 // flows of the angle fields through the edges
-	jumpAt [4]bool    // edges with a jump inside: infinite flow
-	mean   float64    // area mean of the pieces
-	shift  float64    // added to u: keeps the area mean 0 when only fluxes hold the field
+// breakField is the series solution of the problem with the breaks inside
+// its edges taken out, plus the break pieces that carry them.
+type breakField struct {
+	v          Field
+	phis       []breakPiece
+	inflow     [4]float64 // flows of the break pieces through the edges
+	valueBreak [4]bool    // edges with a value break inside: infinite flow
+	mean       float64    // area mean of the pieces
+	shift      float64    // added to u: keeps the area mean 0 when only fluxes hold the field
+	breaks     []Break
+	length     [4]float64 // edge lengths, for the warnings
 }
 
-// solveWithJumps solves a problem whose edge data jumps inside edges: the
-// edge pieces take the jumps out of the data, solve (the series) sums the
-// rest, and the field returned adds them back. Flows through edges whose
-// value jumps are infinite.
-func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Problem) (field, error)) (field, error) {
-	jf := &jumpField{}
-	for _, jp := range jumps {
-		jf.phis = append(jf.phis, newEdgePiece(pr, jp))
-		jf.jumpAt[jp.side] = jf.jumpAt[jp.side] || pr.Edges[jp.side].Kind == problem.Value
+// solveWithBreaks solves a problem whose edge data break inside edges: the
+// break pieces take the breaks out of the data, solve (the series) sums
+// the rest, and the field returned adds them back. Flows through edges with
+// a value break are infinite.
+func solveWithBreaks(pr *problem.Problem, breaks []Break, solve func(*problem.Problem) (Field, error)) (Field, error) {
+	bf := &breakField{breaks: breaks}
+	for _, side := range problem.Sides {
+		bf.length[side] = pr.Length(side)
+	}
+	for _, br := range breaks {
+		bf.phis = append(bf.phis, newBreakPiece(pr, br))
+		bf.valueBreak[br.Side] = bf.valueBreak[br.Side] || pr.Edges[br.Side].Kind == problem.Value
 	}
 	q := *pr
 	for _, side := range problem.Sides {
 		e, side := pr.Edges[side], side
 		at := func(s float64) (phi, in float64) {
 			x, y := pr.Point(side, s)
-			return jf.phi(x, y), jf.entering(side, x, y)
+			return bf.phi(x, y), bf.entering(side, x, y)
 		}
 		f := e.F
 		switch {
@@ -188,13 +193,13 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 			q.Edges[side].F = func(s float64) float64 {
 				v := f(s)
 				phi, _ := at(s)
-				for i := range jf.phis {
-					a := &jf.phis[i]
-					if a.side == side && !a.kink && s == a.s0 {
-						// at the jump itself the piece is taken on the side
+				for i := range bf.phis {
+					a := &bf.phis[i]
+					if a.side == side && !a.flux && s == a.s0 {
+						// at the break itself the piece is taken on the side
 						// the data are on (the piece field shows the mean)
 						phi -= a.amp / 2
-						if math.Abs(v-(a.amp+jumpTo(a, f))) < math.Abs(v-jumpTo(a, f)) {
+						if math.Abs(v-(a.amp+breakTo(a, f))) < math.Abs(v-breakTo(a, f)) {
 							phi += a.amp
 						}
 					}
@@ -205,16 +210,16 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 			q.Edges[side].F = func(s float64) float64 {
 				v := f(s)
 				_, in := at(s)
-				return v - in - jf.stepSide(side, s, v, f)
+				return v - in - bf.breakSide(side, s, v, f)
 			}
-		case e.Hc == 0: // insulated convection: the angle fields' flux must be undone
+		case e.Hc == 0: // insulated convection: the break pieces' flux must be undone
 			q.Edges[side] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { _, in := at(s); return -in }}
 		default: // Hc (a - v - phi) - in = Hc ((a - phi - in/Hc) - v)
 			hc := e.Hc
 			q.Edges[side].F = func(s float64) float64 {
 				v := f(s)
 				phi, in := at(s)
-				return v - phi - (in+jf.stepSide(side, s, v, f))/hc
+				return v - phi - (in+bf.breakSide(side, s, v, f))/hc
 			}
 		}
 	}
@@ -222,14 +227,14 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 	if err != nil {
 		return nil, err
 	}
-	jf.v = v
+	bf.v = v
 	for _, side := range problem.Sides {
-		if jf.jumpAt[side] {
+		if bf.valueBreak[side] {
 			continue
 		}
-		// split at the pieces' own jumps on this edge, where their flux steps
+		// split at the pieces' own breaks on this edge, where their flux breaks
 		cuts := []float64{0}
-		for _, a := range jf.phis {
+		for _, a := range bf.phis {
 			if a.side == side {
 				cuts = append(cuts, a.s0)
 			}
@@ -238,15 +243,15 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 		slices.Sort(cuts)
 		for k := 0; k+1 < len(cuts); k++ {
 			if cuts[k+1] > cuts[k] {
-				jf.inflow[side] += gradedGauss(func(s float64) float64 {
+				bf.inflow[side] += gradedGauss(func(s float64) float64 {
 					x, y := pr.Point(side, s)
-					return jf.entering(side, x, y)
+					return bf.entering(side, x, y)
 				}, cuts[k], cuts[k+1], 40, gl16x, gl16w)
 			}
 		}
 	}
-	for _, a := range jf.phis {
-		jf.mean += a.mean() / (pr.W * pr.H)
+	for _, a := range bf.phis {
+		bf.mean += a.mean() / (pr.W * pr.H)
 	}
 	// With no value edge and no exchange by convection the level of u is
 	// free and fixed by the rule area mean = 0; the pieces must not move it.
@@ -255,55 +260,55 @@ func solveWithJumps(pr *problem.Problem, jumps []jump, solve func(*problem.Probl
 		fixed = fixed || e.Kind == problem.Value || (e.Kind == problem.Convection && e.Hc > 0)
 	}
 	if !fixed {
-		jf.shift = -jf.mean
+		bf.shift = -bf.mean
 	}
-	return jf, nil
+	return bf, nil
 }
 
-// stepSide corrects the entering flux of the flux pieces at their own
-// step, where entering gives the value after the step: when the data v
+// breakSide corrects the entering flux of the flux pieces at their own
+// break, where entering gives the value after the break: when the data v
 // there are on the side before it, the flux before it is used instead.
-func (jf *jumpField) stepSide(side problem.Side, s, v float64, f func(float64) float64) float64 {
+func (bf *breakField) breakSide(side problem.Side, s, v float64, f func(float64) float64) float64 {
 	add := 0.0
-	for i := range jf.phis {
-		a := &jf.phis[i]
-		if a.side == side && a.kink && s == a.s0 {
-			after := jumpTo(a, f)
+	for i := range bf.phis {
+		a := &bf.phis[i]
+		if a.side == side && a.flux && s == a.s0 {
+			after := breakTo(a, f)
 			before := f(math.Nextafter(a.s0, math.Inf(-1)))
 			if math.Abs(v-before) < math.Abs(v-after) {
-				add += -a.kappa * a.amp // the entering flux before the step
+				add += -a.kappa * a.amp // the entering flux before the break
 			}
 		}
 	}
 	return add
 }
 
-// jumpTo returns the value an edge's data take just after the jump of
+// breakTo returns the value an edge's data take just after the break of
 // piece a.
-func jumpTo(a *edgePiece, f func(float64) float64) float64 {
+func breakTo(a *breakPiece, f func(float64) float64) float64 {
 	return f(math.Nextafter(a.s0, math.Inf(1)))
 }
 
-func (jf *jumpField) phi(x, y float64) float64 {
+func (bf *breakField) phi(x, y float64) float64 {
 	sum := 0.0
-	for i := range jf.phis {
-		p, _, _ := jf.phis[i].at(x, y)
+	for i := range bf.phis {
+		p, _, _ := bf.phis[i].at(x, y)
 		sum += p
 	}
 	return sum
 }
 
-func (jf *jumpField) entering(e problem.Side, x, y float64) float64 {
+func (bf *breakField) entering(e problem.Side, x, y float64) float64 {
 	in := 0.0
-	for i := range jf.phis {
-		in += jf.phis[i].entering(e, x, y)
+	for i := range bf.phis {
+		in += bf.phis[i].entering(e, x, y)
 	}
 	return in
 }
 
 // mean returns the integral of phi over the rectangle: along its edge split
-// at the jump, across it towards the edge, both graded towards the jump.
-func (a *edgePiece) mean() float64 {
+// at the break, across it towards the edge, both graded towards the break.
+func (a *breakPiece) mean() float64 {
 	along, across := a.w, a.h
 	if a.side == problem.Left || a.side == problem.Right {
 		along, across = a.h, a.w
@@ -328,26 +333,26 @@ func (a *edgePiece) mean() float64 {
 	return gradedGauss(inner, 0, a.s0, 12, gl8x, gl8w) + gradedGauss(inner, a.s0, along, 12, gl8x, gl8w)
 }
 
-func (jf *jumpField) At(x, y float64) (u, ux, uy float64) {
-	u, ux, uy = jf.v.At(x, y)
-	u += jf.shift
-	for i := range jf.phis {
-		p, px, py := jf.phis[i].at(x, y)
+func (bf *breakField) At(x, y float64) (u, ux, uy float64) {
+	u, ux, uy = bf.v.At(x, y)
+	u += bf.shift
+	for i := range bf.phis {
+		p, px, py := bf.phis[i].at(x, y)
 		u, ux, uy = u+p, ux+px, uy+py
 	}
 	return u, ux, uy
 }
 
-func (jf *jumpField) Grid(nx, ny int, u, ux, uy []float64) {
-	jf.v.Grid(nx, ny, u, ux, uy)
-	w, h := jf.phis[0].w, jf.phis[0].h
+func (bf *breakField) Grid(nx, ny int, u, ux, uy []float64) {
+	bf.v.Grid(nx, ny, u, ux, uy)
+	w, h := bf.phis[0].w, bf.phis[0].h
 	for j := 0; j <= ny; j++ {
 		for i := 0; i <= nx; i++ {
 			k := j*(nx+1) + i
 			x, y := float64(i)*w/float64(nx), float64(j)*h/float64(ny)
-			u[k] += jf.shift
-			for a := range jf.phis {
-				p, px, py := jf.phis[a].at(x, y)
+			u[k] += bf.shift
+			for a := range bf.phis {
+				p, px, py := bf.phis[a].at(x, y)
 				u[k] += p
 				if ux != nil {
 					ux[k] += px
@@ -360,15 +365,25 @@ func (jf *jumpField) Grid(nx, ny int, u, ux, uy []float64) {
 	}
 }
 
-func (jf *jumpField) Flow(e problem.Side) (float64, bool) {
-	q, ok := jf.v.Flow(e)
-	if jf.jumpAt[e] {
+func (bf *breakField) Flow(e problem.Side) (float64, bool) {
+	q, ok := bf.v.Flow(e)
+	if bf.valueBreak[e] {
 		return 0, false
 	}
-	return q + jf.inflow[e], ok
+	return q + bf.inflow[e], ok
 }
 
-func (jf *jumpField) Mean() float64          { return jf.v.Mean() + jf.mean + jf.shift }
-func (jf *jumpField) Terms() int             { return jf.v.Terms() }
-func (jf *jumpField) ErrorEstimate() float64 { return jf.v.ErrorEstimate() }
-func (jf *jumpField) Warnings() []string     { return jf.v.Warnings() }
+func (bf *breakField) Mean() float64          { return bf.v.Mean() + bf.mean + bf.shift }
+func (bf *breakField) Terms() int             { return bf.v.Terms() }
+func (bf *breakField) ErrorEstimate() float64 { return bf.v.ErrorEstimate() }
+
+// Warnings returns the series' warnings, then one for each value break.
+func (bf *breakField) Warnings() []problem.Warning {
+	w := bf.v.Warnings()
+	for _, b := range bf.breaks {
+		if b.Class == ValueBreak {
+			w = append(w, problem.Warning{Code: problem.StepJump, Edges: b.Edges(), Text: b.warning(bf.length[b.Side])})
+		}
+	}
+	return w
+}

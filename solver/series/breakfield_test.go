@@ -1,15 +1,15 @@
-package solver
+package series
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"edgewise/solver/problem"
-	"edgewise/solver/project"
 )
 
-// zeroField is a field that is zero everywhere: it isolates the angle
-// fields in solveWithJumps.
+// zeroField is a field that is zero everywhere: it isolates the break
+// pieces in solveWithBreaks.
 type zeroField struct{}
 
 func (zeroField) At(x, y float64) (u, ux, uy float64)  { return 0, 0, 0 }
@@ -18,7 +18,43 @@ func (zeroField) Flow(problem.Side) (float64, bool)    { return 0, true }
 func (zeroField) Mean() float64                        { return 0 }
 func (zeroField) Terms() int                           { return 0 }
 func (zeroField) ErrorEstimate() float64               { return 0 }
-func (zeroField) Warnings() []string                   { return nil }
+func (zeroField) Warnings() []problem.Warning          { return nil }
+
+// insideBreaks returns the breaks inside p's edges (FindBreaks without the
+// corner breaks).
+func insideBreaks(t *testing.T, p *problem.Problem) []Break {
+	t.Helper()
+	all, err := FindBreaks(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var out []Break
+	for _, b := range all {
+		if b.Class != CornerBreak {
+			out = append(out, b)
+		}
+	}
+	return out
+}
+
+// seriesOnly solves with the series alone, as SolveBreaks does.
+func seriesOnly(q *problem.Problem) (Field, error) {
+	s, err := Solve(q, Options{Tol: 1e-9})
+	if err != nil {
+		return nil, err
+	}
+	return s, nil
+}
+
+// step returns when(s < at, a, b) (or s <= at with orEqual).
+func step(at, a, b float64, orEqual bool) func(float64) float64 {
+	return func(s float64) float64 {
+		if s < at || (orEqual && s == at) {
+			return a
+		}
+		return b
+	}
+}
 
 func stepProblem(kx, ky float64) *problem.Problem {
 	p := &problem.Problem{W: 3, H: 2, Kx: kx, Ky: ky}
@@ -40,21 +76,21 @@ func stepProblem(kx, ky float64) *problem.Problem {
 // integral of -k dphi/dx = k (J/pi) y/(s0^2 + y^2) over 0 < y < H).
 func TestAngleFieldFlowAndMean(t *testing.T) {
 	p := stepProblem(7, 7)
-	jumps := findJumps(p)
-	if len(jumps) != 1 || math.Abs(jumps[0].s-1.2) > 1e-9 {
+	jumps := insideBreaks(t, p)
+	if len(jumps) != 1 || math.Abs(jumps[0].S-1.2) > 1e-9 {
 		t.Fatalf("jumps %+v", jumps)
 	}
-	f, err := solveWithJumps(p, jumps, func(*problem.Problem) (field, error) { return zeroField{}, nil })
+	f, err := solveWithBreaks(p, jumps, func(*problem.Problem) (Field, error) { return zeroField{}, nil })
 	if err != nil {
 		t.Fatal(err)
 	}
-	jf := f.(*jumpField)
+	bf := f.(*breakField)
 	J, s0, k, H := 4.0, 1.2, 7.0, 2.0
 	want := k * J / (2 * math.Pi) * math.Log((s0*s0+H*H)/(s0*s0))
-	if got, _ := jf.Flow(problem.Left); math.Abs(got-want) > 1e-10*want {
+	if got, _ := bf.Flow(problem.Left); math.Abs(got-want) > 1e-10*want {
 		t.Errorf("flow through the left edge %.15g, want %.15g", got, want)
 	}
-	if _, ok := jf.Flow(problem.Bottom); ok {
+	if _, ok := bf.Flow(problem.Bottom); ok {
 		t.Errorf("flow through the edge with the jump is finite")
 	}
 	// the mean against a midpoint sum on a fine grid (reference by brute
@@ -63,12 +99,12 @@ func TestAngleFieldFlowAndMean(t *testing.T) {
 	sum := 0.0
 	for j := 0; j < n; j++ {
 		for i := 0; i < n; i++ {
-			u, _, _ := jf.phis[0].at((float64(i)+0.5)*p.W/float64(n), (float64(j)+0.5)*p.H/float64(n))
+			u, _, _ := bf.phis[0].at((float64(i)+0.5)*p.W/float64(n), (float64(j)+0.5)*p.H/float64(n))
 			sum += u
 		}
 	}
-	if brute := sum / float64(n*n); math.Abs(jf.Mean()-brute) > 1e-5*J {
-		t.Errorf("mean %.9g, midpoint sum %.9g", jf.Mean(), brute)
+	if brute := sum / float64(n*n); math.Abs(bf.Mean()-brute) > 1e-5*J {
+		t.Errorf("mean %.9g, midpoint sum %.9g", bf.Mean(), brute)
 	}
 }
 
@@ -78,8 +114,8 @@ func TestAngleFieldFlowAndMean(t *testing.T) {
 func TestAngleFieldIsHarmonic(t *testing.T) {
 	for _, side := range problem.Sides {
 		pr := &problem.Problem{W: 3, H: 2, Kx: 9, Ky: 1}
-		jp := jump{side: side, s: 0.4 * pr.Length(side), from: 3, to: -1}
-		a := newEdgePiece(pr, jp)
+		br := Break{Class: ValueBreak, Side: side, Corner: -1, S: 0.4 * pr.Length(side), From: 3, To: -1}
+		a := newBreakPiece(pr, br)
 		h := 1e-3
 		for _, pt := range [][2]float64{{1, 1}, {0.5, 1.5}, {2.5, 0.3}} {
 			x, y := pt[0], pt[1]
@@ -99,7 +135,7 @@ func TestAngleFieldIsHarmonic(t *testing.T) {
 			x, y := pr.Point(side, s)
 			v, _, _ := a.at(x, y)
 			want := 0.0
-			if s < jp.s {
+			if s < br.S {
 				want = 4
 			}
 			if math.Abs(v-want) > 1e-12 {
@@ -144,11 +180,11 @@ func TestStepOnEdgeManufactured(t *testing.T) {
 		_, ux, _ := exact(W, s)
 		return kx * ux
 	}}
-	jumps := findJumps(p)
+	jumps := insideBreaks(t, p)
 	if len(jumps) != 1 {
 		t.Fatalf("jumps %+v", jumps)
 	}
-	f, err := solveWithJumps(p, jumps, solveSeries)
+	f, err := solveWithBreaks(p, jumps, seriesOnly)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -226,12 +262,11 @@ func TestFluxStepsManufactured(t *testing.T) {
 		_, ux, _ := exact(W, s)
 		return kx * ux
 	}}
-	markBreaks(pr)
-	steps := dataJumps(pr)
+	steps := insideBreaks(t, pr)
 	if len(steps) != 2 {
 		t.Fatalf("steps %+v, want one on the bottom and one on the top", steps)
 	}
-	f, err := solveWithJumps(pr, steps, solveSeries)
+	f, err := solveWithBreaks(pr, steps, seriesOnly)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -262,42 +297,6 @@ func TestFluxStepsManufactured(t *testing.T) {
 	t.Logf("terms %d, largest error %.3g", f.Terms(), worst)
 }
 
-// An all-flux problem with a step of flux keeps the documented rule for its
-// free level: the area mean of u is zero (the series and the finite
-// differences both use it), also with the step carried by a piece.
-func TestFluxStepAllFluxKeepsMeanZero(t *testing.T) {
-	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"generic","width":2,"height":1,"conductivity":3,
-	 "edges":{"bottom":{"kind":"flux","expr":"when(0.5 <= s <= 1, 4, 0)"},"top":{"kind":"flux","expr":"-1"},
-	 "left":{"kind":"flux","expr":"0"},"right":{"kind":"convection","h":0,"ambient":"7"}}}`, Options{})
-	// the strip puts 4 x 0.5 = 2 in, the top takes 1 x 2 = 2 out: balanced
-	if m := out.Result.Mean; math.Abs(m) > 1e-9 {
-		t.Errorf("area mean %g, want 0", m)
-	}
-	// and the grid agrees: trapezoid mean of the output field
-	nx, ny := out.Nx, out.Ny
-	sum := 0.0
-	for j := 0; j <= ny; j++ {
-		for i := 0; i <= nx; i++ {
-			w := 1.0
-			if i == 0 || i == nx {
-				w /= 2
-			}
-			if j == 0 || j == ny {
-				w /= 2
-			}
-			sum += w * out.U[j*(nx+1)+i]
-		}
-	}
-	// tolerance: the trapezoid rule on a 200 x 100 grid errs by about
-	// h^2 times the curvature, below 1e-4 here
-	if m := sum / float64(nx*ny); math.Abs(m) > 1e-4 {
-		t.Errorf("grid mean %g, want 0", m)
-	}
-	if cc := out.Result.Accuracy.Crosscheck; cc == nil || *cc > 1e-2 {
-		t.Errorf("cross-check %v (%s)", cc, out.Result.Accuracy.CrosscheckReason)
-	}
-}
-
 // The data of a value edge with a jump stay continuous once the angle
 // piece is taken out, also at the jump itself, whichever side the formula
 // puts that point on (s < a or s <= a).
@@ -307,18 +306,15 @@ func TestJumpPointTakesItsSide(t *testing.T) {
 		for _, s := range problem.Sides {
 			p.Edges[s] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
 		}
-		f, err := project.CompileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
-		if err != nil {
-			t.Fatal(err)
-		}
+		f := step(1.5, 8, 2, strings.Contains(formula, "<="))
 		p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Value, F: f}
-		jumps := findJumps(p)
+		jumps := insideBreaks(t, p)
 		if len(jumps) != 1 {
 			t.Fatalf("%s: jumps %+v", formula, jumps)
 		}
-		jumps[0].s = 1.5 // the place the engine may sample exactly
+		jumps[0].S = 1.5 // the place the engine may sample exactly
 		var modified *problem.Problem
-		_, err = solveWithJumps(p, jumps, func(q *problem.Problem) (field, error) {
+		_, err := solveWithBreaks(p, jumps, func(q *problem.Problem) (Field, error) {
 			modified = q
 			return zeroField{}, nil
 		})
@@ -342,18 +338,15 @@ func TestFluxStepPointTakesItsSide(t *testing.T) {
 		for _, s := range problem.Sides {
 			p.Edges[s] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
 		}
-		f, err := project.CompileFormula(formula, "test", func(s float64) (float64, float64) { return s, 0 }, 3, 2)
-		if err != nil {
-			t.Fatal(err)
-		}
+		f := step(1.5, 8, 2, strings.Contains(formula, "<="))
 		p.Edges[problem.Bottom] = problem.Edge{Kind: problem.Flux, F: f}
-		steps := dataJumps(p)
+		steps := insideBreaks(t, p)
 		if len(steps) != 1 {
 			t.Fatalf("%s: steps %+v", formula, steps)
 		}
-		steps[0].s = 1.5 // the place the engine may sample exactly
+		steps[0].S = 1.5 // the place the engine may sample exactly
 		var modified *problem.Problem
-		if _, err := solveWithJumps(p, steps, func(q *problem.Problem) (field, error) {
+		if _, err := solveWithBreaks(p, steps, func(q *problem.Problem) (Field, error) {
 			modified = q
 			return zeroField{}, nil
 		}); err != nil {
