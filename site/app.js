@@ -77,23 +77,41 @@
   }
 
   function settle(m) {
+    heldIds.delete(m.id);
     const p = pending.get(m.id);
     if (!p) return;
     pending.delete(m.id);
     p.resolve(m);
   }
 
+  // The test hook that holds the worker: the next `calls` calls of `fn`
+  // wait in the worker, unanswered, until release(). A held solve is "a
+  // solve in flight" for as long as a test needs, however fast the engine.
+  const holdNext = { fn: "solve", calls: 0 };
+  const heldIds = new Set();
+  function hold(o) {
+    holdNext.fn = (o && o.fn) || "solve";
+    holdNext.calls = o && o.calls >= 0 ? o.calls : 1;
+    return true;
+  }
+  function release() {
+    holdNext.calls = 0;
+    if (workerNow) workerNow.postMessage({ type: "release" });
+    return true;
+  }
+
   // restart stops the worker (the only real cancel of a running solve),
   // rejects everything waiting on it, and starts a fresh one.
   let restarts = 0;
-  function restart() {
+  function restart(reason) {
     restarts++;
     if (workerNow) workerNow.terminate();
     workerNow = null;
     worker = null;
+    heldIds.clear();
     const waiting = [...pending.values()];
     pending.clear();
-    for (const p of waiting) p.reject(Object.assign(new Error("cancelled by a newer edit"), { cancelled: true }));
+    for (const p of waiting) p.reject(Object.assign(new Error(reason), { cancelled: true }));
     worker = startWorker();
     worker.catch(() => {});
   }
@@ -104,9 +122,14 @@
     if (!worker) worker = startWorker();
     const w = await worker;
     const id = nextId++;
+    const held = holdNext.calls > 0 && holdNext.fn === fn;
+    if (held) {
+      holdNext.calls--;
+      heldIds.add(id);
+    }
     return new Promise((resolve, reject) => {
       pending.set(id, { resolve, reject });
-      w.postMessage({ type: "call", id, fn, args });
+      w.postMessage({ type: "call", id, fn, args, hold: held });
     });
   }
 
@@ -127,7 +150,7 @@
       queued = null;
       if (running && performance.now() - running.started > CANCEL_MS) {
         running = null;
-        restart();
+        restart("cancelled by a newer edit");
       }
       if (running) queued = job;
       else run(job);
@@ -164,11 +187,11 @@
   // stop cancels the solve in flight and any waiting one; the last good
   // picture stays.
   function stop() {
-    if (queued) queued.reject(Object.assign(new Error("stopped"), { cancelled: true }));
+    if (queued) queued.reject(Object.assign(new Error("stopped by the user"), { cancelled: true }));
     queued = null;
     if (!running) return;
     running = null;
-    restart();
+    restart("stopped by the user");
     clearTimeout(busyTimer);
     root.classList.remove("busy");
     $("btn-stop").hidden = true;
@@ -587,9 +610,14 @@
     last: () => lastGood, // {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
     colourMap: () => EW.colourMap(), // {mode, lo, hi, table: Uint8Array rgb}
     canvases: () => EW.canvases(), // {field, legend, profile}
-    // the solve in flight: how long it has run (ms, or null) and how many
-    // times a stale solve was cancelled by restarting the worker
-    engineState: () => ({ running: running ? performance.now() - running.started : null, restarts }),
+    // the solve in flight: how long it has run (ms, or null), how many
+    // times a stale solve was cancelled by restarting the worker, and how
+    // many calls the worker holds (see hold)
+    engineState: () => ({ running: running ? performance.now() - running.started : null, restarts, held: heldIds.size }),
+    // test hooks: hold({fn = "solve", calls = 1}) makes the next calls of
+    // fn wait in the worker until release()
+    hold,
+    release,
     // tune changes when the page shows that it works and when a stale
     // solve is cancelled (tests use short times so that they do not depend
     // on how fast the engine is)
