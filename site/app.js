@@ -464,7 +464,8 @@
       return tr;
     };
     const infinite = [];
-    const flowNotes = new Set();
+    const warnings = warningsOf(r);
+    const causes = new Set(); // codes of the jumps that make a flow infinite
     let largest = Math.abs(r.source_total || 0);
     for (const side of ["top", "bottom", "left", "right"]) {
       const e = r.edges[side];
@@ -475,15 +476,18 @@
       }
       infinite.push(side);
       const tr = add(EW.capital(side), "∞ infinite", "inf");
-      // the engine's reason for this edge, e.g. "the value jumps from 90
-      // to 40 at the bottom-left corner"
-      const head = "flow through the " + side + " edge is infinite: ";
-      for (const w of r.warnings || []) {
-        if (!w.startsWith(head)) continue;
-        flowNotes.add(w);
+      // the engine's reason for this edge: a warning with a jump's code
+      // that names this edge
+      const seen = new Set();
+      for (const w of warnings) {
+        const why = JUMP_REASONS[w.code];
+        if (!why || !w.edges.includes(side) || seen.has(w.code)) continue;
+        seen.add(w.code);
+        causes.add(w.code);
         const note = document.createElement("span");
         note.className = "reason";
-        note.textContent = w.slice(head.length);
+        note.dataset.code = w.code;
+        note.textContent = why;
         tr.lastChild.append(note);
       }
     }
@@ -504,12 +508,10 @@
     if (infinite.length) {
       const why = document.createElement("p");
       why.className = "why";
-      why.textContent = "Why infinite: where the prescribed " + (u.value || "value") + " jumps at a corner, the gradient grows like 1/r " +
-        "towards it and the flow through the edges meeting there has no finite total. Real parts have a small gap or a rounded " +
-        "transition; formulas that meet at the corner give finite flows. Values away from the corner are not affected.";
+      why.textContent = whyInfinite(causes, u.value || "value");
       box.append(why);
     }
-    const others = (r.warnings || []).filter((w) => !flowNotes.has(w));
+    const others = warnings;
 
     // accuracy
     const ha = document.createElement("h3");
@@ -535,12 +537,46 @@
       box.append(hw);
       for (const w of others) {
         const li = document.createElement("li");
-        li.textContent = w;
+        li.textContent = w.text;
+        if (w.code) li.dataset.code = w.code;
         ul.append(li);
       }
       box.append(ul);
     }
 
+  }
+
+  // warningsOf reads the engine's warnings as {code, edges, text}. The page
+  // branches on code and edges only, never on the wording. A plain string
+  // (an engine from before structured warnings) is kept as text with no
+  // code.
+  function warningsOf(r) {
+    return (Array.isArray(r.warnings) ? r.warnings : []).map((w) =>
+      typeof w === "string"
+        ? { code: "", edges: [], text: w }
+        : {
+          code: typeof w.code === "string" ? w.code : "",
+          edges: Array.isArray(w.edges) ? w.edges.map(String) : [],
+          text: String(w.text || w.code || ""),
+        });
+  }
+
+  // the reason shown beside an infinite edge flow, by warning code
+  const JUMP_REASONS = {
+    "corner-jump": "the prescribed value jumps at a corner",
+    "step-jump": "the prescribed value jumps inside this edge",
+  };
+
+  // whyInfinite explains infinite flows for the causes found (warning codes).
+  function whyInfinite(causes, value) {
+    const where = [];
+    if (causes.has("corner-jump")) where.push("at a corner");
+    if (causes.has("step-jump")) where.push("inside an edge");
+    const at = where.length ? where.join(" or ") : "at a corner or inside an edge";
+    return "Why infinite: where the prescribed " + value + " jumps " + at + ", the gradient grows like 1/r " +
+      "towards the jump and the flow through the edges that carry it has no finite total. Real parts have a small gap or a " +
+      "rounded transition; formulas that meet at the corners, and steps given a width (rise(s, where, width)), give finite " +
+      "flows. Values away from the jump are not affected.";
   }
 
   function renderCautions(r) {

@@ -577,7 +577,7 @@
       el("h2", { text: "Results" }), table(rep.extremes), table(rep.flows), table(rep.probes), table(rep.accuracy),
       el("h2", { text: "Cautions" }), list("ul", rep.cautions, "No cautions for this project."),
       rep.warnings && rep.warnings.length ? el("h2", { text: "Notes from the engine" }) : null,
-      rep.warnings && rep.warnings.length ? list("ul", rep.warnings, "") : null,
+      rep.warnings && rep.warnings.length ? list("ul", rep.warnings.map((w) => (typeof w === "string" ? w : String((w && w.text) || ""))), "") : null,
       el("h2", { text: "Methods used" }), list("ol", rep.methods, ""),
       el("h2", { text: "Reproduce" }),
       el("p", {}, "This link holds the whole project; opening it in a browser shows the same project: ",
