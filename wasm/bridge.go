@@ -31,8 +31,8 @@ func solveCall(args []safejs.Value) any {
 	if len(args) >= 3 {
 		nx, err1 := args[1].Int()
 		ny, err2 := args[2].Int()
-		if err1 == nil && err2 == nil && nx > 0 && ny > 0 {
-			opt.Nx, opt.Ny = nx, ny
+		if err1 == nil && err2 == nil && nx > 0 && ny >= 0 {
+			opt.Nx, opt.Ny = nx, ny // ny 0: nx along the longer side, the other in proportion
 		}
 	}
 	levels := defaultLevels
@@ -49,6 +49,9 @@ func solveText(text string, opt solver.Options, levels int) any {
 	p, err := solver.Decode([]byte(text))
 	if err != nil {
 		return failure(err)
+	}
+	if opt.Nx > 0 && opt.Ny == 0 {
+		opt.Nx, opt.Ny = solver.Proportional(p.Width, p.Height, opt.Nx)
 	}
 	out, err := engine.Solve(p, opt)
 	if err != nil {
