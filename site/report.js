@@ -121,9 +121,11 @@
     if (img) img.setAttribute("src", "data:image/svg+xml;base64," + share.toBase64(new TextEncoder().encode(reportData.svg)));
     const title = el("title", { text: reportData.rep.title });
     const style = el("style", { text: REPORT_CSS });
+    // the report's own policy comes from the engine (solver/csp): no script, its style and picture only
+    if (typeof reportData.rep.csp !== "string" || !reportData.rep.csp) throw new Error("the engine gave no policy for the report");
+    const meta = el("meta", { "http-equiv": "Content-Security-Policy", content: reportData.rep.csp });
     const html = "<!doctype html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">" +
-      "<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; img-src data:; style-src 'unsafe-inline'\">" +
-      title.outerHTML + style.outerHTML + "</head><body>" + clone.outerHTML + "</body></html>\n";
+      meta.outerHTML + title.outerHTML + style.outerHTML + "</head><body>" + clone.outerHTML + "</body></html>\n";
     save(slug(reportData.rep.title) + "-report.html", "text/html", html);
   }
 

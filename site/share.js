@@ -4,7 +4,8 @@
 //   #z=<base64url of deflate-raw(project JSON)>   the share link
 //   #j=<base64url of the project JSON>            the same, uncompressed
 //   #p=<percent-encoded project JSON>             the page's first form
-//   &embed                                        embed mode (also alone: #embed)
+//   &embed                                        embed mode (also alone: #embed; the
+//                                                 snippet asks for it as page?embed#z=...)
 //
 // A link's project goes through the same strict check as a project file
 // (EW.solving.check); a link that inflates past the size limit is refused
@@ -123,7 +124,9 @@
     return EW.solving.check(text);
   }
 
-  const pageURL = () => location.href.split("#")[0];
+  // pageURL is the page's address without query or fragment (a link made
+  // in the embed view is a plain link)
+  const pageURL = () => location.href.split(/[?#]/)[0];
 
   function clearFragment() {
     try {
@@ -162,8 +165,11 @@
     return link();
   };
 
+  // The embed view is asked for in the query (page?embed#z=...), which the
+  // server sees and answers with a policy that lets a wiki page frame it
+  // (solver/csp); the older #...&embed form still shows it.
   const first = readFragment(location.hash);
-  const embed = first.embed;
+  const embed = first.embed || new URLSearchParams(location.search).has("embed");
   if (embed) document.documentElement.classList.add("ew-embed");
 
   // ---- a pasted link in the same tab ----
@@ -204,7 +210,8 @@
   function showLink() {
     const l = link();
     linkBox.value = l;
-    const src = l.includes("#") ? l + "&embed" : l + "#embed";
+    const i = l.indexOf("#");
+    const src = i < 0 ? l + "?embed" : l.slice(0, i) + "?embed" + l.slice(i);
     const t = (api.project() || {}).title || "edgewise field";
     embedBox.value = el("iframe", { src, width: "760", height: "460", title: t, loading: "lazy" }).outerHTML;
   }

@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"edgewise/solver"
+	"edgewise/solver/csp"
 	"edgewise/solver/jsonlite"
 )
 
@@ -244,6 +245,10 @@ func TestReportJSON(t *testing.T) {
 	}
 	if len(m["methods"].([]any)) != len(rep.Methods) {
 		t.Errorf("methods %v", m["methods"])
+	}
+	// the downloaded report's policy comes from the one source
+	if m["csp"] != csp.Report() {
+		t.Errorf("csp %v, want csp.Report()", m["csp"])
 	}
 }
 
