@@ -14,7 +14,16 @@
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
   const { save } = EW.dom;
-  const { tell } = EW.notice;
+  const notice = EW.notice;
+  let bootSaid = null; // what the start had to say, repeated in the status line
+
+  // tell speaks in the notice line; at the start it is also remembered for
+  // the status line beside the picture, which the first solve overwrites.
+  function tell(text, kind, ...actions) {
+    notice.tell(text, kind, ...actions);
+    if (booting && kind !== "info") bootSaid = text;
+  }
+  let booting = false;
   const share = EW.share;
   const api = window.edgewise;
   const KEY = "edgewise.autosave.1";
@@ -155,6 +164,16 @@
   }
 
   EW.boot = async function (demo) {
+    booting = true;
+    try {
+      await start(demo);
+    } finally {
+      booting = false;
+      if (bootSaid) EW.solving.setStatus(bootSaid + " (See the note under Share.)", "error");
+    }
+  };
+
+  async function start(demo) {
     const s = embed ? null : stored();
     if (s && s.record) record = s.record;
     const fallback = s && s.record ? "Showing your last project instead." : "Showing the demo instead.";
@@ -182,7 +201,7 @@
       unreadable(why, s.text, "showing the demo.");
     }
     await api.load(await demo());
-  };
+  }
 
   EW.autosave = { key: KEY, unreadableKey: KEY_UNREADABLE, unsolvedKey: KEY_UNSOLVED };
 })();

@@ -717,6 +717,13 @@ func structuredWarnings(t *testing.T, tb *tab) {
 	    return v;
 	  };
 	})()`
+	tb.beforeScripts(t, js)
+}
+
+// beforeScripts runs js in every page the tab opens, before the page's
+// own scripts.
+func (tb *tab) beforeScripts(t *testing.T, js string) {
+	t.Helper()
 	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
 		_, err := cdp.Call(ctx, tg, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{Source: js})
 		return err

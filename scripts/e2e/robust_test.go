@@ -3,14 +3,11 @@ package e2e
 import (
 	"bytes"
 	"compress/flate"
-	"context"
 	"encoding/base64"
 	"reflect"
 	"strings"
 	"testing"
 
-	"github.com/chromedp/cdproto/cdp"
-	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/chromedp"
 )
 
@@ -235,12 +232,7 @@ func TestHugeLinkRefused(t *testing.T) {
 	    }
 	  };
 	})()`
-	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
-		_, err := cdp.Call(ctx, tg, page.AddScriptToEvaluateOnNewDocument, page.AddScriptToEvaluateOnNewDocumentParams{Source: count})
-		return err
-	})); err != nil {
-		t.Fatal(err)
-	}
+	tb.beforeScripts(t, count)
 	tb.open(t, siteURL+frag)
 	if msg := tb.notice(t); !strings.Contains(msg, "larger than") {
 		t.Errorf("notice %q, want the link refused as too large", msg)
