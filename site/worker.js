@@ -3,7 +3,10 @@
 //
 // Messages in:
 //   {type: "init", wasm: ArrayBuffer | null}   (null: fetch app.wasm next to this file)
-//   {type: "call", id, fn, args}               runs the engine function edgewise_<fn>(...args)
+//   {type: "call", id, fn, args, hold}         runs the engine function edgewise_<fn>(...args);
+//                                              with hold set, not before a "release" (a test hook
+//                                              that makes "a solve in flight" last as long as a test needs)
+//   {type: "release"}                          lets every held call run
 // Messages out:
 //   {type: "ready"} | {type: "fatal", error}
 //   {type: "reply", id, value, ms}             value as the engine returned it
@@ -16,6 +19,7 @@ if (typeof Go === "undefined") {
 }
 
 let ready = null;
+let held = []; // resolvers of the calls waiting for a release
 
 async function start(bytes) {
   const go = new Go();
@@ -60,7 +64,14 @@ self.onmessage = async (ev) => {
     }
     return;
   }
+  if (msg.type === "release") {
+    const list = held;
+    held = [];
+    for (const go of list) go();
+    return;
+  }
   if (msg.type === "call") {
+    if (msg.hold) await new Promise((go) => held.push(go));
     try {
       await ready;
     } catch (e) {

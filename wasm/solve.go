@@ -7,6 +7,7 @@ import (
 	"fmt"
 
 	"edgewise/solver"
+	"edgewise/solver/problem"
 	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
@@ -28,8 +29,8 @@ func solveCall(args []safejs.Value) (map[string]any, error) {
 	if len(args) >= 3 {
 		nx, err1 := args[1].Int()
 		ny, err2 := args[2].Int()
-		if err1 == nil && err2 == nil && nx > 0 && ny > 0 {
-			opt.Nx, opt.Ny = nx, ny
+		if err1 == nil && err2 == nil && nx > 0 && ny >= 0 {
+			opt.Nx, opt.Ny = nx, ny // ny 0: nx along the longer side, the other in proportion
 		}
 	}
 	levels := defaultLevels
@@ -46,6 +47,9 @@ func solveText(text string, opt solver.Options, levels int) (map[string]any, err
 	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, err
+	}
+	if opt.Nx > 0 && opt.Ny == 0 {
+		opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, opt.Nx)
 	}
 	out, err := engine.Solve(p, opt)
 	if err != nil {

@@ -21,9 +21,9 @@
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks",
 //     the physics table (physics.json) in one with id="ew-physics";
-//   - the Content-Security-Policy meta tag is replaced by one that allows
-//     exactly the inline scripts and styles by their SHA-256 hashes, the
-//     worker from blob:, WebAssembly, and nothing from any address.
+//   - the Content-Security-Policy meta tag is replaced by csp.Offline: the
+//     inline scripts and styles by their SHA-256 hashes, the worker from
+//     blob:, WebAssembly, and nothing from any address.
 //
 // index.html must write its stylesheet links and script tags in exactly the
 // forms above (one per line is fine); the bundler fails loudly otherwise.
@@ -40,6 +40,8 @@ import (
 	"path/filepath"
 	"regexp"
 	"strings"
+
+	"edgewise/solver/csp"
 )
 
 func main() {
@@ -164,10 +166,7 @@ func Bundle(dir string) ([]byte, error) {
 	}
 	html = html[:j] + extra.String() + html[j:]
 
-	csp := "default-src 'none'; script-src " + strings.Join(scriptHashes, " ") + " 'wasm-unsafe-eval'; " +
-		"worker-src blob:; style-src " + strings.Join(styleHashes, " ") + "; img-src data: blob:; " +
-		"connect-src blob: data:; object-src 'none'; base-uri 'none'; form-action 'none'"
-	html = cspRE.ReplaceAllLiteralString(html, `<meta http-equiv="Content-Security-Policy" content="`+csp+`">`)
+	html = cspRE.ReplaceAllLiteralString(html, csp.Meta(csp.Offline(scriptHashes, styleHashes)))
 	return []byte(html), nil
 }
 

@@ -1,12 +1,14 @@
 // Command serve is the development server for the edgewise page: a small
 // static file server for one folder (site/ by default) that sends the right
 // content type for WebAssembly, forbids caching (so a rebuilt app.wasm is
-// always picked up) and adds the same Content-Security-Policy that the page
-// carries in its own meta tag.
+// always picked up) and sends the page's Content-Security-Policy
+// (edgewise/solver/csp) as a header, which alone can say who may frame the
+// page: nobody, except for the embed view (page?embed#...), which any page
+// may frame unless -embed-from names the hosts that may.
 //
 // Usage:
 //
-//	go run ./scripts/serve [-addr 127.0.0.1:8080] [-dir site]
+//	go run ./scripts/serve [-addr 127.0.0.1:8080] [-dir site] [-embed-from "https://wiki.example.org"]
 //
 // It listens on localhost unless told otherwise and prints the URL to open.
 package main
@@ -21,11 +23,14 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+
+	"edgewise/solver/csp"
 )
 
 func main() {
 	addr := flag.String("addr", "127.0.0.1:8080", "listen address (host:port; port 0 picks a free one)")
 	dir := flag.String("dir", "site", "folder to serve")
+	embedFrom := flag.String("embed-from", "", "who may frame the embed view, as CSP frame-ancestors sources (empty: any page)")
 	flag.Parse()
 
 	if fi, err := os.Stat(filepath.Join(*dir, "index.html")); err != nil || fi.IsDir() {
@@ -41,11 +46,12 @@ func main() {
 		os.Exit(1)
 	}
 	fmt.Printf("edgewise: serving %s at http://%s/\n", *dir, displayAddr(ln.Addr().String()))
-	log.Fatal(http.Serve(ln, Handler(*dir)))
+	log.Fatal(http.Serve(ln, Handler(*dir, *embedFrom)))
 }
 
-// Handler serves the files of dir with the headers the page needs.
-func Handler(dir string) http.Handler {
+// Handler serves the files of dir with the headers the page needs;
+// embedFrom is who may frame the embed view (see csp.Header).
+func Handler(dir, embedFrom string) http.Handler {
 	_ = mime.AddExtensionType(".wasm", "application/wasm")
 	_ = mime.AddExtensionType(".mjs", "text/javascript")
 	files := http.FileServer(http.Dir(dir))
@@ -57,16 +63,10 @@ func Handler(dir string) http.Handler {
 		h := w.Header()
 		h.Set("Cache-Control", "no-store")
 		h.Set("X-Content-Type-Options", "nosniff")
-		h.Set("Content-Security-Policy", CSP)
+		h.Set("Content-Security-Policy", csp.Header(r.URL.Query().Has(csp.EmbedQuery), embedFrom))
 		files.ServeHTTP(w, r)
 	})
 }
-
-// CSP is the policy the served page runs under: nothing from outside its
-// own origin, no inline script, WebAssembly allowed.
-const CSP = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; worker-src 'self' blob:; " +
-	"style-src 'self'; img-src 'self' data: blob:; connect-src 'self'; object-src 'none'; " +
-	"base-uri 'none'; form-action 'none'; frame-ancestors *"
 
 func displayAddr(a string) string {
 	host, port, err := net.SplitHostPort(a)

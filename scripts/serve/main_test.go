@@ -16,7 +16,7 @@ func TestHandler(t *testing.T) {
 			t.Fatal(err)
 		}
 	}
-	srv := httptest.NewServer(Handler(dir))
+	srv := httptest.NewServer(Handler(dir, ""))
 	defer srv.Close()
 	get := func(path string) *http.Response {
 		t.Helper()
@@ -37,6 +37,13 @@ func TestHandler(t *testing.T) {
 		r.Header.Get("Cache-Control") != "no-store" {
 		t.Errorf("index: status %d, headers %v", r.StatusCode, r.Header)
 	}
+	// only the embed view may be framed (issue: frame-ancestors * for every view)
+	if p := r.Header.Get("Content-Security-Policy"); !strings.HasSuffix(p, "; frame-ancestors 'none'") {
+		t.Errorf("the page's policy %q lets other pages frame it", p)
+	}
+	if p := get("/?embed").Header.Get("Content-Security-Policy"); !strings.HasSuffix(p, "; frame-ancestors *") {
+		t.Errorf("the embed view's policy %q does not let a wiki page frame it", p)
+	}
 	if r := get("/x.go"); r.StatusCode != 404 {
 		t.Errorf("a Go source file was served (status %d)", r.StatusCode)
 	}
@@ -47,5 +54,23 @@ func TestDisplayAddr(t *testing.T) {
 		if got := displayAddr(in); got != want {
 			t.Errorf("displayAddr(%q) = %q, want %q", in, got, want)
 		}
+	}
+}
+
+// A host that names who may embed narrows framing to them.
+func TestEmbedFrom(t *testing.T) {
+	dir := t.TempDir()
+	if err := os.WriteFile(filepath.Join(dir, "index.html"), []byte("<!doctype html>"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	srv := httptest.NewServer(Handler(dir, "https://wiki.example.org"))
+	defer srv.Close()
+	resp, err := http.Get(srv.URL + "/?embed")
+	if err != nil {
+		t.Fatal(err)
+	}
+	resp.Body.Close()
+	if p := resp.Header.Get("Content-Security-Policy"); !strings.HasSuffix(p, "; frame-ancestors https://wiki.example.org") {
+		t.Errorf("embed view policy %q, want framing by the wiki only", p)
 	}
 }

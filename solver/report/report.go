@@ -4,6 +4,7 @@ import (
 	"strconv"
 
 	"edgewise/solver"
+	"edgewise/solver/csp"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
@@ -51,7 +52,8 @@ func Version() string {
 // JSON returns the report as a JSON object with the keys title, date,
 // version, physics, inputs, edges, extremes, flows, probes, accuracy (each
 // a table {caption, head: [..], rows: [[..], ..]}), cautions, warnings and
-// methods (lists of text).
+// methods (lists of text), and csp, the Content-Security-Policy the page
+// gives the report when it is downloaded as HTML.
 func (r *Report) JSON() []byte {
 	var w jsonlite.Writer
 	strs := func(list []string) {
@@ -81,6 +83,7 @@ func (r *Report) JSON() []byte {
 	strs(r.Warnings)
 	w.Key("methods")
 	strs(r.Methods)
+	w.Key("csp").Str(csp.Report())
 	w.Close('}')
 	return w.Bytes()
 }

@@ -13,6 +13,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/contour"
 	"edgewise/solver/fdcheck"
+	"edgewise/solver/csp"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
@@ -282,6 +283,10 @@ func TestReportJSON(t *testing.T) {
 	}
 	if len(m["methods"].([]any)) != len(rep.Methods) {
 		t.Errorf("methods %v", m["methods"])
+	}
+	// the downloaded report's policy comes from the one source
+	if m["csp"] != csp.Report() {
+		t.Errorf("csp %v, want csp.Report()", m["csp"])
 	}
 }
 

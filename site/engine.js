@@ -1,0 +1,134 @@
+// edgewise page: the engine in its Web Worker. One entry point,
+//
+//   EW.engine.call(fn, ...args) -> Promise<{value, ms}>
+//
+// runs the Go function edgewise_<fn> in the worker. restart(reason) stops
+// the worker (the only real cancel of a running solve) and starts a fresh
+// one. Every call settles: with the engine's reply, or rejected with
+// {message, cancelled: true} when the worker it waits on (running or still
+// starting) is restarted, or with the reason the engine failed to start.
+//
+// Test hook: hold({fn, calls}) makes the next calls of fn wait in the
+// worker, unanswered, until release() (see worker.js), so that a test can
+// have "a solve in flight" however fast the engine is.
+"use strict";
+(function () {
+  const EW = (window.edgewiseParts = window.edgewiseParts || {});
+
+  let starting = null; // Promise<Worker> of the current worker
+  let current = null; // the current Worker, for terminate and release
+  let wasmBytes = null; // the single file's engine, decoded once
+  let nextId = 1;
+  let restarts = 0;
+  const pending = new Map(); // id -> {resolve, reject}
+  const holdNext = { fn: "solve", calls: 0 };
+  const heldIds = new Set();
+
+  // the single file keeps the worker's source and the engine inside the page
+  const bundled = () => document.getElementById("ew-wasm") !== null;
+
+  async function engineBytes() {
+    // decoded by the decoder the bundler puts beside it (scripts/bundle)
+    if (!wasmBytes) wasmBytes = await window.edgewiseEngineBytes();
+    return wasmBytes.slice(0);
+  }
+
+  // start makes a worker current and resolves with it once its engine is
+  // ready.
+  function start() {
+    let w;
+    const ready = new Promise((resolve, reject) => {
+      (async () => {
+        let bytes = null;
+        if (bundled()) {
+          const src = document.getElementById("ew-worker").textContent;
+          w = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
+          current = w;
+          bytes = await engineBytes();
+        } else {
+          w = new Worker("worker.js");
+          current = w;
+        }
+        w.onmessage = (ev) => {
+          const m = ev.data;
+          if (m.type === "ready") resolve(w);
+          else if (m.type === "fatal") reject(new Error("the engine failed to start: " + m.error));
+          else if (m.type === "reply") settle(m);
+        };
+        w.onerror = (e) => {
+          const err = new Error("the engine stopped: " + ((e && e.message) || "unknown error"));
+          reject(err);
+          if (w === current) failAll(err); // a crash after the start: nothing will answer
+        };
+        if (w === current) w.postMessage({ type: "init", wasm: bytes }, bytes ? [bytes] : []);
+      })().catch((e) => reject(new Error("the engine failed to start: " + ((e && e.message) || e))));
+    });
+    ready.catch(() => {
+      if (starting === ready) starting = null; // the next call tries again
+    });
+    starting = ready;
+    return ready;
+  }
+
+  function settle(m) {
+    heldIds.delete(m.id);
+    const p = pending.get(m.id);
+    if (!p) return;
+    pending.delete(m.id);
+    p.resolve(m);
+  }
+
+  // failAll rejects every call waiting on the current worker and forgets
+  // that worker.
+  function failAll(err) {
+    if (current) current.terminate();
+    current = null;
+    starting = null;
+    heldIds.clear();
+    const waiting = [...pending.values()];
+    pending.clear();
+    for (const p of waiting) p.reject(err);
+  }
+
+  function call(fn, ...args) {
+    const id = nextId++;
+    return new Promise((resolve, reject) => {
+      pending.set(id, { resolve, reject });
+      (starting || start()).then((w) => {
+        if (!pending.has(id)) return; // settled meanwhile: the worker was restarted
+        const hold = holdNext.calls > 0 && holdNext.fn === fn;
+        if (hold) {
+          holdNext.calls--;
+          heldIds.add(id);
+        }
+        w.postMessage({ type: "call", id, fn, args, hold });
+      }, (e) => {
+        if (pending.delete(id)) reject(e);
+      });
+    });
+  }
+
+  // restart stops the worker, rejects every call waiting on it (running or
+  // still starting) with reason, and starts a fresh one.
+  function restart(reason) {
+    restarts++;
+    failAll(Object.assign(new Error(reason), { cancelled: true }));
+    start().catch(() => {});
+  }
+
+  EW.engine = {
+    call,
+    restart,
+    state: () => ({ restarts, held: heldIds.size }),
+    hold(o) {
+      holdNext.fn = (o && o.fn) || "solve";
+      holdNext.calls = o && o.calls >= 0 ? o.calls : 1;
+      return true;
+    },
+    release() {
+      holdNext.calls = 0;
+      if (current) current.postMessage({ type: "release" });
+      return true;
+    },
+  };
+})();

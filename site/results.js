@@ -1,0 +1,138 @@
+// edgewise page: the numbers of a solve. On every solve in the store it
+// draws the picture (field.js) and writes the results panel (extremes,
+// flows through the edges with the balance, accuracy, the engine's notes)
+// and the cautions. Entry point: the store's "solved" notification.
+//
+// The engine's warnings are {code, edges, text} (codes in
+// solver/problem/warning.go). The page branches on code and edges only,
+// never on the wording; it shows text. A plain string (an engine from
+// before structured warnings) is shown as text with no code.
+"use strict";
+(function () {
+  const EW = (window.edgewiseParts = window.edgewiseParts || {});
+  const { byId, el, kvRow } = EW.dom;
+
+  // the reason shown beside an infinite edge flow, by warning code
+  const JUMP_REASONS = {
+    "corner-jump": "the prescribed value jumps at a corner",
+    "step-jump": "the prescribed value jumps inside this edge",
+  };
+
+  function warningsOf(r) {
+    return (Array.isArray(r.warnings) ? r.warnings : []).map((w) =>
+      typeof w === "string"
+        ? { code: "", edges: [], text: w }
+        : {
+          code: w && typeof w.code === "string" ? w.code : "",
+          edges: w && Array.isArray(w.edges) ? w.edges.map(String) : [],
+          text: String((w && (w.text || w.code)) || ""),
+        });
+  }
+
+  // whyInfinite explains infinite flows for the causes found (warning codes).
+  function whyInfinite(causes, value) {
+    const where = [];
+    if (causes.has("corner-jump")) where.push("at a corner");
+    if (causes.has("step-jump")) where.push("inside an edge");
+    const at = where.length ? where.join(" or ") : "at a corner or inside an edge";
+    return "Why infinite: where the prescribed " + value + " jumps " + at + ", the gradient grows like 1/r " +
+      "towards the jump and the flow through the edges that carry it has no finite total. Real parts have a small gap or a " +
+      "rounded transition; formulas that meet at the corners, and steps given a width (rise(s, where, width)), give finite " +
+      "flows. Values away from the jump are not affected.";
+  }
+
+  function flowsTable(S, warnings, box) {
+    const r = S.result, u = S.units || {};
+    const fu = u.flow_unit || "";
+    const t = el("table", { class: "flows", id: "res-flows" });
+    const add = (name, text, cls) => {
+      const tr = el("tr", {}, el("th", { scope: "row", text: name }), el("td", { class: "num" + (cls ? " " + cls : ""), text }));
+      t.append(tr);
+      return tr;
+    };
+    const infinite = [];
+    const causes = new Set(); // codes of the jumps that make a flow infinite
+    let largest = Math.abs(r.source_total || 0);
+    for (const side of ["top", "bottom", "left", "right"]) {
+      const e = r.edges[side];
+      if (e.finite && e.flow !== null) {
+        largest = Math.max(largest, Math.abs(e.flow));
+        add(EW.capital(side), EW.num(e.flow, 5));
+        continue;
+      }
+      infinite.push(side);
+      const tr = add(EW.capital(side), "∞ infinite", "inf");
+      // the engine's reason: a warning with a jump's code naming this edge
+      const seen = new Set();
+      for (const w of warnings) {
+        const why = JUMP_REASONS[w.code];
+        if (!why || !w.edges.includes(side) || seen.has(w.code)) continue;
+        seen.add(w.code);
+        causes.add(w.code);
+        tr.lastChild.append(el("span", { class: "reason", "data-code": w.code, text: why }));
+      }
+    }
+    if (r.source_total) add("Source", EW.num(r.source_total, 5));
+    let balanceText;
+    if (r.balance === null || infinite.length) {
+      balanceText = "not defined (an edge flow is infinite)";
+    } else {
+      // against the largest flow or, when every flow is near zero (which
+      // would give a meaningless 100 %), the flow a unit-aspect block with
+      // the field's range across it would carry
+      const kdu = Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value);
+      const scale = largest > 1e-6 * kdu ? largest : kdu;
+      balanceText = EW.num(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
+    }
+    add("Balance", balanceText, "balance").id = "res-balance";
+    box.append(el("h3", { text: "Flow through the edges" + (fu ? " [" + fu + "]" : "") }),
+      el("p", { class: "hint", text: "Positive into the rectangle, per metre of depth." }), t);
+    if (infinite.length) box.append(el("p", { class: "why", text: whyInfinite(causes, u.value || "value") }));
+  }
+
+  function render(S) {
+    const r = S.result, u = S.units || {};
+    const box = byId("results");
+    box.replaceChildren();
+    const vu = u.value_unit || "", L = u.length_unit || "m";
+    const at = (e) => "at x = " + EW.num(e.x, 4) + ", y = " + EW.num(e.y, 4) + " " + L;
+    const dl = el("dl", { class: "kv" });
+    kvRow(dl, "Highest " + (u.value || "value"), EW.withUnit(EW.num(r.max.value, 5), vu), at(r.max)).id = "res-max";
+    kvRow(dl, "Lowest " + (u.value || "value"), EW.withUnit(EW.num(r.min.value, 5), vu), at(r.min)).id = "res-min";
+    kvRow(dl, "Mean " + (u.value || "value"), EW.withUnit(EW.num(r.mean, 5), vu), "over the rectangle").id = "res-mean";
+    box.append(dl);
+    const warnings = warningsOf(r);
+    flowsTable(S, warnings, box);
+
+    const da = el("dl", { class: "kv" });
+    box.append(el("h3", { text: "Accuracy" }), da);
+    const acc = r.accuracy || {};
+    kvRow(da, "Series terms", String(acc.terms));
+    kvRow(da, "Error estimate", EW.withUnit(EW.num(acc.estimate, 2), vu), "largest, away from singular corners");
+    if (acc.crosscheck !== null && acc.crosscheck !== undefined) {
+      kvRow(da, "Cross-check", EW.withUnit(EW.num(acc.crosscheck, 2), vu), "largest difference from finite differences" + (acc.crosscheck_grid ? " (" + acc.crosscheck_grid + ")" : ""));
+    } else {
+      kvRow(da, "Cross-check", "skipped", acc.crosscheck_skipped || "");
+    }
+    kvRow(da, "Output grid", r.grid.nx + " × " + r.grid.ny + " intervals");
+    if (warnings.length) {
+      const ul = el("ul", { class: "warnings" });
+      for (const w of warnings) ul.append(el("li", { "data-code": w.code || null, text: w.text }));
+      box.append(el("h3", { text: "Notes from the engine" }), ul);
+    }
+  }
+
+  function renderCautions(r) {
+    const ul = byId("cautions");
+    ul.replaceChildren();
+    const list = r.cautions || [];
+    list.forEach((c, i) => ul.append(el("li", { class: i === list.length - 1 ? "deferral" : null, text: c })));
+  }
+
+  EW.store.on("solved", () => {
+    const S = EW.store.last();
+    EW.show(S);
+    render(S);
+    renderCautions(S.result);
+  });
+})();

@@ -1,0 +1,299 @@
+// edgewise page: the flow of a solve. Sends the project to the engine on
+// every edit (debounced only while keys come very fast; the newest edit
+// wins, and a long stale solve is cancelled by restarting the worker),
+// puts what comes back into the store, and loads projects strictly.
+//
+//   EW.solving = {edited(), load(value), check(text), edit(project), stop(), tune(t), running()}
+//
+// EW.edited is the form's hook (form.js calls it on every input).
+"use strict";
+(function () {
+  const EW = (window.edgewiseParts = window.edgewiseParts || {});
+  const { byId } = EW.dom;
+  const store = EW.store;
+  const engine = EW.engine;
+  const root = document.documentElement;
+
+  const DEBOUNCE_MS = 40; // keys faster than QUIET_MS apart: wait this long for the next
+  const QUIET_MS = 60; // an edit this long after the last one solves at once
+  let BUSY_MS = 250; // show that the engine is working after this long
+  let CANCEL_MS = 600; // a stale solve running longer is cancelled
+  const LEVELS = 12; // isoline levels asked for
+  const MAX_TEXT = 1 << 20; // bytes of a project text
+  const CANCELLED_BY_EDIT = "cancelled by a newer edit";
+  const STOPPED = "stopped by the user";
+
+  function setStatus(text, kind) {
+    const s = byId("status");
+    s.textContent = text;
+    s.classList.toggle("error", kind === "error");
+  }
+
+  const cancelled = (reason) => Object.assign(new Error(reason), { cancelled: true });
+
+  // ---- the newest request wins ----
+
+  let gen = 0; // generation of the newest request
+  let running = null; // {job, started}
+  let queued = null;
+  let busyTimer = 0;
+
+  // request solves a project. It resolves with the engine's reply and
+  // whether it is still the newest request; it rejects when cancelled.
+  function request(project) {
+    const text = JSON.stringify(project);
+    return new Promise((resolve, reject) => {
+      const job = { gen: ++gen, text, project, resolve, reject };
+      if (queued) queued.reject(cancelled(CANCELLED_BY_EDIT));
+      queued = null;
+      if (running && performance.now() - running.started > CANCEL_MS) {
+        running = null;
+        engine.restart(CANCELLED_BY_EDIT);
+      }
+      if (running) queued = job;
+      else run(job);
+    });
+  }
+
+  function showBusy(on) {
+    clearTimeout(busyTimer);
+    if (on) {
+      busyTimer = setTimeout(() => {
+        root.classList.add("busy");
+        setStatus("Solving…", "busy");
+        byId("btn-stop").hidden = false;
+      }, BUSY_MS);
+      return;
+    }
+    root.classList.remove("busy");
+    byId("btn-stop").hidden = true;
+  }
+
+  function run(job) {
+    running = { job, started: performance.now() };
+    showBusy(true);
+    // the engine chooses the grid: the detail choice gives the intervals
+    // along the longer side (0: the project's grid or the engine's default)
+    const n = Number(byId("opt-detail").value) || 0;
+    engine.call("solve", job.text, n, 0, LEVELS).then(
+      (m) => job.resolve({ reply: m.value, ms: m.ms, newest: job.gen === gen }),
+      (e) => job.reject(e)
+    ).finally(() => {
+      if (running && running.job === job) running = null;
+      if (!running) showBusy(false);
+      if (!running && queued) {
+        const q = queued;
+        queued = null;
+        run(q);
+      }
+    });
+  }
+
+  // stop cancels the solve in flight and any waiting one; the last good
+  // picture stays.
+  function stop() {
+    if (queued) queued.reject(cancelled(STOPPED));
+    queued = null;
+    if (!running) return;
+    running = null;
+    engine.restart(STOPPED);
+    showBusy(false);
+    setStatus("Stopped; the picture shows the last project that solved.", "error");
+  }
+  byId("btn-stop").addEventListener("click", stop);
+  byId("opt-detail").addEventListener("change", () => {
+    const p = store.project();
+    if (p) solveEdit(p, performance.now());
+  });
+
+  function engineError(r) {
+    return Object.assign(new Error(r.error), { path: r.path || "", col: r.col || 0 });
+  }
+
+  // apply puts a successful reply into the store, which draws it.
+  function apply(project, r, ms, t0) {
+    const result = JSON.parse(r.result);
+    const k = project.conductivity;
+    markStale(false);
+    EW.clearErrors();
+    store.solved({
+      project, result, units: (EW.unitsets || {})[project.physics] || {},
+      nx: r.nx, ny: r.ny, w: r.w, h: r.h, u: r.u, ux: r.ux, uy: r.uy,
+      levels: r.levels, segs: r.segs, ends: r.ends, labels: r.labels,
+      kx: typeof k === "object" ? k.x : k, ky: typeof k === "object" ? k.y : k,
+    });
+    const total = performance.now() - t0;
+    setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms.");
+    root.dataset.solved = String(Number(root.dataset.solved || 0) + 1);
+    return result;
+  }
+
+  // markStale says whether the numbers on show belong to other inputs
+  // than those typed (a bad field, a project that does not solve).
+  function markStale(on) {
+    byId("stale").hidden = !on;
+    document.querySelector(".numbers").classList.toggle("stale", on);
+  }
+
+  // ---- edits ----
+
+  let editTimer = 0;
+  let previewTimer = 0;
+  let lastEditAt = -Infinity;
+
+  function edited() {
+    const { project, errors } = EW.read();
+    store.edited(project);
+    clearTimeout(previewTimer);
+    previewTimer = setTimeout(() => previews(project), 120);
+    clearTimeout(editTimer);
+    if (errors.length) {
+      EW.clearErrors();
+      for (const e of errors) EW.showError(e.path, 0, e.path + ": " + e.msg);
+      setStatus("Fix the marked field; the picture shows the last project that solved.", "error");
+      if (store.last()) markStale(true);
+      return;
+    }
+    // debounce only while keys come very fast (key repeat, a burst of
+    // events); otherwise solve at once. While a solve runs, request()
+    // keeps only the newest edit waiting, so slow solves coalesce edits too.
+    const t0 = performance.now();
+    const burst = t0 - lastEditAt < QUIET_MS;
+    lastEditAt = t0;
+    editTimer = setTimeout(() => solveEdit(project, t0), burst ? DEBOUNCE_MS : 0);
+  }
+  EW.edited = edited;
+
+  async function solveEdit(project, t0) {
+    let out;
+    try {
+      out = await request(project);
+    } catch (e) {
+      if (!e.cancelled) setStatus(e.message, "error");
+      return;
+    }
+    if (!out.newest) return;
+    if (!out.reply.ok) {
+      const e = engineError(out.reply);
+      EW.clearErrors();
+      const placed = EW.showError(e.path, e.col, e.message);
+      setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + e.message, "error");
+      if (store.last()) markStale(true);
+      store.failed(project, e);
+      return;
+    }
+    apply(project, out.reply, out.ms, t0);
+  }
+
+  // edit puts a project into the inputs and solves it as an edit: a
+  // project that does not solve stays in the form with its error marked.
+  function edit(project) {
+    EW.fill(project);
+    edited();
+  }
+
+  const previewed = {}; // side -> what its preview was drawn from
+
+  // previews redraws the edge previews whose edge or rectangle changed.
+  async function previews(project) {
+    const text = JSON.stringify(project);
+    for (const side of EW.SIDES) {
+      const key = JSON.stringify([project.width, project.height, (project.edges || {})[side]]);
+      if (previewed[side] === key) continue;
+      previewed[side] = key;
+      try {
+        const m = await engine.call("preview", text, side, 96);
+        const r = m.value;
+        EW.drawPreview(side, r.s, r.v, !r.ok);
+      } catch (e) {
+        delete previewed[side];
+        return; // the worker was restarted; the next edit previews again
+      }
+    }
+  }
+
+  let previewResize = 0;
+  window.addEventListener("resize", () => {
+    clearTimeout(previewResize);
+    previewResize = setTimeout(() => {
+      for (const k of Object.keys(previewed)) delete previewed[k];
+      const p = store.project();
+      if (p) previews(p);
+    }, 150);
+  });
+
+  // ---- loading ----
+
+  const notProject = (msg) => Object.assign(new Error("not a project file: " + msg), { path: "", col: 0 });
+
+  // check reads a project text as the runner, file open and share links
+  // do: JSON with one object of schema edgewise/1, then the engine's own
+  // strict decoder (duplicate keys, unknown keys, bad values refused). It
+  // returns the object or throws a one-line error.
+  async function check(text) {
+    if (typeof text !== "string") throw notProject("expected JSON text");
+    if (text.length > MAX_TEXT) throw notProject("larger than " + MAX_TEXT + " bytes; a project is a few kB");
+    let obj;
+    try {
+      obj = JSON.parse(text);
+    } catch (e) {
+      throw notProject("not JSON (" + String(e.message).split("\n")[0] + ")");
+    }
+    if (!obj || typeof obj !== "object" || Array.isArray(obj)) throw notProject("expected a JSON object");
+    if (obj.schema !== "edgewise/1") {
+      const schema = typeof obj.schema === "string" ? JSON.stringify(obj.schema.slice(0, 40)) : "missing";
+      throw Object.assign(new Error("not an edgewise project (its schema is " + schema + ", expected \"edgewise/1\")"), { path: "", col: 0 });
+    }
+    const m = await engine.call("validate", text);
+    if (!m.value || !m.value.ok) throw engineError(m.value || { error: "the engine gave no answer" });
+    return obj;
+  }
+
+  // load solves a project given as an object or as JSON text and shows it;
+  // it resolves with the result or rejects with a one-line error, the last
+  // good picture staying.
+  async function load(value) {
+    let obj;
+    try {
+      if (typeof value === "string") {
+        obj = await check(value);
+      } else {
+        if (value === null || typeof value !== "object" || Array.isArray(value)) throw notProject("expected a JSON object");
+        obj = JSON.parse(EW.jsonText(value));
+      }
+    } catch (e) {
+      if (!e.cancelled) setStatus(e.message, "error");
+      throw Object.assign(new Error(e.message), { path: e.path || "", col: e.col || 0, cancelled: e.cancelled });
+    }
+    clearTimeout(editTimer);
+    const t0 = performance.now();
+    const out = await request(obj);
+    if (!out.reply.ok) {
+      const e = engineError(out.reply);
+      if (out.newest) setStatus("Not loaded: " + e.message, "error");
+      throw e;
+    }
+    if (!out.newest) return JSON.parse(out.reply.result);
+    EW.fill(obj);
+    store.edited(obj);
+    previews(obj);
+    return apply(obj, out.reply, out.ms, t0);
+  }
+
+  EW.solving = {
+    edited,
+    load,
+    check,
+    edit,
+    stop,
+    setStatus,
+    running: () => (running ? performance.now() - running.started : null),
+    // tune changes when the page shows that it works and when a stale
+    // solve is cancelled (tests use short times)
+    tune(t) {
+      if (t.busyMs >= 0) BUSY_MS = t.busyMs;
+      if (t.cancelMs >= 0) CANCEL_MS = t.cancelMs;
+      return { busyMs: BUSY_MS, cancelMs: CANCEL_MS };
+    },
+  };
+})();
