@@ -97,9 +97,18 @@
     const vu = u.value_unit || "", L = u.length_unit || "m";
     const at = (e) => "at x = " + EW.num(e.x, 4) + ", y = " + EW.num(e.y, 4) + " " + L;
     const dl = el("dl", { class: "kv" });
-    kvRow(dl, "Highest " + (u.value || "value"), EW.withUnit(EW.num(r.max.value, 5), vu), at(r.max)).id = "res-max";
-    kvRow(dl, "Lowest " + (u.value || "value"), EW.withUnit(EW.num(r.min.value, 5), vu), at(r.min)).id = "res-min";
-    kvRow(dl, "Mean " + (u.value || "value"), EW.withUnit(EW.num(r.mean, 5), vu), "over the rectangle").id = "res-mean";
+    // A result the engine cannot stand behind (accuracy.converged false)
+    // says so first and does not headline its extremes.
+    const unreliable = (r.accuracy || {}).converged === false;
+    if (unreliable) {
+      box.append(el("p", { class: "unconverged", id: "res-unconverged", role: "alert",
+        text: "Not converged: the engine could not meet its tolerance for this project (see the notes from the engine). " +
+          "The extremes and cautions are withheld and the picture is for orientation only; do not use these numbers." }));
+    }
+    const headline = (v) => (unreliable ? "not reliable" : EW.withUnit(EW.num(v, 5), vu));
+    kvRow(dl, "Highest " + (u.value || "value"), headline(r.max.value), unreliable ? "" : at(r.max)).id = "res-max";
+    kvRow(dl, "Lowest " + (u.value || "value"), headline(r.min.value), unreliable ? "" : at(r.min)).id = "res-min";
+    kvRow(dl, "Mean " + (u.value || "value"), headline(r.mean), "over the rectangle").id = "res-mean";
     box.append(dl);
     const warnings = warningsOf(r);
     flowsTable(S, warnings, box);

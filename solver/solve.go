@@ -4,10 +4,17 @@ import (
 	"math"
 	"strings"
 
+	"edgewise/solver/physics"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
 	"edgewise/solver/series"
 )
+
+// CautionsWithheld replaces the physics' cautions of a result that did not
+// converge.
+const CautionsWithheld = "No cautions are given for this result: the engine could not meet its tolerance (see the " +
+	"warnings), so the extremes they would be computed from are not reliable. Change the data (a smoother step, " +
+	"a smaller Biot number) or check the case by another method."
 
 // Options controls a solve.
 type Options struct {
@@ -80,7 +87,13 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	settleCorners(pr, out, breaks)
 	out.Result = report(p, pr, f, out)
 	checkConverged(pr, &out.Result)
-	out.Result.Cautions = cautions(p, pr, out, &out.Result)
+	if out.Result.Accuracy.Converged {
+		out.Result.Cautions = cautions(p, pr, out, &out.Result)
+	} else {
+		// cautions computed from numbers the engine cannot stand behind
+		// would mislead either way
+		out.Result.Cautions = []string{CautionsWithheld, physics.Deferral}
+	}
 	out.Result.chooseColour()
 	if !opt.NoCrossCheck {
 		crossCheck(pr, f, &out.Result, breaks)

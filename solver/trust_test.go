@@ -8,6 +8,7 @@ import (
 	"strings"
 	"testing"
 
+	"edgewise/solver/physics"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
 )
@@ -314,5 +315,30 @@ func TestPublishedChecksConverged(t *testing.T) {
 		if !out.Result.Accuracy.Converged {
 			t.Errorf("%s: not converged: %s", c.ID, warningText(out.Result.Warnings, problem.NotConverged))
 		}
+	}
+}
+
+// A result that did not converge gives no physics cautions: they would be
+// computed from extremes the engine cannot stand behind (issue: a burn
+// caution once came from a maximum of 4.2e5 on a field bounded by 999).
+// The case is the strongly exchanging top edge of TestMaximumPrincipleCheck
+// lifted into the burn range, where a converged result would caution.
+func TestUnconvergedWithholdsCautions(t *testing.T) {
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"heat","width":0.2,"height":0.05,"conductivity":15,"source":0,
+	 "edges":{"bottom":{"kind":"value","expr":"90"},"right":{"kind":"value","expr":"90"},
+	 "top":{"kind":"convection","h":1e9,"ambient":"82"},"left":{"kind":"flux","expr":"0"}}}`, Options{NoCrossCheck: true})
+	r := out.Result
+	if r.Accuracy.Converged {
+		t.Fatalf("converged with estimate %g and extremes %g .. %g; the case was chosen because it does not", r.Accuracy.Estimate, r.Min.Value, r.Max.Value)
+	}
+	if len(r.Cautions) != 2 || r.Cautions[0] != CautionsWithheld || r.Cautions[1] != physics.Deferral {
+		t.Errorf("cautions %q, want only the withheld note and the deferral", r.Cautions)
+	}
+	// the same plate with a value top edge converges and cautions burns
+	_, out = mustSolve(t, `{"schema":"edgewise/1","physics":"heat","width":0.2,"height":0.05,"conductivity":15,"source":0,
+	 "edges":{"bottom":{"kind":"value","expr":"90"},"right":{"kind":"value","expr":"90"},
+	 "top":{"kind":"value","expr":"82"},"left":{"kind":"flux","expr":"0"}}}`, Options{NoCrossCheck: true})
+	if c := out.Result.Cautions; !out.Result.Accuracy.Converged || len(c) < 2 || c[0] == CautionsWithheld {
+		t.Errorf("converged %v, cautions %q: want the physics' own cautions", out.Result.Accuracy.Converged, c)
 	}
 }
