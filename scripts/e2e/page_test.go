@@ -513,7 +513,6 @@ func TestLineProfile(t *testing.T) {
 // and a finite case with its balance.
 func TestFlowsAndBalance(t *testing.T) {
 	tb := newTab(t)
-	structuredWarnings(t, tb)
 	tb.open(t, siteURL)
 	tb.loadPlate(t)
 	rows := func() map[string]string {

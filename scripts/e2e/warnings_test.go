@@ -10,36 +10,6 @@ import (
 	"github.com/chromedp/chromedp"
 )
 
-// structuredWarnings makes sure the page sees the engine's warnings as
-// {code, edges, text}. An engine that still sends plain strings (before
-// the structured warnings are merged) has its replies translated, in this
-// test only, by the wording it uses; the page itself never reads wording.
-// Once the engine sends objects this does nothing.
-func structuredWarnings(t *testing.T, tb *tab) {
-	t.Helper()
-	js := `(() => {
-	  const parse = JSON.parse;
-	  const side = "(bottom|top|left|right)";
-	  const corner = new RegExp("^flow through the " + side + " edge is infinite: .* at the " + side + "-" + side + " corner");
-	  const step = new RegExp("^The prescribed value on the " + side + " edge jumps");
-	  JSON.parse = function (text, ...rest) {
-	    const v = parse.call(JSON, text, ...rest);
-	    if (v && v.schema === "edgewise-result/1" && Array.isArray(v.warnings)) {
-	      v.warnings = v.warnings.map(w => {
-	        if (typeof w !== "string") return w;
-	        let m = corner.exec(w);
-	        if (m) return {code: "corner-jump", edges: [m[2], m[3]], text: w};
-	        m = step.exec(w);
-	        if (m) return {code: "step-jump", edges: [m[1]], text: w};
-	        return {code: "term-limit", edges: [], text: w};
-	      });
-	    }
-	    return v;
-	  };
-	})()`
-	tb.beforeScripts(t, js)
-}
-
 // beforeScripts runs js in every page the tab opens, before the page's
 // own scripts.
 func (tb *tab) beforeScripts(t *testing.T, js string) {
@@ -56,7 +26,6 @@ func (tb *tab) beforeScripts(t *testing.T, js string) {
 // it: a jump at a corner, or a step inside the edge.
 func TestInfiniteFlowReasons(t *testing.T) {
 	tb := newTab(t)
-	structuredWarnings(t, tb)
 	tb.open(t, siteURL)
 	n := tb.solved(t)
 	// a step of value inside the bottom edge; the sides are insulated, so

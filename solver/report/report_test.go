@@ -12,8 +12,8 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/contour"
-	"edgewise/solver/fdcheck"
 	"edgewise/solver/csp"
+	"edgewise/solver/fdcheck"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
