@@ -108,7 +108,7 @@ func (s *Study) Find(p *project.Project, sv *solver.Solver, opt solver.Options, 
 	}
 	x, fx, width, err := brent(g, a, b, fa, fb, RootTolerance*math.Abs(b-a), sk.Tolerance)
 	if j, ok := err.(*jumpError); ok {
-		return nil, &SeekError{fmt.Sprintf("%s jumps across the target %g near %s = %.17g: from %g to %g, so no value meets it within %g",
+		return nil, &SeekError{fmt.Sprintf("%s jumps across the target %g near %s = %.17g: from %g to %g, so no value meets it within %.3g",
 			sk.Output, sk.Target, sk.Name, j.at, j.f1+sk.Target, j.f2+sk.Target, sk.Tolerance)}
 	}
 	if err != nil {
