@@ -318,7 +318,7 @@ func Steps(from, to float64, n int, scale string) []float64 {
 		case i == n-1:
 			vals[i] = to
 		case scale == Log:
-			vals[i] = math.Exp(math.Log(from) + t*(math.Log(to)-math.Log(from)))
+			vals[i] = from * math.Pow(to/from, t)
 		default:
 			vals[i] = from + t*(to-from)
 		}

@@ -168,10 +168,9 @@ func (s *Study) Sweep(p *project.Project, cfg Config, emit func(Row) error) (fai
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	var idx []int
-	for i := cfg.Shard; i < s.Rows(); i += shards {
-		idx = append(idx, i)
-	}
+	// the shard's k-th row is row cfg.Shard + k*shards
+	count := (s.Rows() - cfg.Shard + shards - 1) / shards
+	row := func(k int) int { return cfg.Shard + k*shards }
 	jobs := make(chan int)
 	done := make(chan struct{})
 	results := make(chan Row, workers)
@@ -183,7 +182,7 @@ func (s *Study) Sweep(p *project.Project, cfg Config, emit func(Row) error) (fai
 			var sv solver.Solver
 			for k := range jobs {
 				select {
-				case results <- s.safeRun(p, idx[k], &sv, cfg.Options):
+				case results <- s.safeRun(p, row(k), &sv, cfg.Options):
 				case <-done:
 					return
 				}
@@ -192,7 +191,7 @@ func (s *Study) Sweep(p *project.Project, cfg Config, emit func(Row) error) (fai
 	}
 	go func() {
 		defer close(jobs)
-		for k := range idx {
+		for k := range count {
 			select {
 			case jobs <- k:
 			case <-done:
@@ -203,20 +202,20 @@ func (s *Study) Sweep(p *project.Project, cfg Config, emit func(Row) error) (fai
 	go func() { wg.Wait(); close(results) }()
 
 	pending := map[int]Row{}
-	next := 0 // index into idx of the next row to emit
+	next := 0 // the shard's next row to emit is row(next)
 	for r := range results {
 		pending[r.Index] = r
-		for next < len(idx) && err == nil {
-			row, ok := pending[idx[next]]
+		for next < count && err == nil {
+			r, ok := pending[row(next)]
 			if !ok {
 				break
 			}
-			delete(pending, idx[next])
+			delete(pending, row(next))
 			next++
-			if row.Err != nil {
+			if r.Err != nil {
 				failed++
 			}
-			if err = emit(row); err != nil {
+			if err = emit(r); err != nil {
 				close(done)
 			}
 		}

@@ -353,3 +353,27 @@ func TestDecodeErrors(t *testing.T) {
 		}
 	}
 }
+
+// FuzzDecode: no study file panics the decoder, and every error is one
+// line.
+func FuzzDecode(f *testing.F) {
+	f.Add(load(f, "sweep.json"))
+	f.Add(load(f, "seek.json"))
+	f.Add([]byte(`{"schema": "edgewise-study/1", "vary": [{"name": "h_top", "from": 1e308, "to": -1e308, "steps": 1e9}], "report": [1]}`))
+	p, err := project.Decode(load(f, "plate.json"))
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Fuzz(func(t *testing.T, data []byte) {
+		s, err := Decode(data, p)
+		if err != nil {
+			if strings.Contains(err.Error(), "\n") {
+				t.Fatalf("error of more than one line: %q", err)
+			}
+			return
+		}
+		if s.Seek == nil && (s.Rows() < 1 || s.Rows() > MaxRows) {
+			t.Fatalf("%d rows", s.Rows())
+		}
+	})
+}
