@@ -102,11 +102,20 @@ func (s *Study) Find(p *project.Project, sv *solver.Solver, opt solver.Options, 
 	if err != nil {
 		return nil, err
 	}
-	if math.Abs(fa) > sk.Tolerance && math.Abs(fb) > sk.Tolerance && (fa > 0) == (fb > 0) {
-		return nil, &SeekError{fmt.Sprintf("the bracket holds no solution: %s is %g at %s = %g and %g at %s = %g, both %s the target %g",
-			sk.Output, fa+sk.Target, sk.Name, a, fb+sk.Target, sk.Name, b, side(fa), sk.Target)}
+	var x, fx, width float64
+	if fa != 0 && fb != 0 && (fa > 0) == (fb > 0) {
+		// no sign change: an end within the tolerance is the answer
+		x, fx = a, fa
+		if math.Abs(fb) < math.Abs(fa) {
+			x, fx = b, fb
+		}
+		if math.Abs(fx) > sk.Tolerance {
+			return nil, &SeekError{fmt.Sprintf("the bracket holds no solution: %s is %g at %s = %g and %g at %s = %g, both %s the target %g",
+				sk.Output, fa+sk.Target, sk.Name, a, fb+sk.Target, sk.Name, b, side(fa), sk.Target)}
+		}
+	} else {
+		x, fx, width, err = brent(g, a, b, fa, fb, RootTolerance*math.Abs(b-a), sk.Tolerance)
 	}
-	x, fx, width, err := brent(g, a, b, fa, fb, RootTolerance*math.Abs(b-a), sk.Tolerance)
 	if j, ok := err.(*jumpError); ok {
 		return nil, &SeekError{fmt.Sprintf("%s jumps across the target %g near %s = %.17g: from %g to %g, so no value meets it within %.3g",
 			sk.Output, sk.Target, sk.Name, j.at, j.f1+sk.Target, j.f2+sk.Target, sk.Tolerance)}

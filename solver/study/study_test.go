@@ -280,6 +280,18 @@ func matches(got, want string) bool {
 	return got == want
 }
 
+// An end of the bracket within the tolerance of the target is an answer,
+// even with no sign change.
+func TestSeekAtAnEnd(t *testing.T) {
+	p, s := decodeBoth(t, load(t, "plate.json"), []byte(`{"schema": "edgewise-study/1",
+	  "seek": {"name": "h_top", "from": 5, "to": 500, "target": {"probes.T1.value": 112.6471}, "tolerance": 1e-3}}`))
+	var sv solver.Solver
+	res, err := s.Find(p, &sv, solver.Options{}, nil)
+	if err != nil || res.Value != 5 || res.Solves != 2 || math.Abs(res.Achieved-112.6471) > 1e-3 {
+		t.Errorf("seek %+v, %v; want h_top = 5 after 2 solves", res, err)
+	}
+}
+
 // Brent's method on a smooth function: the root to the bracket tolerance,
 // in few evaluations.
 func TestBrent(t *testing.T) {
