@@ -124,7 +124,7 @@ func (d *decoder) number(v any, path string) float64 {
 	}
 	f, err := n.Float64()
 	if err != nil || math.IsInf(f, 0) || math.IsNaN(f) {
-		d.fail(path, "%s is not a finite number", string(n))
+		d.fail(path, "%s is not a finite number", clip(string(n)))
 		return 0
 	}
 	return f
@@ -158,9 +158,9 @@ func (d *decoder) parameter(v any, path string) string {
 			has[i] = q.Name
 		}
 		if len(has) == 0 {
-			d.fail(path, "unknown parameter %q (the project defines no parameters)", name)
+			d.fail(path, "unknown parameter %q (the project defines no parameters)", clip(name))
 		} else {
-			d.fail(path, "unknown parameter %q (the project defines %s)", name, strings.Join(has, ", "))
+			d.fail(path, "unknown parameter %q (the project defines %s)", clip(name), strings.Join(has, ", "))
 		}
 	}
 	return name
@@ -172,7 +172,7 @@ func (d *decoder) study(v any) *Study {
 		return nil
 	}
 	if sc := d.text(m["schema"], "schema"); d.err == nil && sc != Schema {
-		d.fail("schema", "expected %q, got %q (not an edgewise study, or a newer version)", Schema, sc)
+		d.fail("schema", "expected %q, got %q (not an edgewise study, or a newer version)", Schema, clip(sc))
 	}
 	s := &Study{}
 	_, hasVary := m["vary"]
@@ -295,7 +295,7 @@ func (d *decoder) axis(v any, path string) Axis {
 	switch {
 	case d.err != nil:
 	case scale != Linear && scale != Log:
-		d.fail(path+".scale", "unknown scale %q (use linear or log)", scale)
+		d.fail(path+".scale", "unknown scale %q (use linear or log)", clip(scale))
 	case scale == Log && !(from > 0 && to > 0):
 		bad, at := from, ".from"
 		if from > 0 {
@@ -369,9 +369,9 @@ func describe(v any) string {
 	case bool:
 		return fmt.Sprint(t)
 	case jsonlite.Number:
-		return "the number " + string(t)
+		return "the number " + clip(string(t))
 	case string:
-		return fmt.Sprintf("the text %q", t)
+		return fmt.Sprintf("the text %q", clip(t))
 	case []any:
 		return "a list"
 	case map[string]any:
@@ -385,4 +385,18 @@ func join(path, key string) string {
 		return key
 	}
 	return path + "." + key
+}
+
+// clip shortens a text from the file that an error message repeats, so
+// that a message stays one readable line: "1234567890123456...(5000 bytes)".
+func clip(s string) string {
+	const keep = 32
+	if len(s) <= keep+8 {
+		return s
+	}
+	i := keep
+	for i > 0 && s[i]&0xC0 == 0x80 { // not inside a UTF-8 sequence
+		i--
+	}
+	return fmt.Sprintf("%s...(%d bytes)", s[:i], len(s))
 }
