@@ -2,6 +2,7 @@ package study
 
 import (
 	"encoding/json"
+	"errors"
 	"math"
 	"os"
 	"reflect"
@@ -390,4 +391,22 @@ func FuzzDecode(f *testing.F) {
 			t.Fatalf("%d rows", s.Rows())
 		}
 	})
+}
+
+// An error from emit (a closed pipe) stops the sweep: it returns the
+// error and emits nothing more.
+func TestSweepStopsOnEmitError(t *testing.T) {
+	p, s := decodeBoth(t, load(t, "plate.json"), load(t, "sweep.json"))
+	stop := errors.New("pipe closed")
+	n := 0
+	_, err := s.Sweep(p, Config{Workers: 3}, func(r Row) error {
+		n++
+		if r.Index == 2 {
+			return stop
+		}
+		return nil
+	})
+	if err != stop || n != 3 {
+		t.Errorf("error %v after %d rows, want %v after 3", err, n, stop)
+	}
 }
