@@ -22,7 +22,7 @@ type SeekResult struct {
 	Achieved float64 // the output at Value
 	Target   float64
 	// Tolerance is how far Achieved may be from Target (|Achieved -
-	// Target| <= Tolerance holds for every result Seek returns).
+	// Target| <= Tolerance holds for every result Find returns).
 	Tolerance float64
 	// Estimate is the solve's own error estimate at Value
 	// (accuracy.estimate of the result).
@@ -57,11 +57,13 @@ func (e *SeekError) Error() string { return "seek: " + e.Msg }
 // Find finds the value of s.Seek.Name in [From, To] at which the output
 // meets its target, by Brent's method (inverse quadratic interpolation,
 // secant steps and bisection, keeping a bracket of a sign change) on
-// g(v) = output(v) - target. It stops when |g| <= Tolerance. When g has the
-// same sign at both ends, or the bracket shrinks to rounding without
-// meeting the tolerance (the output jumps across the target), or a solve
-// fails, it returns an error and no value. progress, if not nil, is told
-// of each solve and may stop the seek by returning false.
+// g(v) = output(v) - target. It narrows the bracket to RootTolerance of
+// the interval's width and then answers only if |g| <= Tolerance there;
+// with no sign change between the ends, an end within the tolerance is the
+// answer. Otherwise (the bracket holds no solution, the output jumps across
+// the target, a solve fails) it returns an error and no value. progress,
+// if not nil, is told of each solve and may stop the seek by returning
+// false.
 func (s *Study) Find(p *project.Project, sv *solver.Solver, opt solver.Options, progress func(solves int, value, output float64) bool) (*SeekResult, error) {
 	sk := s.Seek
 	if sk == nil {
