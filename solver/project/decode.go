@@ -106,9 +106,11 @@ func decode(data []byte, override map[string]float64) (*Project, error) {
 	}
 	d := decoder{override: override}
 	p := d.project(v)
+	d.checkUsed(p)
 	if d.err != nil {
 		return nil, d.err
 	}
+	p.Texts = d.texts
 	return p, nil
 }
 
@@ -277,8 +279,6 @@ func (d *decoder) project(v any) *Project {
 			p.Grid = &GridSize{Nx: d.integer(gm["nx"], "grid.nx", 2, MaxGrid), Ny: d.integer(gm["ny"], "grid.ny", 2, MaxGrid)}
 		}
 	}
-	d.checkUsed(p)
-	p.Texts = d.texts
 	return p
 }
 

@@ -163,7 +163,7 @@ func (d *decoder) use(names []string) {
 // column; the check is then skipped, so that the first error the user sees
 // is the formula's.
 func (d *decoder) checkUsed(p *Project) {
-	if d.err != nil || len(p.Parameters) == 0 {
+	if d.err != nil || p == nil || len(p.Parameters) == 0 {
 		return
 	}
 	for _, e := range p.Edges {
