@@ -18,8 +18,9 @@
 //
 //	edges.top.ambient: col 4: unknown name "tt"
 //
-// It is meant for parameter sweeps: generate project files with any tool
-// and collect the results.
+// With -study it runs a study instead (see study.go and the README):
+//
+//	go run ./scripts/solve -study STUDY.json [-shard I/N] [-j N] PROJECT.json
 package main
 
 import (
@@ -54,8 +55,11 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	var gridText string // checked below, so that a bad value gives one line, not the usage
 	fs.StringVar(&gridText, "grid", "", "output grid: `N` intervals along the longer side")
 	csvPath := fs.String("csv", "", "write the field on the output grid as CSV to `FILE`")
+	studyPath := fs.String("study", "", "run the study in `STUDY.json` on the project and print CSV")
+	shard := fs.String("shard", "", "with -study: run only the rows whose index modulo N is I (`I/N`)")
+	jobs := fs.Int("j", 0, "with -study: solve `N` rows at once (0: one per core)")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: solve [-grid N] [-csv FILE] PROJECT.json")
+		fmt.Fprintln(stderr, "usage: solve [-grid N] [-csv FILE] PROJECT.json\n       solve -study STUDY.json [-shard I/N] [-j N] [-grid N] PROJECT.json")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
@@ -83,6 +87,9 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	opt := solver.Options{}
 	if grid > 0 {
 		opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, grid)
+	}
+	if *studyPath != "" || *shard != "" || *jobs != 0 {
+		return runStudy(*studyPath, *shard, *jobs, p, opt, stdout, stderr)
 	}
 	var s solver.Solver
 	out, err := s.Solve(p, opt)

@@ -65,10 +65,12 @@ var standardVars = []string{"x", "y", "s", "W", "H"}
 
 // parser builds the syntax tree with one token of look-ahead.
 type parser struct {
-	sc    scanner
-	tok   token
-	depth int
-	vars  []string
+	sc     scanner
+	tok    token
+	depth  int
+	vars   []string
+	consts []Const
+	named  []string // the consts referred to, in order of first use
 }
 
 func (p *parser) next() { p.tok = p.sc.next() }
@@ -209,6 +211,14 @@ func (p *parser) resolve(t token) *node {
 	if v, ok := constants[t.text]; ok {
 		return &node{kind: nNum, start: t.pos, pos: t.pos, name: t.text, val: v}
 	}
+	for _, c := range p.consts {
+		if c.Name == t.text {
+			if !slices.Contains(p.named, c.Name) {
+				p.named = append(p.named, c.Name)
+			}
+			return &node{kind: nNum, start: t.pos, pos: t.pos, name: t.text, val: c.Value}
+		}
+	}
 	if _, ok := functions[t.text]; ok {
 		failAt(t.pos, "%s is a function: write %s(...)", t.text, t.text)
 	}
@@ -232,6 +242,9 @@ func (p *parser) unknown(t token) {
 		failAt(t.pos, "unknown name %q (%s)", t.text, h)
 	}
 	known := append(append([]string{}, p.vars...), "pi", "e")
+	for _, c := range p.consts {
+		known = append(known, c.Name)
+	}
 	for name := range functions {
 		known = append(known, name)
 	}
@@ -239,7 +252,7 @@ func (p *parser) unknown(t token) {
 		failAt(t.pos, "unknown name %q (did you mean %s?)", t.text, s)
 	}
 	if slices.Contains(standardVars, t.text) {
-		failAt(t.pos, "unknown name %q (this formula may use %s)", t.text, strings.Join(append(p.vars, "pi", "e"), ", "))
+		failAt(t.pos, "unknown name %q (this formula may use %s)", t.text, strings.Join(p.offered(), ", "))
 	}
 	failAt(t.pos, "unknown name %q", t.text)
 }
@@ -248,7 +261,7 @@ func (p *parser) parseCall(name token) *node {
 	open := p.tok.pos
 	fn, ok := functions[name.text]
 	if !ok {
-		if _, isConst := constants[name.text]; isConst || p.isVar(name.text) {
+		if _, isConst := constants[name.text]; isConst || p.isVar(name.text) || p.isConst(name.text) {
 			failAt(name.pos, "%s is not a function (write %s*(...) to multiply)", name.text, name.text)
 		}
 		p.unknown(name)
@@ -270,6 +283,19 @@ func (p *parser) parseCall(name token) *node {
 }
 
 func (p *parser) isVar(name string) bool { return slices.Contains(p.vars, name) }
+
+func (p *parser) isConst(name string) bool {
+	return slices.ContainsFunc(p.consts, func(c Const) bool { return c.Name == name })
+}
+
+// offered lists the names a formula may use besides the functions.
+func (p *parser) offered() []string {
+	names := append(append([]string{}, p.vars...), "pi", "e")
+	for _, c := range p.consts {
+		names = append(names, c.Name)
+	}
+	return names
+}
 
 // String prints the tree with the fewest parentheses that keep its meaning.
 // Compiling the printed form gives the same tree.

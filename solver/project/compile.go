@@ -38,6 +38,6 @@ func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, seg Se
 	path = "edges." + side.String() + "." + key
 	pr := problem.Problem{W: p.Width, H: p.Height}
 	point := func(s float64) (x, y float64) { return pr.Point(side, s) }
-	f, err = CompileFormula(src, path, point, p.Width, p.Height)
+	f, err = compileFormula(src, path, point, p.Width, p.Height, p.Consts())
 	return f, seg, path, err
 }

@@ -6,6 +6,7 @@ import (
 	"sort"
 	"strings"
 
+	"edgewise/solver/expr"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/physics"
 	"edgewise/solver/problem"
@@ -28,6 +29,7 @@ type Project struct {
 	Schema       string       `json:"schema"`
 	Title        string       `json:"title,omitempty"`
 	Physics      string       `json:"physics"`
+	Parameters   []Parameter  `json:"parameters,omitempty"` // in name order
 	Width        float64      `json:"width"`
 	Height       float64      `json:"height"`
 	Conductivity Conductivity `json:"conductivity"`
@@ -35,6 +37,10 @@ type Project struct {
 	Edges        Edges        `json:"edges"`
 	Probes       []Probe      `json:"probes"`
 	Grid         *GridSize    `json:"grid,omitempty"`
+	// Texts holds the number fields written as text (a formula of the
+	// parameters), keyed by their path ("width", "edges.top.h",
+	// "probes[0].x"); the number field holds its value.
+	Texts map[string]string `json:"-"`
 }
 
 // Conductivity is isotropic (X == Y) or orthotropic. It encodes as a single
@@ -89,7 +95,9 @@ func Errorf(path, format string, args ...any) *Error {
 // Decode reads a project file strictly: unknown keys, missing required
 // fields, wrong types, non-finite or out-of-range numbers are errors that
 // name the field path. Formulas are checked by Compile, not here.
-func Decode(data []byte) (*Project, error) {
+func Decode(data []byte) (*Project, error) { return decode(data, nil) }
+
+func decode(data []byte, override map[string]float64) (*Project, error) {
 	if len(data) > maxFileBytes {
 		return nil, Errorf("", "project file is larger than %d bytes", maxFileBytes)
 	}
@@ -97,16 +105,24 @@ func Decode(data []byte) (*Project, error) {
 	if err != nil {
 		return nil, Errorf("", "not a project file: %v", err)
 	}
-	d := decoder{}
+	d := decoder{override: override}
 	p := d.project(v)
+	d.checkUsed(p)
 	if d.err != nil {
 		return nil, d.err
 	}
+	p.Texts = d.texts
 	return p, nil
 }
 
 // decoder walks the generic JSON tree; the first error sticks.
-type decoder struct{ err *Error }
+type decoder struct {
+	err      *Error
+	override map[string]float64 // parameter values that replace the file's (DecodeWith)
+	consts   []expr.Const       // the parameters, once read
+	texts    map[string]string  // number fields written as text, by path
+	used     map[string]bool    // parameters some field or formula uses
+}
 
 func (d *decoder) fail(path, format string, args ...any) {
 	if d.err == nil {
@@ -163,7 +179,7 @@ func (d *decoder) number(v any, path string) float64 {
 }
 
 func (d *decoder) positive(v any, path string) float64 {
-	f := d.number(v, path)
+	f := d.quantity(v, path)
 	if d.err == nil && !(f > 0) {
 		d.fail(path, "must be greater than zero, got %g", f)
 	}
@@ -209,7 +225,7 @@ func (d *decoder) integer(v any, path string, lo, hi int) int {
 
 func (d *decoder) project(v any) *Project {
 	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
-		"title", "source", "probes", "grid")
+		"title", "source", "probes", "grid", "parameters")
 	if m == nil {
 		return nil
 	}
@@ -224,6 +240,10 @@ func (d *decoder) project(v any) *Project {
 	p.Physics = d.text(m["physics"], "physics")
 	if _, known := physics.Lookup(p.Physics); d.err == nil && !known {
 		d.fail("physics", "unknown physics %q (use %s)", p.Physics, physics.Choices())
+	}
+	if pv, ok := m["parameters"]; ok {
+		p.Parameters = d.parameters(pv)
+		d.consts = p.Consts()
 	}
 	p.Width = d.positive(m["width"], "width")
 	p.Height = d.positive(m["height"], "height")
@@ -242,7 +262,7 @@ func (d *decoder) project(v any) *Project {
 		}
 	}
 	if s, ok := m["source"]; ok {
-		p.Source = d.number(s, "source")
+		p.Source = d.quantity(s, "source")
 	}
 	em := d.object(m["edges"], "edges", sideNames())
 	for _, side := range problem.Sides {
@@ -302,7 +322,7 @@ func (d *decoder) probes(v any, p *Project) []Probe {
 		if m == nil {
 			return nil
 		}
-		pr := Probe{X: d.number(m["x"], path+".x"), Y: d.number(m["y"], path+".y")}
+		pr := Probe{X: d.quantity(m["x"], path+".x"), Y: d.quantity(m["y"], path+".y")}
 		if l, ok := m["label"]; ok {
 			pr.Label = d.text(l, path+".label")
 		} else {

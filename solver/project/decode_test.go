@@ -131,7 +131,7 @@ func TestDecodeErrors(t *testing.T) {
 		{"negative width", func(m map[string]any) { m["width"] = -1 }, "width: must be greater than zero, got -1"},
 		{"zero height", func(m map[string]any) { m["height"] = 0 }, "height: must be greater than zero, got 0"},
 		{"text width", func(m map[string]any) { m["width"] = "0,4" },
-			`width: expected a number, got the text "0,4" (use a decimal point, not a comma)`},
+			`width: col 2: decimal comma in "0,4": write 0.4 with a point (to separate arguments, put a space after the comma)`},
 		{"negative h", func(m map[string]any) { edge(m, "top")["h"] = -3 },
 			"edges.top.h: convection coefficient must be zero or more, got -3"},
 		{"orthotropic zero", func(m map[string]any) { m["conductivity"] = map[string]any{"x": 1, "y": 0} },

@@ -1,6 +1,7 @@
 package project
 
 import (
+	"fmt"
 	"strings"
 
 	"edgewise/solver/jsonlite"
@@ -65,26 +66,31 @@ func DataPath(side problem.Side, kind problem.Kind) string {
 // write writes the edge: an edge of one segment in the one-condition form
 // {"kind": ..}, a longer one as {"segments": [..]} with "to" on every
 // segment but the last.
-func (e Edge) write(w *jsonlite.Writer) {
+// num writes the number field at a path (as its text when it was written
+// as text).
+func (e Edge) write(w *jsonlite.Writer, path string, num func(path string, v float64)) {
 	if s, ok := e.Whole(); ok {
-		s.write(w, false)
+		s.write(w, false, path, num)
 		return
 	}
 	w.Open('{').Key("segments").Open('[')
 	for i, s := range e.Segments {
-		s.write(w, i < len(e.Segments)-1)
+		s.write(w, i < len(e.Segments)-1, fmt.Sprintf("%s.segments[%d]", path, i), num)
 	}
 	w.Close(']').Close('}')
 }
 
-func (s Segment) write(w *jsonlite.Writer, to bool) {
+func (s Segment) write(w *jsonlite.Writer, to bool, path string, num func(path string, v float64)) {
 	w.Open('{')
 	if to {
-		w.Key("to").Num(s.To)
+		w.Key("to")
+		num(path+".to", s.To)
 	}
 	w.Key("kind").Str(s.Kind.String())
 	if s.Kind == problem.Convection {
-		w.Key("h").Num(s.H).Key("ambient").Str(s.Ambient)
+		w.Key("h")
+		num(path+".h", s.H)
+		w.Key("ambient").Str(s.Ambient)
 	} else {
 		w.Key("expr").Str(s.Expr)
 	}
@@ -125,7 +131,7 @@ func (d *decoder) segment(v any, path string) Segment {
 		}
 	case problem.Convection:
 		if m = d.object(v, path, []string{"kind", "h", "ambient"}); m != nil {
-			e.H = d.number(m["h"], path+".h")
+			e.H = d.quantity(m["h"], path+".h")
 			if d.err == nil && e.H < 0 {
 				d.fail(path+".h", "convection coefficient must be zero or more, got %g", e.H)
 			}

@@ -1,6 +1,8 @@
 package project
 
 import (
+	"fmt"
+
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/problem"
 )
@@ -13,23 +15,41 @@ func (p *Project) JSON() []byte {
 	if p.Title != "" {
 		w.Key("title").Str(p.Title)
 	}
-	w.Key("physics").Str(p.Physics).Key("width").Num(p.Width).Key("height").Num(p.Height)
+	w.Key("physics").Str(p.Physics)
+	p.writeParameters(&w)
+	num := func(path string, v float64) { p.writeNum(&w, path, v) }
+	w.Key("width")
+	num("width", p.Width)
+	w.Key("height")
+	num("height", p.Height)
 	w.Key("conductivity")
-	if p.Conductivity.X == p.Conductivity.Y {
-		w.Num(p.Conductivity.X)
+	_, textX := p.Texts["conductivity.x"]
+	_, textY := p.Texts["conductivity.y"]
+	if p.Conductivity.X == p.Conductivity.Y && !textX && !textY {
+		num("conductivity", p.Conductivity.X)
 	} else {
-		w.Open('{').Key("x").Num(p.Conductivity.X).Key("y").Num(p.Conductivity.Y).Close('}')
+		w.Open('{').Key("x")
+		num("conductivity.x", p.Conductivity.X)
+		w.Key("y")
+		num("conductivity.y", p.Conductivity.Y)
+		w.Close('}')
 	}
-	w.Key("source").Num(p.Source)
+	w.Key("source")
+	num("source", p.Source)
 	w.Key("edges").Open('{')
 	for _, side := range problem.Sides {
 		w.Key(side.String())
-		p.Edges[side].write(&w)
+		p.Edges[side].write(&w, "edges."+side.String(), num)
 	}
 	w.Close('}')
 	w.Key("probes").Open('[')
-	for _, q := range p.Probes {
-		w.Open('{').Key("x").Num(q.X).Key("y").Num(q.Y).Key("label").Str(q.Label).Close('}')
+	for i, q := range p.Probes {
+		path := fmt.Sprintf("probes[%d]", i)
+		w.Open('{').Key("x")
+		num(path+".x", q.X)
+		w.Key("y")
+		num(path+".y", q.Y)
+		w.Key("label").Str(q.Label).Close('}')
 	}
 	w.Close(']')
 	if p.Grid != nil {

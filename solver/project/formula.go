@@ -14,7 +14,13 @@ var formulaVars = []string{"x", "y", "s", "W", "H"}
 // the distance s along the edge; point maps s to (x, y). Errors carry the
 // field path and the column.
 func CompileFormula(src, path string, point func(s float64) (x, y float64), w, h float64) (func(float64) float64, error) {
-	e, err := expr.Compile(src, formulaVars...)
+	return compileFormula(src, path, point, w, h, nil)
+}
+
+// compileFormula is CompileFormula with named constants (the project's
+// parameters) besides pi and e.
+func compileFormula(src, path string, point func(s float64) (x, y float64), w, h float64, consts []expr.Const) (func(float64) float64, error) {
+	e, err := expr.CompileWith(src, consts, formulaVars...)
 	if err != nil {
 		var xe *expr.Error
 		if errors.As(err, &xe) {

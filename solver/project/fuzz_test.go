@@ -14,6 +14,7 @@ func FuzzDecode(f *testing.F) {
 	f.Add([]byte(`{"schema":"edgewise/1","physics":"generic","width":1,"height":1,"conductivity":{"x":1,"y":2},
 	  "edges":{"bottom":{"kind":"flux","expr":"sin(s)"},"top":{"kind":"value","expr":0},
 	  "left":{"kind":"convection","h":0,"ambient":"readings(s, 0, 1, 1, 2)"},"right":{"kind":"value","expr":"1/0"}}}`))
+	f.Add([]byte(paramProject))
 	f.Add([]byte(`{"schema":"edgewise/1"}`))
 	f.Add([]byte(`[1,2,3]`))
 	f.Fuzz(func(t *testing.T, data []byte) {
