@@ -122,12 +122,24 @@ func (s *Study) Run(p *project.Project, i int, sv *solver.Solver, opt solver.Opt
 		return r
 	}
 	out, err := sv.Solve(q, s.Options(opt))
+	if err == nil {
+		err = unconverged(&out.Result)
+	}
 	if err != nil {
 		r.Err = err
 		return r
 	}
 	r.Outputs = s.collect(&out.Result)
 	return r
+}
+
+// unconverged is the error of a result the engine cannot stand behind
+// (accuracy.converged false): a study prints no number from it.
+func unconverged(r *solver.Result) error {
+	if r.Accuracy.Converged {
+		return nil
+	}
+	return fmt.Errorf("not converged: the engine could not meet its tolerance (estimated error %.3g); no number is given", r.Accuracy.Estimate)
 }
 
 func (s *Study) collect(res *solver.Result) []float64 {

@@ -81,6 +81,9 @@ func (s *Study) Find(p *project.Project, sv *solver.Solver, opt solver.Options, 
 			return 0, fmt.Errorf("%s = %g: %w", sk.Name, v, err)
 		}
 		out, err := sv.Solve(q, opt)
+		if err == nil {
+			err = unconverged(&out.Result)
+		}
 		if err != nil {
 			return 0, fmt.Errorf("%s = %g: %w", sk.Name, v, err)
 		}

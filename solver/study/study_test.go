@@ -410,3 +410,27 @@ func TestSweepStopsOnEmitError(t *testing.T) {
 		t.Errorf("error %v after %d rows, want %v after 3", err, n, stop)
 	}
 }
+
+// A row whose solve does not converge (accuracy.converged false) prints no
+// number: it is a failed row with the reason, and a seek through such a
+// case fails instead of answering. The case is a strongly exchanging top
+// edge that the engine flags (solver's TestUnconvergedWithholdsCautions).
+func TestUnconvergedRowFails(t *testing.T) {
+	proj := []byte(`{"schema":"edgewise/1","physics":"heat","width":0.2,"height":0.05,"conductivity":15,"source":0,
+	 "parameters":{"h_top":10},
+	 "edges":{"bottom":{"kind":"value","expr":"90"},"right":{"kind":"value","expr":"90"},
+	 "top":{"kind":"convection","h":"h_top","ambient":"82"},"left":{"kind":"flux","expr":"0"}}}`)
+	p, s := decodeBoth(t, proj, []byte(`{"schema":"edgewise-study/1","vary":[{"name":"h_top","values":[10, 1e9]}],"report":["max.value"]}`))
+	var sv solver.Solver
+	ok, bad := s.Run(p, 0, &sv, solver.Options{}), s.Run(p, 1, &sv, solver.Options{})
+	if ok.Err != nil || len(ok.Outputs) != 1 {
+		t.Fatalf("h = 10: %v", ok.Err)
+	}
+	if bad.Err == nil || !strings.Contains(bad.Err.Error(), "not converged") || bad.Outputs != nil {
+		t.Errorf("h = 1e9: err %v, outputs %v: want a failed row saying not converged", bad.Err, bad.Outputs)
+	}
+	_, seek := decodeBoth(t, proj, []byte(`{"schema":"edgewise-study/1","seek":{"name":"h_top","from":10,"to":1e9,"target":{"max.value":85}},"report":[]}`))
+	if _, err := seek.Find(p, &sv, solver.Options{}, nil); err == nil || !strings.Contains(err.Error(), "not converged") {
+		t.Errorf("seek through an unconverged end: %v, want not converged", err)
+	}
+}
