@@ -42,7 +42,7 @@ func FuzzSolve(f *testing.F) {
 		source = math.Copysign(clamp(source, 0, 1e5), source)
 		hc = clamp(hc, 0, 1e4)
 		coef = math.Copysign(clamp(coef, 0, 1e3), coef)
-		p := &project.Project{Schema: project.Schema, Physics: project.Generic, Width: w, Height: h,
+		p := &project.Project{Schema: project.Schema, Physics: "generic", Width: w, Height: h,
 			Conductivity: project.Conductivity{X: kx, Y: ky}, Source: source, Grid: &project.GridSize{Nx: 16, Ny: 12}}
 		k, fm := int(kinds)%81, int(forms)
 		for side := range p.Edges {

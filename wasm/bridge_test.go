@@ -9,7 +9,6 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/colour"
-	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
@@ -183,22 +182,6 @@ func TestPreviewThroughJS(t *testing.T) {
 	col, _ := mustGet(t, reply, "col").Int()
 	if path != "edges.top.expr" || col != 1 {
 		t.Errorf("error at %q col %d, want edges.top.expr col 1", path, col)
-	}
-}
-
-// The unit sets reach the page keyed by physics.
-func TestUnitsThroughJS(t *testing.T) {
-	if err := register(); err != nil {
-		t.Fatal(err)
-	}
-	fn, _ := safejs.Global().Get("edgewise_units")
-	reply, err := fn.Invoke()
-	if err != nil {
-		t.Fatal(err)
-	}
-	heat := mustGet(t, reply, "heat")
-	if v, _ := mustGet(t, heat, "value").String(); v != solver.Units(project.Heat).Value {
-		t.Errorf("heat value name = %q, want %q", v, solver.Units(project.Heat).Value)
 	}
 }
 

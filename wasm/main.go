@@ -7,7 +7,6 @@
 //	edgewise_solve(projectJSON string, nx, ny, levels number) -> reply
 //	edgewise_colours(n number) -> {ok, sequential, diverging: Uint8Array(3n), names}
 //	edgewise_preview(projectJSON string, side string, n number) -> {ok, s, v: Float64Array}
-//	edgewise_units() -> {ok, heat, electrostatic, seepage, generic: {value, value_unit, ...}}
 //	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
 //	    kind: "field-csv" | "probes-csv" | "svg"; options (all optional):
 //	    {"nx": n, "ny": n, "pixel_width": px, "levels": n}
@@ -59,7 +58,6 @@ var calls = map[string]call{
 	"solve":    solveCall,
 	"colours":  coloursCall,
 	"preview":  previewCall,
-	"units":    unitsCall,
 	"export":   exportCall,
 	"report":   reportCall,
 	"validate": validateCall,

@@ -2,9 +2,9 @@
 
 package main
 
-// The data the page's form and legend ask for: the colour tables, a
-// preview of one edge's formula, and the quantities and units of each
-// physics.
+// The data the page's form and legend ask for: the colour tables and a
+// preview of one edge's formula. (The names and units of each physics come
+// from physics.json, made from solver/physics at build time.)
 
 import (
 	"errors"
@@ -85,33 +85,4 @@ func previewText(text, sideName string, n int) (s, v []float64, err error) {
 		return nil, nil, &project.Error{Path: "edges", Msg: fmt.Sprintf("unknown edge %q", sideName)}
 	}
 	return solver.PreviewEdge(p, side, n)
-}
-
-// unitsCall returns the quantities and units of every physics, keyed by
-// the physics name: {ok, heat: {value, value_unit, ...}, electrostatic, ...}.
-func unitsCall([]safejs.Value) (map[string]any, error) {
-	reply := map[string]any{"ok": true}
-	for _, name := range []string{project.Heat, project.Electrostatic, project.Seepage, project.Generic} {
-		m, err := unitsMap(name)
-		if err != nil {
-			return nil, err
-		}
-		reply[name] = m
-	}
-	return reply, nil
-}
-
-// unitsMap is the unit set of one physics as a plain map with the names
-// of its JSON form, which safejs turns into a JavaScript object.
-func unitsMap(physics string) (map[string]any, error) {
-	u := solver.Units(physics)
-	return map[string]any{
-		"physics": u.Physics, "value": u.Value, "value_unit": u.ValueUnit,
-		"gradient": u.Gradient, "gradient_unit": u.GradientUnit,
-		"conductivity": u.Conductivity, "conductivity_unit": u.CondUnit,
-		"flux": u.Flux, "flux_unit": u.FluxUnit, "flow_unit": u.FlowUnit,
-		"source": u.Source, "source_unit": u.SourceUnit,
-		"coefficient": u.Coefficient, "coefficient_unit": u.CoefUnit,
-		"length_unit": u.Length,
-	}, nil
 }

@@ -15,15 +15,6 @@ import (
 // Schema is the project-file schema this package reads and writes.
 const Schema = "edgewise/1"
 
-// Physics names what the field means. It changes labels, units and the
-// cautions, never the mathematics.
-const (
-	Heat          = "heat"
-	Electrostatic = "electrostatic"
-	Seepage       = "seepage"
-	Generic       = "generic"
-)
-
 // Project is a decoded project file.
 type Project struct {
 	Schema       string       `json:"schema"`
