@@ -19,7 +19,7 @@ const Schema = "edgewise/1"
 type Project struct {
 	Schema       string       `json:"schema"`
 	Title        string       `json:"title,omitempty"`
-	Physics      string       `json:"physics"` // an id of the physics table (package physics): labels, units, cautions; never the mathematics
+	Physics      string       `json:"physics"`              // an id of the physics table (package physics): labels, units, cautions; never the mathematics
 	Parameters   []Parameter  `json:"parameters,omitempty"` // in name order
 	Width        float64      `json:"width"`
 	Height       float64      `json:"height"`
