@@ -71,17 +71,17 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	}
 	grid, err := gridFlag(gridText)
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	data, err := readProject(fs.Arg(0), stdin)
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	p, err := project.Decode(data)
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	opt := solver.Options{}
@@ -94,17 +94,17 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	if *csvPath != "" {
 		if err := writeCSV(*csvPath, p, out); err != nil {
-			fmt.Fprintln(stderr, shorten(err.Error()))
+			fmt.Fprintln(stderr, project.Shorten(err.Error()))
 			return 1
 		}
 	}
 	if _, err := stdout.Write(append(out.Result.JSON(), '\n')); err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	return 0
@@ -155,34 +155,6 @@ func readProject(name string, stdin io.Reader) ([]byte, error) {
 		return nil, fmt.Errorf("project file is larger than %d bytes", project.MaxFileBytes)
 	}
 	return data, nil
-}
-
-// maxDigits is the longest run of digits a message shows in full.
-const maxDigits = 20
-
-// shorten cuts every run of more than maxDigits digits in a message to its
-// first digits and its length, so that a 5000-digit number in the input
-// is never echoed back in full: "12345678...(5000 digits)".
-func shorten(msg string) string {
-	var b strings.Builder
-	for i := 0; i < len(msg); {
-		j := i
-		for j < len(msg) && msg[j] >= '0' && msg[j] <= '9' {
-			j++
-		}
-		switch {
-		case j-i > maxDigits:
-			fmt.Fprintf(&b, "%s...(%d digits)", msg[i:i+8], j-i)
-			i = j
-		case j > i:
-			b.WriteString(msg[i:j])
-			i = j
-		default:
-			b.WriteByte(msg[i])
-			i++
-		}
-	}
-	return b.String()
 }
 
 func writeCSV(path string, p *project.Project, out *solver.Output) error {

@@ -27,12 +27,12 @@ func runStudy(path, shard string, jobs int, p *project.Project, opt solver.Optio
 	}
 	data, err := os.ReadFile(path)
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	st, err := study.Decode(data, p)
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(fmt.Sprintf("%s: %v", path, err)))
+		fmt.Fprintln(stderr, project.Shorten(fmt.Sprintf("%s: %v", path, err)))
 		return 1
 	}
 	w := csv.NewWriter(stdout)
@@ -44,14 +44,14 @@ func runStudy(path, shard string, jobs int, p *project.Project, opt solver.Optio
 		var sv solver.Solver
 		res, err := st.Find(p, &sv, opt, nil)
 		if err != nil {
-			fmt.Fprintln(stderr, shorten(err.Error()))
+			fmt.Fprintln(stderr, project.Shorten(err.Error()))
 			return 1
 		}
 		_ = w.Write(res.Header(st))
 		_ = w.Write(res.Record())
 		w.Flush()
 		if err := w.Error(); err != nil {
-			fmt.Fprintln(stderr, shorten(err.Error()))
+			fmt.Fprintln(stderr, project.Shorten(err.Error()))
 			return 1
 		}
 		return 0
@@ -59,7 +59,7 @@ func runStudy(path, shard string, jobs int, p *project.Project, opt solver.Optio
 	cfg := study.Config{Options: opt, Workers: jobs}
 	if shard != "" {
 		if cfg.Shard, cfg.Shards, err = parseShard(shard); err != nil {
-			fmt.Fprintln(stderr, shorten(err.Error()))
+			fmt.Fprintln(stderr, project.Shorten(err.Error()))
 			return 1
 		}
 	}
@@ -70,7 +70,7 @@ func runStudy(path, shard string, jobs int, p *project.Project, opt solver.Optio
 		return w.Error()
 	})
 	if err != nil {
-		fmt.Fprintln(stderr, shorten(err.Error()))
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	if failed > 0 {

@@ -70,12 +70,12 @@ type Error struct {
 
 func (e *Error) Error() string {
 	if e.Col > 0 {
-		return fmt.Sprintf("%s: col %d: %s", e.Path, e.Col, e.Msg)
+		return Shorten(fmt.Sprintf("%s: col %d: %s", e.Path, e.Col, e.Msg))
 	}
 	if e.Path == "" {
-		return e.Msg
+		return Shorten(e.Msg)
 	}
-	return e.Path + ": " + e.Msg
+	return Shorten(e.Path + ": " + e.Msg)
 }
 
 // Errorf returns an *Error for the field at path.

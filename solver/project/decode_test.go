@@ -231,3 +231,20 @@ func TestDemoDecodes(t *testing.T) {
 		t.Fatalf("the demo project does not compile: %v", err)
 	}
 }
+
+// A number of 5000 digits is never echoed back in full, on the page (which
+// shows the decoder's message) or in the runner.
+func TestLongNumberShortenedInMessages(t *testing.T) {
+	digits := strings.Repeat("7", 5000)
+	_, err := Decode([]byte(`{"schema":"edgewise/1","physics":"heat","width":` + digits + `,"height":1,"conductivity":1,
+	 "edges":{"bottom":{"kind":"value","expr":"0"},"top":{"kind":"value","expr":"0"},"left":{"kind":"value","expr":"0"},"right":{"kind":"value","expr":"0"}}}`))
+	if err == nil {
+		t.Fatal("a width of 5000 digits decoded")
+	}
+	if msg := err.Error(); len(msg) > 300 || strings.Contains(msg, digits[:40]) || !strings.Contains(msg, "(5000 digits)") {
+		t.Errorf("message %d bytes: %.200q", len(msg), msg)
+	}
+	if got := Shorten("width 12 and 3.5e+300"); got != "width 12 and 3.5e+300" {
+		t.Errorf("Shorten changed a short message: %q", got)
+	}
+}
