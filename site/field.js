@@ -13,6 +13,7 @@
   const profileCanvas = $("profile");
   const INK = "#1b2029";
   const PAPER = "#fbfaf6";
+  const PROBE_FONT = "600 11px system-ui, sans-serif";
 
   let S = null; // the shown solve: {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
   let box = null; // plot area in CSS pixels {x0, y0, w, h, scaled}
@@ -134,30 +135,38 @@
     }
     ctx.stroke();
     if (!ends) return;
-    // labels: value along the line, upright, with a halo; skip crowded ones
+    // labels: upright tags set on the line (EW.tag), never over a probe and
+    // its name, never over another label
     const digits = levelDigits();
-    ctx.font = "600 11px system-ui, sans-serif";
-    ctx.textAlign = "center";
-    ctx.textBaseline = "middle";
+    const keepOut = probeBoxes(ctx);
     const placed = [];
+    const hit = (a, b) => a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
     for (let k = 0; k < labels.length; k += 4) {
       const px = X(labels[k]), py = Y(labels[k + 1]);
-      if (placed.some((p) => Math.hypot(p[0] - px, p[1] - py) < 46)) continue;
-      if (px < box.x0 + 14 || px > box.x0 + box.w - 14 || py < box.y0 + 8 || py > box.y0 + box.h - 8) continue;
-      placed.push([px, py]);
-      let ang = -labels[k + 2];
-      if (Math.cos(ang) < 0) ang += Math.PI;
       const text = EW.num(levels[labels[k + 3]], digits);
-      ctx.save();
-      ctx.translate(px, py);
-      ctx.rotate(ang);
-      ctx.lineWidth = 3.5;
-      ctx.strokeStyle = "rgba(251, 250, 246, 0.9)";
-      ctx.strokeText(text, 0, 0);
-      ctx.fillStyle = INK;
-      ctx.fillText(text, 0, 0);
-      ctx.restore();
+      const { w, h } = EW.tagSize(ctx, text);
+      const r = { x: px - w / 2 - 3, y: py - h / 2 - 3, w: w + 6, h: h + 6 };
+      if (r.x < box.x0 + 2 || r.x + r.w > box.x0 + box.w - 2 || r.y < box.y0 + 2 || r.y + r.h > box.y0 + box.h - 2) continue;
+      if (placed.some((q) => hit(q, r)) || keepOut.some((q) => hit(q, r))) continue;
+      placed.push(r);
+      EW.tag(ctx, text, px, py);
     }
+    S.labelBoxes = placed;
+  }
+
+  // probeBoxes returns the boxes the probe markers and their names take,
+  // in CSS pixels (drawTop draws them: a ring of radius 4.5 and the name
+  // to its upper right).
+  function probeBoxes(ctx) {
+    ctx.save();
+    ctx.font = PROBE_FONT;
+    const out = (S.project.probes || []).map((p) => {
+      const px = X(p.x), py = Y(p.y);
+      const tw = ctx.measureText(p.label || "").width;
+      return { x: px - 7, y: py - 17, w: tw + 16, h: 24 };
+    });
+    ctx.restore();
+    return out;
   }
 
   function drawArrows(ctx) {
@@ -235,7 +244,7 @@
   }
 
   function drawLegend() {
-    EW.colour.legend(legend, map, box, horizontal, S.units);
+    EW.colour.legend(legend, map, box, horizontal, S.units, opts.iso ? S.levels : null);
   }
 
   // drawTop copies the base and adds what follows the pointer: probes, the
@@ -244,7 +253,7 @@
     const ctx = size(canvas, box.cssW, box.cssH);
     ctx.drawImage(base, 0, 0, box.cssW, box.cssH);
     const probes = (S.project.probes || []);
-    ctx.font = "600 11px system-ui, sans-serif";
+    ctx.font = PROBE_FONT;
     ctx.textAlign = "left";
     ctx.textBaseline = "bottom";
     probes.forEach((p) => {
@@ -477,8 +486,12 @@
   EW.showProbes = function (probes) {
     if (!S) return;
     S.project = Object.assign({}, S.project, { probes });
+    drawBase(); // isoline labels make room for the probes
     drawTop();
   };
+  // pictureBoxes returns where the isoline labels and the probes (with
+  // their names) sit on the canvas, in CSS pixels {x, y, w, h}.
+  EW.pictureBoxes = () => (S && base ? { labels: S.labelBoxes || [], probes: probeBoxes(base.getContext("2d")), plot: box } : null);
   // screenOf maps field coordinates to CSS pixels on the canvas.
   EW.screenOf = (x, y) => [X(x), Y(y)];
   EW.canvases = () => ({ field: canvas, legend, profile: profileCanvas });

@@ -25,6 +25,8 @@
     }
     return s.replace(/^-/, "−");
   };
+  // superscript writes an integer as superscript digits: -11 -> ⁻¹¹.
+  EW.superscript = (n) => String(n).split("").map((c) => sup[c]).join("");
   function trim(s) {
     return s.indexOf(".") >= 0 ? s.replace(/0+$/, "").replace(/\.$/, "") : s;
   }

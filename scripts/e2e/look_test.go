@@ -1,0 +1,61 @@
+package e2e
+
+import (
+	"strings"
+	"testing"
+)
+
+// pictureBoxes returns the page's isoline label boxes and probe boxes.
+func pictureBoxes(t *testing.T, tb *tab) (labels, probes [][4]float64) {
+	t.Helper()
+	got := eval[map[string][][4]float64](t, tb, `(() => { const b = window.edgewiseParts.pictureBoxes();
+	  const q = (r) => [r.x, r.y, r.w, r.h]; return {labels: b.labels.map(q), probes: b.probes.map(q)}; })()`)
+	return got["labels"], got["probes"]
+}
+
+// The picture's own look: the engine's maps are "fen" and "watershed";
+// isoline labels are upright tags, a paper-coloured box around the number
+// (the pixels just inside each box's edge are paper, whatever the field's
+// colour there), and the colour bar's ends sit in the same tags.
+func TestOwnLook(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	names := eval[map[string]string](t, tb, `window.edgewiseParts.colours.names`)
+	if names["sequential"] != "fen" || names["diverging"] != "watershed" {
+		t.Errorf("map names %v, want fen and watershed", names)
+	}
+	if m := eval[string](t, tb, `window.edgewiseInternal.last().result.colour.map`); m != "fen" {
+		t.Errorf("the plate's colours are %q, want fen", m)
+	}
+	labels, _ := pictureBoxes(t, tb)
+	if len(labels) < 3 {
+		t.Fatalf("%d isoline labels, want at least 3", len(labels))
+	}
+	// inside each tag, 2 px in from its left edge at mid height: paper
+	paper := eval[[][3]int](t, tb, `(() => { const c = document.getElementById("field");
+	  const k = c.width / c.getBoundingClientRect().width;
+	  return window.edgewiseParts.pictureBoxes().labels.map(r => {
+	    const d = c.getContext("2d").getImageData(Math.round((r.x + 3 + 3) * k), Math.round((r.y + r.h / 2) * k), 1, 1).data;
+	    return [d[0], d[1], d[2]]; }); })()`)
+	for i, p := range paper {
+		if p[0] < 228 || p[1] < 228 || p[2] < 225 { // paper at 0.93 over the darkest field colour
+			t.Errorf("label %d: pixel inside its tag is %v, want the paper colour of the tag", i, p)
+		}
+	}
+	tb.noErrors(t)
+}
+
+// TestLookScreens saves screenshots for people to look at: every physics
+// with its example, both maps, and a thin plate stretched.
+func TestLookScreens(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	tb.shot(t, "look-plate")
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewise.load(`+strings.Replace(plate, `expr: "90"`, `expr: "-60"`, 1)+`)`)
+	tb.waitSolved(t, n+1)
+	tb.shot(t, "look-signed")
+	tb.noErrors(t)
+}
