@@ -250,6 +250,7 @@
   form.addEventListener("submit", (e) => e.preventDefault());
   form.addEventListener("input", (e) => {
     if (e.target.id === "in-physics" || e.target.id === "in-ortho" || /-kind$/.test(e.target.id)) return; // change handles these
+    EW.checkPlausible && EW.checkPlausible();
     EW.edited && EW.edited(e.target);
   });
   $("in-title").addEventListener("input", () => EW.edited && EW.edited($("in-title")));
@@ -267,7 +268,9 @@
       }
     }
     if (t.id === "in-physics" || /-kind$/.test(t.id)) {
+      const was = document.documentElement.dataset.physics;
       EW.relabel();
+      if (t.id === "in-physics" && EW.physicsSwitched) EW.physicsSwitched(was, t.value);
       EW.edited && EW.edited(t);
     } else if (t.id === "in-ortho") {
       $("k-iso").hidden = t.checked;

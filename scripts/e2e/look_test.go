@@ -1,6 +1,7 @@
 package e2e
 
 import (
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -57,5 +58,72 @@ func TestLookScreens(t *testing.T) {
 	eval[map[string]any](t, tb, `window.edgewise.load(`+strings.Replace(plate, `expr: "90"`, `expr: "-60"`, 1)+`)`)
 	tb.waitSolved(t, n+1)
 	tb.shot(t, "look-signed")
+	tb.noErrors(t)
+}
+
+// switchPhysics picks a physics as a user does and waits for the solve.
+func (tb *tab) switchPhysics(t *testing.T, id string) {
+	t.Helper()
+	n := tb.solved(t)
+	eval[bool](t, tb, `(() => { const s = document.getElementById("in-physics"); s.value = `+strconv.Quote(id)+`;
+	  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+	tb.waitSolved(t, n+1)
+}
+
+// Switching physics keeps every number, warns about the ones far from the
+// new physics' usual span, and offers that physics' example; opening the
+// example keeps the user's project, and "Back to my project" restores it.
+func TestSwitchPhysicsOffersExample(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewiseInternal.demo().then(p => window.edgewise.load(p))`)
+	tb.waitSolved(t, n+1)
+	if !eval[bool](t, tb, `document.getElementById("physics-offer").hidden && document.getElementById("plausible").children.length === 0`) {
+		t.Errorf("the steel demo in heat shows an offer or a warning")
+	}
+	tb.switchPhysics(t, "electrostatic")
+	if k := eval[string](t, tb, `document.getElementById("in-k").value`); k != "15" {
+		t.Errorf("the permittivity field reads %q after the switch, want the user's 15", k)
+	}
+	warn := eval[string](t, tb, `document.getElementById("plausible").textContent`)
+	if !strings.Contains(warn, "Permittivity 15 F/m is far above the usual") {
+		t.Errorf("plausibility warning %q, want one about permittivity 15 F/m", warn)
+	}
+	offer := eval[string](t, tb, `document.getElementById("physics-offer").hidden ? "" : document.getElementById("physics-offer").textContent`)
+	if !strings.Contains(offer, "Your numbers are kept") || !strings.Contains(offer, "Open the example") {
+		t.Fatalf("offer %q", offer)
+	}
+	tb.shot(t, "look-switch-offer")
+	n = tb.solved(t)
+	eval[bool](t, tb, `(document.getElementById("offer-example").click(), true)`)
+	tb.waitSolved(t, n+1)
+	p := eval[map[string]any](t, tb, `window.edgewise.project()`)
+	if p["physics"] != "electrostatic" || !strings.Contains(p["title"].(string), "example") || p["conductivity"] != 8.854e-12 {
+		t.Errorf("after opening the example the project is %v", p)
+	}
+	if w := eval[int](t, tb, `document.getElementById("plausible").children.length`); w != 0 {
+		t.Errorf("the example trips %d plausibility warnings", w)
+	}
+	tb.shot(t, "look-electrostatic-example")
+	n = tb.solved(t)
+	eval[bool](t, tb, `(document.getElementById("offer-back").click(), true)`)
+	tb.waitSolved(t, n+1)
+	p = eval[map[string]any](t, tb, `window.edgewise.project()`)
+	if p["physics"] != "heat" || p["conductivity"] != 15.0 || !strings.Contains(p["title"].(string), "Steel") {
+		t.Errorf("back to my project gives %v", p)
+	}
+	if !eval[bool](t, tb, `document.getElementById("physics-offer").hidden`) {
+		t.Errorf("the offer stays after going back")
+	}
+	// seepage has its own example too
+	tb.switchPhysics(t, "seepage")
+	n = tb.solved(t)
+	eval[bool](t, tb, `(document.getElementById("offer-example").click(), true)`)
+	tb.waitSolved(t, n+1)
+	if ph := eval[string](t, tb, `window.edgewise.project().physics`); ph != "seepage" {
+		t.Errorf("the seepage example has physics %q", ph)
+	}
+	tb.shot(t, "look-seepage-example")
 	tb.noErrors(t)
 }

@@ -1,5 +1,14 @@
 package physics
 
+import "embed"
+
+// examples holds each physics' example project, as the page offers it when
+// the user switches to that physics (examples/ID.json; heat's is the
+// page's first demo, site/demo.json).
+//
+//go:embed examples/*.json
+var examples embed.FS
+
 // Ids of the physics in the table, as a project file writes them.
 const (
 	Heat          = "heat"
@@ -23,6 +32,10 @@ type Physics struct {
 	Also Also
 	// DefaultH is the h the page fills in when an edge turns to convection.
 	DefaultH string
+	// Usual is the span of values a project of this physics usually has;
+	// the page warns about a number outside it (a number typed for another
+	// physics, or a slip of the exponent), but solves all the same.
+	Usual Usual
 	// Cautions lists the physics-specific cautions of a solved field
 	// (without the Deferral, which Cautions adds); nil when there are none.
 	cautions func(p *Physics, f Field) []string
@@ -61,6 +74,23 @@ type Hints struct {
 	H            string // under a convection edge's coefficient
 }
 
+// Usual holds the usual spans [low, high] of the material constant and
+// of the Robin coefficient (zero spans: no check), and where they come from.
+type Usual struct {
+	Conductivity, H [2]float64
+	Source          string
+}
+
+// Example returns the physics' example project (JSON), or nil when it has
+// none.
+func (p *Physics) Example() []byte {
+	b, err := examples.ReadFile("examples/" + p.ID + ".json")
+	if err != nil {
+		return nil
+	}
+	return b
+}
+
 // Also is a second unit for the size of the gradient: Scale gradient units
 // make one Unit.
 type Also struct {
@@ -95,6 +125,12 @@ var table = []*Physics{
 		},
 		Magnitude: "temperature gradient", Readout: "temperature gradient |∇|",
 		DefaultH: "10",
+		// polyurethane foam about 0.026, diamond about 2300 W/(m·K)
+		// (Incropera & DeWitt, Tables A.1 and A.3, from memory); free
+		// convection in gases from about 2, boiling and condensation up to
+		// about 1e5 W/(m²·K) (Incropera, Table 1.1, from memory)
+		Usual: Usual{Conductivity: [2]float64{0.01, 2500}, H: [2]float64{0.5, 1e5},
+			Source: "insulating foams to diamond; still air to condensing steam (Incropera & DeWitt, Tables A.1, A.3 and 1.1)"},
 		cautions: heatCautions,
 	},
 	{
@@ -122,6 +158,10 @@ var table = []*Physics{
 		Magnitude: "field strength", Readout: "field strength",
 		Also:     Also{Unit: "kV/mm", Scale: 1e6},
 		DefaultH: "1",
+		// vacuum (εr = 1) to ferroelectric ceramics (εr up to about 1e4,
+		// from memory); no material is below the vacuum permittivity
+		Usual: Usual{Conductivity: [2]float64{8.8e-12, 8.9e-8},
+			Source: "from vacuum (εr = 1) to ferroelectric ceramics (εr ≈ 10⁴)"},
 		cautions: electrostaticCautions,
 	},
 	{
@@ -146,7 +186,12 @@ var table = []*Physics{
 			H:            "Leakance of a semi-pervious layer: its conductivity over its thickness.",
 		},
 		Magnitude: "hydraulic gradient", Readout: "hydraulic gradient |∇|",
-		DefaultH: "1",
+		DefaultH: "1e-7",
+		// unfractured rock about 1e-13, clean gravel about 1 m/s (Freeze &
+		// Cherry, Groundwater, Table 2.2, from memory); leakance: the same
+		// conductivities over layers 0.1 to 10 m thick (common practice)
+		Usual: Usual{Conductivity: [2]float64{1e-13, 1}, H: [2]float64{1e-14, 10},
+			Source: "unfractured rock to clean gravel (Freeze & Cherry, Groundwater, Table 2.2)"},
 		cautions: seepageCautions,
 	},
 	{

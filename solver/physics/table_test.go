@@ -78,6 +78,12 @@ func TestJSON(t *testing.T) {
 			Magnitude string `json:"magnitude"`
 			Readout   string `json:"readout"`
 			DefaultH  string `json:"default_h"`
+			Usual     *struct {
+				Conductivity []float64 `json:"conductivity"`
+				H            []float64 `json:"h"`
+				Source       string    `json:"source"`
+			} `json:"usual"`
+			Example map[string]any `json:"example"`
 		} `json:"physics"`
 	}
 	dec := json.NewDecoder(strings.NewReader(string(JSON())))
@@ -102,6 +108,12 @@ func TestJSON(t *testing.T) {
 		}
 		if got.Hints["physics"] != p.Hints.Physics || got.Hints["h"] != p.Hints.H || len(got.Hints) != 4 {
 			t.Errorf("%s: hints %v", p.ID, got.Hints)
+		}
+		if (got.Usual != nil) != (p.Usual.Conductivity[1] > 0) || got.Usual != nil && got.Usual.Conductivity[0] != p.Usual.Conductivity[0] {
+			t.Errorf("%s: usual %+v, want %+v", p.ID, got.Usual, p.Usual)
+		}
+		if (got.Example != nil) != (p.Example() != nil) || got.Example != nil && got.Example["physics"] != p.ID {
+			t.Errorf("%s: example %v", p.ID, got.Example)
 		}
 		if (got.Also != nil) != (p.Also.Unit != "") || got.Also != nil && (got.Also.Unit != p.Also.Unit || got.Also.Scale != p.Also.Scale) {
 			t.Errorf("%s: also %+v, want %+v", p.ID, got.Also, p.Also)
