@@ -127,3 +127,42 @@ func TestSwitchPhysicsOffersExample(t *testing.T) {
 	tb.shot(t, "look-seepage-example")
 	tb.noErrors(t)
 }
+
+// Edge previews follow the newest formula however fast the edits come:
+// the width changes and the right edge's formula becomes 100 + k (a pass
+// that redraws all four previews), then the formula becomes k, with 13
+// different gaps between the two edits, longer than the page's 120 ms
+// preview delay and shorter than a solve on the finest grid, so that the
+// first pass is still waiting behind the solve when the second starts;
+// each time the preview must end on k. Before the passes carried a
+// sequence number the two passes took turns through the edges and, in
+// about half of these runs, the older one drew 100 + k after the newer one
+// had drawn k.
+func TestPreviewsFollowFastEdits(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	n := tb.solved(t)
+	eval[bool](t, tb, `(() => { const s = document.getElementById("opt-detail"); s.value = "800";
+	  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+	tb.waitSolved(t, n+1)
+	set := `((v, w) => { const i = document.getElementById("in-right-expr"); i.value = v;
+	  if (w) document.getElementById("in-width").value = w;
+	  i.dispatchEvent(new Event("input", {bubbles: true})); return true; })`
+	label := `document.getElementById("pv-right").getAttribute("aria-label")`
+	for run, gap := range []int{130, 140, 150, 160, 170, 180, 190, 200, 210, 220, 230, 240, 250} {
+		want := ": from " + strconv.Itoa(run) + " to " + strconv.Itoa(run) + " (constant)"
+		eval[bool](t, tb, set+`("`+strconv.Itoa(100+run)+`", "`+[]string{"0.4", "0.5"}[run%2]+`")`)
+		eval[bool](t, tb, `new Promise(r => setTimeout(() => r(true), `+strconv.Itoa(gap)+`))`)
+		eval[bool](t, tb, set+`("`+strconv.Itoa(run)+`")`)
+		// the preview must come to k (within 15 s: the previews wait behind
+		// the solves) and stay there when every pass is done
+		ok := eval[bool](t, tb, `new Promise(r => { const t0 = performance.now(); const poll = () => {
+		  if ((`+label+` || "").endsWith(`+strconv.Quote(want)+`)) r(true); else if (performance.now() - t0 > 15000) r(false); else setTimeout(poll, 20); }; poll(); })`)
+		eval[bool](t, tb, `new Promise(r => setTimeout(() => r(true), 500))`)
+		if got := eval[string](t, tb, label); !ok || !strings.HasSuffix(got, want) {
+			t.Errorf("run %d (gap %d ms): the right edge's formula is %d, its preview says %q", run, gap, run, got)
+		}
+	}
+	tb.noErrors(t)
+}
