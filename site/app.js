@@ -273,7 +273,7 @@
       const e = engineError(out.reply);
       EW.clearErrors();
       const placed = EW.showError(e.path, e.col, e.message);
-      setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + e.message, "error");
+      setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + EW.onScreenMessage(e.path, e.message), "error");
       if (lastGood) markStale(true);
       return;
     }

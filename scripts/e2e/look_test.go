@@ -166,3 +166,57 @@ func TestPreviewsFollowFastEdits(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// Errors on the page name what is on screen, in the physics' own words,
+// and mark the field: a bad formula on the demo's insulated left edge is
+// "Left edge, heat flux in: col 5: ..." beside the field and in the status
+// line; a number that is not one is "Width: ..."; a probe outside the
+// rectangle names the probe and marks its row. The interface keeps the
+// JSON path.
+func TestErrorsNameWhatIsOnScreen(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewiseInternal.demo().then(p => window.edgewise.load(p))`)
+	tb.waitSolved(t, n+1)
+	tb.pasteInto(t, "#in-left-expr", "0 + sinn(s)")
+	tb.waitFor(t, `!!document.querySelector("#err-left .err-msg")`, "the error under the left edge")
+	msg := eval[string](t, tb, `document.querySelector("#err-left .err-msg").textContent`)
+	if !strings.HasPrefix(msg, "Left edge, heat flux in: col 5: unknown name") {
+		t.Errorf("error beside the field %q, want it to start with the on-screen name", msg)
+	}
+	status := eval[string](t, tb, `document.getElementById("status").textContent`)
+	if !strings.Contains(status, "Left edge, heat flux in: col 5") || strings.Contains(status, "edges.") {
+		t.Errorf("status %q, want the on-screen name and no JSON path", status)
+	}
+	if eval[string](t, tb, `document.getElementById("in-left-expr").getAttribute("aria-invalid") || ""`) != "true" {
+		t.Errorf("the bad formula is not marked")
+	}
+	tb.shot(t, "look-error-names")
+	tb.pasteInto(t, "#in-left-expr", "0")
+	tb.waitFor(t, `!document.querySelector("#err-left .err-msg")`, "the error to clear")
+	tb.typeInto(t, "#in-width", "0.2x")
+	tb.waitFor(t, `!!document.querySelector("#err-width .err-msg")`, "the width error")
+	if msg := eval[string](t, tb, `document.querySelector("#err-width .err-msg").textContent`); !strings.HasPrefix(msg, "Width: ") {
+		t.Errorf("width error %q, want it to start with Width:", msg)
+	}
+	tb.typeInto(t, "#in-width", "0.2")
+	// the probe T1 at y = 0.05: a height of 0.03 leaves it outside
+	tb.typeInto(t, "#in-height", "0.03")
+	tb.waitFor(t, `document.getElementById("status").textContent.includes("Probe ")`, "the probe error")
+	status = eval[string](t, tb, `document.getElementById("status").textContent`)
+	if !strings.Contains(status, "Probe T1, y") || strings.Contains(status, "probes[") {
+		t.Errorf("status %q, want the probe named as on screen", status)
+	}
+	if !eval[bool](t, tb, `!!document.querySelector("#probes tbody tr.invalid")`) {
+		t.Errorf("the probe's row is not marked")
+	}
+	// the interface keeps the path
+	tb.typeInto(t, "#in-height", "0.05")
+	e := eval[string](t, tb, `(() => { const p = window.edgewise.project(); p.edges.left.expr = "sinn(s)";
+	  return window.edgewise.load(p).then(() => "resolved", e => e.message); })()`)
+	if !strings.HasPrefix(e, "edges.left.expr: col 1: ") {
+		t.Errorf("load rejected with %q, want the JSON path", e)
+	}
+	tb.noErrors(t)
+}
