@@ -421,9 +421,9 @@
     const dl = document.createElement("dl");
     dl.className = "kv";
     const row = (k, v, note) => kvRow(dl, k, v, note);
-    row("Highest " + (u.value || "value"), EW.withUnit(EW.num(r.max.value, 5), vu), at(r.max)).id = "res-max";
-    row("Lowest " + (u.value || "value"), EW.withUnit(EW.num(r.min.value, 5), vu), at(r.min)).id = "res-min";
-    row("Mean " + (u.value || "value"), EW.withUnit(EW.num(r.mean, 5), vu), "over the rectangle").id = "res-mean";
+    row("Highest " + (u.value || "value"), EW.withUnit(EW.value(r.max.value, 5), vu), at(r.max)).id = "res-max";
+    row("Lowest " + (u.value || "value"), EW.withUnit(EW.value(r.min.value, 5), vu), at(r.min)).id = "res-min";
+    row("Mean " + (u.value || "value"), EW.withUnit(EW.value(r.mean, 5), vu), "over the rectangle").id = "res-mean";
     box.append(dl);
 
 
@@ -455,7 +455,7 @@
       const e = r.edges[side];
       if (e.finite && e.flow !== null) {
         largest = Math.max(largest, Math.abs(e.flow));
-        add(EW.capital(side), EW.num(e.flow, 5));
+        add(EW.capital(side), EW.flow(e.flow, 5));
         continue;
       }
       infinite.push(side);
@@ -472,7 +472,7 @@
         tr.lastChild.append(note);
       }
     }
-    if (r.source_total) add("Source", EW.num(r.source_total, 5));
+    if (r.source_total) add("Source", EW.flow(r.source_total, 5));
     let balanceText;
     if (r.balance === null || infinite.length) {
       balanceText = "not defined (an edge flow is infinite)";
@@ -482,7 +482,7 @@
       // the field's range across it would carry
       const kdu = Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value);
       const scale = largest > 1e-6 * kdu ? largest : kdu;
-      balanceText = EW.num(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
+      balanceText = EW.flow(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
     }
     add("Balance", balanceText, "balance").id = "res-balance";
     box.append(h, note, t);

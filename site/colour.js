@@ -123,7 +123,8 @@
   function legend(canvas, sc, box, horizontal, units, levels) {
     const u = units || {};
     const p = power(sc), f = Math.pow(10, -p);
-    const label = (t, d) => EW.num(t * f, d);
+    // below the accuracy of the solve an end is 0, not rounding noise
+    const label = (t, d) => (EW.floors && Math.abs(t) < EW.floors().value ? "0" : EW.num(t * f, d));
     const unitText = (p ? "×10" + EW.superscript(p) + (u.value_unit ? " " : "") : "") + (u.value_unit || "");
     if (horizontal) return legendBelow(canvas, sc, box, u, levels, label, unitText);
     const probe = canvas.getContext("2d");

@@ -305,9 +305,9 @@
     const unit = u.value_unit ? " " + u.value_unit : "";
     const L = u.length_unit || "m";
     const text = q + " in a " + EW.num(S.w) + " " + L + " × " + EW.num(S.h) + " " + L + " rectangle: from " +
-      EW.num(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
-      EW.num(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
-      EW.num(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
+      EW.value(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
+      EW.value(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
+      EW.value(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
       "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") +
       (own(S.result) ? "" : " (chosen here; the SVG, PNG and report use the automatic colours)") + "." +
       (opts.arrows ? " Arrows: direction of the " + (u.flux || "flux") + ", length in proportion up to the 90th percentile of its size." : "");
@@ -472,6 +472,7 @@
   EW.show = function (solve) {
     const first = !S;
     S = solve;
+    EW.setAccuracy(S.result);
     if (first || !profile) {
       profile = { a: { x: 0, y: S.h / 2 }, b: { x: S.w, y: S.h / 2 } };
     } else {

@@ -21,7 +21,7 @@
     const also = P.also ? " (" + EW.num(gm / P.also.scale, 3) + " " + P.also.unit + ")" : "";
     const parts = [
       ["x, y", EW.num(x, 4) + ", " + EW.num(y, 4) + " " + L],
-      [u.value || "value", EW.withUnit(EW.num(g.u, 5), u.value_unit)],
+      [u.value || "value", EW.withUnit(EW.value(g.u, 5), u.value_unit)],
       [P.readout || "gradient |∇|", EW.withUnit(EW.num(gm, 4), u.gradient_unit) + also],
       [u.flux || "flux", EW.withUnit(EW.num(Math.hypot(qx, qy), 4), u.flux_unit) + " " + arrow(qx, qy)],
     ];

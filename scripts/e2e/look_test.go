@@ -220,3 +220,47 @@ func TestErrorsNameWhatIsOnScreen(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// loadExample loads one physics' example project from the table.
+func (tb *tab) loadExample(t *testing.T, id string) {
+	t.Helper()
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewise.load(window.edgewiseParts.physicsOf(`+strconv.Quote(id)+`).example)`)
+	tb.waitSolved(t, n+1)
+}
+
+// Numbers below the accuracy of the solve show as 0: the electrode gap's
+// lowest potential (about -8e-5 V from the series, error estimate about
+// 2e-3 V) and the levee's impermeable bottom (a flow of about 1e-21 m²/s
+// against flows of 1e-4) and balance. Values keep only the digits the
+// accuracy supports. A colour bar over a tiny range writes its power of
+// ten once, beside the unit, so that no label is cut off.
+func TestRoundingNoiseShowsAsZero(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadExample(t, "electrostatic")
+	if m := eval[float64](t, tb, `window.edgewiseInternal.last().result.min.value`); m == 0 || m < -1e-3 {
+		t.Fatalf("the example's lowest potential is %g: the test needs a small noisy one", m)
+	}
+	if low := eval[string](t, tb, `document.getElementById("res-min").firstChild.textContent`); low != "0 V" {
+		t.Errorf("lowest potential shows %q, want 0 V", low)
+	}
+	tb.loadExample(t, "seepage")
+	if f := eval[float64](t, tb, `window.edgewiseInternal.last().result.edges.bottom.flow`); f == 0 {
+		t.Fatalf("the levee's bottom flow is exactly 0: the test needs a noisy one")
+	}
+	flows := eval[map[string]string](t, tb, `Object.fromEntries([...document.querySelectorAll("#res-flows tr")].map(tr => [tr.cells[0].textContent, tr.cells[1].textContent]))`)
+	if flows["Bottom"] != "0" || !strings.HasPrefix(flows["Balance"], "0") {
+		t.Errorf("flows %v, want Bottom and Balance 0", flows)
+	}
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewise.load({schema: "edgewise/1", physics: "electrostatic", width: 0.01, height: 0.01,
+	  conductivity: 8.854e-12, edges: {bottom: {kind: "value", expr: "0"}, top: {kind: "value", expr: "5.8776e-11"},
+	  left: {kind: "flux", expr: "0"}, right: {kind: "flux", expr: "0"}}})`)
+	tb.waitSolved(t, n+1)
+	if p := eval[string](t, tb, `document.getElementById("legend").dataset.power`); p != "-11" {
+		t.Errorf("the colour bar factors out 10^%s, want 10^-11", p)
+	}
+	tb.shot(t, "look-tiny-range")
+	tb.noErrors(t)
+}
