@@ -377,8 +377,7 @@
       td(EW.num(p.x, 4) + ", " + EW.num(p.y, 4));
       const vc = td((approx ? "≈ " : "") + EW.num(v, 6), "num probe-value");
       vc.dataset.value = String(v);
-      td(EW.num(Math.hypot(gx, gy), 4), "num");
-      td(EW.num(Math.hypot(qx, qy), 4), "num");
+      EW.probeCells(td, p, S, gx, gy, qx, qy);
       const cell = document.createElement("td");
       const b = document.createElement("button");
       b.type = "button";

@@ -85,8 +85,13 @@
       block.querySelector(".lbl-amb").textContent = "Ambient " + (u.value || "value") + " " + unit(u.value_unit);
     }
     $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(u.value_unit);
-    $("probe-head-g").textContent = EW.capital(P.magnitude || u.gradient || "gradient") + " " + unit(u.gradient_unit);
-    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " " + unit(u.flux_unit);
+    // "Temperature gradient magnitude |∇T| [K/m]", the symbol and unit kept on one line
+    const g = EW.capital(P.magnitude || u.gradient || "gradient"), bar = g.indexOf("|");
+    const sym = document.createElement("span");
+    sym.className = "nowrap";
+    sym.textContent = (bar >= 0 ? g.slice(bar) : "") + " " + unit(u.gradient_unit);
+    $("probe-head-g").replaceChildren(bar >= 0 ? g.slice(0, bar) : g + " ", sym);
+    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " qx, qy " + unit(u.flux_unit);
     document.documentElement.dataset.physics = P.id;
     checkPlausible();
   }

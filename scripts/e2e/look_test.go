@@ -1,6 +1,7 @@
 package e2e
 
 import (
+	"math"
 	"strconv"
 	"strings"
 	"testing"
@@ -262,5 +263,38 @@ func TestRoundingNoiseShowsAsZero(t *testing.T) {
 		t.Errorf("the colour bar factors out 10^%s, want 10^-11", p)
 	}
 	tb.shot(t, "look-tiny-range")
+	tb.noErrors(t)
+}
+
+// The probes table says what it shows: the gradient column is headed as a
+// magnitude, the flux shows its components qx, qy, and a probe on an edge
+// shows the normal flux into the region there (the demo's T1 on the top
+// edge: -qy).
+func TestProbesShowComponentsAndNormal(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadExample(t, "heat")
+	head := eval[string](t, tb, `document.getElementById("probe-head-g").textContent + "|" + document.getElementById("probe-head-q").textContent`)
+	if !strings.Contains(head, "magnitude") || !strings.Contains(head, "qx, qy") {
+		t.Errorf("probe headings %q, want the gradient as a magnitude and the flux as qx, qy", head)
+	}
+	q := eval[[]float64](t, tb, `window.edgewiseInternal.last().result.probes[0].flux`)
+	cell := eval[string](t, tb, `document.querySelector("#probes tbody tr td.flux").firstChild.textContent`)
+	parts := strings.Split(cell, ", ")
+	if len(parts) != 2 {
+		t.Fatalf("flux cell %q, want two components", cell)
+	}
+	for i, s := range parts {
+		v, err := readNumber(s)
+		if err != nil || math.Abs(v-q[i]) > 1e-3*math.Abs(q[i]) {
+			t.Errorf("component %d shows %q, the engine has %g", i, s, q[i])
+		}
+	}
+	normal := eval[string](t, tb, `(document.querySelector("#probes tbody tr td.flux .normal[data-side=top]") || {}).textContent || ""`)
+	v, err := readNumber(strings.TrimPrefix(normal, "in through top: "))
+	if !strings.HasPrefix(normal, "in through top: ") || err != nil || math.Abs(v+q[1]) > 1e-3*math.Abs(q[1]) {
+		t.Errorf("normal flux %q, want in through top: %g", normal, -q[1])
+	}
+	tb.shot(t, "look-probes")
 	tb.noErrors(t)
 }

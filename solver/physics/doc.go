@@ -23,8 +23,8 @@
 //	              "coefficient": ..., "coefficient_unit": ..., "length_unit": "m"},
 //	    "kinds": {"value": "Fixed temperature (Dirichlet)", "flux": ..., "convection": ...},
 //	    "hints": {"physics": ..., "conductivity": ..., "source": ..., "h": ...},
-//	    "magnitude": "temperature gradient",       // |grad u| as a column heading
-//	    "readout": "temperature gradient |∇|",     // |grad u| in the pointer readout
+//	    "magnitude": "temperature gradient magnitude |∇T|", // |grad u| as a column heading
+//	    "readout": "temperature gradient |∇T|",   // |grad u| in the pointer readout
 //	    "also": {"unit": "kV/mm", "scale": 1e-6},  // optional: |grad u| also in this unit
 //	    "default_h": "10"},                        // h filled in when an edge turns to convection
 //	   ...]}

@@ -24,8 +24,8 @@ type Physics struct {
 	Units
 	Kinds Kinds
 	Hints Hints
-	// Magnitude names the size of the gradient as a column heading;
-	// Readout names it in the pointer readout.
+	// Magnitude names the size of the gradient as a column heading, saying
+	// that it is a magnitude; Readout names it in the pointer readout.
 	Magnitude, Readout string
 	// Also shows the size of the gradient in a second unit as well (the
 	// field strength in kV/mm); zero when there is none.
@@ -123,7 +123,7 @@ var table = []*Physics{
 			// Incropera & DeWitt, Table 1.1 (from memory)
 			H: "Free convection in gases ≈ 2–25, forced ≈ 25–250 W/(m²·K) (Incropera, Table 1.1).",
 		},
-		Magnitude: "temperature gradient", Readout: "temperature gradient |∇|",
+		Magnitude: "temperature gradient magnitude |∇T|", Readout: "temperature gradient |∇T|",
 		DefaultH: "10",
 		// polyurethane foam about 0.026, diamond about 2300 W/(m·K)
 		// (Incropera & DeWitt, Tables A.1 and A.3, from memory); free
@@ -155,7 +155,7 @@ var table = []*Physics{
 			Source:       "Free charge per unit volume; 0 in an air or vacuum gap.",
 			H:            "Rarely needed: a Robin edge models a resistive or capacitive boundary layer.",
 		},
-		Magnitude: "field strength", Readout: "field strength",
+		Magnitude: "field strength |E|", Readout: "field strength |E|",
 		Also:     Also{Unit: "kV/mm", Scale: 1e6},
 		DefaultH: "1",
 		// vacuum (εr = 1) to ferroelectric ceramics (εr up to about 1e4,
@@ -185,7 +185,7 @@ var table = []*Physics{
 			Source:       "Recharge per unit volume (1/s); 0 for none.",
 			H:            "Leakance of a semi-pervious layer: its conductivity over its thickness.",
 		},
-		Magnitude: "hydraulic gradient", Readout: "hydraulic gradient |∇|",
+		Magnitude: "hydraulic gradient magnitude |i|", Readout: "hydraulic gradient |i|",
 		DefaultH: "1e-7",
 		// unfractured rock about 1e-13, clean gravel about 1 m/s (Freeze &
 		// Cherry, Groundwater, Table 2.2, from memory); leakance: the same
@@ -209,7 +209,7 @@ var table = []*Physics{
 			Source:       "Uniform source term.",
 			H:            "Coefficient h of the mixed condition.",
 		},
-		Magnitude: "gradient", Readout: "gradient |∇|",
+		Magnitude: "gradient magnitude |∇u|", Readout: "gradient |∇u|",
 		DefaultH: "1",
 	},
 }
