@@ -57,7 +57,7 @@
   // the fields of each edge's kind.
   function relabel() {
     const P = EW.physicsOf($("in-physics").value);
-    const u = P.units || {}, hints = P.hints || {}, kinds = P.kinds || {};
+    const u = P.units || {}, hints = P.hints || {}, kinds = P.kinds || {}, labels = P.labels || {};
     const unit = (x) => (x ? "[" + x + "]" : "");
     for (const i of document.querySelectorAll("[data-unit]")) {
       const k = i.dataset.unit;
@@ -80,9 +80,9 @@
       hh.textContent = hints.h || "";
       $("in-" + side + "-expr-label").textContent = k === "value"
         ? EW.capital(u.value || "value") + " " + unit(u.value_unit)
-        : EW.capital(u.flux || "flux") + " in " + unit(u.flux_unit);
+        : EW.capital(labels.flux_in || (u.flux || "flux") + " in") + " " + unit(u.flux_unit);
       block.querySelector(".lbl-h").textContent = EW.capital(u.coefficient || "h") + " " + unit(u.coefficient_unit);
-      block.querySelector(".lbl-amb").textContent = "Ambient " + (u.value || "value") + " " + unit(u.value_unit);
+      block.querySelector(".lbl-amb").textContent = EW.capital(labels.ambient || "ambient " + (u.value || "value")) + " " + unit(u.value_unit);
     }
     $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(u.value_unit);
     // "Temperature gradient magnitude |∇T| [K/m]", the symbol and unit kept on one line
@@ -91,7 +91,7 @@
     sym.className = "nowrap";
     sym.textContent = (bar >= 0 ? g.slice(bar) : "") + " " + unit(u.gradient_unit);
     $("probe-head-g").replaceChildren(bar >= 0 ? g.slice(0, bar) : g + " ", sym);
-    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " qx, qy " + unit(u.flux_unit);
+    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " x, y " + unit(u.flux_unit);
     document.documentElement.dataset.physics = P.id;
     checkPlausible();
   }

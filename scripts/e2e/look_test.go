@@ -275,8 +275,8 @@ func TestProbesShowComponentsAndNormal(t *testing.T) {
 	tb.open(t, siteURL)
 	tb.loadExample(t, "heat")
 	head := eval[string](t, tb, `document.getElementById("probe-head-g").textContent + "|" + document.getElementById("probe-head-q").textContent`)
-	if !strings.Contains(head, "magnitude") || !strings.Contains(head, "qx, qy") {
-		t.Errorf("probe headings %q, want the gradient as a magnitude and the flux as qx, qy", head)
+	if !strings.Contains(head, "magnitude") || !strings.Contains(head, "flux x, y") {
+		t.Errorf("probe headings %q, want the gradient as a magnitude and the flux as its x, y components", head)
 	}
 	q := eval[[]float64](t, tb, `window.edgewiseInternal.last().result.probes[0].flux`)
 	cell := eval[string](t, tb, `document.querySelector("#probes tbody tr td.flux").firstChild.textContent`)
@@ -296,5 +296,41 @@ func TestProbesShowComponentsAndNormal(t *testing.T) {
 		t.Errorf("normal flux %q, want in through top: %g", normal, -q[1])
 	}
 	tb.shot(t, "look-probes")
+	tb.noErrors(t)
+}
+
+// Each physics labels its edges in its own trade's words, from the table:
+// a flux edge in electrostatics gives the surface charge density, the far
+// side of a Robin edge is the fluid temperature, the electrode potential
+// or the head beyond the leaky layer, never an "ambient" potential or
+// head; the generic physics writes its field as u, never U.
+func TestEdgeLabelsInTradeWords(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadPlate(t)
+	// the top edge as a flux edge, the bottom as a Robin edge
+	eval[bool](t, tb, `(() => { for (const [side, kind] of [["top", "flux"], ["bottom", "convection"]]) {
+	  const s = document.getElementById("in-" + side + "-kind"); s.value = kind; s.dispatchEvent(new Event("change", {bubbles: true})); } return true; })()`)
+	want := map[string][2]string{
+		"heat":          {"Heat flux in [W/m²]", "Fluid temperature [°C]"},
+		"electrostatic": {"Surface charge density σ [C/m²]", "Electrode potential beyond the layer [V]"},
+		"seepage":       {"Inflow (Darcy flux in) [m/s]", "Head beyond the leaky layer [m]"},
+		"generic":       {"Flux in", "Outside value u_amb"},
+	}
+	for _, id := range []string{"heat", "electrostatic", "seepage", "generic"} {
+		tb.switchPhysics(t, id)
+		got := eval[[]string](t, tb, `[document.getElementById("in-top-expr-label").textContent.trim(),
+		  document.querySelector("fieldset.edge[data-side=bottom] .lbl-amb").textContent.trim(),
+		  document.getElementById("inputs").textContent]`)
+		if got[0] != want[id][0] || got[1] != want[id][1] {
+			t.Errorf("%s: flux edge %q and Robin far side %q, want %q", id, got[0], got[1], want[id])
+		}
+		if id != "heat" && strings.Contains(strings.ToLower(got[1]), "ambient") {
+			t.Errorf("%s: heat wording %q", id, got[1])
+		}
+		if id == "generic" && strings.Contains(got[2], "Value U") {
+			t.Errorf("generic: the form writes U")
+		}
+	}
 	tb.noErrors(t)
 }

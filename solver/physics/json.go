@@ -22,6 +22,7 @@ func JSON() []byte {
 		p.Units.write(&w)
 		w.Key("kinds").Open('{').Key("value").Str(p.Kinds.Value).Key("flux").Str(p.Kinds.Flux).
 			Key("convection").Str(p.Kinds.Convection).Close('}')
+		w.Key("labels").Open('{').Key("flux_in").Str(p.Labels.FluxIn).Key("ambient").Str(p.Labels.Ambient).Close('}')
 		w.Key("hints").Open('{').Key("physics").Str(p.Hints.Physics).Key("conductivity").Str(p.Hints.Conductivity).
 			Key("source").Str(p.Hints.Source).Key("h").Str(p.Hints.H).Close('}')
 		w.Key("magnitude").Str(p.Magnitude).Key("readout").Str(p.Readout)

@@ -22,8 +22,9 @@ type Physics struct {
 	ID   string // as written in a project file
 	Name string // the page's choice, e.g. "Heat conduction (temperature)"
 	Units
-	Kinds Kinds
-	Hints Hints
+	Kinds  Kinds
+	Labels Labels
+	Hints  Hints
 	// Magnitude names the size of the gradient as a column heading, saying
 	// that it is a magnitude; Readout names it in the pointer readout.
 	Magnitude, Readout string
@@ -64,6 +65,18 @@ type Units struct {
 // Kinds names the three edge kinds for a physics, with the textbook name
 // of the condition after it.
 type Kinds struct{ Value, Flux, Convection string }
+
+// Labels name the data of an edge in the trade's own words (the value and
+// the coefficient are named by Units).
+type Labels struct {
+	// FluxIn names what a flux edge's formula gives: the flux entering the
+	// region per unit area (heat flux in, surface charge density, inflow).
+	FluxIn string
+	// Ambient names what a Robin edge's formula gives: the value on the
+	// far side of the boundary layer (fluid temperature, electrode
+	// potential, head beyond a leaky layer).
+	Ambient string
+}
 
 // Hints are shown beside the inputs: typical values with their sources
 // (rules of thumb are marked as common practice).
@@ -114,6 +127,7 @@ var table = []*Physics{
 			Flux:       "Heat flux in; 0 = insulated (Neumann)",
 			Convection: "Convection to a fluid (Robin)",
 		},
+		Labels: Labels{FluxIn: "heat flux in", Ambient: "fluid temperature"},
 		Hints: Hints{
 			// the burn threshold: common practice (see BurnTemperature)
 			Physics: "Surfaces above about 60 °C burn skin on brief contact (common practice).",
@@ -141,26 +155,31 @@ var table = []*Physics{
 			Conductivity: "permittivity", CondUnit: "F/m",
 			Flux: "electric displacement", FluxUnit: "C/m²", FlowUnit: "C/m",
 			Source: "charge density", SourceUnit: "C/m³",
-			Coefficient: "Robin coefficient", CoefUnit: "F/m²", Length: "m"},
+			Coefficient: "layer capacitance per area", CoefUnit: "F/m²", Length: "m"},
 		Kinds: Kinds{
 			Value:      "Fixed potential, electrode (Dirichlet)",
-			Flux:       "Displacement flux in; 0 = symmetry line (Neumann)",
-			Convection: "Mixed condition (Robin)",
+			Flux:       "Surface charge; 0 = symmetry line (Neumann)",
+			Convection: "Thin dielectric layer over an electrode (Robin)",
 		},
+		// the normal electric displacement entering the region equals the
+		// surface charge density on the boundary (Gauss's law, no field
+		// outside)
+		Labels: Labels{FluxIn: "surface charge density σ", Ambient: "electrode potential beyond the layer"},
 		Hints: Hints{
 			// AMS Glossary of Meteorology (read); see AirBreakdown
 			Physics: "Dry air at sea level breaks down near 3 kV/mm (AMS Glossary of Meteorology).",
 			// the vacuum permittivity is the CODATA value
 			Conductivity: "Permittivity ε = εr × 8.854×10⁻¹² F/m; dry air εr ≈ 1.",
 			Source:       "Free charge per unit volume; 0 in an air or vacuum gap.",
-			H:            "Rarely needed: a Robin edge models a resistive or capacitive boundary layer.",
+			H:            "A thin coating of permittivity εl and thickness d over an electrode: εl/d, e.g. a 0.1 mm film with εr = 4 gives 3.5×10⁻⁷ F/m².",
 		},
 		Magnitude: "field strength |E|", Readout: "field strength |E|",
 		Also:     Also{Unit: "kV/mm", Scale: 1e6},
-		DefaultH: "1",
+		DefaultH: "3.5e-7",
 		// vacuum (εr = 1) to ferroelectric ceramics (εr up to about 1e4,
 		// from memory); no material is below the vacuum permittivity
-		Usual: Usual{Conductivity: [2]float64{8.8e-12, 8.9e-8},
+		// layer capacitance: vacuum over 1 m to εr 1e4 over 1 µm
+		Usual: Usual{Conductivity: [2]float64{8.8e-12, 8.9e-8}, H: [2]float64{8.8e-12, 0.1},
 			Source: "from vacuum (εr = 1) to ferroelectric ceramics (εr ≈ 10⁴)"},
 		cautions: electrostaticCautions,
 	},
@@ -176,8 +195,9 @@ var table = []*Physics{
 		Kinds: Kinds{
 			Value:      "Fixed head, water level (Dirichlet)",
 			Flux:       "Inflow; 0 = impermeable (Neumann)",
-			Convection: "Leaky layer to a head (Robin)",
+			Convection: "Leaky boundary through a semi-pervious layer (Robin)",
 		},
+		Labels: Labels{FluxIn: "inflow (Darcy flux in)", Ambient: "head beyond the leaky layer"},
 		Hints: Hints{
 			// the critical gradient: common practice in soil mechanics (see CriticalGradient)
 			Physics:      "Exit gradients near (Gs − 1)/(1 + e) ≈ 1 start heave and piping (common practice).",
@@ -195,15 +215,16 @@ var table = []*Physics{
 		cautions: seepageCautions,
 	},
 	{
-		ID: Generic, Name: "Generic (no units)",
+		ID: Generic, Name: "Generic (lengths in m, no other units)",
 		Units: Units{Physics: Generic,
-			Value: "u", Gradient: "gradient", Conductivity: "conductivity",
-			Flux: "flux", Source: "source", Coefficient: "Robin coefficient", Length: "m"},
+			Value: "value u", Gradient: "gradient of u", Conductivity: "conductivity K",
+			Flux: "flux", Source: "source", Coefficient: "Robin coefficient h", Length: "m"},
 		Kinds: Kinds{
 			Value:      "Value (Dirichlet)",
 			Flux:       "Flux in (Neumann)",
 			Convection: "Mixed, h (u_amb - u) in (Robin)",
 		},
+		Labels: Labels{FluxIn: "flux in", Ambient: "outside value u_amb"},
 		Hints: Hints{
 			Conductivity: "Coefficient of the equation div(K grad u) + source = 0.",
 			Source:       "Uniform source term.",
