@@ -24,7 +24,7 @@
   let profile = null; // {a: {x, y}, b: {x, y}}
   let profileMode = false;
   let drag = null;
-  const opts = { iso: true, arrows: false, colours: "auto" };
+  const opts = { iso: true, arrows: false, colours: "auto", stretch: false };
 
   // ---- sampling ----
 
@@ -66,6 +66,12 @@
 
   let horizontal = false; // legend under the picture (narrow screens)
 
+  // A rectangle drawn to scale thinner than THIN px gets the offer of a
+  // stretched view; stretched, its short side is drawn STRETCH of the long
+  // one (at most the height the page allows), and the picture says so.
+  const THIN = 110;
+  const STRETCH = 0.4;
+
   function layout() {
     const stage = canvas.parentElement.parentElement;
     horizontal = stage.clientWidth < 560;
@@ -79,10 +85,20 @@
     const maxH = Math.max(150, Math.min(window.innerHeight * 0.58, 540));
     let w = availW, h = (availW * H) / W, scaled = true;
     if (h > maxH) { h = maxH; w = (h * W) / H; }
-    if (h < 48) { h = 48; scaled = false; }
-    if (w < 48) { w = 48; scaled = false; }
+    const thin = Math.min(w, h) < THIN;
+    $("opt-stretch-box").hidden = !thin;
+    let stretch = 1; // how much the short side is drawn longer than to scale
+    if (thin && opts.stretch) {
+      m.t = 30; // room for the "not to scale" note above the picture
+      if (h < w) { const h2 = Math.min(maxH, Math.max(THIN, STRETCH * w)); stretch = h2 / h; h = h2; }
+      else { const w2 = Math.min(availW, Math.max(THIN, STRETCH * h)); stretch = w2 / w; w = w2; }
+      scaled = false;
+    }
+    if (h < 48) { stretch *= 48 / h; h = 48; scaled = false; }
+    if (w < 48) { stretch *= 48 / w; w = 48; scaled = false; }
     const x0 = m.l + (availW - w) / 2;
-    box = { x0, y0: m.t, w, h, scaled, cssW, cssH: h + m.t + m.b };
+    box = { x0, y0: m.t, w, h, scaled, stretch, tall: h >= w, cssW, cssH: h + m.t + m.b };
+    canvas.dataset.scale = scaled ? "true" : "stretched " + stretch.toFixed(2);
   }
   const X = (x) => box.x0 + (x / S.w) * box.w;
   const Y = (y) => box.y0 + (1 - y / S.h) * box.h;
@@ -227,6 +243,23 @@
       ctx.fillText(EW.num(t, 3), px, box.y0 + box.h + 6);
     }
     ctx.fillText("x [" + lu + "]" + (box.scaled ? "" : "   (not to scale)"), box.x0 + box.w / 2, box.y0 + box.h + 22);
+    if (!box.scaled && box.y0 >= 30) {
+      // the stretched view says so above the picture, in the warning colour
+      const note = "NOT TO SCALE: " + (box.w >= box.h ? "height" : "width") + " drawn " + EW.num(box.stretch, 2) + " × its true size";
+      ctx.save();
+      ctx.font = "600 11px system-ui, sans-serif";
+      ctx.textAlign = "left";
+      ctx.textBaseline = "middle";
+      const tw = ctx.measureText(note).width;
+      ctx.fillStyle = "#fdf3e7";
+      ctx.fillRect(box.x0, 6, tw + 14, 18);
+      ctx.strokeStyle = "#8a3b12";
+      ctx.lineWidth = 1;
+      ctx.strokeRect(box.x0 + 0.5, 6.5, tw + 13, 17);
+      ctx.fillStyle = "#8a3b12";
+      ctx.fillText(note, box.x0 + 7, 15.5);
+      ctx.restore();
+    }
     ctx.textAlign = "right";
     ctx.textBaseline = "middle";
     const yt = EW.niceTicks(0, S.h, Math.max(2, Math.floor(box.h / 50)));
@@ -310,6 +343,7 @@
       EW.value(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
       "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") +
       (own(S.result) ? "" : " (chosen here; the SVG, PNG and report use the automatic colours)") + "." +
+      (box.scaled ? "" : " Not to scale: the " + (box.w >= box.h ? "height" : "width") + " is drawn " + EW.num(box.stretch, 2) + " × its true size.") +
       (opts.arrows ? " Arrows: direction of the " + (u.flux || "flux") + ", length in proportion up to the 90th percentile of its size." : "");
     canvas.setAttribute("aria-label", "Picture of the field. " + text);
     $("field-summary").textContent = text;
@@ -449,6 +483,7 @@
 
   $("opt-iso").addEventListener("change", (e) => { opts.iso = e.target.checked; redraw(); });
   $("opt-arrows").addEventListener("change", (e) => { opts.arrows = e.target.checked; redraw(); });
+  $("opt-stretch").addEventListener("change", (e) => { opts.stretch = e.target.checked; redraw(); });
   $("opt-colours").addEventListener("change", (e) => { opts.colours = e.target.value; redraw(true); });
   let resizeTimer = 0;
   window.addEventListener("resize", () => {

@@ -334,3 +334,59 @@ func TestEdgeLabelsInTradeWords(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// Pictures that read well: a 20:1 plate is offered a stretched view, which
+// is drawn much taller and marked as not to scale on the picture and in
+// its text; isoline labels keep clear of probes and their names; the
+// profile curve keeps clear of its frame.
+func TestPicturesReadWell(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	thin := strings.NewReplacer(`width: 0.4, height: 0.2`, `width: 1, height: 0.05`, `expr: "40"}, right`, `expr: "40 + 20*s/H"}, right`).Replace(plate)
+	n := tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewise.load(`+thin+`)`)
+	tb.waitSolved(t, n+1)
+	if eval[bool](t, tb, `document.getElementById("opt-stretch-box").hidden`) {
+		t.Fatalf("no offer of a stretched view for a 20:1 plate")
+	}
+	h0 := eval[float64](t, tb, `window.edgewiseParts.pictureBoxes().plot.h`)
+	tb.shot(t, "look-thin-to-scale")
+	drawn := eval[int](t, tb, `Number(document.documentElement.dataset.drawn)`)
+	eval[bool](t, tb, `(document.getElementById("opt-stretch").click(), true)`)
+	tb.waitFor(t, `Number(document.documentElement.dataset.drawn) > `+strconv.Itoa(drawn), "the stretched redraw")
+	h1 := eval[float64](t, tb, `window.edgewiseParts.pictureBoxes().plot.h`)
+	if h1 < 2*h0 || h1 < 110 {
+		t.Errorf("stretched picture %g px high (to scale %g px), want at least twice and 110 px", h1, h0)
+	}
+	if s := eval[string](t, tb, `document.getElementById("field").dataset.scale`); !strings.HasPrefix(s, "stretched") {
+		t.Errorf("picture scale %q, want stretched", s)
+	}
+	if sum := eval[string](t, tb, `document.getElementById("field-summary").textContent`); !strings.Contains(sum, "Not to scale") {
+		t.Errorf("summary %q does not say the picture is not to scale", sum)
+	}
+	tb.shot(t, "look-thin-stretched")
+	// probes where the plate's isoline labels would sit (the middle column)
+	n = tb.solved(t)
+	eval[map[string]any](t, tb, `window.edgewise.load(Object.assign(`+plate+`, {probes: [{x: 0.2, y: 0.1, label: "Mid"}, {x: 0.2, y: 0.05, label: "Low"}, {x: 0.195, y: 0.15, label: "High"}]}))`)
+	tb.waitSolved(t, n+1)
+	labels, probes := pictureBoxes(t, tb)
+	if len(labels) < 3 || len(probes) != 3 {
+		t.Fatalf("%d labels and %d probes on the picture", len(labels), len(probes))
+	}
+	for _, l := range labels {
+		for _, p := range probes {
+			if l[0] < p[0]+p[2] && p[0] < l[0]+l[2] && l[1] < p[1]+p[3] && p[1] < l[1]+l[3] {
+				t.Errorf("isoline label %v covers probe %v", l, p)
+			}
+		}
+	}
+	tb.shot(t, "look-labels-and-probes")
+	eval[bool](t, tb, `(document.getElementById("profile-box").open = true, true)`)
+	tb.waitFor(t, `!!document.getElementById("profile").dataset.curve`, "the profile")
+	fr := eval[[]float64](t, tb, `document.getElementById("profile").dataset.frame.split(",").map(Number)`)
+	cv := eval[[]float64](t, tb, `document.getElementById("profile").dataset.curve.split(",").map(Number)`)
+	if cv[0] < fr[0]+3 || cv[1] < fr[1]+3 || cv[2] > fr[2]-3 || cv[3] > fr[3]-3 {
+		t.Errorf("profile curve %v touches its frame %v", cv, fr)
+	}
+	tb.noErrors(t)
+}
