@@ -194,8 +194,7 @@
       offer([para("The example did not open: " + e.message)]);
       return;
     }
-    const name = EW.physicsOf(from).name;
-    offer([para("The example is open. Your own project (" + name + ") is kept until you leave the page or bring it back."),
+    offer([para("The example is open. Your own project, as it was before the switch, is kept until you bring it back or leave the page."),
       actions(button("Back to my project", "offer-back", true, back), button("Stay with the example", "offer-keep", false, () => { kept = null; offer([]); }))]);
   }
 
