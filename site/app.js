@@ -377,7 +377,7 @@
       td(EW.num(p.x, 4) + ", " + EW.num(p.y, 4));
       const vc = td((approx ? "≈ " : "") + EW.num(v, 6), "num probe-value");
       vc.dataset.value = String(v);
-      EW.probeCells(td, p, S, gx, gy, qx, qy);
+      tr.append(...EW.probeCells(p, S, gx, gy, qx, qy));
       const cell = document.createElement("td");
       const b = document.createElement("button");
       b.type = "button";

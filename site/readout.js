@@ -35,23 +35,25 @@
     }
   };
 
-  // probeCells adds a probe's gradient and flux cells to its row (td(text,
-  // cls) appends a cell): the size of the gradient, as the column heading
-  // says; the flux as its components qx, qy; and for a probe on an edge the
+  // probeCells returns a probe's gradient and flux cells for its row in
+  // the probes table: the size of the gradient, as the column heading
+  // says; the flux as its components x, y; and for a probe on an edge the
   // normal flux INTO the region there, the convention of the edge flows.
-  EW.probeCells = function (td, p, S, gx, gy, qx, qy) {
-    td(EW.num(Math.hypot(gx, gy), 4), "num");
+  EW.probeCells = function (p, S, gx, gy, qx, qy) {
+    const td = (text, cls) => { const c = document.createElement("td"); c.className = cls; c.textContent = text; return c; };
+    const grad = td(EW.num(Math.hypot(gx, gy), 4), "num");
     const q = Math.hypot(qx, qy);
     // a component below 1e-9 of the flux is rounding noise
     const comp = (v) => (Math.abs(v) <= 1e-9 * q ? "0" : EW.num(v, 4));
-    const cell = td(comp(qx) + ", " + comp(qy), "num flux");
+    const flux = td(comp(qx) + ", " + comp(qy), "num flux");
     for (const [side, qin] of normals(p, S, qx, qy)) {
       const n = document.createElement("span");
       n.className = "normal";
       n.dataset.side = side;
       n.textContent = "in through " + side + ": " + comp(qin);
-      cell.append(n);
+      flux.append(n);
     }
+    return [grad, flux];
   };
 
   // normals lists, for a probe on the boundary, each edge it lies on with
