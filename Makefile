@@ -24,7 +24,7 @@ site/checks.json: $(wildcard testdata/checks.json)
 	@if [ -f testdata/checks.json ]; then cp testdata/checks.json $@; else echo '{"cases": []}' > $@; fi
 
 # the physics table (names, units, labels, hints) as the page reads it
-site/physics.json: $(wildcard solver/physics/*.go solver/jsonlite/*.go scripts/physicsjson/*.go)
+site/physics.json: $(wildcard solver/physics/*.go solver/physics/examples/*.json solver/jsonlite/*.go scripts/physicsjson/*.go)
 	$(GO) run ./scripts/physicsjson -o $@
 
 site/app.wasm: $(shell find solver wasm -name '*.go' -not -name '*_test.go') go.mod go.sum

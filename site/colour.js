@@ -3,7 +3,8 @@
 // colour.Choose, the same for the SVG, the PNG and the report), drawn with
 // the engine's colour tables (EW.colours, from edgewise_colours). Entry
 // point: EW.colour = {scale(result, mode), paint(canvas, S, scale),
-// legend(canvas, scale, box, horizontal, units)}.
+// legend(canvas, scale, box, horizontal, units, levels)}, and EW.tag, the
+// boxed value label the picture and the colour bar share.
 "use strict";
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
@@ -70,42 +71,122 @@
     ctx.putImageData(img, 0, 0);
   }
 
+  // ---- tags: the page's own label look ----
+  // A value label is a small upright box in paper colour with a thin ink
+  // edge, never rotated and never bold: isoline labels on the picture and
+  // the end values of the colour bar share it.
+  const TAG_FONT = "10.5px system-ui, sans-serif";
+  const TAG_H = 15;
+
+  // tagSize returns the box a tag of this text takes: {w, h}.
+  function tagSize(ctx, text) {
+    ctx.font = TAG_FONT;
+    return { w: Math.ceil(ctx.measureText(text).width) + 8, h: TAG_H };
+  }
+
+  // tag draws text in a tag centred on (cx, cy) and returns its box
+  // {x, y, w, h}.
+  function tag(ctx, text, cx, cy) {
+    const { w, h } = tagSize(ctx, text);
+    const x = Math.round(cx - w / 2) + 0.5, y = Math.round(cy - h / 2) + 0.5;
+    ctx.save();
+    ctx.beginPath();
+    if (ctx.roundRect) ctx.roundRect(x, y, w, h, 2); else ctx.rect(x, y, w, h);
+    ctx.fillStyle = "rgba(251, 250, 246, 0.93)";
+    ctx.fill();
+    ctx.lineWidth = 0.8;
+    ctx.strokeStyle = "rgba(27, 32, 41, 0.55)";
+    ctx.stroke();
+    ctx.fillStyle = INK;
+    ctx.font = TAG_FONT;
+    ctx.textAlign = "center";
+    ctx.textBaseline = "middle";
+    ctx.fillText(text, x + w / 2, y + h / 2 + 0.5);
+    ctx.restore();
+    return { x, y, w, h };
+  }
+
+  // power returns the power of ten the bar's labels leave out (written once
+  // beside the unit), or 0 when plain numbers read well.
+  function power(sc) {
+    const m = Math.max(Math.abs(sc.lo), Math.abs(sc.hi));
+    if (!(m > 0) || (m >= 1e-3 && m < 1e5)) return 0;
+    return Math.floor(Math.log10(m));
+  }
+
   // legend draws the colour bar beside the picture (box: the plot area in
-  // CSS pixels), or under it on a narrow screen.
-  function legend(canvas, sc, box, horizontal, units) {
+  // CSS pixels), or under it on a narrow screen. The bar's look: thin
+  // lines across it at the isoline levels (levels, when the picture shows
+  // isolines), round values on short ticks outside it, and the two ends in
+  // tags like the isoline labels. A power of ten too large or small for
+  // plain numbers is written once, with the unit.
+  function legend(canvas, sc, box, horizontal, units, levels) {
     const u = units || {};
-    if (horizontal) return legendBelow(canvas, sc, box, u);
-    const w = 96;
+    const p = power(sc), f = Math.pow(10, -p);
+    // below the accuracy of the solve an end is 0, not rounding noise
+    const label = (t, d) => (EW.floors && Math.abs(t) < EW.floors().value ? "0" : EW.num(t * f, d));
+    const unitText = (p ? "×10" + EW.superscript(p) + (u.value_unit ? " " : "") : "") + (u.value_unit || "");
+    if (horizontal) return legendBelow(canvas, sc, box, u, levels, label, unitText);
+    const probe = canvas.getContext("2d");
+    probe.font = TAG_FONT;
+    const widest = Math.max(tagSize(probe, label(sc.hi, 4)).w, tagSize(probe, label(sc.lo, 4)).w,
+      probe.measureText(unitText ? "[" + unitText + "]" : "").width + 4);
+    const x = 8, bw = 14;
+    const w = Math.max(96, Math.ceil(x + bw + 10 + widest + 4));
     const ctx = EW.sizeCanvas(canvas, w, box.cssH);
     canvas.style.width = w + "px";
     ctx.fillStyle = PAPER;
     ctx.fillRect(0, 0, w, box.cssH);
-    const top = box.y0, h = box.h, x = 6, bw = 16;
+    const top = box.y0, h = box.h;
     for (let py = 0; py < h; py++) {
       ctx.fillStyle = sc.rgb(sc.hi - ((py + 0.5) / h) * (sc.hi - sc.lo));
       ctx.fillRect(x, top + py, bw, 1.5);
     }
+    const yOf = (t) => top + ((sc.hi - t) / (sc.hi - sc.lo || 1)) * h;
+    across(ctx, sc, levels, (t) => { const py = Math.round(yOf(t)) + 0.5; ctx.moveTo(x, py); ctx.lineTo(x + bw, py); });
     ctx.strokeStyle = INK;
-    ctx.strokeRect(x, top, bw, h);
+    ctx.lineWidth = 1;
+    ctx.strokeRect(x + 0.5, top + 0.5, bw - 1, h - 1);
     ctx.fillStyle = INK;
+    ctx.font = "11px system-ui, sans-serif";
     ctx.textAlign = "left";
     ctx.textBaseline = "middle";
-    const yOf = (t) => top + ((sc.hi - t) / (sc.hi - sc.lo || 1)) * h;
-    for (const [t, end] of marks(sc, yOf, Math.max(3, Math.floor(h / 34)), 13)) {
+    for (const [t, end] of marks(sc, yOf, Math.max(3, Math.floor(h / 34)), 16)) {
       const py = yOf(t);
-      ctx.beginPath(); ctx.moveTo(x + bw, py); ctx.lineTo(x + bw + 4, py); ctx.stroke();
-      ctx.font = (end ? "600 " : "") + "11px system-ui, sans-serif";
-      ctx.fillText(EW.num(t, end ? 4 : 3), x + bw + 6, py);
+      ctx.beginPath(); ctx.moveTo(x + bw, py); ctx.lineTo(x + bw + (end ? 6 : 4), py); ctx.stroke();
+      if (end) {
+        const tw = tagSize(ctx, label(t, 4)).w;
+        // the tag sits beside its end, inside the bar's height
+        tag(ctx, label(t, 4), x + bw + 6 + tw / 2, Math.min(Math.max(py, top + TAG_H / 2), top + h - TAG_H / 2));
+        ctx.font = "11px system-ui, sans-serif";
+        ctx.textAlign = "left";
+        ctx.textBaseline = "middle";
+        ctx.fillStyle = INK;
+      } else {
+        ctx.fillText(label(t, 3), x + bw + 7, py);
+      }
     }
     ctx.textBaseline = "top";
-    ctx.font = "600 11px system-ui, sans-serif";
-    ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x, top + h + 8);
     ctx.font = "11px system-ui, sans-serif";
+    ctx.fillText(unitText ? "[" + unitText + "]" : "", x, top + h + 8);
+    ctx.fillStyle = "#5b5f68";
     ctx.fillText(u.value || "", x, top + h + 22);
+    canvas.dataset.power = String(p);
   }
 
-  function legendBelow(canvas, sc, box, u) {
-    const w = box.cssW, hh = 40;
+  // across strokes a thin line across the bar at every level inside the
+  // scale (the isolines of the picture); line(t) adds one to the path.
+  function across(ctx, sc, levels, line) {
+    if (!levels || !levels.length) return;
+    ctx.beginPath();
+    for (const t of levels) if (t > Math.min(sc.lo, sc.hi) && t < Math.max(sc.lo, sc.hi)) line(t);
+    ctx.lineWidth = 1;
+    ctx.strokeStyle = "rgba(20, 24, 32, 0.5)";
+    ctx.stroke();
+  }
+
+  function legendBelow(canvas, sc, box, u, levels, label, unitText) {
+    const w = box.cssW, hh = 44;
     const ctx = EW.sizeCanvas(canvas, w, hh);
     canvas.style.width = w + "px";
     ctx.fillStyle = PAPER;
@@ -115,32 +196,45 @@
       ctx.fillStyle = sc.rgb(sc.lo + ((px + 0.5) / bw) * (sc.hi - sc.lo));
       ctx.fillRect(x0 + px, y, 1.5, bh);
     }
+    const xOf = (t) => x0 + ((t - sc.lo) / (sc.hi - sc.lo || 1)) * bw;
+    across(ctx, sc, levels, (t) => { const px = Math.round(xOf(t)) + 0.5; ctx.moveTo(px, y); ctx.lineTo(px, y + bh); });
     ctx.strokeStyle = INK;
-    ctx.strokeRect(x0, y, bw, bh);
+    ctx.lineWidth = 1;
+    ctx.strokeRect(x0 + 0.5, y + 0.5, bw - 1, bh - 1);
     ctx.fillStyle = INK;
     ctx.textBaseline = "top";
-    const xOf = (t) => x0 + ((t - sc.lo) / (sc.hi - sc.lo || 1)) * bw;
-    for (const [t, end] of marks(sc, xOf, Math.max(3, Math.floor(bw / 70)), 34)) {
+    for (const [t, end] of marks(sc, xOf, Math.max(3, Math.floor(bw / 70)), 40)) {
       const px = xOf(t);
       ctx.beginPath(); ctx.moveTo(px, y + bh); ctx.lineTo(px, y + bh + 4); ctx.stroke();
-      ctx.font = (end ? "600 " : "") + "11px system-ui, sans-serif";
-      ctx.textAlign = t === sc.lo ? "left" : t === sc.hi ? "right" : "center";
-      ctx.fillText(EW.num(t, end ? 4 : 3), t === sc.lo ? px - 2 : t === sc.hi ? px + 2 : px, y + bh + 6);
+      if (end) {
+        const tw = tagSize(ctx, label(t, 4)).w;
+        tag(ctx, label(t, 4), t === sc.lo ? px + tw / 2 : px - tw / 2, y + bh + 4 + TAG_H / 2);
+        ctx.fillStyle = INK;
+        ctx.textBaseline = "top";
+      } else {
+        ctx.font = "11px system-ui, sans-serif";
+        ctx.textAlign = "center";
+        ctx.fillText(label(t, 3), px, y + bh + 6);
+      }
     }
     ctx.textAlign = "right";
-    ctx.font = "600 11px system-ui, sans-serif";
-    ctx.fillText(u.value_unit ? "[" + u.value_unit + "]" : "", x0 - 6, y);
+    ctx.textBaseline = "top";
+    ctx.font = "11px system-ui, sans-serif";
+    ctx.fillText(unitText ? "[" + unitText + "]" : "", x0 - 6, y);
   }
 
   // marks returns the ends, labelled always, and round ticks at least gap
   // pixels from them.
   function marks(sc, pos, n, gap) {
     const list = [[sc.hi, true], [sc.lo, true]];
+    if (!(sc.hi > sc.lo)) return [[sc.hi, true]];
     for (const t of EW.niceTicks(sc.lo, sc.hi, n)) {
       if (Math.abs(pos(t) - pos(sc.hi)) > gap && Math.abs(pos(t) - pos(sc.lo)) > gap) list.push([t, false]);
     }
     return list;
   }
 
+  EW.tag = tag;
+  EW.tagSize = tagSize;
   EW.colour = { scale, paint, legend };
 })();

@@ -13,6 +13,7 @@
   const profileCanvas = $("profile");
   const INK = "#1b2029";
   const PAPER = "#fbfaf6";
+  const PROBE_FONT = "600 11px system-ui, sans-serif";
 
   let S = null; // the shown solve: {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
   let box = null; // plot area in CSS pixels {x0, y0, w, h, scaled}
@@ -23,7 +24,7 @@
   let profile = null; // {a: {x, y}, b: {x, y}}
   let profileMode = false;
   let drag = null;
-  const opts = { iso: true, arrows: false, colours: "auto" };
+  const opts = { iso: true, arrows: false, colours: "auto", stretch: false };
 
   // ---- sampling ----
 
@@ -65,6 +66,12 @@
 
   let horizontal = false; // legend under the picture (narrow screens)
 
+  // A rectangle drawn to scale thinner than THIN px gets the offer of a
+  // stretched view; stretched, its short side is drawn STRETCH of the long
+  // one (at most the height the page allows), and the picture says so.
+  const THIN = 110;
+  const STRETCH = 0.4;
+
   function layout() {
     const stage = canvas.parentElement.parentElement;
     horizontal = stage.clientWidth < 560;
@@ -78,10 +85,20 @@
     const maxH = Math.max(150, Math.min(window.innerHeight * 0.58, 540));
     let w = availW, h = (availW * H) / W, scaled = true;
     if (h > maxH) { h = maxH; w = (h * W) / H; }
-    if (h < 48) { h = 48; scaled = false; }
-    if (w < 48) { w = 48; scaled = false; }
+    const thin = Math.min(w, h) < THIN;
+    $("opt-stretch-box").hidden = !thin;
+    let stretch = 1; // how much the short side is drawn longer than to scale
+    if (thin && opts.stretch) {
+      m.t = 30; // room for the "not to scale" note above the picture
+      if (h < w) { const h2 = Math.min(maxH, Math.max(THIN, STRETCH * w)); stretch = h2 / h; h = h2; }
+      else { const w2 = Math.min(availW, Math.max(THIN, STRETCH * h)); stretch = w2 / w; w = w2; }
+      scaled = false;
+    }
+    if (h < 48) { stretch *= 48 / h; h = 48; scaled = false; }
+    if (w < 48) { stretch *= 48 / w; w = 48; scaled = false; }
     const x0 = m.l + (availW - w) / 2;
-    box = { x0, y0: m.t, w, h, scaled, cssW, cssH: h + m.t + m.b };
+    box = { x0, y0: m.t, w, h, scaled, stretch, tall: h >= w, cssW, cssH: h + m.t + m.b };
+    canvas.dataset.scale = scaled ? "true" : "stretched " + stretch.toFixed(2);
   }
   const X = (x) => box.x0 + (x / S.w) * box.w;
   const Y = (y) => box.y0 + (1 - y / S.h) * box.h;
@@ -134,30 +151,38 @@
     }
     ctx.stroke();
     if (!ends) return;
-    // labels: value along the line, upright, with a halo; skip crowded ones
+    // labels: upright tags set on the line (EW.tag), never over a probe and
+    // its name, never over another label
     const digits = levelDigits();
-    ctx.font = "600 11px system-ui, sans-serif";
-    ctx.textAlign = "center";
-    ctx.textBaseline = "middle";
+    const keepOut = probeBoxes(ctx);
     const placed = [];
+    const hit = (a, b) => a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
     for (let k = 0; k < labels.length; k += 4) {
       const px = X(labels[k]), py = Y(labels[k + 1]);
-      if (placed.some((p) => Math.hypot(p[0] - px, p[1] - py) < 46)) continue;
-      if (px < box.x0 + 14 || px > box.x0 + box.w - 14 || py < box.y0 + 8 || py > box.y0 + box.h - 8) continue;
-      placed.push([px, py]);
-      let ang = -labels[k + 2];
-      if (Math.cos(ang) < 0) ang += Math.PI;
       const text = EW.num(levels[labels[k + 3]], digits);
-      ctx.save();
-      ctx.translate(px, py);
-      ctx.rotate(ang);
-      ctx.lineWidth = 3.5;
-      ctx.strokeStyle = "rgba(251, 250, 246, 0.9)";
-      ctx.strokeText(text, 0, 0);
-      ctx.fillStyle = INK;
-      ctx.fillText(text, 0, 0);
-      ctx.restore();
+      const { w, h } = EW.tagSize(ctx, text);
+      const r = { x: px - w / 2 - 3, y: py - h / 2 - 3, w: w + 6, h: h + 6 };
+      if (r.x < box.x0 + 2 || r.x + r.w > box.x0 + box.w - 2 || r.y < box.y0 + 2 || r.y + r.h > box.y0 + box.h - 2) continue;
+      if (placed.some((q) => hit(q, r)) || keepOut.some((q) => hit(q, r))) continue;
+      placed.push(r);
+      EW.tag(ctx, text, px, py);
     }
+    S.labelBoxes = placed;
+  }
+
+  // probeBoxes returns the boxes the probe markers and their names take,
+  // in CSS pixels (drawTop draws them: a ring of radius 4.5 and the name
+  // to its upper right).
+  function probeBoxes(ctx) {
+    ctx.save();
+    ctx.font = PROBE_FONT;
+    const out = (S.project.probes || []).map((p) => {
+      const px = X(p.x), py = Y(p.y);
+      const tw = ctx.measureText(p.label || "").width;
+      return { x: px - 7, y: py - 17, w: tw + 16, h: 24 };
+    });
+    ctx.restore();
+    return out;
   }
 
   function drawArrows(ctx) {
@@ -218,6 +243,23 @@
       ctx.fillText(EW.num(t, 3), px, box.y0 + box.h + 6);
     }
     ctx.fillText("x [" + lu + "]" + (box.scaled ? "" : "   (not to scale)"), box.x0 + box.w / 2, box.y0 + box.h + 22);
+    if (!box.scaled && box.y0 >= 30) {
+      // the stretched view says so above the picture, in the warning colour
+      const note = "NOT TO SCALE: " + (box.w >= box.h ? "height" : "width") + " drawn " + EW.num(box.stretch, 2) + " × its true size";
+      ctx.save();
+      ctx.font = "600 11px system-ui, sans-serif";
+      ctx.textAlign = "left";
+      ctx.textBaseline = "middle";
+      const tw = ctx.measureText(note).width;
+      ctx.fillStyle = "#fdf3e7";
+      ctx.fillRect(box.x0, 6, tw + 14, 18);
+      ctx.strokeStyle = "#8a3b12";
+      ctx.lineWidth = 1;
+      ctx.strokeRect(box.x0 + 0.5, 6.5, tw + 13, 17);
+      ctx.fillStyle = "#8a3b12";
+      ctx.fillText(note, box.x0 + 7, 15.5);
+      ctx.restore();
+    }
     ctx.textAlign = "right";
     ctx.textBaseline = "middle";
     const yt = EW.niceTicks(0, S.h, Math.max(2, Math.floor(box.h / 50)));
@@ -235,7 +277,7 @@
   }
 
   function drawLegend() {
-    EW.colour.legend(legend, map, box, horizontal, S.units);
+    EW.colour.legend(legend, map, box, horizontal, S.units, opts.iso ? S.levels : null);
   }
 
   // drawTop copies the base and adds what follows the pointer: probes, the
@@ -244,7 +286,7 @@
     const ctx = size(canvas, box.cssW, box.cssH);
     ctx.drawImage(base, 0, 0, box.cssW, box.cssH);
     const probes = (S.project.probes || []);
-    ctx.font = "600 11px system-ui, sans-serif";
+    ctx.font = PROBE_FONT;
     ctx.textAlign = "left";
     ctx.textBaseline = "bottom";
     probes.forEach((p) => {
@@ -296,11 +338,12 @@
     const unit = u.value_unit ? " " + u.value_unit : "";
     const L = u.length_unit || "m";
     const text = q + " in a " + EW.num(S.w) + " " + L + " × " + EW.num(S.h) + " " + L + " rectangle: from " +
-      EW.num(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
-      EW.num(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
-      EW.num(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
+      EW.value(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
+      EW.value(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
+      EW.value(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
       "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") +
       (own(S.result) ? "" : " (chosen here; the SVG, PNG and report use the automatic colours)") + "." +
+      (box.scaled ? "" : " Not to scale: the " + (box.w >= box.h ? "height" : "width") + " is drawn " + EW.num(box.stretch, 2) + " × its true size.") +
       (opts.arrows ? " Arrows: direction of the " + (u.flux || "flux") + ", length in proportion up to the 90th percentile of its size." : "");
     canvas.setAttribute("aria-label", "Picture of the field. " + text);
     $("field-summary").textContent = text;
@@ -440,6 +483,7 @@
 
   $("opt-iso").addEventListener("change", (e) => { opts.iso = e.target.checked; redraw(); });
   $("opt-arrows").addEventListener("change", (e) => { opts.arrows = e.target.checked; redraw(); });
+  $("opt-stretch").addEventListener("change", (e) => { opts.stretch = e.target.checked; redraw(); });
   $("opt-colours").addEventListener("change", (e) => { opts.colours = e.target.value; redraw(true); });
   let resizeTimer = 0;
   window.addEventListener("resize", () => {
@@ -463,6 +507,7 @@
   EW.show = function (solve) {
     const first = !S;
     S = solve;
+    EW.setAccuracy(S.result);
     if (first || !profile) {
       profile = { a: { x: 0, y: S.h / 2 }, b: { x: S.w, y: S.h / 2 } };
     } else {
@@ -477,8 +522,12 @@
   EW.showProbes = function (probes) {
     if (!S) return;
     S.project = Object.assign({}, S.project, { probes });
+    drawBase(); // isoline labels make room for the probes
     drawTop();
   };
+  // pictureBoxes returns where the isoline labels and the probes (with
+  // their names) sit on the canvas, in CSS pixels {x, y, w, h}.
+  EW.pictureBoxes = () => (S && base ? { labels: S.labelBoxes || [], probes: probeBoxes(base.getContext("2d")), plot: box } : null);
   // screenOf maps field coordinates to CSS pixels on the canvas.
   EW.screenOf = (x, y) => [X(x), Y(y)];
   EW.canvases = () => ({ field: canvas, legend, profile: profileCanvas });

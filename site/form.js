@@ -158,6 +158,7 @@
   function clearErrors() {
     for (const e of form.querySelectorAll("[data-err]")) e.replaceChildren();
     for (const i of form.querySelectorAll("[aria-invalid]")) i.removeAttribute("aria-invalid");
+    for (const r of document.querySelectorAll("#probes tr.invalid")) r.classList.remove("invalid");
     $("err-other").replaceChildren();
   }
   EW.clearErrors = clearErrors;
@@ -176,9 +177,48 @@
     return i;
   }
 
+  // onScreen names a project path as the page shows it: "edges.bottom.expr"
+  // becomes "Bottom edge, heat flux in" (the label beside the input, in the
+  // physics' own words, without its unit), "probes[0].y" "Probe T1, y".
+  // The runner and window.edgewise.load keep the paths.
+  function onScreen(path) {
+    if (!path) return "Project";
+    const input = form.querySelector('[data-path="' + CSS.escape(path) + '"]');
+    const side = (/^edges\.(\w+)/.exec(path) || [])[1];
+    const edge = side && EW.SIDES.includes(side) ? EW.capital(side) + " edge" : "";
+    if (input) {
+      const span = input.closest("label") && input.closest("label").querySelector("span");
+      let name = span ? span.textContent.replace(/\[[^\]]*\]/g, "").replace(/\s+/g, " ").trim() : path;
+      if (path.startsWith("conductivity.")) {
+        name = ($("in-k").closest("label").querySelector("span").textContent.replace(/\[[^\]]*\]/g, "").trim()) + " " + name;
+      }
+      if (edge) name = edge + ", " + name[0].toLowerCase() + name.slice(1);
+      return name;
+    }
+    if (edge) {
+      const rest = path.slice(("edges." + side).length).replace(/^\./, "").replace(/segments\[(\d+)\]\.?/, (_, i) => "part " + (Number(i) + 1) + (path.endsWith("]") ? "" : ", "));
+      return edge + (rest ? ", " + rest : "");
+    }
+    const pr = /^probes\[(\d+)\](?:\.(\w+))?/.exec(path);
+    if (pr) {
+      const q = probes[Number(pr[1])];
+      return "Probe " + (q && q.label ? q.label : Number(pr[1]) + 1) + (pr[2] ? ", " + pr[2] : "");
+    }
+    if (path.startsWith("grid")) return "Detail (output grid)";
+    return path;
+  }
+  EW.onScreen = onScreen;
+
+  // onScreenMessage rewrites an error that starts with its path so that it
+  // starts with the on-screen name instead.
+  EW.onScreenMessage = (path, message) =>
+    path && message.startsWith(path + ": ") ? onScreen(path) + ": " + message.slice(path.length + 2) : message;
+
   // showError puts one error beside the field its path names: message,
-  // and for formulas the formula with a caret under the column. It returns
-  // true when a place for it was found in the form.
+  // and for formulas the formula with a caret under the column. It names
+  // the field as the screen does (onScreen) and marks it (the input, or
+  // the probe's row). It returns true when a place for it was found in the
+  // form.
   EW.showError = function (path, col, message) {
     let best = null;
     for (const e of form.querySelectorAll("[data-err]")) {
@@ -187,9 +227,14 @@
     }
     const input = path ? form.querySelector('[data-path="' + CSS.escape(path) + '"]') : null;
     if (input) input.setAttribute("aria-invalid", "true");
+    const pr = /^probes\[(\d+)\]/.exec(path || "");
+    if (pr) {
+      const row = document.querySelectorAll("#probes tbody tr")[Number(pr[1])];
+      if (row) row.classList.add("invalid");
+    }
     const target = best || $("err-other");
     const msg = message.startsWith(path + ": ") ? message.slice(path.length + 2) : message;
-    const p = el("p", { class: "err-msg" }, el("b", { text: (path || "project") + ": " }), msg);
+    const p = el("p", { class: "err-msg" }, el("b", { text: onScreen(path) + ": " }), msg);
     target.append(p);
     if (input && col > 0 && input.classList.contains("formula")) {
       const text = input.value;
@@ -250,6 +295,7 @@
   form.addEventListener("submit", (e) => e.preventDefault());
   form.addEventListener("input", (e) => {
     if (e.target.id === "in-physics" || e.target.id === "in-ortho" || /-kind$/.test(e.target.id)) return; // change handles these
+    EW.checkPlausible && EW.checkPlausible();
     EW.edited && EW.edited(e.target);
   });
   $("in-title").addEventListener("input", () => EW.edited && EW.edited($("in-title")));
@@ -267,7 +313,9 @@
       }
     }
     if (t.id === "in-physics" || /-kind$/.test(t.id)) {
+      const was = document.documentElement.dataset.physics;
       EW.relabel();
+      if (t.id === "in-physics" && EW.physicsSwitched) EW.physicsSwitched(was, t.value);
       EW.edited && EW.edited(t);
     } else if (t.id === "in-ortho") {
       $("k-iso").hidden = t.checked;

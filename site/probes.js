@@ -60,8 +60,7 @@
         el("th", { scope: "row", text: p.label }),
         el("td", { text: EW.num(p.x, 4) + ", " + EW.num(p.y, 4) }),
         value,
-        el("td", { class: "num", text: EW.num(Math.hypot(gx, gy), 4) }),
-        el("td", { class: "num", text: EW.num(Math.hypot(qx, qy), 4) }),
+        ...EW.probeCells(p, S, gx, gy, qx, qy),
         el("td", {}, button)));
     }
   }

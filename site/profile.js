@@ -28,10 +28,17 @@
       if (v < lo) lo = v;
       if (v > hi) hi = v;
     }
-    if (!(hi > lo)) { hi = lo + 1; lo = lo - 1; }
+    const vlo = lo, vhi = hi; // the curve's own range, for the text alternative
+    if (!(hi > lo)) { const d = Math.max(1e-9, Math.abs(lo) * 0.05) || 1; hi = lo + d; lo = lo - d; }
+    // the curve keeps clear of its frame: the value axis runs 8 % beyond
+    // the curve's range on each side, and the ends stand 6 px inside
+    const pad = 0.08 * (hi - lo);
+    lo -= pad;
+    hi += pad;
     const m = { l: 58, r: 12, t: 10, b: 34 };
+    const inset = 6;
     const pw = cssW - m.l - m.r, ph = cssH - m.t - m.b;
-    const px = (d) => m.l + (len > 0 ? d / len : 0) * pw;
+    const px = (d) => m.l + inset + (len > 0 ? d / len : 0) * (pw - 2 * inset);
     const py = (v) => m.t + (1 - (v - lo) / (hi - lo)) * ph;
     const u = S.units || {};
     ctx.strokeStyle = "#d8d3c7";
@@ -40,7 +47,7 @@
     ctx.lineWidth = 1;
     ctx.textAlign = "right";
     ctx.textBaseline = "middle";
-    for (const t of EW.niceTicks(lo, hi, 4)) {
+    for (const t of EW.niceTicks(lo, hi, 4).filter((t) => py(t) >= m.t && py(t) <= m.t + ph)) {
       ctx.beginPath(); ctx.moveTo(m.l, py(t)); ctx.lineTo(m.l + pw, py(t)); ctx.stroke();
       ctx.fillText(EW.num(t, 4), m.l - 5, py(t));
     }
@@ -62,8 +69,11 @@
       else ctx.lineTo(px(d), py(v));
     });
     ctx.stroke();
+    // where the curve and its frame are, for tests: [left, top, right, bottom]
+    canvas.dataset.frame = [m.l, m.t, m.l + pw, m.t + ph].join(",");
+    canvas.dataset.curve = [px(0), py(vhi), px(len), py(vlo)].map((v) => v.toFixed(1)).join(",");
     canvas.setAttribute("aria-label", "Line profile from A (" + EW.num(a.x, 3) + ", " + EW.num(a.y, 3) + ") to B (" +
       EW.num(b.x, 3) + ", " + EW.num(b.y, 3) + "): " + (u.value || "value") + " from " + EW.num(vs[0]) + " to " + EW.num(vs[N]) +
-      ", lowest " + EW.num(lo) + ", highest " + EW.num(hi) + ".");
+      ", lowest " + EW.num(vlo) + ", highest " + EW.num(vhi) + ".");
   };
 })();

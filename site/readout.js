@@ -21,7 +21,7 @@
     const also = P.also ? " (" + EW.num(gm / P.also.scale, 3) + " " + P.also.unit + ")" : "";
     const parts = [
       ["x, y", EW.num(x, 4) + ", " + EW.num(y, 4) + " " + L],
-      [u.value || "value", EW.withUnit(EW.num(g.u, 5), u.value_unit)],
+      [u.value || "value", EW.withUnit(EW.value(g.u, 5), u.value_unit)],
       [P.readout || "gradient |∇|", EW.withUnit(EW.num(gm, 4), u.gradient_unit) + also],
       [u.flux || "flux", EW.withUnit(EW.num(Math.hypot(qx, qy), 4), u.flux_unit) + " " + arrow(qx, qy)],
     ];
@@ -34,6 +34,40 @@
       el.append(part, " ");
     }
   };
+
+  // probeCells returns a probe's gradient and flux cells for its row in
+  // the probes table: the size of the gradient, as the column heading
+  // says; the flux as its components x, y; and for a probe on an edge the
+  // normal flux INTO the region there, the convention of the edge flows.
+  EW.probeCells = function (p, S, gx, gy, qx, qy) {
+    const td = (text, cls) => { const c = document.createElement("td"); c.className = cls; c.textContent = text; return c; };
+    const grad = td(EW.num(Math.hypot(gx, gy), 4), "num");
+    const q = Math.hypot(qx, qy);
+    // a component below 1e-9 of the flux is rounding noise
+    const comp = (v) => (Math.abs(v) <= 1e-9 * q ? "0" : EW.num(v, 4));
+    const flux = td(comp(qx) + ", " + comp(qy), "num flux");
+    for (const [side, qin] of normals(p, S, qx, qy)) {
+      const n = document.createElement("span");
+      n.className = "normal";
+      n.dataset.side = side;
+      n.textContent = "in through " + side + ": " + comp(qin);
+      flux.append(n);
+    }
+    return [grad, flux];
+  };
+
+  // normals lists, for a probe on the boundary, each edge it lies on with
+  // the flux entering the region there (inward normal: +y at the bottom,
+  // -y at the top, +x at the left, -x at the right).
+  function normals(p, S, qx, qy) {
+    const on = (a, b, span) => Math.abs(a - b) <= 1e-9 * span;
+    const out = [];
+    if (on(p.y, 0, S.h)) out.push(["bottom", qy]);
+    if (on(p.y, S.h, S.h)) out.push(["top", -qy]);
+    if (on(p.x, 0, S.w)) out.push(["left", qx]);
+    if (on(p.x, S.w, S.w)) out.push(["right", -qx]);
+    return out;
+  }
 
   // arrow points the way the flux goes, to the nearest of eight directions.
   function arrow(qx, qy) {

@@ -57,7 +57,7 @@
       const e = r.edges[side];
       if (e.finite && e.flow !== null) {
         largest = Math.max(largest, Math.abs(e.flow));
-        add(EW.capital(side), EW.num(e.flow, 5));
+        add(EW.capital(side), EW.flow(e.flow, 5));
         continue;
       }
       infinite.push(side);
@@ -72,7 +72,7 @@
         tr.lastChild.append(el("span", { class: "reason", "data-code": w.code, text: why }));
       }
     }
-    if (r.source_total) add("Source", EW.num(r.source_total, 5));
+    if (r.source_total) add("Source", EW.flow(r.source_total, 5));
     let balanceText;
     if (r.balance === null || infinite.length) {
       balanceText = "not defined (an edge flow is infinite)";
@@ -82,7 +82,7 @@
       // the field's range across it would carry
       const kdu = Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value);
       const scale = largest > 1e-6 * kdu ? largest : kdu;
-      balanceText = EW.num(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
+      balanceText = EW.flow(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
     }
     add("Balance", balanceText, "balance").id = "res-balance";
     box.append(el("h3", { text: "Flow through the edges" + (fu ? " [" + fu + "]" : "") }),
@@ -105,7 +105,7 @@
         text: "Not converged: the engine could not meet its tolerance for this project (see the notes from the engine). " +
           "The extremes and cautions are withheld and the picture is for orientation only; do not use these numbers." }));
     }
-    const headline = (v) => (unreliable ? "not reliable" : EW.withUnit(EW.num(v, 5), vu));
+    const headline = (v) => (unreliable ? "not reliable" : EW.withUnit(EW.value(v, 5), vu));
     kvRow(dl, "Highest " + (u.value || "value"), headline(r.max.value), unreliable ? "" : at(r.max)).id = "res-max";
     kvRow(dl, "Lowest " + (u.value || "value"), headline(r.min.value), unreliable ? "" : at(r.min)).id = "res-min";
     kvRow(dl, "Mean " + (u.value || "value"), headline(r.mean), "over the rectangle").id = "res-mean";

@@ -177,7 +177,7 @@
       const e = engineError(out.reply);
       EW.clearErrors();
       const placed = EW.showError(e.path, e.col, e.message);
-      setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + e.message, "error");
+      setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + EW.onScreenMessage(e.path, e.message), "error");
       if (store.last()) markStale(true);
       store.failed(project, e);
       return;
@@ -193,22 +193,30 @@
   }
 
   const previewed = {}; // side -> what its preview was drawn from
+  let previewSeq = 0; // sequence number of the newest pass of previews
 
   // previews redraws the edge previews whose edge or rectangle changed.
+  // Each pass has a sequence number: a pass stops as soon as a newer one
+  // has started, so an older pass can never draw over a newer one, and a
+  // side counts as drawn only once its preview is on screen.
   async function previews(project) {
+    const seq = ++previewSeq;
     const text = JSON.stringify(project);
     for (const side of EW.SIDES) {
       const key = JSON.stringify([project.width, project.height, (project.edges || {})[side]]);
       if (previewed[side] === key) continue;
-      previewed[side] = key;
+      let m;
       try {
-        const m = await engine.call("preview", text, side, 96);
-        const r = m.value;
-        EW.drawPreview(side, r.s, r.v, !r.ok);
+        m = await engine.call("preview", text, side, 96);
       } catch (e) {
-        delete previewed[side];
-        return; // the worker was restarted; the next edit previews again
+        // the worker was restarted: this pass starts again unless a newer one took over
+        if (seq === previewSeq) setTimeout(() => seq === previewSeq && previews(project), 0);
+        return;
       }
+      if (seq !== previewSeq) return;
+      const r = m.value;
+      previewed[side] = key;
+      EW.drawPreview(side, r.s, r.v, !r.ok);
     }
   }
 

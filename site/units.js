@@ -25,9 +25,45 @@
     }
     return s.replace(/^-/, "−");
   };
+  // superscript writes an integer as superscript digits: -11 -> ⁻¹¹.
+  EW.superscript = (n) => String(n).split("").map((c) => sup[c]).join("");
   function trim(s) {
     return s.indexOf(".") >= 0 ? s.replace(/0+$/, "").replace(/\.$/, "") : s;
   }
+
+  // ---- numbers of a result, to the accuracy of the solve ----
+  // A solve is accurate to about accuracy.estimate in the field (the
+  // engine's estimate of its largest error). A field value smaller than
+  // that, or a flow smaller than the same share of the largest flow, is
+  // rounding noise: it shows as 0, and other numbers show only the digits
+  // the accuracy supports (at most the digits asked for).
+  let floors = { value: 0, flow: 0 };
+
+  // setAccuracy takes the noise floors from the result on screen.
+  EW.setAccuracy = function (r) {
+    const est = Math.abs(((r && r.accuracy) || {}).estimate || 0);
+    const lo = r.min.value, hi = r.max.value;
+    const scale = Math.max(Math.abs(lo), Math.abs(hi));
+    // below 1e-12 of the field's size, float64 arithmetic itself is noise
+    const value = Math.max(est, 1e-12 * scale);
+    let big = Math.abs(r.source_total || 0);
+    for (const e of Object.values(r.edges || {})) if (e && e.finite && typeof e.flow === "number") big = Math.max(big, Math.abs(e.flow));
+    const range = Math.abs(hi - lo);
+    const rel = Math.max(range > 0 ? est / range : 0, 1e-12);
+    floors = { value, flow: rel * big };
+  };
+  EW.floors = () => Object.assign({}, floors);
+
+  function toAccuracy(v, p, floor) {
+    if (typeof v !== "number" || !Number.isFinite(v) || !(floor > 0)) return EW.num(v, p);
+    if (Math.abs(v) < floor) return "0";
+    const supported = Math.floor(Math.log10(Math.abs(v) / floor)) + 1;
+    return EW.num(v, Math.max(1, Math.min(p || 4, supported)));
+  }
+  // value formats a field value of the result on screen; flow a flow
+  // through an edge (or the source total, or the balance).
+  EW.value = (v, p) => toAccuracy(v, p, floors.value);
+  EW.flow = (v, p) => toAccuracy(v, p, floors.flow);
 
   // withUnit appends a unit when there is one.
   EW.withUnit = (text, unit) => (unit ? text + " " + unit : text);

@@ -34,7 +34,7 @@ type Result struct {
 }
 
 // ColourScale names a colour map (colour.Map.Name) and the values its two
-// ends stand for: {"map": "dusk", "from": 20, "to": 90}.
+// ends stand for: {"map": "fen", "from": 20, "to": 90}.
 type ColourScale struct {
 	Map  string  `json:"map"`
 	From float64 `json:"from"`

@@ -25,10 +25,10 @@ func TestDownloadColoursMatchCanvas(t *testing.T) {
 	}{
 		{"one-signed", `{schema: "edgewise/1", title: "one-signed", physics: "heat", width: 0.4, height: 0.2, conductivity: 50,
 		  edges: {bottom: {kind: "value", expr: "20 + 60*s/W"}, top: {kind: "value", expr: "20"},
-		          left: {kind: "flux", expr: "0"}, right: {kind: "value", expr: "50"}}, ` + grid + `}`, "dusk"},
+		          left: {kind: "flux", expr: "0"}, right: {kind: "value", expr: "50"}}, ` + grid + `}`, "fen"},
 		{"signed", `{schema: "edgewise/1", title: "signed", physics: "electrostatic", width: 0.4, height: 0.2, conductivity: 1,
 		  edges: {bottom: {kind: "value", expr: "-60"}, top: {kind: "value", expr: "40 + 60*cos(pi*s/W)"},
-		          left: {kind: "flux", expr: "0"}, right: {kind: "flux", expr: "0"}}, ` + grid + `}`, "ember-tide"},
+		          left: {kind: "flux", expr: "0"}, right: {kind: "flux", expr: "0"}}, ` + grid + `}`, "watershed"},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			tb := newTab(t)
@@ -96,7 +96,7 @@ func TestDownloadColoursMatchCanvas(t *testing.T) {
 				tb.waitFor(t, fmt.Sprintf(`Number(document.documentElement.dataset.drawn || 0) > %d`, n), "the picture in "+mode+" colours")
 				return eval[string](t, tb, `document.getElementById("field-summary").textContent`)
 			}
-			other := map[string]string{"dusk": "diverging", "ember-tide": "sequential"}[tc.wantMap]
+			other := map[string]string{"fen": "diverging", "watershed": "sequential"}[tc.wantMap]
 			if s := summary(other); !strings.Contains(s, "the SVG, PNG and report use the automatic colours") {
 				t.Errorf("with %s colours chosen the summary %q does not say the downloads differ", other, s)
 			}

@@ -169,8 +169,8 @@ func TestBadFormulaShowsCaret(t *testing.T) {
 	tb.pasteInto(t, "#in-left-expr", "40 + sinn(s)")
 	tb.waitFor(t, `!!document.querySelector("#err-left .caret")`, "the caret error under the left edge")
 	msg := eval[string](t, tb, `document.querySelector("#err-left .err-msg").textContent`)
-	if !strings.Contains(msg, `unknown name "sinn"`) || !strings.Contains(msg, "edges.left.expr") {
-		t.Errorf("error message %q, want the field path and the unknown name", msg)
+	if !strings.Contains(msg, `unknown name "sinn"`) || !strings.HasPrefix(msg, "Left edge, temperature: col 6: ") {
+		t.Errorf("error message %q, want the field as the screen names it and the unknown name", msg)
 	}
 	caret := eval[string](t, tb, `document.querySelector("#err-left .caret").textContent`)
 	lines := strings.Split(caret, "\n")

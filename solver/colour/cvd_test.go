@@ -21,10 +21,15 @@ var (
 		{0.280085, 0.672501, 0.047413},
 		{-0.011820, 0.042940, 0.968881},
 	}
+	machadoTritan = [3][3]float64{
+		{1.255528, -0.076749, -0.178779},
+		{-0.078411, 0.930809, 0.147602},
+		{0.004733, 0.691367, 0.303900},
+	}
 )
 
 func TestMachadoRowsSumToOne(t *testing.T) {
-	for name, m := range map[string][3][3]float64{"protan": machadoProtan, "deutan": machadoDeutan} {
+	for name, m := range map[string][3][3]float64{"protan": machadoProtan, "deutan": machadoDeutan, "tritan": machadoTritan} {
 		for i, row := range m {
 			if s := row[0] + row[1] + row[2]; math.Abs(s-1) > 2e-6 { // printed to 6 decimals
 				t.Errorf("%s row %d sums to %.7f", name, i, s)
@@ -46,8 +51,8 @@ func dist(L1, a1, b1, L2, a2, b2 float64) float64 {
 	return math.Sqrt((L1-L2)*(L1-L2) + (a1-a2)*(a1-a2) + (b1-b2)*(b1-b2))
 }
 
-// Neighbouring levels of a 16-level legend must stay apart for protanopes
-// and deuteranopes: OKLab distance at least minStep. minStep = 0.02 is
+// Neighbouring levels of a 16-level legend must stay apart for protanopes,
+// deuteranopes and tritanopes: OKLab distance at least minStep. minStep = 0.02 is
 // about one just-noticeable difference in OKLab (common practice, no
 // source); 16 levels is more than the page's usual dozen isoline bands.
 const (
@@ -59,7 +64,7 @@ func TestColourBlindSteps(t *testing.T) {
 	sims := []struct {
 		name string
 		m    *[3][3]float64
-	}{{"protanopia", &machadoProtan}, {"deuteranopia", &machadoDeutan}, {"normal", &[3][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}}}}
+	}{{"protanopia", &machadoProtan}, {"deuteranopia", &machadoDeutan}, {"tritanopia", &machadoTritan}, {"normal", &[3][3]float64{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}}}}
 	for _, m := range []*Map{Sequential, Diverging} {
 		for _, s := range sims {
 			worst := math.Inf(1)
@@ -86,7 +91,7 @@ func TestColourBlindDivergingArms(t *testing.T) {
 	for _, s := range []struct {
 		name string
 		m    *[3][3]float64
-	}{{"protanopia", &machadoProtan}, {"deuteranopia", &machadoDeutan}} {
+	}{{"protanopia", &machadoProtan}, {"deuteranopia", &machadoDeutan}, {"tritanopia", &machadoTritan}} {
 		for k := 0; k <= 6; k++ {
 			tt := 0.375 * float64(k) / 6 // 0 .. 0.375
 			L1, a1, b1 := simulatedLab(Diverging, s.m, tt)

@@ -21,40 +21,61 @@ const gamutTol = 1e-9
 
 // Sequential is the map for fields: lightness strictly increasing from dark
 // to light (see the package comment).
-var Sequential = &Map{name: "dusk", lch: duskLCh}
+var Sequential = &Map{name: "fen", lch: fenLCh}
 
 // Diverging is the map for signed fields, neutral and lightest at t = 0.5
 // (see the package comment).
-var Diverging = &Map{name: "ember-tide", lch: emberTideLCh}
+var Diverging = &Map{name: "watershed", lch: watershedLCh}
 
 func deg(d float64) float64 { return d * math.Pi / 180 }
 
-// duskLCh: L linear in t; hue from 290 deg (blue-violet) down through
-// 195 (teal) to 75 (warm sand); chroma rises from 0.09 to 0.10 in the
-// middle and falls to 0.045 at the pale end.
-func duskLCh(t float64) (L, C, h float64) {
-	L = 0.22 + 0.74*t
-	h = deg(290 - 215*t)
-	switch {
-	case t < 0.45:
-		C = 0.09 + 0.01*t/0.45
-	default:
-		C = 0.10 - 0.055*(t-0.45)/0.55
+// The rule of the sequential map, "fen" (peat, moss, pale pool water).
+const (
+	fenL0, fenL1 = 0.22, 0.97  // lightness at t = 0 and t = 1, linear between
+	fenH0, fenH1 = 45.0, 200.0 // hue in degrees, turning with t
+	fenC0        = 0.05        // chroma at the dark end
+	fenCMid      = 0.11        // chroma at fenTMid, where the moss green is
+	fenC1        = 0.035       // chroma at the pale end
+	fenTMid      = 0.5
+)
+
+// fenLCh: L linear in t; the hue turns linearly from 45 deg (a dark peat
+// brown) through 120 (moss) to 200 (a pale cold water colour); chroma
+// rises from 0.05 to 0.11 at the middle and falls to 0.035 at the pale end.
+func fenLCh(t float64) (L, C, h float64) {
+	L = fenL0 + (fenL1-fenL0)*t
+	h = deg(fenH0 + (fenH1-fenH0)*t)
+	if t < fenTMid {
+		C = fenC0 + (fenCMid-fenC0)*t/fenTMid
+	} else {
+		C = fenCMid + (fenC1-fenCMid)*(t-fenTMid)/(1-fenTMid)
 	}
 	return L, C, h
 }
 
-// emberTideLCh: the blue arm (h 245 deg) for t < 0.5 and the copper arm
-// (h 50 deg) for t > 0.5; L falls linearly with the distance from the
-// centre, chroma grows from 0 like that distance to the power 0.8.
-func emberTideLCh(t float64) (L, C, h float64) {
+// The rule of the diverging map, "watershed".
+const (
+	wsLMid, wsLEnd = 0.97, 0.42 // lightness at the centre and at both ends
+	wsCEnd         = 0.13       // chroma at both ends
+	wsCPow         = 0.75       // chroma grows like the distance to this power
+	// each arm's hue turns as it darkens: (near the centre, at the end)
+	wsLowH0, wsLowH1   = 200.0, 300.0 // pale aqua to violet
+	wsHighH0, wsHighH1 = 95.0, -5.0   // pale straw through orange to crimson
+)
+
+// watershedLCh: d = |2t - 1| is the distance from the neutral centre. L
+// falls linearly with d, the same on both arms; chroma grows like d^0.75;
+// the low arm's hue turns from 200 to 300 deg and the high arm's from 95
+// down to -5 (355) deg as d goes from 0 to 1, so that each arm changes colour, not only
+// depth, as it darkens.
+func watershedLCh(t float64) (L, C, h float64) {
 	d := math.Abs(2*t - 1)
-	L = 0.965 - (0.965-0.48)*d
-	C = 0.12 * math.Pow(d, 0.8)
+	L = wsLMid - (wsLMid-wsLEnd)*d
+	C = wsCEnd * math.Pow(d, wsCPow)
 	if t < 0.5 {
-		h = deg(245)
+		h = deg(wsLowH0 + (wsLowH1-wsLowH0)*d)
 	} else {
-		h = deg(50)
+		h = deg(wsHighH0 + (wsHighH1-wsHighH0)*d)
 	}
 	return L, C, h
 }

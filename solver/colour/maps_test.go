@@ -115,6 +115,64 @@ func TestGamutFitKeepsLightnessAndHue(t *testing.T) {
 	}
 }
 
+// The hue turns the way the rule says: on the sequential map from 45 to
+// 200 deg, on each arm of the diverging map from the arm's centre hue to
+// its end hue, linearly in t (sequential) or in the distance from the
+// centre (diverging). Measured on the emitted colours where chroma is above
+// 0.03 (below that, 8-bit rounding makes the hue meaningless), within 4 deg.
+func TestHuePath(t *testing.T) {
+	check := func(name string, m *Map, from, to float64, ts, ds []float64) {
+		seen := 0
+		for i, tt := range ts {
+			_, a, b := emittedLab(m, tt)
+			if math.Hypot(a, b) < 0.03 {
+				continue
+			}
+			seen++
+			want := from + (to-from)*ds[i]
+			got := math.Atan2(b, a) * 180 / math.Pi
+			if d := math.Remainder(got-want, 360); math.Abs(d) > 4 {
+				t.Errorf("%s t=%.3f: hue %.1f deg, the rule says %.1f", name, tt, got, want)
+			}
+		}
+		if seen < samples/2 {
+			t.Errorf("%s: only %d of %d samples have a clear hue", name, seen, len(ts))
+		}
+	}
+	var seq, low, high, d []float64
+	for k := range samples {
+		tt := float64(k) / (samples - 1)
+		seq = append(seq, tt)
+		low = append(low, 0.5-0.5*tt)
+		high = append(high, 0.5+0.5*tt)
+		d = append(d, tt)
+	}
+	check("fen", Sequential, fenH0, fenH1, seq, d)
+	check("watershed low arm", Diverging, wsLowH0, wsLowH1, low, d)
+	check("watershed high arm", Diverging, wsHighH0, wsHighH1, high, d)
+}
+
+// Greyscale of the diverging map: luminance and luma V-shaped like its
+// lightness, so a greyscale copy still shows where zero is.
+func TestDivergingGreyscaleShape(t *testing.T) {
+	const n = samples + 1
+	mid := n / 2
+	prevY, prevLuma := -1.0, -1.0
+	for k := range n {
+		r, g, b := Diverging.At(float64(k) / (n - 1))
+		R, G, B := float64(r)/255, float64(g)/255, float64(b)/255
+		luma := 0.2126*R + 0.7152*G + 0.0722*B
+		Y := 0.2126*Decode(R) + 0.7152*Decode(G) + 0.0722*Decode(B)
+		if k > 0 {
+			up := k <= mid
+			if up != (Y > prevY) || up != (luma > prevLuma) {
+				t.Errorf("sample %d: Y %.4f (prev %.4f), luma %.4f (prev %.4f), want %s", k, Y, prevY, luma, prevLuma, map[bool]string{true: "rising", false: "falling"}[up])
+			}
+		}
+		prevY, prevLuma = Y, luma
+	}
+}
+
 func TestClampAndNaN(t *testing.T) {
 	for _, m := range []*Map{Sequential, Diverging} {
 		r0, g0, b0 := m.At(0)
@@ -158,8 +216,8 @@ func ExampleMap_At() {
 	r, g, b := Diverging.At(0.5)
 	fmt.Printf("%s centre #%02x%02x%02x\n", Diverging.Name(), r, g, b)
 	// Output:
-	// dusk 0.0 #1c0e40
-	// dusk 0.5 #268f82
-	// dusk 1.0 #ffefdb
-	// ember-tide centre #f3f3f3
+	// fen 0.0 #2d1205
+	// fen 0.5 #738938
+	// fen 1.0 #dbfdfe
+	// watershed centre #f5f5f5
 }

@@ -146,13 +146,21 @@ func SVG(w io.Writer, p *Picture) error {
 			}
 		}
 		b.WriteString("</g>\n")
-		b.WriteString(`<g font-family="sans-serif" font-size="10" fill="#1b1b1b" text-anchor="middle" dominant-baseline="middle" stroke="#ffffff" stroke-width="2.5" stroke-opacity="0.8" paint-order="stroke">` + "\n")
+		// Labels: upright tags (a small paper box with a thin ink edge)
+		// centred on the line, none over another or over the frame.
+		b.WriteString(`<g font-family="sans-serif" font-size="10" text-anchor="middle" dominant-baseline="middle">` + "\n")
+		var placed [][4]float64
 		for k, set := range lines {
 			label := strconv.FormatFloat(p.Levels[k], 'g', 6, 64)
 			for _, s := range contour.LabelSpots(set, labelMinLen/sx) {
-				fmt.Fprintf(&b, `<text transform="translate(%s %s) rotate(%s)">`, num(px(s.X)), num(py(s.Y)), num(-s.Angle*180/math.Pi))
-				escape(&b, label)
-				b.WriteString("</text>\n")
+				cx, cy := px(s.X), py(s.Y)
+				w, h := textWidth(label, 10)+8, tagH
+				r := [4]float64{cx - w/2 - 2, cy - h/2 - 2, w + 4, h + 4}
+				if r[0] < left || r[0]+r[2] > left+plotW || r[1] < top || r[1]+r[3] > top+plotH || overlaps(placed, r) {
+					continue
+				}
+				placed = append(placed, r)
+				writeTag(&b, label, cx, cy, w)
 			}
 		}
 		b.WriteString("</g>\n")
@@ -169,15 +177,40 @@ func SVG(w io.Writer, p *Picture) error {
 	escape(&b, "H = "+strconv.FormatFloat(f.H, 'g', 6, 64)+" "+f.LengthUnit)
 	b.WriteString("</text>\n</g>\n")
 
-	legend(&b, sc, left+plotW+legendGap, top, legendH, p.LegendUnit)
+	legend(&b, sc, left+plotW+legendGap, top, legendH, p.LegendUnit, p.Levels)
 	b.WriteString("</svg>\n")
 	_, err = w.Write(b.Bytes())
 	return err
 }
 
+// tagH is the height of a value tag (pixels).
+const tagH = 14.0
+
+// writeTag writes a value tag: text of width w (box included) centred on
+// (cx, cy) in a small paper box with a thin ink edge, never rotated, the
+// look the page gives isoline labels and the ends of its colour bar.
+func writeTag(b *bytes.Buffer, text string, cx, cy, w float64) {
+	fmt.Fprintf(b, `<rect x="%s" y="%s" width="%s" height="%s" rx="2" fill="#fbfaf6" fill-opacity="0.93" stroke="#1b2029" stroke-opacity="0.55" stroke-width="0.8"/>`,
+		num(cx-w/2), num(cy-tagH/2), num(w), num(tagH))
+	fmt.Fprintf(b, `<text x="%s" y="%s" fill="#1b2029">`, num(cx), num(cy+0.5))
+	escape(b, text)
+	b.WriteString("</text>\n")
+}
+
+// overlaps reports whether box r (x, y, w, h) meets any of the boxes.
+func overlaps(boxes [][4]float64, r [4]float64) bool {
+	for _, q := range boxes {
+		if r[0] < q[0]+q[2] && q[0] < r[0]+r[2] && r[1] < q[1]+q[3] && q[1] < r[1]+r[3] {
+			return true
+		}
+	}
+	return false
+}
+
 // legend draws the colour bar of the scale, From at the bottom and To at
-// the top, at (x, y).
-func legend(b *bytes.Buffer, sc colour.Scale, x, y, h float64, unit string) {
+// the top, at (x, y): thin lines across the bar at the isoline levels,
+// round values on short ticks beside it, and its two ends in tags.
+func legend(b *bytes.Buffer, sc colour.Scale, x, y, h float64, unit string, levels []float64) {
 	m, lo, hi := sc.Map, sc.From, sc.To
 	const stops = 32
 	b.WriteString(`<defs><linearGradient id="edgewise-legend" x1="0" y1="1" x2="0" y2="0">` + "\n")
@@ -194,6 +227,16 @@ func legend(b *bytes.Buffer, sc colour.Scale, x, y, h float64, unit string) {
 	b.WriteString("</text>\n")
 	fmt.Fprintf(b, `<rect x="%s" y="%s" width="%s" height="%s" fill="url(#edgewise-legend)" stroke="#1b1b1b" stroke-width="0.8"/>`+"\n",
 		num(x), num(y), num(legendBarW), num(h))
+	if hi > lo && len(levels) > 0 {
+		b.WriteString(`<g stroke="#141820" stroke-opacity="0.5" stroke-width="1">` + "\n")
+		for _, v := range levels {
+			if v > lo && v < hi {
+				ly := y + h - (v-lo)/(hi-lo)*h
+				fmt.Fprintf(b, `<line x1="%s" y1="%s" x2="%s" y2="%s"/>`+"\n", num(x), num(ly), num(x+legendBarW), num(ly))
+			}
+		}
+		b.WriteString("</g>\n")
+	}
 	// Round ticks, plus the two ends unless a round tick is too close to
 	// leave room for both labels.
 	ticks := contour.Levels(lo, hi, 5)
@@ -220,10 +263,25 @@ func legend(b *bytes.Buffer, sc colour.Scale, x, y, h float64, unit string) {
 		if hi > lo {
 			ty = y + h - (v-lo)/(hi-lo)*h
 		}
+		end := v == lo || v == hi
+		tick := 5.0
+		if end {
+			tick = 7
+		}
 		fmt.Fprintf(b, `<line x1="%s" y1="%s" x2="%s" y2="%s" stroke="#1b1b1b" stroke-width="0.8"/>`+"\n",
-			num(x+legendBarW), num(ty), num(x+legendBarW+5), num(ty))
+			num(x+legendBarW), num(ty), num(x+legendBarW+tick), num(ty))
+		label := strconv.FormatFloat(v, 'g', 5, 64)
+		if end {
+			// the ends in tags, kept inside the bar's height
+			w := textWidth(label, 10) + 8
+			cy := math.Min(math.Max(ty, y+tagH/2), y+h-tagH/2)
+			b.WriteString(`<g font-size="10" text-anchor="middle" dominant-baseline="middle">`)
+			writeTag(b, label, x+legendBarW+tick+w/2, cy, w)
+			b.WriteString("</g>\n")
+			continue
+		}
 		fmt.Fprintf(b, `<text x="%s" y="%s" dominant-baseline="middle">`, num(x+legendBarW+8), num(ty))
-		escape(b, strconv.FormatFloat(v, 'g', 5, 64))
+		escape(b, label)
 		b.WriteString("</text>\n")
 	}
 	b.WriteString("</g>\n")

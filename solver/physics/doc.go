@@ -22,11 +22,14 @@
 //	              "flux": ..., "flux_unit": ..., "flow_unit": ..., "source": ..., "source_unit": ...,
 //	              "coefficient": ..., "coefficient_unit": ..., "length_unit": "m"},
 //	    "kinds": {"value": "Fixed temperature (Dirichlet)", "flux": ..., "convection": ...},
+//	    "labels": {"flux_in": "heat flux in", "ambient": "fluid temperature"},
 //	    "hints": {"physics": ..., "conductivity": ..., "source": ..., "h": ...},
-//	    "magnitude": "temperature gradient",       // |grad u| as a column heading
-//	    "readout": "temperature gradient |∇|",     // |grad u| in the pointer readout
+//	    "magnitude": "temperature gradient magnitude |∇T|", // |grad u| as a column heading
+//	    "readout": "temperature gradient |∇T|",   // |grad u| in the pointer readout
 //	    "also": {"unit": "kV/mm", "scale": 1e-6},  // optional: |grad u| also in this unit
-//	    "default_h": "10"},                        // h filled in when an edge turns to convection
+//	    "default_h": "10",                         // h filled in when an edge turns to convection
+//	    "usual": {"conductivity": [lo, hi], "h": [lo, hi], "source": ...}, // optional: usual spans
+//	    "example": {...}},                         // optional: the physics' example project
 //	   ...]}
 //
 // The order of the list is the order of the page's choice.

@@ -1,6 +1,11 @@
 package physics
 
-import "edgewise/solver/jsonlite"
+import (
+	"fmt"
+	"sort"
+
+	"edgewise/solver/jsonlite"
+)
 
 // Schema names the JSON form of the table.
 const Schema = "edgewise-physics/1"
@@ -17,6 +22,7 @@ func JSON() []byte {
 		p.Units.write(&w)
 		w.Key("kinds").Open('{').Key("value").Str(p.Kinds.Value).Key("flux").Str(p.Kinds.Flux).
 			Key("convection").Str(p.Kinds.Convection).Close('}')
+		w.Key("labels").Open('{').Key("flux_in").Str(p.Labels.FluxIn).Key("ambient").Str(p.Labels.Ambient).Close('}')
 		w.Key("hints").Open('{').Key("physics").Str(p.Hints.Physics).Key("conductivity").Str(p.Hints.Conductivity).
 			Key("source").Str(p.Hints.Source).Key("h").Str(p.Hints.H).Close('}')
 		w.Key("magnitude").Str(p.Magnitude).Key("readout").Str(p.Readout)
@@ -24,9 +30,68 @@ func JSON() []byte {
 			w.Key("also").Open('{').Key("unit").Str(p.Also.Unit).Key("scale").Num(p.Also.Scale).Close('}')
 		}
 		w.Key("default_h").Str(p.DefaultH)
+		if p.Usual.Conductivity[1] > 0 || p.Usual.H[1] > 0 {
+			w.Key("usual").Open('{')
+			for _, r := range []struct {
+				key  string
+				span [2]float64
+			}{{"conductivity", p.Usual.Conductivity}, {"h", p.Usual.H}} {
+				if r.span[1] > 0 {
+					w.Key(r.key).Open('[').Num(r.span[0]).Num(r.span[1]).Close(']')
+				}
+			}
+			w.Key("source").Str(p.Usual.Source).Close('}')
+		}
+		if ex := p.Example(); ex != nil {
+			v, err := jsonlite.Parse(ex)
+			if err != nil {
+				panic("physics: example of " + p.ID + ": " + err.Error())
+			}
+			w.Key("example")
+			writeValue(&w, v)
+		}
 		w.Close('}')
 	}
 	return w.Close(']').Close('}').Bytes()
+}
+
+// writeValue writes a value jsonlite.Parse returned; object keys in
+// sorted order.
+func writeValue(w *jsonlite.Writer, v any) {
+	switch x := v.(type) {
+	case map[string]any:
+		keys := make([]string, 0, len(x))
+		for k := range x {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		w.Open('{')
+		for _, k := range keys {
+			w.Key(k)
+			writeValue(w, x[k])
+		}
+		w.Close('}')
+	case []any:
+		w.Open('[')
+		for _, e := range x {
+			writeValue(w, e)
+		}
+		w.Close(']')
+	case string:
+		w.Str(x)
+	case jsonlite.Number:
+		f, err := x.Float64()
+		if err != nil {
+			panic("physics: example number " + string(x))
+		}
+		w.Num(f)
+	case bool:
+		w.Bool(x)
+	case nil:
+		w.Null()
+	default:
+		panic(fmt.Sprintf("physics: example value of type %T", v))
+	}
 }
 
 // write writes the unit set as a JSON object with the keys physics, value,

@@ -1,5 +1,14 @@
 package physics
 
+import "embed"
+
+// examples holds each physics' example project, as the page offers it when
+// the user switches to that physics (examples/ID.json; heat's is the
+// page's first demo, site/demo.json).
+//
+//go:embed examples/*.json
+var examples embed.FS
+
 // Ids of the physics in the table, as a project file writes them.
 const (
 	Heat          = "heat"
@@ -13,16 +22,21 @@ type Physics struct {
 	ID   string // as written in a project file
 	Name string // the page's choice, e.g. "Heat conduction (temperature)"
 	Units
-	Kinds Kinds
-	Hints Hints
-	// Magnitude names the size of the gradient as a column heading;
-	// Readout names it in the pointer readout.
+	Kinds  Kinds
+	Labels Labels
+	Hints  Hints
+	// Magnitude names the size of the gradient as a column heading, saying
+	// that it is a magnitude; Readout names it in the pointer readout.
 	Magnitude, Readout string
 	// Also shows the size of the gradient in a second unit as well (the
 	// field strength in kV/mm); zero when there is none.
 	Also Also
 	// DefaultH is the h the page fills in when an edge turns to convection.
 	DefaultH string
+	// Usual is the span of values a project of this physics usually has;
+	// the page warns about a number outside it (a number typed for another
+	// physics, or a slip of the exponent), but solves all the same.
+	Usual Usual
 	// Cautions lists the physics-specific cautions of a solved field
 	// (without the Deferral, which Cautions adds); nil when there are none.
 	cautions func(p *Physics, f Field) []string
@@ -52,6 +66,18 @@ type Units struct {
 // of the condition after it.
 type Kinds struct{ Value, Flux, Convection string }
 
+// Labels name the data of an edge in the trade's own words (the value and
+// the coefficient are named by Units).
+type Labels struct {
+	// FluxIn names what a flux edge's formula gives: the flux entering the
+	// region per unit area (heat flux in, surface charge density, inflow).
+	FluxIn string
+	// Ambient names what a Robin edge's formula gives: the value on the
+	// far side of the boundary layer (fluid temperature, electrode
+	// potential, head beyond a leaky layer).
+	Ambient string
+}
+
 // Hints are shown beside the inputs: typical values with their sources
 // (rules of thumb are marked as common practice).
 type Hints struct {
@@ -59,6 +85,23 @@ type Hints struct {
 	Conductivity string
 	Source       string
 	H            string // under a convection edge's coefficient
+}
+
+// Usual holds the usual spans [low, high] of the material constant and
+// of the Robin coefficient (zero spans: no check), and where they come from.
+type Usual struct {
+	Conductivity, H [2]float64
+	Source          string
+}
+
+// Example returns the physics' example project (JSON), or nil when it has
+// none.
+func (p *Physics) Example() []byte {
+	b, err := examples.ReadFile("examples/" + p.ID + ".json")
+	if err != nil {
+		return nil
+	}
+	return b
 }
 
 // Also is a second unit for the size of the gradient: Scale gradient units
@@ -84,6 +127,7 @@ var table = []*Physics{
 			Flux:       "Heat flux in; 0 = insulated (Neumann)",
 			Convection: "Convection to a fluid (Robin)",
 		},
+		Labels: Labels{FluxIn: "heat flux in", Ambient: "fluid temperature"},
 		Hints: Hints{
 			// the burn threshold: common practice (see BurnTemperature)
 			Physics: "Surfaces above about 60 °C burn skin on brief contact (common practice).",
@@ -93,8 +137,14 @@ var table = []*Physics{
 			// Incropera & DeWitt, Table 1.1 (from memory)
 			H: "Free convection in gases ≈ 2–25, forced ≈ 25–250 W/(m²·K) (Incropera, Table 1.1).",
 		},
-		Magnitude: "temperature gradient", Readout: "temperature gradient |∇|",
+		Magnitude: "temperature gradient magnitude |∇T|", Readout: "temperature gradient |∇T|",
 		DefaultH: "10",
+		// polyurethane foam about 0.026, diamond about 2300 W/(m·K)
+		// (Incropera & DeWitt, Tables A.1 and A.3, from memory); free
+		// convection in gases from about 2, boiling and condensation up to
+		// about 1e5 W/(m²·K) (Incropera, Table 1.1, from memory)
+		Usual: Usual{Conductivity: [2]float64{0.01, 2500}, H: [2]float64{0.5, 1e5},
+			Source: "insulating foams to diamond; still air to condensing steam (Incropera & DeWitt, Tables A.1, A.3 and 1.1)"},
 		cautions: heatCautions,
 	},
 	{
@@ -105,23 +155,32 @@ var table = []*Physics{
 			Conductivity: "permittivity", CondUnit: "F/m",
 			Flux: "electric displacement", FluxUnit: "C/m²", FlowUnit: "C/m",
 			Source: "charge density", SourceUnit: "C/m³",
-			Coefficient: "Robin coefficient", CoefUnit: "F/m²", Length: "m"},
+			Coefficient: "layer capacitance per area", CoefUnit: "F/m²", Length: "m"},
 		Kinds: Kinds{
 			Value:      "Fixed potential, electrode (Dirichlet)",
-			Flux:       "Displacement flux in; 0 = symmetry line (Neumann)",
-			Convection: "Mixed condition (Robin)",
+			Flux:       "Surface charge; 0 = symmetry line (Neumann)",
+			Convection: "Thin dielectric layer over an electrode (Robin)",
 		},
+		// the normal electric displacement entering the region equals the
+		// surface charge density on the boundary (Gauss's law, no field
+		// outside)
+		Labels: Labels{FluxIn: "surface charge density σ", Ambient: "electrode potential beyond the layer"},
 		Hints: Hints{
 			// AMS Glossary of Meteorology (read); see AirBreakdown
 			Physics: "Dry air at sea level breaks down near 3 kV/mm (AMS Glossary of Meteorology).",
 			// the vacuum permittivity is the CODATA value
 			Conductivity: "Permittivity ε = εr × 8.854×10⁻¹² F/m; dry air εr ≈ 1.",
 			Source:       "Free charge per unit volume; 0 in an air or vacuum gap.",
-			H:            "Rarely needed: a Robin edge models a resistive or capacitive boundary layer.",
+			H:            "A thin coating of permittivity εl and thickness d over an electrode: εl/d, e.g. a 0.1 mm film with εr = 4 gives 3.5×10⁻⁷ F/m².",
 		},
-		Magnitude: "field strength", Readout: "field strength",
+		Magnitude: "field strength |E|", Readout: "field strength |E|",
 		Also:     Also{Unit: "kV/mm", Scale: 1e6},
-		DefaultH: "1",
+		DefaultH: "3.5e-7",
+		// vacuum (εr = 1) to ferroelectric ceramics (εr up to about 1e4,
+		// from memory); no material is below the vacuum permittivity
+		// layer capacitance: vacuum over 1 m to εr 1e4 over 1 µm
+		Usual: Usual{Conductivity: [2]float64{8.8e-12, 8.9e-8}, H: [2]float64{8.8e-12, 0.1},
+			Source: "from vacuum (εr = 1) to ferroelectric ceramics (εr ≈ 10⁴)"},
 		cautions: electrostaticCautions,
 	},
 	{
@@ -136,8 +195,9 @@ var table = []*Physics{
 		Kinds: Kinds{
 			Value:      "Fixed head, water level (Dirichlet)",
 			Flux:       "Inflow; 0 = impermeable (Neumann)",
-			Convection: "Leaky layer to a head (Robin)",
+			Convection: "Leaky boundary through a semi-pervious layer (Robin)",
 		},
+		Labels: Labels{FluxIn: "inflow (Darcy flux in)", Ambient: "head beyond the leaky layer"},
 		Hints: Hints{
 			// the critical gradient: common practice in soil mechanics (see CriticalGradient)
 			Physics:      "Exit gradients near (Gs − 1)/(1 + e) ≈ 1 start heave and piping (common practice).",
@@ -145,26 +205,32 @@ var table = []*Physics{
 			Source:       "Recharge per unit volume (1/s); 0 for none.",
 			H:            "Leakance of a semi-pervious layer: its conductivity over its thickness.",
 		},
-		Magnitude: "hydraulic gradient", Readout: "hydraulic gradient |∇|",
-		DefaultH: "1",
+		Magnitude: "hydraulic gradient magnitude |i|", Readout: "hydraulic gradient |i|",
+		DefaultH: "1e-7",
+		// unfractured rock about 1e-13, clean gravel about 1 m/s (Freeze &
+		// Cherry, Groundwater, Table 2.2, from memory); leakance: the same
+		// conductivities over layers 0.1 to 10 m thick (common practice)
+		Usual: Usual{Conductivity: [2]float64{1e-13, 1}, H: [2]float64{1e-14, 10},
+			Source: "unfractured rock to clean gravel (Freeze & Cherry, Groundwater, Table 2.2)"},
 		cautions: seepageCautions,
 	},
 	{
-		ID: Generic, Name: "Generic (no units)",
+		ID: Generic, Name: "Generic (lengths in m, no other units)",
 		Units: Units{Physics: Generic,
-			Value: "u", Gradient: "gradient", Conductivity: "conductivity",
-			Flux: "flux", Source: "source", Coefficient: "Robin coefficient", Length: "m"},
+			Value: "value u", Gradient: "gradient of u", Conductivity: "conductivity K",
+			Flux: "flux", Source: "source", Coefficient: "Robin coefficient h", Length: "m"},
 		Kinds: Kinds{
 			Value:      "Value (Dirichlet)",
 			Flux:       "Flux in (Neumann)",
 			Convection: "Mixed, h (u_amb - u) in (Robin)",
 		},
+		Labels: Labels{FluxIn: "flux in", Ambient: "outside value u_amb"},
 		Hints: Hints{
 			Conductivity: "Coefficient of the equation div(K grad u) + source = 0.",
 			Source:       "Uniform source term.",
 			H:            "Coefficient h of the mixed condition.",
 		},
-		Magnitude: "gradient", Readout: "gradient |∇|",
+		Magnitude: "gradient magnitude |∇u|", Readout: "gradient |∇u|",
 		DefaultH: "1",
 	},
 }

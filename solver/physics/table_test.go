@@ -31,6 +31,7 @@ func TestTable(t *testing.T) {
 			"conductivity": p.Conductivity, "flux": p.Flux, "source": p.Source, "coefficient": p.Coefficient,
 			"length": p.Length, "value kind": p.Kinds.Value, "flux kind": p.Kinds.Flux,
 			"convection kind": p.Kinds.Convection, "conductivity hint": p.Hints.Conductivity,
+			"flux-in label": p.Labels.FluxIn, "ambient label": p.Labels.Ambient,
 			"source hint": p.Hints.Source, "h hint": p.Hints.H, "magnitude": p.Magnitude, "readout": p.Readout,
 			"default h": p.DefaultH} {
 			if strings.TrimSpace(s) == "" {
@@ -66,18 +67,25 @@ func TestJSON(t *testing.T) {
 	var doc struct {
 		Schema  string `json:"schema"`
 		Physics []struct {
-			ID    string            `json:"id"`
-			Name  string            `json:"name"`
-			Units map[string]string `json:"units"`
-			Kinds map[string]string `json:"kinds"`
-			Hints map[string]string `json:"hints"`
-			Also  *struct {
+			ID     string            `json:"id"`
+			Name   string            `json:"name"`
+			Units  map[string]string `json:"units"`
+			Kinds  map[string]string `json:"kinds"`
+			Labels map[string]string `json:"labels"`
+			Hints  map[string]string `json:"hints"`
+			Also   *struct {
 				Unit  string  `json:"unit"`
 				Scale float64 `json:"scale"`
 			} `json:"also"`
 			Magnitude string `json:"magnitude"`
 			Readout   string `json:"readout"`
 			DefaultH  string `json:"default_h"`
+			Usual     *struct {
+				Conductivity []float64 `json:"conductivity"`
+				H            []float64 `json:"h"`
+				Source       string    `json:"source"`
+			} `json:"usual"`
+			Example map[string]any `json:"example"`
 		} `json:"physics"`
 	}
 	dec := json.NewDecoder(strings.NewReader(string(JSON())))
@@ -103,8 +111,44 @@ func TestJSON(t *testing.T) {
 		if got.Hints["physics"] != p.Hints.Physics || got.Hints["h"] != p.Hints.H || len(got.Hints) != 4 {
 			t.Errorf("%s: hints %v", p.ID, got.Hints)
 		}
+		if (got.Usual != nil) != (p.Usual.Conductivity[1] > 0) || got.Usual != nil && got.Usual.Conductivity[0] != p.Usual.Conductivity[0] {
+			t.Errorf("%s: usual %+v, want %+v", p.ID, got.Usual, p.Usual)
+		}
+		if (got.Example != nil) != (p.Example() != nil) || got.Example != nil && got.Example["physics"] != p.ID {
+			t.Errorf("%s: example %v", p.ID, got.Example)
+		}
 		if (got.Also != nil) != (p.Also.Unit != "") || got.Also != nil && (got.Also.Unit != p.Also.Unit || got.Also.Scale != p.Also.Scale) {
 			t.Errorf("%s: also %+v, want %+v", p.ID, got.Also, p.Also)
 		}
+	}
+}
+
+// Each physics speaks its own trade's words: no heat word in another
+// physics' names, kinds, labels or hints, and the generic one writes its
+// field as "u" everywhere (never "U", even where the page capitalises a
+// name's first letter: the symbol is never first).
+func TestOwnWords(t *testing.T) {
+	heatWords := []string{"ambient", "heat", "temperature", "convection", "fluid", "insulated"}
+	for _, p := range All() {
+		texts := []string{p.Name, p.Value, p.Gradient, p.Conductivity, p.Flux, p.Source, p.Coefficient,
+			p.Kinds.Value, p.Kinds.Flux, p.Kinds.Convection, p.Labels.FluxIn, p.Labels.Ambient,
+			p.Hints.Conductivity, p.Hints.Source, p.Hints.H, p.Magnitude, p.Readout}
+		for _, s := range texts {
+			low := strings.ToLower(s)
+			if p.ID != Heat {
+				for _, w := range heatWords {
+					if strings.Contains(low, w) {
+						t.Errorf("%s: %q uses the heat word %q", p.ID, s, w)
+					}
+				}
+			}
+			if p.ID == Generic && (strings.Contains(s, " U") || strings.Contains(s, "(U") || strings.HasPrefix(s, "u ") || s == "u") {
+				t.Errorf("generic: %q writes the field's symbol as U or puts it first", s)
+			}
+		}
+	}
+	es, _ := Lookup(Electrostatic)
+	if !strings.Contains(es.Labels.FluxIn, "surface charge density") {
+		t.Errorf("electrostatic flux edges give %q, want the surface charge density", es.Labels.FluxIn)
 	}
 }
