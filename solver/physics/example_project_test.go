@@ -9,6 +9,7 @@ import (
 
 	"edgewise/solver"
 	"edgewise/solver/physics"
+	"edgewise/solver/project"
 )
 
 // Every physics but the generic one has an example project of its own: it
@@ -28,7 +29,7 @@ func TestExamples(t *testing.T) {
 			t.Errorf("%s: no example", p.ID)
 			continue
 		}
-		proj, err := solver.Decode(ex)
+		proj, err := project.Decode(ex)
 		if err != nil {
 			t.Errorf("%s: example does not decode: %v", p.ID, err)
 			continue
