@@ -71,7 +71,7 @@
 // Values to about 1e-13 of |UB - UA|, flux density to about 1e-12
 // relative, except near the parts' ends and the corners: an end is a
 // branch point of the map, and within a distance d of it (relative to the
-// rectangle) the value loses about 1e-16/d and the flux density, near a
-// corner, about 1e-16/d^2. Rectangles up to about 1:30 (after the
+// rectangle) the value loses about 1e-16/d, or 1e-16/d^2 at a corner where
+// two parts touch, and the flux density near a corner about 1e-16/d^2. Rectangles up to about 1:30 (after the
 // orthotropic map) have been checked; the tests say which.
 package exact

@@ -42,7 +42,9 @@ type TwoParts struct {
 }
 
 // New returns the two-part problem. It fails when a part is not inside
-// its edge or is empty, or when the parts overlap or touch.
+// its edge or is empty, or when the parts overlap or touch at both ends.
+// Parts that touch at one end (whole adjacent edges) are allowed: the
+// field jumps there and the flow between them is infinite.
 func New(w, h, kx, ky float64, a, b Part, ua, ub float64) (*TwoParts, error) {
 	return build(w, h, kx, ky, a, b, ua, ub, auto)
 }
@@ -79,12 +81,22 @@ func build(w, h, kx, ky float64, a, b Part, ua, ub float64, arr arrangement) (*T
 	}
 	total := 2 * (w + h)
 	for i := 1; i < 4; i++ { // measure from a1, counter-clockwise
-		if ends[i] < ends[0] {
+		if ends[i] < ends[0] || i == 3 && ends[3] < ends[2] {
 			ends[i] += total
 		}
 	}
-	if !(ends[1] < ends[2] && ends[2] < ends[3] && ends[3] < ends[0]+total) {
-		return nil, fmt.Errorf("exact: parts %v and %v overlap or touch", a, b)
+	if !(ends[1] <= ends[2] && ends[2] < ends[3] && ends[3] <= ends[0]+total) || ends[1] == ends[2] && ends[3] == ends[0]+total {
+		return nil, fmt.Errorf("exact: parts %v and %v overlap or touch at both ends", a, b)
+	}
+	if ends[1] == ends[2] {
+		// touching where A ends and B starts: take B first, so that they
+		// touch where the second part ends and the first starts, which the
+		// first arrangement sends to infinity (kap = 0, infinite flow)
+		s, err := build(w, h, kx, ky, b, a, ub, ua, arr)
+		if err == nil {
+			s.A, s.B, s.UA, s.UB = a, b, ua, ub
+		}
+		return s, err
 	}
 	var p [4][2]float64 // the ends' images on the real axis, as [n, d] for n/d
 	for i, e := range ends {
@@ -117,6 +129,9 @@ func build(w, h, kx, ky float64, a, b Part, ua, ub float64, arr arrangement) (*T
 		target = [3][2]float64{{-1, 1}, {1, 1}, {1, t.kap}}
 	}
 	t.bigK, t.bigL = complete(t.kapc), complete(t.kap)
+	if t.kap == 0 { // the parts touch: K' is infinite
+		t.bigL = math.Inf(1)
+	}
 	if !t.across {
 		t.alpha, t.beta, t.cond = (ua+ub)/2, complex((ub-ua)/(2*t.bigK), 0), t.bigL/(2*t.bigK)
 	} else {
@@ -132,7 +147,7 @@ func build(w, h, kx, ky float64, a, b Part, ua, ub float64, arr arrangement) (*T
 		}
 	}
 	t.det = t.m[0][0]*t.m[1][1] - t.m[0][1]*t.m[1][0]
-	if !(t.det > 0) || !(t.kap > 0 && t.kap < 1) {
+	if !(t.det > 0) || !(t.kap >= 0 && t.kap < 1) || t.across && t.kap == 0 {
 		return nil, fmt.Errorf("exact: parts %v and %v: degenerate map (kap %g, det %g)", a, b, t.kap, t.det)
 	}
 	return t, nil
@@ -266,7 +281,7 @@ func (t *TwoParts) edgeF(p, q float64) (re, im float64) {
 		switch {
 		case ap <= aq:
 			return realF(p/q, m), 0
-		case t.kap*ap >= aq:
+		case t.kap*ap >= aq && t.kap > 0:
 			return realF(q/(t.kap*p), m), 0
 		case p*q > 0:
 			return t.bigK, 0
@@ -337,5 +352,6 @@ func (t *TwoParts) Conductance() float64 {
 }
 
 // Flow returns the flow entering the region through part B, per unit
-// depth: (UB - UA) times the conductance. Part A takes in its negative.
+// depth: (UB - UA) times the conductance (infinite when the parts touch).
+// Part A takes in its negative.
 func (t *TwoParts) Flow() float64 { return (t.UB - t.UA) * t.Conductance() }

@@ -237,3 +237,30 @@ func TestArrangementsAgree(t *testing.T) {
 		}
 	}
 }
+
+// Whole adjacent edges touch at a corner: in the square with the bottom at
+// 0, the right side at 1 and the rest insulated, the reflection
+// (x, y) -> (1-y, 1-x) swaps the two and fixes x + y = 1, where the field
+// is 1/2 exactly (an identity); the flow is infinite.
+func TestTouchingParts(t *testing.T) {
+	for _, swap := range []bool{false, true} {
+		a, b, ua, ub := Part{problem.Bottom, 0, 1}, Part{problem.Right, 0, 1}, 0.0, 1.0
+		if swap {
+			a, b, ua, ub = b, a, ub, ua
+		}
+		tp := mustNew(t, 1, 1, 1, 1, a, b, ua, ub)
+		// (within d of the touching corner the value loses about 1e-16/d^2:
+		// 1e-12 at d = 0.014)
+		for _, x := range []float64{0.01, 0.3, 0.5, 0.8, 0.99} {
+			if u := tp.Value(x, 1-x); math.Abs(u-0.5) > 1e-12 {
+				t.Errorf("swap %v: u(%g, %g) = %.16g, want 1/2", swap, x, 1-x, u)
+			}
+			if u, v := tp.Value(x, 0.3), tp.Value(0.7, 1-x); math.Abs(u+v-1) > 1e-13 {
+				t.Errorf("swap %v: u(%g, 0.3) + u(0.7, %g) = %.16g, want 1", swap, x, 1-x, u+v)
+			}
+		}
+		if f := tp.Flow(); !math.IsInf(f, int(ub-ua)) {
+			t.Errorf("swap %v: flow into B %g, want %g inf", swap, f, ub-ua)
+		}
+	}
+}
