@@ -30,9 +30,9 @@ type Edge struct {
 
 // Segment is one condition along a part of an edge.
 type Segment struct {
-	Kind    problem.Kind
-	Expr    string  // value or entering flux (value, flux)
-	H       float64 // convection coefficient (convection), when it is one number
+	Kind problem.Kind
+	Expr string  // value or entering flux (value, flux)
+	H    float64 // convection coefficient (convection), when it is one number
 	// HExpr is the convection coefficient as the user wrote it when it is
 	// a formula ("when(s < 25, 8, 20)"), or "" when it is a plain number.
 	// A formula whose value is one number also sets H; one that varies
