@@ -3,8 +3,11 @@
 // source) with two boundary parts held at UA and UB, each a stretch of one
 // edge (possibly the whole edge), and the rest of the boundary insulated.
 // It gives the field, its gradient, the flux density entering along any
-// edge (the exit gradient along a part) and the conductance between the
-// parts, to about 1e-13 away from the parts' ends.
+// edge (the exit gradient along a part), the flow through any stretch of
+// an edge (FlowThrough, from the stream function, no quadrature), the
+// mean field along a stretch (MeanAlong, by quadrature) and the
+// conductance between the parts, to about 1e-12 or better away from the
+// parts' ends.
 //
 // # Method
 //

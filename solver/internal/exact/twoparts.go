@@ -4,7 +4,9 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"slices"
 
+	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
 )
 
@@ -38,7 +40,9 @@ type TwoParts struct {
 	bigK, bigL float64       // K(kap), K'(kap) = K(kap')
 	alpha      float64       // u = alpha + Re(beta F(w | kap^2))
 	beta       complex128
-	cond       float64 // the conductance for unit conductivity
+	cond       float64       // the conductance for unit conductivity
+	ends       [4]float64    // perimeter positions of the part ends a1, a2, b1, b2
+	endF       [4]complex128 // F there: the corners of F's rectangle
 }
 
 // New returns the two-part problem. It fails when a part is not inside
@@ -80,6 +84,7 @@ func build(w, h, kx, ky float64, a, b Part, ua, ub float64, arr arrangement) (*T
 		ends[2*i], ends[2*i+1] = min(p0, p1), max(p0, p1)
 	}
 	total := 2 * (w + h)
+	t.ends = ends
 	for i := 1; i < 4; i++ { // measure from a1, counter-clockwise
 		if ends[i] < ends[0] || i == 3 && ends[3] < ends[2] {
 			ends[i] += total
@@ -131,6 +136,12 @@ func build(w, h, kx, ky float64, a, b Part, ua, ub float64, arr arrangement) (*T
 	t.bigK, t.bigL = complete(t.kapc), complete(t.kap)
 	if t.kap == 0 { // the parts touch: K' is infinite
 		t.bigL = math.Inf(1)
+	}
+	bK, bL := complex(t.bigK, 0), complex(0, t.bigL)
+	if !t.across {
+		t.endF = [4]complex128{-bK + bL, -bK, bK, bK + bL}
+	} else {
+		t.endF = [4]complex128{-bK, bK, bK + bL, -bK + bL}
 	}
 	if !t.across {
 		t.alpha, t.beta, t.cond = (ua+ub)/2, complex((ub-ua)/(2*t.bigK), 0), t.bigL/(2*t.bigK)
@@ -258,46 +269,77 @@ func (t *TwoParts) Value(x, y float64) float64 {
 	p, q, _ := t.image(x, y)
 	if onEdge := x <= 0 || x >= t.W || y <= 0 || y >= t.H; onEdge {
 		re, im := t.edgeF(real(p), real(q))
-		return t.alpha + real(t.beta)*re - imag(t.beta)*im
+		return t.alpha + real(t.beta)*re - imag(t.beta)*im // Re(alpha + beta F)
 	}
 	return t.alpha + real(t.beta*ellipticF(p/q, t.kap, t.bigL))
 }
 
-// edgeF returns the part of F(w) the field needs at a real w = p/q, the
-// limit from the upper half-plane: Re F in the first arrangement, Im F in
-// the second (the other is returned as 0). With m = kap^2, Re F is
-// F(asin w | m) for |w| <= 1, +-K between +-1 and +-1/kap, and
-// F(asin(1/(kap w)) | m) beyond; Im F is 0 for |w| <= 1, K' beyond
-// +-1/kap, and between them
+// edgeF returns F(w) at a real w = p/q, the limit from the upper
+// half-plane. With m = kap^2, Re F is F(asin w | m) for |w| <= 1, +-K
+// between +-1 and +-1/kap, and F(asin(1/(kap w)) | m) beyond; Im F is 0
+// for |w| <= 1, K' beyond +-1/kap, and between them
 //
 //	int_1^|w| dt / sqrt((t^2-1)(1-m t^2)) = F(asin X | 1-m),  X^2 = (w^2-1)/(kap'^2 w^2)
 //
 // (the substitution t^2 = 1/(1 - kap'^2 sin^2); from memory, checked by
-// the tests against the integral off the axis).
+// the tests against the integral off the axis and the flux density).
 func (t *TwoParts) edgeF(p, q float64) (re, im float64) {
 	m := t.kap * t.kap
 	ap, aq := math.Abs(p), math.Abs(q)
-	if !t.across {
-		switch {
-		case ap <= aq:
-			return realF(p/q, m), 0
-		case t.kap*ap >= aq && t.kap > 0:
-			return realF(q/(t.kap*p), m), 0
-		case p*q > 0:
-			return t.bigK, 0
-		}
-		return -t.bigK, 0
-	}
 	switch {
 	case ap <= aq:
-		return 0, 0
+		return realF(p/q, m), 0
 	case t.kap*ap >= aq:
-		return 0, t.bigL
+		if q == 0 {
+			return 0, t.bigL
+		}
+		return realF(q/(t.kap*p), m), t.bigL
+	}
+	re = t.bigK
+	if p*q < 0 {
+		re = -re
 	}
 	// X^2 = (p^2-q^2)/(kap'^2 p^2), 1 - X^2 = (q^2 - m p^2)/(kap'^2 p^2),
 	// 1 - kap'^2 X^2 = q^2/p^2
 	x := math.Sqrt((ap-aq)*(ap+aq)) / (t.kapc * ap)
-	return 0, x * real(carlsonRF(complex((aq-t.kap*ap)*(aq+t.kap*ap)/(t.kapc*t.kapc*ap*ap), 0), complex(q*q/(p*p), 0), 1))
+	return re, x * real(carlsonRF(complex((aq-t.kap*ap)*(aq+t.kap*ap)/(t.kapc*t.kapc*ap*ap), 0), complex(q*q/(p*p), 0), 1))
+}
+
+// psi returns the stream function Im(alpha + beta F(w)) at the point s of
+// edge e, for unit conductivity on the mapped rectangle: the flow entering
+// along the boundary counter-clockwise from one point to another is the
+// change of psi.
+//
+// At the part ends themselves, branch points of the map where F is only
+// good to the square root of the rounding, it takes F's exact values, the
+// corners of its rectangle.
+func (t *TwoParts) psi(e problem.Side, s float64) float64 {
+	var re, im float64
+	pos, total := t.perimeter(e, s), 2*(t.W+t.H)
+	if i := slices.IndexFunc(t.ends[:], func(end float64) bool { return end == pos || math.Abs(end-pos) == total }); i >= 0 {
+		re, im = real(t.endF[i]), imag(t.endF[i])
+	} else {
+		p, q, _ := t.image(t.point(e, s))
+		re, im = t.edgeF(real(p), real(q))
+	}
+	if math.IsInf(im, 0) {
+		return math.Copysign(math.Inf(1), real(t.beta)*im)
+	}
+	return imag(t.beta)*re + real(t.beta)*im
+}
+
+// FlowThrough returns the exact flow entering the region through the
+// stretch from s0 to s1 of edge e, per unit depth (infinite when the
+// stretch holds a point where the parts touch). It is the conductivity
+// sqrt(Kx Ky) times the change of the stream function along the stretch,
+// counter-clockwise: no quadrature, so it holds to the last digits even
+// across the ends of a part.
+func (t *TwoParts) FlowThrough(e problem.Side, s0, s1 float64) float64 {
+	d := t.psi(e, s1) - t.psi(e, s0)
+	if e == problem.Top || e == problem.Left { // s runs clockwise
+		d = -d
+	}
+	return math.Sqrt(t.Kx*t.Ky) * d
 }
 
 // At returns the exact field and its gradient at an interior point.
@@ -355,3 +397,36 @@ func (t *TwoParts) Conductance() float64 {
 // depth: (UB - UA) times the conductance (infinite when the parts touch).
 // Part A takes in its negative.
 func (t *TwoParts) Flow() float64 { return (t.UB - t.UA) * t.Conductance() }
+
+// MeanAlong returns the mean of the exact field along the stretch from s0
+// to s1 of edge e (for an insulated stretch, the mean surface value under
+// it). It is a quadrature: the stretch is cut at the part ends inside it,
+// where the field goes like a constant plus r^(1/2), and each piece is
+// taken by 48-point Gauss-Legendre through s = a + (b-a)(1 - cos t)/2,
+// which makes r^(1/2) smooth at both ends of the piece (about 1e-12 of
+// |UB - UA|).
+func (t *TwoParts) MeanAlong(e problem.Side, s0, s1 float64) float64 {
+	if !(s0 < s1) || s0 < 0 || s1 > t.length(e) {
+		panic(fmt.Sprintf("exact: MeanAlong %v %g..%g is not a stretch of the edge", e, s0, s1))
+	}
+	cuts := []float64{s0, s1}
+	for _, p := range []Part{t.A, t.B} {
+		for _, s := range []float64{p.From, p.To} {
+			if p.Side == e && s0 < s && s < s1 {
+				cuts = append(cuts, s)
+			}
+		}
+	}
+	slices.Sort(cuts)
+	x, w := make([]float64, 48), make([]float64, 48)
+	gauss.Legendre(x, w, 0, math.Pi)
+	sum := 0.0
+	for i := 0; i+1 < len(cuts); i++ {
+		a, b := cuts[i], cuts[i+1]
+		for j := range x {
+			s := a + (b-a)*(1-math.Cos(x[j]))/2
+			sum += w[j] * t.Value(t.point(e, s)) * (b - a) * math.Sin(x[j]) / 2
+		}
+	}
+	return sum / (s1 - s0)
+}

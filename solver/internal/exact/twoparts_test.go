@@ -3,6 +3,7 @@ package exact
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"edgewise/solver/gauss"
@@ -262,5 +263,103 @@ func TestTouchingParts(t *testing.T) {
 		if f := tp.Flow(); !math.IsInf(f, int(ub-ua)) {
 			t.Errorf("swap %v: flow into B %g, want %g inf", swap, f, ub-ua)
 		}
+	}
+}
+
+// The flow through any stretch, from the stream function, equals the
+// integral of the flux density over it; through a part it is the flow
+// between the parts, and through the insulated rest nothing.
+func TestFlowThrough(t *testing.T) {
+	for _, c := range cases {
+		tp := mustNew(t, c.w, c.h, c.kx, c.ky, c.a, c.b, 3, -8)
+		f := tp.Flow()
+		if got := tp.FlowThrough(c.b.Side, c.b.From, c.b.To); math.Abs(got-f) > 1e-12*math.Abs(f) {
+			t.Errorf("%s: through B %.15g, want %.15g", c.name, got, f)
+		}
+		if got := tp.FlowThrough(c.a.Side, c.a.From, c.a.To); math.Abs(got+f) > 1e-12*math.Abs(f) {
+			t.Errorf("%s: through A %.15g, want %.15g", c.name, got, -f)
+		}
+		total := 0.0
+		for _, e := range problem.Sides {
+			l := tp.length(e)
+			total += tp.FlowThrough(e, 0, l)
+			// pieces of the edge between the part ends: where a piece is
+			// insulated nothing enters; inside a part it is the integral
+			// of the flux density
+			cuts := []float64{0, l}
+			for _, p := range []Part{c.a, c.b} {
+				if p.Side == e {
+					cuts = append(cuts, p.From, p.To)
+				}
+			}
+			slices.Sort(cuts)
+			for i := 0; i+1 < len(cuts); i++ {
+				s0, s1 := cuts[i], cuts[i+1]
+				if s1 <= s0 {
+					continue
+				}
+				got := tp.FlowThrough(e, s0, s1)
+				mid := (s0 + s1) / 2
+				if !inside(c.a, e, mid) && !inside(c.b, e, mid) {
+					if math.Abs(got) > 1e-12*math.Abs(f) {
+						t.Errorf("%s: %v %g..%g insulated, flow %g", c.name, e, s0, s1, got)
+					}
+					continue
+				}
+				// a piece of a part from its start to a point inside
+				p := c.a
+				if inside(c.b, e, mid) {
+					p = c.b
+				}
+				sub := Part{e, p.From, p.From + 0.37*(p.To-p.From)}
+				want := integrate(tp, Part{e, sub.From, sub.To})
+				if got := tp.FlowThrough(e, sub.From, sub.To); math.Abs(got-want) > 1e-9*math.Abs(f) {
+					t.Errorf("%s: %v %g..%g: flow %.12g, integral %.12g", c.name, e, sub.From, sub.To, got, want)
+				}
+			}
+		}
+		if math.Abs(total) > 1e-12*math.Abs(f) {
+			t.Errorf("%s: net inflow %g, want 0", c.name, total)
+		}
+		// a part that ends at a corner, reached from the other edge
+		if c.name == "motz" {
+			if got := tp.FlowThrough(problem.Left, 0, 1); got != 0 {
+				t.Errorf("motz: through the insulated left side %g, want 0 (its ends are a corner at a part end and a corner)", got)
+			}
+		}
+	}
+}
+
+// The mean along a part is its value; along an insulated side between
+// opposite held sides it is the mean of the two (the field is linear);
+// in the square with touching parts (see TestTouchingParts) the means
+// along the left and top sides add up to 1 (the reflection).
+func TestMeanAlong(t *testing.T) {
+	for _, c := range cases {
+		tp := mustNew(t, c.w, c.h, c.kx, c.ky, c.a, c.b, 3, -8)
+		if m := tp.MeanAlong(c.a.Side, c.a.From, c.a.To); math.Abs(m-3) > 1e-12 {
+			t.Errorf("%s: mean along A %.15g, want 3", c.name, m)
+		}
+		if m := tp.MeanAlong(c.b.Side, c.b.From, c.b.To); math.Abs(m+8) > 1e-12 {
+			t.Errorf("%s: mean along B %.15g, want -8", c.name, m)
+		}
+	}
+	tp := mustNew(t, 2, 1, 1, 1, Part{problem.Left, 0, 1}, Part{problem.Right, 0, 1}, 10, 35)
+	if m := tp.MeanAlong(problem.Top, 0, 2); math.Abs(m-22.5) > 1e-12 {
+		t.Errorf("linear field: mean along the top %.15g, want 22.5", m)
+	}
+	if m := tp.MeanAlong(problem.Bottom, 0.5, 1); math.Abs(m-(10+25*0.375)) > 1e-12 {
+		t.Errorf("linear field: mean along the bottom 0.5..1 %.15g, want %g", m, 10+25*0.375)
+	}
+	sq := mustNew(t, 1, 1, 1, 1, Part{problem.Bottom, 0, 1}, Part{problem.Right, 0, 1}, 0, 1)
+	left, top := sq.MeanAlong(problem.Left, 0, 1), sq.MeanAlong(problem.Top, 0, 1)
+	if math.Abs(left+top-1) > 1e-12 || !(left > 0 && left < top) {
+		t.Errorf("touching square: means along left %.15g and top %.15g, want a sum of 1 and left < top", left, top)
+	}
+	// a stretch across a part end: the mean of the two pieces, weighted
+	m := mustNew(t, 2, 1, 1, 1, Part{problem.Bottom, 0, 1}, Part{problem.Right, 0, 1}, 0, 500)
+	whole, ins := m.MeanAlong(problem.Bottom, 0.5, 1.5), m.MeanAlong(problem.Bottom, 1, 1.5)
+	if math.Abs(whole-ins/2) > 1e-12*500 {
+		t.Errorf("motz: mean along 0.5..1.5 %.15g, want half the mean along 1..1.5 (%.15g)", whole, ins/2)
 	}
 }
