@@ -363,3 +363,55 @@ func TestMeanAlong(t *testing.T) {
 		t.Errorf("motz: mean along 0.5..1.5 %.15g, want half the mean along 1..1.5 (%.15g)", whole, ins/2)
 	}
 }
+
+// Long and thin rectangles, small parts and parts near corners: the parts
+// hold their values, the flows through them agree, the net inflow is zero
+// and the field stays between the two values (the maximum principle).
+func TestHardGeometry(t *testing.T) {
+	for _, c := range []struct {
+		name string
+		w, h float64
+		a, b Part
+	}{
+		{"30:1 strips on the long side", 30, 1, Part{problem.Bottom, 2, 3}, Part{problem.Top, 26, 29.5}},
+		{"1:30 ends", 1, 30, Part{problem.Bottom, 0, 1}, Part{problem.Left, 29, 30}},
+		{"tiny part", 1, 1, Part{problem.Top, 0.5, 0.5 + 1e-6}, Part{problem.Bottom, 0.2, 0.8}},
+		{"parts at a corner", 2, 1, Part{problem.Bottom, 1.9, 2}, Part{problem.Right, 1e-3, 0.5}},
+	} {
+		tp := mustNew(t, c.w, c.h, 1, 1, c.a, c.b, 0, 1)
+		f := tp.Flow()
+		if !(f > 0) || math.IsInf(f, 0) {
+			t.Errorf("%s: flow %g", c.name, f)
+			continue
+		}
+		if a := tp.FlowThrough(c.a.Side, c.a.From, c.a.To); math.Abs(a+f) > 1e-11*f {
+			t.Errorf("%s: through A %.15g, B %.15g", c.name, a, f)
+		}
+		net := 0.0
+		for _, e := range problem.Sides {
+			net += tp.FlowThrough(e, 0, tp.length(e))
+		}
+		if math.Abs(net) > 1e-11*f {
+			t.Errorf("%s: net inflow %g of %g", c.name, net, f)
+		}
+		for _, p := range []struct {
+			part Part
+			u    float64
+		}{{c.a, 0}, {c.b, 1}} {
+			for _, fr := range []float64{0.01, 0.5, 0.99} {
+				x, y := tp.point(p.part.Side, p.part.From+fr*(p.part.To-p.part.From))
+				if u := tp.Value(x, y); math.Abs(u-p.u) > 1e-11 {
+					t.Errorf("%s: on the part at (%g, %g): %.15g, want %g", c.name, x, y, u, p.u)
+				}
+			}
+		}
+		for i := 1; i < 20; i++ {
+			for j := 1; j < 20; j++ {
+				if u := tp.Value(c.w*float64(i)/20, c.h*float64(j)/20); !(u >= -1e-12 && u <= 1+1e-12) {
+					t.Errorf("%s: u(%g, %g) = %g outside [0, 1]", c.name, c.w*float64(i)/20, c.h*float64(j)/20, u)
+				}
+			}
+		}
+		t.Logf("%s: conductance %.15g", c.name, tp.Conductance())
+	}
+}
