@@ -1,6 +1,7 @@
 package project
 
 import (
+	"math"
 	"strconv"
 	"strings"
 
@@ -252,7 +253,11 @@ func (d *decoder) coefficient(v any, path string) (h float64, src string) {
 	} else {
 		h = d.number(v, path)
 	}
-	if d.err == nil && !(h >= 0) {
+	switch {
+	case d.err != nil:
+	case math.IsInf(h, 0):
+		d.fail(path, "%s is not a finite number", src)
+	case !(h >= 0):
 		d.fail(path, "convection coefficient must be zero or more, got %g", h)
 	}
 	return h, src

@@ -95,6 +95,8 @@ func TestSegmentErrors(t *testing.T) {
 			"edges.top.segments[1].h: convection coefficient must be zero or more, got -2"},
 		{"negative h formula", segmented(t, v(0.1), seg("kind", "convection", "h", "2-5", "ambient", "1")),
 			"edges.top.segments[1].h: convection coefficient must be zero or more, got -3"},
+		{"infinite h formula", segmented(t, v(0.1), seg("kind", "convection", "h", "1e300*1e300", "ambient", "1")),
+			"edges.top.segments[1].h: 1e300*1e300 is not a finite number"},
 		{"not a list", mutate(t, func(m map[string]any) { edges(m)["top"] = map[string]any{"segments": map[string]any{}} }),
 			"edges.top.segments: expected a list [..] of segments, got an object"},
 		{"segments and kind", mutate(t, func(m map[string]any) {
