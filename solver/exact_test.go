@@ -94,3 +94,26 @@ func TestEngineAgainstExact(t *testing.T) {
 		})
 	}
 }
+
+// Until the engine solves edges made of segments, Solve refuses them with
+// the one-line error that says so, and no number comes out.
+func TestSolveRefusesSegments(t *testing.T) {
+	for _, c := range []struct{ top, want string }{
+		{`{"segments": [{"to": 10, "kind": "value", "expr": "12"}, {"kind": "flux", "expr": "0"}]}`,
+			"edges.top.segments: mixed conditions along one edge are not solved yet (2 segments); give the edge one condition"},
+		{`{"kind": "convection", "h": "when(s < 25, 8, 20)", "ambient": "18"}`,
+			"edges.top.h: an h that varies along the edge is not solved yet; give one number"},
+	} {
+		p, err := project.Decode([]byte(`{"schema": "edgewise/1", "physics": "heat", "width": 30, "height": 10, "conductivity": 1,
+			"edges": {"bottom": {"kind": "value", "expr": "0"}, "left": {"kind": "flux", "expr": "0"}, "right": {"kind": "flux", "expr": "0"},
+			"top": ` + c.top + `}}`))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var s Solver
+		out, err := s.Solve(p, Options{Nx: 8, Ny: 8})
+		if err == nil || err.Error() != c.want || out != nil {
+			t.Errorf("solve: %v, %v; want no output and the error %q", out != nil, err, c.want)
+		}
+	}
+}
