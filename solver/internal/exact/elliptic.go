@@ -142,30 +142,6 @@ func (th *theta) sncndn(z complex128) (sn, cn, dn complex128) {
 	return c3 / c2 * t1 / t4, c4 / c2 * t2 / t4, c4 / c3 * t3 / t4
 }
 
-// jacobi returns sn, cn and dn of a real argument u for modulus k
-// (complementary modulus kc) by the arithmetic-geometric mean method: with
-// a0 = 1, b0 = k', c0 = k and a(n+1) = (a+b)/2, b(n+1) = sqrt(a b),
-// c(n+1) = (a-b)/2 until c(N) vanishes, phi(N) = 2^N a(N) u and
-// phi(n-1) = (phi(n) + asin(c(n) sin(phi(n)) / a(n)))/2; then sn = sin
-// phi(0), cn = cos phi(0), and dn = sqrt(k'^2 + k^2 cn^2), which keeps
-// its relative accuracy when k is near 1.
-func jacobi(u, k, kc float64) (sn, cn, dn float64) {
-	var a, c [32]float64
-	a[0], c[0] = 1, k
-	b := kc
-	n := 0
-	for n < len(a)-1 && math.Abs(c[n]) > 1e-17 {
-		a[n+1], b, c[n+1] = (a[n]+b)/2, math.Sqrt(a[n]*b), (a[n]-b)/2
-		n++
-	}
-	phi := math.Ldexp(a[n]*u, n)
-	for ; n > 0; n-- {
-		phi = (phi + math.Asin(c[n]*math.Sin(phi)/a[n])) / 2
-	}
-	sn, cn = math.Sin(phi), math.Cos(phi)
-	return sn, cn, math.Sqrt(kc*kc + k*k*cn*cn)
-}
-
 // carlsonRF returns Carlson's symmetric integral
 //
 //	R_F(x, y, z) = (1/2) int_0^inf dt / sqrt((t+x)(t+y)(t+z))
