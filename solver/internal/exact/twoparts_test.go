@@ -415,3 +415,58 @@ func TestHardGeometry(t *testing.T) {
 		t.Logf("%s: conductance %.15g", c.name, tp.Conductance())
 	}
 }
+
+// mirror returns the part reflected in x = W/2 (flipX) or y = H/2.
+func mirror(p Part, w, h float64, flipX bool) Part {
+	switch {
+	case flipX && (p.Side == problem.Bottom || p.Side == problem.Top):
+		return Part{p.Side, w - p.To, w - p.From}
+	case flipX && p.Side == problem.Left:
+		return Part{problem.Right, p.From, p.To}
+	case flipX:
+		return Part{problem.Left, p.From, p.To}
+	case p.Side == problem.Left || p.Side == problem.Right:
+		return Part{p.Side, h - p.To, h - p.From}
+	case p.Side == problem.Bottom:
+		return Part{problem.Top, p.From, p.To}
+	}
+	return Part{problem.Bottom, p.From, p.To}
+}
+
+// Symmetry identities: naming the parts the other way round changes
+// nothing; swapping the two values gives UA + UB - u; reflecting the
+// rectangle reflects the field (each reflection reverses the boundary's
+// direction, which the map must undo).
+func TestSymmetries(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, c := range cases {
+		base := mustNew(t, c.w, c.h, c.kx, c.ky, c.a, c.b, 2, 9)
+		renamed := mustNew(t, c.w, c.h, c.kx, c.ky, c.b, c.a, 9, 2)
+		swapped := mustNew(t, c.w, c.h, c.kx, c.ky, c.a, c.b, 9, 2)
+		fx := mustNew(t, c.w, c.h, c.kx, c.ky, mirror(c.a, c.w, c.h, true), mirror(c.b, c.w, c.h, true), 2, 9)
+		fy := mustNew(t, c.w, c.h, c.kx, c.ky, mirror(c.a, c.w, c.h, false), mirror(c.b, c.w, c.h, false), 2, 9)
+		for _, g := range []*TwoParts{renamed, swapped, fx, fy} {
+			if d := math.Abs(g.Conductance()/base.Conductance() - 1); d > 1e-13 {
+				t.Errorf("%s: conductance %.16g, base %.16g", c.name, g.Conductance(), base.Conductance())
+			}
+		}
+		for range 10 {
+			x, y := c.w*(0.02+0.96*rng.Float64()), c.h*(0.02+0.96*rng.Float64())
+			u := base.Value(x, y)
+			for _, v := range []struct {
+				name string
+				got  float64
+				want float64
+			}{
+				{"renamed", renamed.Value(x, y), u},
+				{"swapped", swapped.Value(x, y), 11 - u},
+				{"mirrored in x", fx.Value(c.w-x, y), u},
+				{"mirrored in y", fy.Value(x, c.h-y), u},
+			} {
+				if math.Abs(v.got-v.want) > 1e-12*7 {
+					t.Errorf("%s %s at (%g, %g): %.15g, want %.15g", c.name, v.name, x, y, v.got, v.want)
+				}
+			}
+		}
+	}
+}
