@@ -13,11 +13,15 @@ func Compile(p *Project) (*problem.Problem, error) {
 		Source: p.Source,
 	}
 	for _, side := range problem.Sides {
+		h, err := p.checkEdge(side)
+		if err != nil {
+			return nil, err
+		}
 		f, seg, _, err := p.EdgeData(side)
 		if err != nil {
 			return nil, err
 		}
-		pr.Edges[side] = problem.Edge{Kind: seg.Kind, F: f, Hc: seg.H}
+		pr.Edges[side] = problem.Edge{Kind: seg.Kind, F: f, Hc: h}
 	}
 	if err := pr.Validate(); err != nil {
 		return nil, Errorf("", "%v", err)
@@ -32,7 +36,7 @@ func Compile(p *Project) (*problem.Problem, error) {
 func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, seg Segment, path string, err error) {
 	seg, ok := p.Edges[side].Whole()
 	if !ok {
-		return nil, seg, "", Errorf("edges."+side.String(), "an edge of %d segments cannot be solved yet", len(p.Edges[side].Segments))
+		return nil, seg, "", Errorf("edges."+side.String()+".segments", "mixed conditions along one edge are not solved yet (%d segments); give the edge one condition", len(p.Edges[side].Segments))
 	}
 	src, key := seg.data()
 	path = "edges." + side.String() + "." + key

@@ -260,7 +260,7 @@ func (d *decoder) project(v any) *Project {
 		if em == nil {
 			break
 		}
-		p.Edges[side] = d.edge(em[side.String()], "edges."+side.String())
+		p.Edges[side] = d.edge(em[side.String()], "edges."+side.String(), p.length(side))
 	}
 	if pv, ok := m["probes"]; ok {
 		p.Probes = d.probes(pv, p)

@@ -76,10 +76,9 @@ func TestDecodeGood(t *testing.T) {
 	}
 }
 
-// An edge in the one-condition form is one segment; the segments form is
-// not read yet (the engine cannot solve it), and an edge of more than one
-// segment built in Go is refused by Compile with its path, and written in
-// the segments form.
+// An edge in the one-condition form is one segment; an edge of more than
+// one segment built in Go is refused by Compile with its path, and written
+// in the segments form (segments_test.go has the rest).
 func TestEdgeIsOneSegment(t *testing.T) {
 	p, err := Decode([]byte(baseProject))
 	if err != nil {
@@ -94,17 +93,11 @@ func TestEdgeIsOneSegment(t *testing.T) {
 	if got, ok := p.Edges[problem.Top].Whole(); !ok || got != want {
 		t.Errorf("top edge %+v, %v; want %+v", got, ok, want)
 	}
-	_, err = Decode(mutate(t, func(m map[string]any) {
-		edges(m)["top"] = map[string]any{"segments": []any{map[string]any{"kind": "value", "expr": "1"}}}
-	}))
-	if err == nil || err.Error() != "edges.top.kind: missing (use value, flux or convection)" {
-		t.Errorf("segments form: error %v, want it refused as before", err)
-	}
 	p.Edges[problem.Top] = Edge{Segments: []Segment{
 		{To: 0.1, Kind: problem.Value, Expr: "12"},
 		{Kind: problem.Flux, Expr: "0"},
 	}}
-	if _, err := Compile(p); err == nil || err.Error() != "edges.top: an edge of 2 segments cannot be solved yet" {
+	if _, err := Compile(p); err == nil || err.Error() != "edges.top.segments: mixed conditions along one edge are not solved yet (2 segments); give the edge one condition" {
 		t.Errorf("compile of two segments: error %v", err)
 	}
 	const top = `"top":{"segments":[{"to":0.1,"kind":"value","expr":"12"},{"kind":"flux","expr":"0"}]}`

@@ -15,6 +15,9 @@ func FuzzDecode(f *testing.F) {
 	  "edges":{"bottom":{"kind":"flux","expr":"sin(s)"},"top":{"kind":"value","expr":0},
 	  "left":{"kind":"convection","h":0,"ambient":"readings(s, 0, 1, 1, 2)"},"right":{"kind":"value","expr":"1/0"}}}`))
 	f.Add([]byte(paramProject))
+	f.Add([]byte(`{"schema":"edgewise/1","physics":"heat","width":30,"height":10,"conductivity":1,
+	  "edges":{"bottom":{"kind":"value","expr":"0"},"left":{"kind":"flux","expr":"0"},"right":{"kind":"convection","h":"2*5","ambient":"1"},
+	  "top":{"segments":[{"to":10,"kind":"value","expr":"12"},{"to":20,"kind":"flux","expr":"0"},{"kind":"convection","h":"when(s < 25, 8, 20)","ambient":"18"}]}}}`))
 	f.Add([]byte(`{"schema":"edgewise/1"}`))
 	f.Add([]byte(`[1,2,3]`))
 	f.Fuzz(func(t *testing.T, data []byte) {

@@ -48,12 +48,12 @@ func engineRange(p *Project) *Error {
 	}
 	L, k := max(p.Width, p.Height), min(p.Conductivity.X, p.Conductivity.Y)
 	for _, side := range problem.Sides {
-		for _, seg := range p.Edges[side].Segments {
+		for i, seg := range p.Edges[side].Segments {
 			if seg.Kind != problem.Convection {
 				continue
 			}
 			if bi := seg.H * L / k; bi > maxBiot {
-				return Errorf("edges."+side.String()+".h", "%g gives a Biot number h L/k = %.3g (L the longer side, k the smaller conductivity), above the %g the engine handles; %s",
+				return Errorf(SegmentPath(side, p.Edges[side], i)+".h", "%g gives a Biot number h L/k = %.3g (L the longer side, k the smaller conductivity), above the %g the engine handles; %s",
 					seg.H, bi, maxBiot, rangeAdviceStrongBiot)
 			}
 		}

@@ -124,7 +124,7 @@ func (d *decoder) number(v any, path string) float64 {
 	}
 	f, err := n.Float64()
 	if err != nil || math.IsInf(f, 0) || math.IsNaN(f) {
-		d.fail(path, "%s is not a finite number", clip(string(n)))
+		d.fail(path, "%s is not a finite number", project.Shorten(string(n)))
 		return 0
 	}
 	return f
@@ -369,7 +369,7 @@ func describe(v any) string {
 	case bool:
 		return fmt.Sprint(t)
 	case jsonlite.Number:
-		return "the number " + clip(string(t))
+		return "the number " + project.Shorten(string(t))
 	case string:
 		return fmt.Sprintf("the text %q", clip(t))
 	case []any:

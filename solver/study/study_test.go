@@ -360,7 +360,7 @@ func TestDecodeErrors(t *testing.T) {
 			`schema: expected "edgewise-study/1", got "edgewise/1" (not an edgewise study, or a newer version)`},
 		{"not JSON", `{"schema": `, "not a study file: JSON syntax error at line 1, col 12: ..."},
 		{"long number", head + `"vary": [{"name": "h_top", "values": [1` + strings.Repeat("0", 5000) + `]}], "report": ["mean"]}`,
-			"vary[0].values[0]: 10000000000000000000000000000000...(5001 bytes) is not a finite number"},
+			"vary[0].values[0]: 10000000...(5001 digits) is not a finite number"},
 	} {
 		_, err := Decode([]byte(c.study), p)
 		if err == nil || !matches(err.Error(), c.want) || strings.Contains(err.Error(), "\n") {
