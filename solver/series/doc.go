@@ -69,13 +69,15 @@
 // Breaks: the places where edge data stop being smooth are found once per
 // problem by FindBreaks, classified (BreakClass: a value break inside a
 // value edge, a flux break of flux or ambient inside a flux or convection
-// edge, a corner break where two prescribed values differ; a break of
-// slope is the class to add next), and carried out of the series
-// analytically: corner breaks by the angle function above, breaks inside
-// an edge by break pieces (breakfield.go: the angle function, or
-// Re(w log w) for a flux break, about the break's place), the rest of the
-// data summed by the series (SolveBreaks). Quadratures split at flux
-// breaks.
+// edge, a corner break where two prescribed values differ, a kink where
+// the slope of value, flux or ambient data jumps), and carried out of the
+// series analytically: corner breaks by the angle function above, breaks
+// inside an edge by break pieces (breakfield.go: the angle function, or
+// Re(w log w) for a flux break, Im(w log w) for a value kink,
+// Re(w^2 log w) for a flux or ambient kink, about the break's place), the
+// rest of the data summed by the series (SolveBreaks). Quadratures split
+// at flux breaks and kinks, so the flow of piecewise-linear flux data is
+// exact to rounding.
 //
 // FindBreaks also refuses data the series cannot carry: a pole between
 // sample points (the data grow like a power of the distance near it, where
