@@ -137,6 +137,15 @@ func kinkCases() []*kinkCase {
 		kinks: []kinkTerm{{side: problem.Right, s0: 0.6, n: 2, c: -2}}, nKink: 1}
 	c.setEdges([4]problem.Kind{V, F, F, V}, [4]float64{})
 	out = append(out, c)
+	// weak exchange (Bi 1e-5, no value edge): a flux kink on the bottom and
+	// an ambient kink on the right, solved in the limit h -> 0
+	hw := 1e-5
+	p = &problem.Problem{W: 1, H: 1, Kx: 1, Ky: 1}
+	c = &kinkCase{name: "weak exchange kinks", p: p,
+		kinks: []kinkTerm{{side: problem.Bottom, s0: 0.4, n: 2, c: 1},
+			{side: problem.Right, s0: 0.5, n: 2, c: 0.5}, {side: problem.Right, s0: 0.5, n: 3, c: complex(0, -hw*0.5/3)}}, nKink: 2}
+	c.setEdges([4]problem.Kind{F, C, F, C}, [4]float64{0, hw, 0, hw})
+	out = append(out, c)
 	return out
 }
 
