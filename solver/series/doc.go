@@ -44,7 +44,8 @@
 //  5. Grid: the pieces in one pass (one arctangent or logarithm per node,
 //     shared by the four corners through symmetry); the sub-problems row by
 //     row with per-row truncation (a term falls like exp(-lambda t) at
-//     distance t from its edge), by DST-I/DCT-I (gonum dsp/fourier) for
+//     distance t from its edge; the terms dropped sum to at most a tenth
+//     of ErrorEstimate, so the grid is covered by it like a probe), by DST-I/DCT-I (gonum dsp/fourier) for
 //     the sine pairs and by separable products with recurrences otherwise.
 //
 // Accuracy: Options.Tol is relative to the data scale (Solution.Scale: the
