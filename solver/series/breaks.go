@@ -245,6 +245,8 @@ const (
 // before and after are then taken by one-sided second-order differences
 // over 1e-4 of L. A kink is kept if its slopes differ by more than 1e-6 of
 // the edge's range over L (smooth data give equal slopes to about 1e-8).
+// A step whose two sides have different slopes is a kink too, at the
+// step's place.
 func edgeKinks(f func(float64) float64, side problem.Side, v []float64, L, rng float64, steps []Break) []Break {
 	n := len(v) - 1
 	h := L / float64(n)
@@ -290,6 +292,19 @@ func edgeKinks(f func(float64) float64, side problem.Side, v []float64, L, rng f
 		}
 		if !dup {
 			out = append(out, Break{Class: KinkBreak, Side: side, Corner: -1, S: s0, From: sl, To: sr})
+		}
+	}
+	// A step may also break the slope: the slopes on either side of it.
+	for _, st := range steps {
+		const d = 1e-4
+		a, b := st.S*(1-1e-15)-1e-13*L, st.S*(1+1e-15)+1e-13*L
+		if a-2*d*L < 0 || b+2*d*L > L {
+			continue
+		}
+		sl := (3*f(a) - 4*f(a-d*L) + f(a-2*d*L)) / (2 * d * L)
+		sr := (-3*f(b) + 4*f(b+d*L) - f(b+2*d*L)) / (2 * d * L)
+		if math.Abs(sr-sl)*L > 1e-6*rng {
+			out = append(out, Break{Class: KinkBreak, Side: side, Corner: -1, S: st.S, From: sl, To: sr})
 		}
 	}
 	sort.Slice(out, func(a, b int) bool { return out[a].S < out[b].S })

@@ -46,6 +46,9 @@ func (k kinkTerm) value(p *problem.Problem, x, y float64) (u, ux, uy float64) {
 	if k.n == 1 {
 		wn = 1
 	}
+	if k.n == 0 {
+		wn = 1 / w
+	}
 	lw := cmplx.Log(w)
 	f := k.c * wn * w * lw
 	df := k.c * wn * (complex(float64(k.n), 0)*lw + 1)
@@ -60,7 +63,9 @@ type kinkCase struct {
 	name  string
 	p     *problem.Problem
 	kinks []kinkTerm
-	nKink int // kinks FindBreaks must find
+	steps []kinkTerm // angle terms (n = 0, c = -i J/pi): steps of value or flux
+	nKink int        // kinks FindBreaks must find
+	nStep int        // steps FindBreaks must find
 }
 
 func (c *kinkCase) exact(x, y float64) (u, ux, uy float64) {
@@ -70,7 +75,7 @@ func (c *kinkCase) exact(x, y float64) (u, ux, uy float64) {
 	u = 2*e*math.Cos(Y) + 0.5*x*a*y + 1
 	ux = 2*e*math.Cos(Y)/1.3 + 0.5*a*y
 	uy = -2*e*math.Sin(Y)*a/1.3 + 0.5*x*a
-	for _, k := range c.kinks {
+	for _, k := range append(c.kinks, c.steps...) {
 		v, vx, vy := k.value(c.p, x, y)
 		u, ux, uy = u+v, ux+vx, uy+vy
 	}
@@ -137,6 +142,14 @@ func kinkCases() []*kinkCase {
 		kinks: []kinkTerm{{side: problem.Right, s0: 0.6, n: 2, c: -2}}, nKink: 1}
 	c.setEdges([4]problem.Kind{V, F, F, V}, [4]float64{})
 	out = append(out, c)
+	// a flux step and a flux kink at the same place on the top (the flux
+	// jumps there and so does its slope); the step term is Re(c w log w)
+	// with real c (n = 1), whose normal derivative on the edge is -c theta
+	c = &kinkCase{name: "flux step with kink", p: &problem.Problem{W: 1.4, H: 1, Kx: 1, Ky: 1},
+		kinks: []kinkTerm{{side: problem.Top, s0: 0.8, n: 2, c: 1.2}},
+		steps: []kinkTerm{{side: problem.Top, s0: 0.8, n: 1, c: -0.9}}, nKink: 1, nStep: 1}
+	c.setEdges([4]problem.Kind{V, V, F, C}, [4]float64{0, 0, 0, 1.5})
+	out = append(out, c)
 	// weak exchange (Bi 1e-5, no value edge): a flux kink on the bottom and
 	// an ambient kink on the right, solved in the limit h -> 0
 	hw := 1e-5
@@ -162,7 +175,7 @@ func TestKinksManufactured(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		n := 0
+		n, nStep := 0, 0
 		for _, b := range bs {
 			if b.Class == KinkBreak {
 				n++
@@ -173,12 +186,14 @@ func TestKinksManufactured(t *testing.T) {
 				if !found {
 					t.Errorf("%s: kink at %v s=%g not in the data", c.name, b.Side, b.S)
 				}
+			} else if b.Class == FluxBreak && c.nStep > 0 {
+				nStep++
 			} else {
 				t.Errorf("%s: unexpected %v at %v s=%g", c.name, b.Class, b.Side, b.S)
 			}
 		}
-		if n != c.nKink {
-			t.Errorf("%s: found %d kinks, want %d", c.name, n, c.nKink)
+		if n != c.nKink || nStep != c.nStep {
+			t.Errorf("%s: found %d kinks and %d steps, want %d and %d", c.name, n, nStep, c.nKink, c.nStep)
 		}
 		f, err := SolveBreaks(c.p, bs, Options{})
 		if err != nil {
