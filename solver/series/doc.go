@@ -21,7 +21,9 @@
 //     corner break (the two values differ by J), and Im(zeta^2 log zeta) when the data's
 //     curvatures are not those of a harmonic function; at a value/flux or
 //     value/convection corner zeta log zeta when the data disagree about
-//     the normal derivative (plus Im(zeta^2 log zeta) taking back the
+//     the normal derivative (by more than four times the uncertainty of
+//     the slope taken from the data: agreeing data leave the gradient at
+//     the corner finite) (plus Im(zeta^2 log zeta) taking back the
 //     beta s log s it leaves on a convection edge) and zeta^3 log zeta
 //     when they disagree at third order; at a corner between two
 //     flux/convection edges Re(zeta^2 log zeta) when the data disagree
