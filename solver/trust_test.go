@@ -120,12 +120,13 @@ func TestEngineRangesRefused(t *testing.T) {
 }
 
 // A series that stops at its limit says the limit (4096), not the terms
-// it kept after dropping negligible ones (a kink at the middle of a value
-// edge between value edges: its sine coefficients of even order vanish,
+// it kept after dropping negligible ones (a cusp, sqrt|s - 1/2|, at the
+// middle of a value edge between value edges, which no piece carries: its
+// sine coefficients of even order vanish,
 // and the last one, 4096, was dropped: "stopped at 4095 terms").
 func TestTermLimitWarningSaysTheLimit(t *testing.T) {
 	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"heat","width":1,"height":1,"conductivity":1,
-	 "edges":{"bottom":{"kind":"value","expr":"abs(s - 0.5)"},"top":{"kind":"value","expr":"0"},
+	 "edges":{"bottom":{"kind":"value","expr":"sqrt(abs(s - 0.5))"},"top":{"kind":"value","expr":"0"},
 	 "left":{"kind":"value","expr":"0.5"},"right":{"kind":"value","expr":"0.5"}}}`, Options{NoCrossCheck: true})
 	text := warningText(out.Result.Warnings, problem.TermLimit)
 	if text == "" || strings.Contains(text, "4095") || !strings.Contains(text, "stopped at 4096 terms") {
@@ -340,5 +341,34 @@ func TestUnconvergedWithholdsCautions(t *testing.T) {
 	 "top":{"kind":"value","expr":"82"},"left":{"kind":"flux","expr":"0"}}}`, Options{NoCrossCheck: true})
 	if c := out.Result.Cautions; !out.Result.Accuracy.Converged || len(c) < 2 || c[0] == CautionsWithheld {
 		t.Errorf("converged %v, cautions %q: want the physics' own cautions", out.Result.Accuracy.Converged, c)
+	}
+}
+
+// Kinks written in the formula language are carried like steps: the flow
+// through a flux edge with readings(s, 0, 0, 0.5, 8, 1, 2) is the integral
+// of its data, 0.5 (0 + 8)/2 + 0.5 (8 + 2)/2 = 4.5, exact to rounding (it
+// was off by 2e-6 relative when the quadrature did not split at the knot),
+// and the value edge max(0, 40 (s - 0.25)) is met at its kink (the field
+// there was 0.0023 where the data say 0).
+func TestKinksInFormulas(t *testing.T) {
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"heat","width":1,"height":1,"conductivity":2,
+	 "edges":{"bottom":{"kind":"flux","expr":"readings(s, 0, 0, 0.5, 8, 1, 2)"},"top":{"kind":"value","expr":"max(0, 40*(s - 0.25))"},
+	 "left":{"kind":"value","expr":"0"},"right":{"kind":"flux","expr":"10*abs(s - 0.3)"}},
+	 "probes":[{"x":0.25,"y":1},{"x":0.6,"y":1}]}`, Options{NoCrossCheck: true})
+	r := out.Result
+	if q := r.Edges[problem.Bottom].Flow; q == nil || math.Abs(*q-4.5) > 1e-13 {
+		t.Errorf("bottom flow %v, want 4.5", q)
+	}
+	// 10 |s - 0.3| over [0, 1]: 10 (0.3^2 + 0.7^2)/2 = 2.9
+	if q := r.Edges[problem.Right].Flow; q == nil || math.Abs(*q-2.9) > 1e-13 {
+		t.Errorf("right flow %v, want 2.9", q)
+	}
+	for i, want := range []float64{0, 14} {
+		if d := math.Abs(r.Probes[i].Value - want); d > r.Accuracy.Estimate {
+			t.Errorf("probe %d on the value edge: %.10g, data %g (estimate %.3g)", i, r.Probes[i].Value, want, r.Accuracy.Estimate)
+		}
+	}
+	if text := warningText(r.Warnings, problem.TermLimit); text != "" {
+		t.Errorf("kinks should not need the term limit: %s", text)
 	}
 }

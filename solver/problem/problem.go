@@ -108,8 +108,9 @@ type Edge struct {
 	// otherwise.
 	Hc float64
 	// Breaks lists, in increasing order, places strictly inside the edge
-	// where F jumps (a flux break: a step of flux or of ambient; found by
-	// series.FindBreaks). Solvers that integrate F split their rules there,
+	// where F jumps (a flux break: a step of flux or of ambient) or its
+	// slope jumps (a kink, on any kind of edge); found by
+	// series.FindBreaks. Solvers that integrate F split their rules there,
 	// so that a break costs them no accuracy. Optional: nil when F is
 	// continuous or its breaks are not known.
 	Breaks []float64

@@ -2,6 +2,7 @@ package series
 
 import (
 	"math"
+	"math/cmplx"
 	"slices"
 
 	"edgewise/solver/gauss"
@@ -26,9 +27,28 @@ import (
 // data, which the series sums fast; everywhere else on the boundary the
 // pieces are smooth and go into the other edges' data. The field is then
 // the series plus the pieces.
+//
+// A kink (the slope of the data jumps inside an edge) takes a piece of one
+// order higher, phi = Re(C w^n log w) with w = t + i d:
+//
+//	a value kink, slope sL to sR (per unit t):  C = -i (sL - sR)/pi, n = 1
+//	a flux kink, entering flux slope qL to qR:  C = (qL - qR)/(2 kappa pi), n = 2
+//
+// On its own edge the first is Im(w log w) (sL - sR)/pi = (sL - sR) t
+// before s0 and 0 after it; the second has d phi/dd = -2 C pi t before
+// and 0 after, so its entering flux has the slope qL - qR before s0 and 0
+// after. A convection edge whose ambient's slope jumps by D takes the flux
+// kink of Hc D, plus Re(i E w^3 log w), E = -Hc C/(3 kappa), whose flux
+// takes back the Hc C t^2 ln|t| the first leaves in the exchange (it leaves
+// only a jump of the third derivative). The data less these pieces have a
+// continuous slope; flows stay finite (a value kink's flux grows like
+// ln r at it, an integrable singularity).
 type breakPiece struct {
 	side    problem.Side
-	flux    bool    // a flux break (w log w) rather than a value break (angle)
+	flux    bool // a flux break (w log w) rather than a value break (angle)
+	kink    bool // a kink piece Re(cc w^n log w)
+	n       int  // its power of w
+	cc      complex128
 	s0, amp float64 // where, and (A - B) or a
 	kappa   float64 // entering flux = -kappa d phi/dd
 	w, h, c float64 // rectangle and sqrt(Kx/Ky)
@@ -57,6 +77,24 @@ func newBreakPiece(pr *problem.Problem, br Break) breakPiece {
 		kappa = math.Sqrt(pr.Kx * pr.Ky)
 	}
 	a.kappa = kappa
+	if br.Class == KinkBreak {
+		// slopes per unit t: t = s on the bottom and top, c s on the sides
+		ts := 1.0
+		if br.Side == problem.Left || br.Side == problem.Right {
+			ts = c
+		}
+		jump := (br.From - br.To) / ts
+		a.kink = true
+		switch e.Kind {
+		case problem.Value:
+			a.n, a.cc = 1, complex(0, -jump/math.Pi)
+		case problem.Flux:
+			a.n, a.cc = 2, complex(jump/(2*kappa*math.Pi), 0)
+		default:
+			a.n, a.cc = 2, complex(e.Hc*jump/(2*kappa*math.Pi), 0)
+		}
+		return a
+	}
 	switch e.Kind {
 	case problem.Value:
 		a.amp = br.From - br.To
@@ -77,6 +115,9 @@ func (a *breakPiece) at(x, y float64) (phi, px, py float64) {
 	if d <= 0 {
 		d = 0 // on the edge (and not beyond it by rounding)
 	}
+	if a.kink {
+		return a.kinkAt(t, d)
+	}
 	r2 := d*d + t*t
 	if r2 == 0 {
 		if a.flux {
@@ -96,10 +137,32 @@ func (a *breakPiece) at(x, y float64) (phi, px, py float64) {
 	return k * theta, k * (t*a.dx - d*a.tx) / r2, k * (t*a.dy - d*a.ty) / r2
 }
 
+// kinkAt returns a kink piece and its gradient at local (t, d), d >= 0.
+// At the kink itself phi is 0 and so is the gradient for n >= 2; for
+// n = 1 it grows like ln r there and is NaN.
+func (a *breakPiece) kinkAt(t, d float64) (phi, px, py float64) {
+	w := complex(t, d)
+	if w == 0 {
+		if a.n == 1 {
+			return 0, math.NaN(), math.NaN()
+		}
+		return 0, 0, 0
+	}
+	lw := cmplx.Log(w)
+	wn1 := complex(1, 0) // w^(n-1)
+	for k := 1; k < a.n; k++ {
+		wn1 *= w
+	}
+	f := a.cc * wn1 * w * lw
+	df := a.cc * wn1 * (complex(float64(a.n), 0)*lw + 1)
+	gt, gd := real(df), -imag(df)
+	return real(f), gt*a.tx + gd*a.dx, gt*a.ty + gd*a.dy
+}
+
 // entering returns the flux of phi entering the region through edge e at
 // (x, y) on it.
 func (a *breakPiece) entering(e problem.Side, x, y float64) float64 {
-	if a.flux && e == a.side && math.Abs(a.t0+a.tx*x+a.ty*y) == 0 {
+	if a.flux && !a.kink && e == a.side && math.Abs(a.t0+a.tx*x+a.ty*y) == 0 {
 		// at the break itself: the value just after it (the along-edge
 		// derivative, unbounded there, carries no flux through the edge)
 		return 0
@@ -177,8 +240,15 @@ func solveWithBreaks(pr *problem.Problem, breaks []Break, solve func(*problem.Pr
 		bf.length[side] = pr.Length(side)
 	}
 	for _, br := range breaks {
-		bf.phis = append(bf.phis, newBreakPiece(pr, br))
-		bf.valueBreak[br.Side] = bf.valueBreak[br.Side] || pr.Edges[br.Side].Kind == problem.Value
+		a := newBreakPiece(pr, br)
+		bf.phis = append(bf.phis, a)
+		if e := pr.Edges[br.Side]; a.kink && e.Kind == problem.Convection {
+			// takes back the Hc C t^2 ln|t| of the exchange
+			b := a
+			b.n, b.cc = 3, complex(0, -e.Hc*real(a.cc)/(3*a.kappa))
+			bf.phis = append(bf.phis, b)
+		}
+		bf.valueBreak[br.Side] = bf.valueBreak[br.Side] || (br.Class == ValueBreak && pr.Edges[br.Side].Kind == problem.Value)
 	}
 	q := *pr
 	for _, side := range problem.Sides {
@@ -195,7 +265,7 @@ func solveWithBreaks(pr *problem.Problem, breaks []Break, solve func(*problem.Pr
 				phi, _ := at(s)
 				for i := range bf.phis {
 					a := &bf.phis[i]
-					if a.side == side && !a.flux && s == a.s0 {
+					if a.side == side && !a.flux && !a.kink && s == a.s0 {
 						// at the break itself the piece is taken on the side
 						// the data are on (the piece field shows the mean)
 						phi -= a.amp / 2
@@ -272,7 +342,7 @@ func (bf *breakField) breakSide(side problem.Side, s, v float64, f func(float64)
 	add := 0.0
 	for i := range bf.phis {
 		a := &bf.phis[i]
-		if a.side == side && a.flux && s == a.s0 {
+		if a.side == side && a.flux && !a.kink && s == a.s0 {
 			after := breakTo(a, f)
 			before := f(math.Nextafter(a.s0, math.Inf(-1)))
 			if math.Abs(v-before) < math.Abs(v-after) {

@@ -26,12 +26,14 @@ const (
 	// CornerBreak: two value edges prescribe different values at their
 	// common corner. The flows through both edges are infinite.
 	CornerBreak
-	// A break of slope (a kink, as in abs(s - a)) is the class to add
-	// next: FindBreaks would report it, and a break piece of one order
-	// higher would carry it.
+	// KinkBreak: the data of an edge (value, flux or ambient) are
+	// continuous but their slope jumps inside the edge, as in abs(s - a),
+	// max(0, ...) or the knots of readings(...). From and To are the
+	// slopes (data per unit of s) before and after. The flows stay finite.
+	KinkBreak
 )
 
-var breakClassNames = [...]string{ValueBreak: "value break", FluxBreak: "flux break", CornerBreak: "corner break"}
+var breakClassNames = [...]string{ValueBreak: "value break", FluxBreak: "flux break", CornerBreak: "corner break", KinkBreak: "kink"}
 
 func (c BreakClass) String() string {
 	if c < 0 || int(c) >= len(breakClassNames) {
@@ -55,7 +57,7 @@ type Break struct {
 	S float64
 	// From and To are the data just before and just after the break; for
 	// a CornerBreak the value on the corner's first edge and on its
-	// second.
+	// second; for a KinkBreak the slopes dF/ds before and after.
 	From, To float64
 }
 
@@ -136,7 +138,7 @@ func FindBreaks(p *problem.Problem) ([]Break, error) {
 			return nil, err
 		}
 		for _, b := range bs {
-			if b.Class == FluxBreak {
+			if b.Class == FluxBreak || b.Class == KinkBreak {
 				p.Edges[side].Breaks = append(p.Edges[side].Breaks, b.S)
 			}
 		}
@@ -223,7 +225,112 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 			out = append(out, Break{Class: class, Side: side, Corner: -1, S: s0, From: fa, To: fb})
 		}
 	}
-	return out, nil
+	return append(out, edgeKinks(e.F, side, v, L, hi-lo, out)...), nil
+}
+
+// Kinks: a sample whose second difference stands out from those two
+// samples away by more than kinkContrast is a candidate (a kink puts a
+// second difference of the slope jump times the spacing on one or two
+// neighbouring samples, smooth data the curvature times the spacing
+// squared on all); at most kinkCandidates of them, the largest first.
+const (
+	kinkContrast   = 8
+	kinkCandidates = 32
+)
+
+// edgeKinks finds the kinks of f inside an edge of length L from its
+// samples v, away from the steps already found. Each candidate is placed
+// where the lines through the samples on either side meet, and the place
+// refined with spacings shrinking eightfold down to 1e-13 of L; the slopes
+// before and after are then taken by one-sided second-order differences
+// over 1e-4 of L. A kink is kept if its slopes differ by more than 1e-6 of
+// the edge's range over L (smooth data give equal slopes to about 1e-8).
+// A step whose two sides have different slopes is a kink too, at the
+// step's place.
+func edgeKinks(f func(float64) float64, side problem.Side, v []float64, L, rng float64, steps []Break) []Break {
+	n := len(v) - 1
+	h := L / float64(n)
+	d2 := make([]float64, n+1)
+	for i := 1; i < n; i++ {
+		d2[i] = v[i-1] - 2*v[i] + v[i+1]
+	}
+	var cand []int
+	for i := 3; i <= n-3; i++ {
+		ref := max(math.Abs(d2[i-2]), math.Abs(d2[i+2]))
+		if math.Abs(d2[i]) <= kinkContrast*ref || math.Abs(d2[i]) <= 1e-12*rng {
+			continue
+		}
+		near := false
+		for _, b := range steps {
+			near = near || math.Abs(b.S-h*float64(i)) < 4*h
+		}
+		if !near {
+			cand = append(cand, i)
+		}
+	}
+	sort.Slice(cand, func(a, b int) bool { return math.Abs(d2[cand[a]]) > math.Abs(d2[cand[b]]) })
+	var out []Break
+	for _, i := range cand[:min(len(cand), kinkCandidates)] {
+		s0 := h * float64(i)
+		for g := h; g > 1e-13*L; g /= 8 {
+			s0 = kinkMeet(f, s0, g, L)
+		}
+		if !(s0 > 2e-4*L && s0 < L*(1-2e-4)) {
+			continue // the corner's business
+		}
+		const d = 1e-4
+		a, b := s0*(1-1e-15)-1e-13*L, s0*(1+1e-15)+1e-13*L
+		fa, fb := f(a), f(b)
+		sl := (3*fa - 4*f(a-d*L) + f(a-2*d*L)) / (2 * d * L)
+		sr := (-3*fb + 4*f(b+d*L) - f(b+2*d*L)) / (2 * d * L)
+		if math.Abs(sr-sl)*L <= 1e-6*rng || math.Abs(fb-fa) > 1e-6*rng {
+			continue // smooth after all, or a step
+		}
+		dup := false
+		for _, o := range out {
+			dup = dup || math.Abs(o.S-s0) < 1e-9*L
+		}
+		if !dup {
+			out = append(out, Break{Class: KinkBreak, Side: side, Corner: -1, S: s0, From: sl, To: sr})
+		}
+	}
+	// A step may also break the slope: the slopes on either side of it.
+	for _, st := range steps {
+		const d = 1e-4
+		a, b := st.S*(1-1e-15)-1e-13*L, st.S*(1+1e-15)+1e-13*L
+		if a-2*d*L < 0 || b+2*d*L > L {
+			continue
+		}
+		sl := (3*f(a) - 4*f(a-d*L) + f(a-2*d*L)) / (2 * d * L)
+		sr := (-3*f(b) + 4*f(b+d*L) - f(b+2*d*L)) / (2 * d * L)
+		if math.Abs(sr-sl)*L > 1e-6*rng {
+			out = append(out, Break{Class: KinkBreak, Side: side, Corner: -1, S: st.S, From: sl, To: sr})
+		}
+	}
+	sort.Slice(out, func(a, b int) bool { return out[a].S < out[b].S })
+	return out
+}
+
+// kinkMeet returns where the line through f at s0-2g, s0-g meets the one
+// through f at s0+g, s0+2g, held within [s0-g, s0+g] (s0 itself when the
+// lines are parallel).
+func kinkMeet(f func(float64) float64, s0, g, L float64) float64 {
+	a2, a1 := max(s0-2*g, 0), max(s0-g, 0)
+	b1, b2 := min(s0+g, L), min(s0+2*g, L)
+	fa2, fa1, fb1, fb2 := f(a2), f(a1), f(b1), f(b2)
+	if a1 <= a2 || b2 <= b1 {
+		return s0
+	}
+	sl, sr := (fa1-fa2)/(a1-a2), (fb2-fb1)/(b2-b1)
+	if sl == sr || sl-sl != 0 || sr-sr != 0 {
+		return s0
+	}
+	// fa1 + sl (s - a1) = fb1 + sr (s - b1)
+	s := (fb1 - fa1 + sl*a1 - sr*b1) / (sl - sr)
+	if !(s >= s0-g && s <= s0+g) {
+		return s0
+	}
+	return s
 }
 
 // isPole tells a pole from a break (or a steep but smooth change) at s0,

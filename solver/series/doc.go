@@ -21,7 +21,9 @@
 //     corner break (the two values differ by J), and Im(zeta^2 log zeta) when the data's
 //     curvatures are not those of a harmonic function; at a value/flux or
 //     value/convection corner zeta log zeta when the data disagree about
-//     the normal derivative (plus Im(zeta^2 log zeta) taking back the
+//     the normal derivative (by more than four times the uncertainty of
+//     the slope taken from the data: agreeing data leave the gradient at
+//     the corner finite) (plus Im(zeta^2 log zeta) taking back the
 //     beta s log s it leaves on a convection edge) and zeta^3 log zeta
 //     when they disagree at third order; at a corner between two
 //     flux/convection edges Re(zeta^2 log zeta) when the data disagree
@@ -44,7 +46,8 @@
 //  5. Grid: the pieces in one pass (one arctangent or logarithm per node,
 //     shared by the four corners through symmetry); the sub-problems row by
 //     row with per-row truncation (a term falls like exp(-lambda t) at
-//     distance t from its edge), by DST-I/DCT-I (gonum dsp/fourier) for
+//     distance t from its edge; the terms dropped sum to at most a tenth
+//     of ErrorEstimate, so the grid is covered by it like a probe), by DST-I/DCT-I (gonum dsp/fourier) for
 //     the sine pairs and by separable products with recurrences otherwise.
 //
 // Accuracy: Options.Tol is relative to the data scale (Solution.Scale: the
@@ -69,13 +72,15 @@
 // Breaks: the places where edge data stop being smooth are found once per
 // problem by FindBreaks, classified (BreakClass: a value break inside a
 // value edge, a flux break of flux or ambient inside a flux or convection
-// edge, a corner break where two prescribed values differ; a break of
-// slope is the class to add next), and carried out of the series
-// analytically: corner breaks by the angle function above, breaks inside
-// an edge by break pieces (breakfield.go: the angle function, or
-// Re(w log w) for a flux break, about the break's place), the rest of the
-// data summed by the series (SolveBreaks). Quadratures split at flux
-// breaks.
+// edge, a corner break where two prescribed values differ, a kink where
+// the slope of value, flux or ambient data jumps), and carried out of the
+// series analytically: corner breaks by the angle function above, breaks
+// inside an edge by break pieces (breakfield.go: the angle function, or
+// Re(w log w) for a flux break, Im(w log w) for a value kink,
+// Re(w^2 log w) for a flux or ambient kink, about the break's place), the
+// rest of the data summed by the series (SolveBreaks). Quadratures split
+// at flux breaks and kinks, so the flow of piecewise-linear flux data is
+// exact to rounding.
 //
 // FindBreaks also refuses data the series cannot carry: a pole between
 // sample points (the data grow like a power of the distance near it, where

@@ -56,13 +56,15 @@ func BreakMethod(p *problem.Problem) []string {
 	if err != nil {
 		return nil // such a project is refused before it is solved
 	}
-	var value, flux bool
+	var value, flux, kink bool
 	for _, b := range breaks {
 		switch b.Class {
 		case ValueBreak:
 			value = true
 		case FluxBreak:
 			flux = true
+		case KinkBreak:
+			kink = true
 		}
 	}
 	var m []string
@@ -71,6 +73,9 @@ func BreakMethod(p *problem.Problem) []string {
 	}
 	if flux {
 		m = append(m, "Breaks of flux or of ambient inside an edge, found once by sampling and bisection, carried out of the series by the harmonic piece Re(w log w), w the local complex coordinate at the break, so that a step costs no accuracy.")
+	}
+	if kink {
+		m = append(m, "Kinks (jumps of slope) of value, flux or ambient inside an edge, found once by sampling and the meeting of the lines on either side, carried out of the series by the harmonic pieces Im(w log w) (value) and Re(w^2 log w) (flux, ambient), w the local complex coordinate at the kink; integrals of the data split there.")
 	}
 	return m
 }

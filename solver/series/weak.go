@@ -102,7 +102,7 @@ func solveWeak(p *problem.Problem, breaks []Break, opt Options) (Field, error) {
 		}
 		var qb []Break
 		for _, b := range breaks {
-			if e := p.Edges[b.Side]; b.Class == FluxBreak && e.Kind == problem.Convection {
+			if e := p.Edges[b.Side]; (b.Class == FluxBreak || b.Class == KinkBreak) && e.Kind == problem.Convection {
 				b.From, b.To = e.Hc*b.From, e.Hc*b.To // the flux h (a - C - v) breaks by h times the ambient's break
 			}
 			qb = append(qb, b)
