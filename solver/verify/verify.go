@@ -26,6 +26,7 @@ type Case struct {
 	Title     string
 	Source    string
 	Basis     string
+	Kind      string // identity, closed form or table (Kinds)
 	Project   []byte // the project's JSON text
 	Quantity  Quantity
 	Expect    *float64 // nil when Reference is set
@@ -51,16 +52,21 @@ type Reference struct {
 // Outcome is the result of one case. Computed, Expected and Difference are
 // nil when the case could not be computed; Error then says why.
 type Outcome struct {
-	ID, Title, Source, Basis, Formula string
-	Computed, Expected, Difference    *float64
-	Tol                               float64
-	TolReason                         string
-	Pass                              bool
-	Error                             string
+	ID, Title, Source, Basis, Kind, Formula string
+	Computed, Expected, Difference          *float64
+	Tol                                     float64
+	TolReason                               string
+	Pass                                    bool
+	Error                                   string
 }
 
 var (
-	bases    = []string{"exact", "read", "memory", "recomputed", "common practice"}
+	bases = []string{"exact", "read", "memory", "recomputed", "common practice"}
+	// Kinds are what a case's expected value is: an exact identity, a
+	// closed form from a named published method (its formula evaluated),
+	// or a value printed in a table (read there or recalled from memory,
+	// as its basis says).
+	Kinds    = []string{"identity", "closed form", "table"}
 	formulas = []string{"probe_value", "edge_flow", "balance", "mean", "torsion_beta", "duct_fre", "decay_rate"}
 )
 
@@ -89,7 +95,7 @@ func Parse(data []byte) (*File, error) {
 	for i, v := range list {
 		c := &f.Cases[i]
 		where := fmt.Sprintf("checks: case %d", i)
-		m, err := object(v, where, []string{"id", "title", "source", "basis", "project", "quantity", "tol", "tol_reason"}, []string{"expect", "reference"})
+		m, err := object(v, where, []string{"id", "title", "source", "basis", "kind", "project", "quantity", "tol", "tol_reason"}, []string{"expect", "reference"})
 		if err != nil {
 			return nil, err
 		}
@@ -98,6 +104,7 @@ func Parse(data []byte) (*File, error) {
 		c.Title, _ = m["title"].(string)
 		c.Source, _ = m["source"].(string)
 		c.Basis, _ = m["basis"].(string)
+		c.Kind, _ = m["kind"].(string)
 		c.TolReason, _ = m["tol_reason"].(string)
 		tol, tolOK := number(m["tol"])
 		c.Tol = tol
@@ -110,6 +117,8 @@ func Parse(data []byte) (*File, error) {
 			return nil, fmt.Errorf("%s: needs a title and a source", where)
 		case !contains(bases, c.Basis):
 			return nil, fmt.Errorf("%s: basis %q (use %s)", where, c.Basis, strings.Join(bases, ", "))
+		case !contains(Kinds, c.Kind):
+			return nil, fmt.Errorf("%s: kind %q (use %s)", where, c.Kind, strings.Join(Kinds, ", "))
 		case (m["expect"] == nil) == (m["reference"] == nil):
 			return nil, fmt.Errorf("%s: give exactly one of expect and reference", where)
 		case !tolOK || !(c.Tol > 0) || math.IsInf(c.Tol, 0) || strings.TrimSpace(c.TolReason) == "":
@@ -290,7 +299,7 @@ func (q Quantity) check() error {
 }
 
 // JSON returns the outcome as a JSON object with the keys id, title,
-// source, basis, formula, computed, expected, difference (numbers or
+// source, basis, kind, formula, computed, expected, difference (numbers or
 // null), tol, tol_reason, pass and error.
 func (o *Outcome) JSON() []byte {
 	var w jsonlite.Writer
@@ -308,7 +317,7 @@ func (o *Outcome) write(w *jsonlite.Writer) {
 	}
 	w.Open('{')
 	w.Key("id").Str(o.ID).Key("title").Str(o.Title).Key("source").Str(o.Source)
-	w.Key("basis").Str(o.Basis).Key("formula").Str(o.Formula)
+	w.Key("basis").Str(o.Basis).Key("kind").Str(o.Kind).Key("formula").Str(o.Formula)
 	w.Key("computed")
 	opt(o.Computed)
 	w.Key("expected")
@@ -332,7 +341,7 @@ func (f *File) Find(id string) *Case {
 
 // Run solves the case (and its reference) with s and compares.
 func (c *Case) Run(s *solver.Solver) Outcome {
-	o := Outcome{ID: c.ID, Title: c.Title, Source: c.Source, Basis: c.Basis,
+	o := Outcome{ID: c.ID, Title: c.Title, Source: c.Source, Basis: c.Basis, Kind: c.Kind,
 		Formula: c.Quantity.Formula, Tol: c.Tol, TolReason: c.TolReason}
 	v, err := Compute(s, c.Project, c.Quantity)
 	if err != nil {

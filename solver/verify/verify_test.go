@@ -83,14 +83,14 @@ func caseFile(body string) string {
 func TestRun(t *testing.T) {
 	// Exact identity: reflection in the diagonal x <-> y maps the top-edge
 	// problem at (x, y) onto the right-edge problem at (y, x).
-	text := caseFile(`{"id":"mirror","title":"reflection","source":"Exact identity: reflection in the diagonal","basis":"exact",
+	text := caseFile(`{"id":"mirror","title":"reflection","source":"Exact identity: reflection in the diagonal","basis":"exact","kind":"identity",
 	  "project":` + square("top") + `,"quantity":{"formula":"probe_value","probe":"a"},
 	  "reference":{"project":` + square("right") + `,"quantity":{"formula":"probe_value","probe":"b"}},
 	  "tol":1e-9,"tol_reason":"exact identity"},
-	 {"id":"wrong","title":"a wrong expectation","source":"Exact identity: 1/4 at the centre, here mistyped as 0.3","basis":"exact",
+	 {"id":"wrong","title":"a wrong expectation","source":"Exact identity: 1/4 at the centre, here mistyped as 0.3","basis":"exact","kind":"identity",
 	  "project":` + strings.Replace(square("top"), `"x":0.3,"y":0.5`, `"x":0.5,"y":0.5`, 1) + `,"quantity":{"formula":"probe_value","probe":"a"},
 	  "expect":0.3,"tol":1e-9,"tol_reason":"exact identity"},
-	 {"id":"precondition","title":"torsion formula on a project that is not a torsion problem","source":"Exact identity","basis":"exact",
+	 {"id":"precondition","title":"torsion formula on a project that is not a torsion problem","source":"Exact identity","basis":"exact","kind":"identity",
 	  "project":` + square("top") + `,"quantity":{"formula":"torsion_beta"},
 	  "expect":0.141,"tol":1e-3,"tol_reason":"any"}`)
 	f, err := Parse([]byte(text))
@@ -139,7 +139,7 @@ func mustParse(t *testing.T, b []byte) map[string]any {
 }
 
 func TestParseErrors(t *testing.T) {
-	good := `{"id":"a","title":"t","source":"s","basis":"exact","project":{},"quantity":{"formula":"mean"},"expect":1,"tol":1,"tol_reason":"r"}`
+	good := `{"id":"a","title":"t","source":"s","basis":"exact","kind":"identity","project":{},"quantity":{"formula":"mean"},"expect":1,"tol":1,"tol_reason":"r"}`
 	for _, c := range []struct{ name, text, want string }{
 		{"not json", `{`, "checks:"},
 		{"schema", `{"schema":"x","cases":[` + good + `]}`, `schema "x"`},
@@ -149,6 +149,7 @@ func TestParseErrors(t *testing.T) {
 		{"repeated id", caseFile(good + "," + good), "repeated id"},
 		{"no source", caseFile(strings.Replace(good, `"source":"s"`, `"source":" "`, 1)), "needs a title and a source"},
 		{"basis", caseFile(strings.Replace(good, `"exact"`, `"guess"`, 1)), `basis "guess"`},
+		{"kind", caseFile(strings.Replace(good, `"identity"`, `"hunch"`, 1)), `kind "hunch"`},
 		{"both", caseFile(strings.Replace(good, `"expect":1`, `"expect":1,"reference":{"project":{},"quantity":{"formula":"mean"}}`, 1)), "exactly one"},
 		{"neither", caseFile(strings.Replace(good, `"expect":1,`, ``, 1)), "exactly one"},
 		{"tol", caseFile(strings.Replace(good, `"tol":1`, `"tol":0`, 1)), "positive tol"},
@@ -279,7 +280,7 @@ func FuzzParse(f *testing.F) {
 		f.Fatal(err)
 	}
 	f.Add(data)
-	f.Add([]byte(caseFile(`{"id":"a","title":"t","source":"s","basis":"exact","project":{},"quantity":{"formula":"mean"},"expect":1,"tol":1,"tol_reason":"r"}`)))
+	f.Add([]byte(caseFile(`{"id":"a","title":"t","source":"s","basis":"exact","kind":"identity","project":{},"quantity":{"formula":"mean"},"expect":1,"tol":1,"tol_reason":"r"}`)))
 	f.Add([]byte(`{"schema":"edgewise-checks/1","cases":[{"reference":{"project":{"a":[1,{"b":null}]}}}]}`))
 	f.Fuzz(func(t *testing.T, b []byte) {
 		file, err := Parse(b)
