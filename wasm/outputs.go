@@ -14,8 +14,8 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/project"
-	"edgewise/solver/study"
 	"edgewise/solver/report"
+	"edgewise/solver/study"
 
 	"github.com/hack-pad/safejs"
 )
