@@ -22,8 +22,6 @@ package main
 // no value answers found false with the engine's reason.
 
 import (
-	"bytes"
-	"encoding/csv"
 	"errors"
 	"fmt"
 	"math"
@@ -110,14 +108,13 @@ func intArg(args []safejs.Value, i int) int {
 	return n
 }
 
-// csvLines formats records as the runner does (encoding/csv).
+// csvLines formats records as the runner does (encoding/csv's format).
 func csvLines(records ...[]string) (string, error) {
-	var b bytes.Buffer
-	w := csv.NewWriter(&b)
-	if err := w.WriteAll(records); err != nil {
-		return "", err
+	var b []byte
+	for _, r := range records {
+		b = study.AppendCSV(b, r)
 	}
-	return b.String(), nil
+	return string(b), nil
 }
 
 func numOrNull(w *jsonlite.Writer, v float64) {
