@@ -1,0 +1,248 @@
+package e2e
+
+import (
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/chromedp/chromedp"
+)
+
+// studyPlate is testdata/study/plate.json, read once.
+func studyPlate(t *testing.T) string {
+	t.Helper()
+	b, err := os.ReadFile(filepath.Join(root, "testdata", "study", "plate.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return string(b)
+}
+
+// setSelect chooses an option of a select the way a user does (the
+// value, then a change event).
+func (tb *tab) setSelect(t *testing.T, id, value string) {
+	t.Helper()
+	ok := eval[bool](t, tb, fmt.Sprintf(`(() => { const s = document.getElementById(%q);
+	  if (![...s.options].some((o) => o.value === %q)) return false;
+	  s.value = %q; s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`, id, value, value))
+	if !ok {
+		t.Fatalf("select #%s has no option %q", id, value)
+	}
+}
+
+func (tb *tab) click(t *testing.T, sel string) {
+	t.Helper()
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS(sel))); err != nil {
+		t.Fatalf("click %s: %v", sel, err)
+	}
+}
+
+// runner runs the native study runner on a project and a study (JSON
+// texts) and returns its standard output.
+func runner(t *testing.T, project, study string) []byte {
+	t.Helper()
+	dir := t.TempDir()
+	pf, sf := filepath.Join(dir, "project.json"), filepath.Join(dir, "study.json")
+	if err := os.WriteFile(pf, []byte(project), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(sf, []byte(study), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command("go", "run", "./scripts/solve", "-study", sf, pf)
+	cmd.Dir = root
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("runner: %v: %s", err, stderr.String())
+	}
+	return out
+}
+
+// TestStudyOnPage builds a study by typing on the page, runs it, checks
+// the download against the runner, clicks a point, cancels a run, seeks a
+// target and compares two designs.
+func TestStudyOnPage(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	dl := tb.catchDownloads(t)
+	tb.loadProject(t, studyPlate(t))
+
+	// ---- the Parameters panel ----
+	names := eval[[]string](t, tb, `[...document.querySelectorAll("#params .param-name")].map((i) => i.value)`)
+	if strings.Join(names, " ") != "h_top k_plate t_heater" {
+		t.Fatalf("parameters on the panel: %v", names)
+	}
+	// a new parameter no field uses: the engine's error at its row
+	tb.click(t, "#param-add")
+	tb.waitFor(t, `(document.querySelector('#params [data-err="parameters.p1"]') || {}).textContent.includes("not used")`, "the unused parameter's error at its row")
+	// used: the source written as a formula of it
+	n := tb.solved(t)
+	tb.typeInto(t, "#in-source", "p1*0")
+	tb.waitSolved(t, n+1)
+	if src := eval[any](t, tb, `window.edgewise.project().source`); src != "p1*0" {
+		t.Fatalf("the source as typed went to the project as %v", src)
+	}
+	// a name used but not defined: the error at the field that uses it
+	tb.typeInto(t, "#in-source", "p2*0")
+	tb.waitFor(t, `(document.getElementById("err-source") || {}).textContent.includes("p2")`, "the undefined name's error at the source")
+	tb.typeInto(t, "#in-source", "0")
+	eval[bool](t, tb, `(() => { const r = [...document.querySelectorAll("#params .param-row")].find((r) => r.querySelector(".param-name").value === "p1");
+	  r.querySelector(".param-remove").click(); return true; })()`)
+	tb.waitFor(t, `!window.edgewise.project().parameters.p1 && document.querySelector('#params [data-err="parameters.p1"]') === null`, "p1 removed")
+	n = tb.solved(t)
+	tb.waitFor(t, `document.querySelectorAll("#st-outputs input").length > 10`, "the outputs list")
+
+	// ---- a sweep built by typing ----
+	tb.setSelect(t, "st-a1-name", "h_top")
+	tb.setSelect(t, "st-a1-scale", "log")
+	tb.typeInto(t, "#st-a1-from", "5")
+	tb.typeInto(t, "#st-a1-to", "500")
+	tb.typeInto(t, "#st-a1-steps", "5")
+	tb.click(t, "#st-two")
+	tb.setSelect(t, "st-a2-name", "k_plate")
+	tb.setSelect(t, "st-a2-scale", "list")
+	tb.typeInto(t, "#st-a2-values", "120, 167, 200")
+	for _, p := range []string{"probes.T1.value", "edges.top.flow", "edges.bottom.flow"} {
+		tb.click(t, fmt.Sprintf(`#st-outputs input[value=%q]`, p))
+	}
+	tb.click(t, "#st-run")
+	tb.waitFor(t, `document.getElementById("study").dataset.studyState === "done"`, "the study to finish")
+	rows := eval[int](t, tb, `window.edgewiseParts.study.rows().length`)
+	if rows != 15 {
+		t.Fatalf("%d rows, want 5 x 3", rows)
+	}
+	if lines := eval[int](t, tb, `document.querySelectorAll("#st-plot polyline").length`); lines != 3 {
+		t.Errorf("%d lines in the plot, want one per k_plate value (3)", lines)
+	}
+	progress := eval[string](t, tb, `document.getElementById("st-progress-text").textContent`)
+	if !strings.HasPrefix(progress, "15 of 15 cases in ") {
+		t.Errorf("progress after the run: %q", progress)
+	}
+	t.Logf("15-case study: %s", progress)
+
+	// the download is the runner's output for the same project and study
+	name, got := dl.click(t, tb, "#st-csv")
+	if !strings.HasSuffix(name, "-study.csv") {
+		t.Errorf("download name %q", name)
+	}
+	proj := eval[map[string]any](t, tb, `window.edgewise.project()`)
+	studyJSON, err := json.Marshal(proj["study"])
+	if err != nil || proj["study"] == nil {
+		t.Fatalf("the project does not keep the study: %v", proj)
+	}
+	projJSON, _ := json.Marshal(proj)
+	want := runner(t, string(projJSON), string(studyJSON))
+	if !bytes.Equal(got, want) {
+		t.Fatalf("page CSV:\n%q\nrunner:\n%q", got, want)
+	}
+	recs, err := csv.NewReader(bytes.NewReader(got)).ReadAll()
+	if err != nil || len(recs) != 16 || recs[0][1] != "h_top" || recs[0][2] != "k_plate" {
+		t.Fatalf("CSV: %v %v", err, recs)
+	}
+
+	// hovering shows exact values; clicking a point loads that case
+	row7 := recs[8] // row 7: the third h_top, the second k_plate
+	if err := chromedp.Do(tb.ctx, chromedp.ScrollIntoView(chromedp.CSS(`#st-plot circle[data-row="7"]`))); err != nil {
+		t.Fatal(err)
+	}
+	n = tb.solved(t)
+	eval[bool](t, tb, `(() => { const c = document.querySelector('#st-plot circle[data-row="7"]');
+	  c.dispatchEvent(new MouseEvent("mouseenter")); return true; })()`)
+	hover := eval[string](t, tb, `document.getElementById("st-hover").textContent`)
+	if !strings.Contains(hover, "h_top = "+row7[1]) || !strings.Contains(hover, "k_plate = "+row7[2]) {
+		t.Errorf("hover %q does not show row 7's exact values %v", hover, row7[:3])
+	}
+	tb.click(t, `#st-plot circle[data-row="7"]`)
+	tb.waitSolved(t, n+1)
+	params := eval[map[string]float64](t, tb, `window.edgewiseInternal.last().project.parameters`)
+	h7, _ := strconv.ParseFloat(row7[1], 64)
+	if params["h_top"] != h7 || params["k_plate"] != 167 {
+		t.Errorf("the loaded case has %v, want h_top %v and k_plate 167", params, h7)
+	}
+	maxv := eval[float64](t, tb, `window.edgewiseInternal.last().result.max.value`)
+	if want, _ := strconv.ParseFloat(row7[3], 64); maxv != want {
+		t.Errorf("the loaded case's max.value %v, the study's row %v", maxv, want)
+	}
+
+	// ---- cancel: a held batch is stopped by restarting the worker ----
+	restarts := eval[int](t, tb, `window.edgewiseInternal.engineState().restarts`)
+	eval[bool](t, tb, `window.edgewiseInternal.hold({fn: "study_rows", calls: 1})`)
+	tb.click(t, "#st-run")
+	tb.waitFor(t, `window.edgewiseInternal.engineState().held >= 1`, "the batch held")
+	tb.click(t, "#st-cancel")
+	tb.waitFor(t, `document.getElementById("study").dataset.studyState === "cancelled"`, "the study cancelled")
+	if r := eval[int](t, tb, `window.edgewiseInternal.engineState().restarts`); r != restarts+1 {
+		t.Errorf("restarts %d after the cancel, want %d", r, restarts+1)
+	}
+	if text := eval[string](t, tb, `document.getElementById("st-progress-text").textContent`); !strings.HasPrefix(text, "Cancelled") {
+		t.Errorf("after cancel: %q", text)
+	}
+
+	// ---- seek: the value the runner finds, with the achieved output ----
+	tb.setSelect(t, "sk-name", "h_top")
+	tb.typeInto(t, "#sk-from", "5")
+	tb.typeInto(t, "#sk-to", "500")
+	tb.setSelect(t, "sk-output", "probes.T1.value")
+	tb.typeInto(t, "#sk-target", "100")
+	tb.click(t, "#sk-run")
+	tb.waitFor(t, `["found", "none", "failed"].includes(document.getElementById("study").dataset.seekState)`, "the seek")
+	answer := eval[string](t, tb, `document.getElementById("sk-answer").textContent`)
+	if state := eval[string](t, tb, `document.getElementById("study").dataset.seekState`); state != "found" {
+		t.Fatalf("seek %s: %s", state, answer)
+	}
+	proj = eval[map[string]any](t, tb, `window.edgewise.project()`)
+	seekJSON, _ := json.Marshal(proj["study"])
+	projJSON, _ = json.Marshal(proj)
+	seekCSV, err := csv.NewReader(bytes.NewReader(runner(t, string(projJSON), string(seekJSON)))).ReadAll()
+	if err != nil || len(seekCSV) != 2 {
+		t.Fatalf("runner's seek: %v %v", err, seekCSV)
+	}
+	if !strings.HasPrefix(answer, "h_top = "+seekCSV[1][0]+" ") || !strings.Contains(answer, "probes.T1.value = "+seekCSV[1][2]+",") {
+		t.Errorf("page's seek %q, runner's %v", answer, seekCSV[1])
+	}
+	achieved, _ := strconv.ParseFloat(seekCSV[1][2], 64)
+	tol, _ := strconv.ParseFloat(seekCSV[1][4], 64)
+	if d := achieved - 100; d > tol || d < -tol {
+		t.Errorf("achieved %v misses 100 by more than %v", achieved, tol)
+	}
+	// a target out of reach: the engine's reason, no value
+	tb.typeInto(t, "#sk-target", "1000")
+	tb.click(t, "#sk-run")
+	tb.waitFor(t, `document.getElementById("study").dataset.seekState === "none"`, "the seek with no solution")
+	if a := eval[string](t, tb, `document.getElementById("sk-answer").textContent`); !strings.Contains(a, "holds no solution") {
+		t.Errorf("no-solution answer: %q", a)
+	}
+
+	// ---- compare two designs ----
+	tb.click(t, "#cmp-pin")
+	n = tb.solved(t)
+	eval[bool](t, tb, `(() => { const r = [...document.querySelectorAll("#params .param-row")].find((r) => r.querySelector(".param-name").value === "h_top");
+	  r.querySelector(".param-value").focus(); r.querySelector(".param-value").select(); return true; })()`)
+	if err := chromedp.Do(tb.ctx, chromedp.KeyEvent("300")); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `window.edgewiseInternal.last().project.parameters.h_top === 300`, "B solved with h_top 300")
+	st := eval[map[string]any](t, tb, `window.edgewiseParts.compare.state()`)
+	if st["diff"] != true || !(st["maxDiff"].(float64) > 0) {
+		t.Errorf("compare state %v: want a difference map with a difference", st)
+	}
+	if rowsN := eval[int](t, tb, `document.querySelectorAll("#cmp-table tbody tr").length`); rowsN < 8 {
+		t.Errorf("%d output rows in the comparison", rowsN)
+	}
+	tb.typeInto(t, "#in-width", "0.4")
+	tb.waitFor(t, `window.edgewiseInternal.last().project.width === 0.4`, "B with another width")
+	st = eval[map[string]any](t, tb, `window.edgewiseParts.compare.state()`)
+	if st["diff"] != false || !strings.Contains(st["note"].(string), "No difference map") {
+		t.Errorf("rectangles differ, compare state %v", st)
+	}
+	tb.noErrors(t)
+}
