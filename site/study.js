@@ -224,12 +224,16 @@
   };
 
   // fits says whether a study still fits the project: its parameters are
-  // all defined (a study naming a removed parameter would make the file
-  // unreadable, so it is not kept).
+  // all defined and its probes there (a study naming a removed parameter
+  // or probe would make the file unreadable, so it is not kept).
   function fits(st, project) {
     const names = new Set(paramNames(project));
     const used = [...(st.vary || []).map((a) => a.name), ...(st.seek ? [st.seek.name] : [])];
-    return used.every((n) => names.has(n));
+    const labels = new Set((project.probes || []).map((q) => q.label));
+    const outs = [...(st.report || []), ...(st.seek ? Object.keys(st.seek.target || {}) : [])];
+    const probeOK = (path) => !path.startsWith("probes.") || [...labels].some((l) => path.startsWith("probes." + l + ".") &&
+      /^(value|gradient\.[xy]|flux\.[xy])$/.test(path.slice(("probes." + l + ".").length)));
+    return used.every((n) => names.has(n)) && outs.every(probeOK);
   }
 
   const read = EW.read;

@@ -8,15 +8,17 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"sort"
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/chromedp/chromedp"
 )
 
 // studyPlate is testdata/study/plate.json, read once.
-func studyPlate(t *testing.T) string {
+func studyPlate(t testing.TB) string {
 	t.Helper()
 	b, err := os.ReadFile(filepath.Join(root, "testdata", "study", "plate.json"))
 	if err != nil {
@@ -245,4 +247,53 @@ func TestStudyOnPage(t *testing.T) {
 		t.Errorf("rectangles differ, compare state %v", st)
 	}
 	tb.noErrors(t)
+}
+
+// BenchmarkStudy50 runs a 50-case study in the page at the default grid
+// (the study plate without its grid: 200 x 67), h_top on 50 log steps with
+// four outputs, as the panel runs it (batches in the worker, progress,
+// plot and table), and reports the time from the click to the last row on
+// screen. The target is under 5 s. `make bench-browser` runs it.
+func BenchmarkStudy50(b *testing.B) {
+	tb := newTab(b)
+	tb.open(b, siteURL)
+	plate := strings.Replace(studyPlate(b), `"grid": {"nx": 60, "ny": 20}`, `"grid": null`, 1)
+	plate = strings.Replace(plate, `,
+  "grid": null`, "", 1)
+	n := eval[int](b, tb, `Number(document.documentElement.dataset.solved || 0)`)
+	eval[map[string]any](b, tb, `window.edgewise.load(`+plate+`)`)
+	tb.waitSolved(b, n+1)
+	if g := eval[any](b, tb, `window.edgewise.project().grid`); g != nil {
+		b.Fatalf("the benchmark project has a grid: %v", g)
+	}
+	if _, err := chromedp.Run(tb.ctx, chromedp.Poll[bool](`document.querySelectorAll("#st-outputs input").length > 10`, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		b.Fatalf("the outputs list: %v", err)
+	}
+	eval[bool](b, tb, `(() => { const $ = (id) => document.getElementById(id);
+	  const set = (id, v) => { $(id).value = v; $(id).dispatchEvent(new Event("change")); };
+	  set("st-a1-name", "h_top"); set("st-a1-scale", "log");
+	  $("st-a1-from").value = "5"; $("st-a1-to").value = "500"; $("st-a1-steps").value = "50";
+	  $("st-two").checked = false;
+	  for (const i of document.querySelectorAll("#st-outputs input"))
+	    i.checked = ["max.value", "probes.T1.value", "edges.top.flow", "balance"].includes(i.value);
+	  return true; })()`)
+	var times []float64
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		ms := eval[float64](b, tb, `(async () => { const t0 = performance.now();
+		  const out = await window.edgewiseParts.study.run();
+		  if (out !== "done") throw new Error("study " + out);
+		  return performance.now() - t0; })()`)
+		times = append(times, ms)
+	}
+	b.StopTimer()
+	rows := eval[int](b, tb, `window.edgewiseParts.study.rows().length`)
+	if rows != 50 {
+		b.Fatalf("%d rows, want 50", rows)
+	}
+	sort.Float64s(times)
+	b.ReportMetric(times[len(times)/2], "ms/study-median")
+	b.ReportMetric(times[len(times)-1], "ms/study-max")
+	b.Logf("50-case study, default grid: median %.0f ms, min %.0f, max %.0f over %d runs; %s", times[len(times)/2], times[0], times[len(times)-1], len(times),
+		eval[string](b, tb, `document.getElementById("st-progress-text").textContent`))
 }
