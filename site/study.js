@@ -386,7 +386,12 @@
     let x0 = Math.min(...xs), x1 = Math.max(...xs);
     const ys = pts.map((r) => r.outputs[k]);
     let y0 = ys.length ? Math.min(...ys) : 0, y1 = ys.length ? Math.max(...ys) : 1;
-    if (y1 === y0) { y0 -= Math.abs(y0) * 0.01 || 1; y1 += Math.abs(y1) * 0.01 || 1; }
+    if (y1 - y0 <= 1e-9 * Math.max(Math.abs(y0), Math.abs(y1))) {
+      // flat to rounding: show it flat, not its last digits magnified
+      const mid = (y0 + y1) / 2;
+      y0 = mid - (Math.abs(mid) * 0.01 || 1);
+      y1 = mid + (Math.abs(mid) * 0.01 || 1);
+    }
     if (x1 === x0) { x0 -= 1; x1 += 1; }
     const tx = (v) => (logX ? Math.log(v) : v);
     const X = (v) => m.l + ((tx(v) - tx(x0)) / (tx(x1) - tx(x0))) * (W - m.l - m.r);

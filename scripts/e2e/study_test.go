@@ -130,6 +130,7 @@ func TestStudyOnPage(t *testing.T) {
 		t.Errorf("progress after the run: %q", progress)
 	}
 	t.Logf("15-case study: %s", progress)
+	tb.fullShot(t, "study")
 
 	// the download is the runner's output for the same project and study
 	name, got := dl.click(t, tb, "#st-csv")
@@ -246,6 +247,7 @@ func TestStudyOnPage(t *testing.T) {
 	if st["diff"] != false || !strings.Contains(st["note"].(string), "No difference map") {
 		t.Errorf("rectangles differ, compare state %v", st)
 	}
+	tb.fullShot(t, "compare")
 	tb.noErrors(t)
 }
 
