@@ -325,7 +325,9 @@
       $("st-csv").disabled = !(last && last.rows.length);
     }
     run.done = outcome === "done";
-    if (outcome === "cancelled") $("st-progress-text").textContent = "Cancelled after " + run.rows.length + " of " + run.total + " cases.";
+    if (outcome === "cancelled") {
+      $("st-progress-text").textContent = run.header ? "Cancelled after " + run.rows.length + " of " + run.total + " cases." : "Cancelled before the first case came back.";
+    }
     section.dataset.studyState = outcome;
     section.dataset.studyRuns = String(Number(section.dataset.studyRuns || 0) + 1);
     return outcome;
