@@ -8,6 +8,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"reflect"
 	"sort"
 	"strconv"
 	"strings"
@@ -147,33 +148,53 @@ func TestStudyOnPage(t *testing.T) {
 	if !bytes.Equal(got, want) {
 		t.Fatalf("page CSV:\n%q\nrunner:\n%q", got, want)
 	}
+	// the share link carries the study, and the page opened from it shows it
+	link := tb.shareLink(t)
+	fresh := newTab(t)
+	fresh.open(t, link)
+	fresh.waitFor(t, `document.getElementById("st-a2-values").value === "120, 167, 200"`, "the study from the link in the panel")
+	if s := eval[map[string]any](t, fresh, `window.edgewise.project().study`); !reflect.DeepEqual(s, proj["study"]) {
+		t.Errorf("study from the link %v, want %v", s, proj["study"])
+	}
+	// a bad study: the engine's error with its path, nothing run
+	tb.typeInto(t, "#st-a1-steps", "1")
+	tb.click(t, "#st-run")
+	tb.waitFor(t, `document.getElementById("study").dataset.studyState === "failed"`, "the bad study refused")
+	if e := eval[string](t, tb, `document.getElementById("st-error").textContent`); !strings.HasPrefix(e, "study.vary[0].steps: ") {
+		t.Errorf("bad study error %q", e)
+	}
+	tb.typeInto(t, "#st-a1-steps", "5")
 	recs, err := csv.NewReader(bytes.NewReader(got)).ReadAll()
 	if err != nil || len(recs) != 16 || recs[0][1] != "h_top" || recs[0][2] != "k_plate" {
 		t.Fatalf("CSV: %v %v", err, recs)
 	}
 
 	// hovering shows exact values; clicking a point loads that case
-	row7 := recs[8] // row 7: the third h_top, the second k_plate
-	if err := chromedp.Do(tb.ctx, chromedp.ScrollIntoView(chromedp.CSS(`#st-plot circle[data-row="7"]`))); err != nil {
+	row13 := recs[14]                                    // row 13: the last h_top, the second k_plate (its point stands apart)
+	tb.setSelect(t, "st-plot-output", "probes.T1.value") // max.value is flat: its points overlap
+	if err := chromedp.Do(tb.ctx, chromedp.ScrollIntoView(chromedp.CSS(`#st-plot circle[data-row="13"]`))); err != nil {
 		t.Fatal(err)
 	}
 	n = tb.solved(t)
-	eval[bool](t, tb, `(() => { const c = document.querySelector('#st-plot circle[data-row="7"]');
+	eval[bool](t, tb, `(() => { const c = document.querySelector('#st-plot circle[data-row="13"]');
 	  c.dispatchEvent(new MouseEvent("mouseenter")); return true; })()`)
 	hover := eval[string](t, tb, `document.getElementById("st-hover").textContent`)
-	if !strings.Contains(hover, "h_top = "+row7[1]) || !strings.Contains(hover, "k_plate = "+row7[2]) {
-		t.Errorf("hover %q does not show row 7's exact values %v", hover, row7[:3])
+	if !strings.Contains(hover, "h_top = "+row13[1]) || !strings.Contains(hover, "k_plate = "+row13[2]) {
+		t.Errorf("hover %q does not show row 13's exact values %v", hover, row13[:3])
 	}
-	tb.click(t, `#st-plot circle[data-row="7"]`)
+	tb.click(t, `#st-plot circle[data-row="13"]`)
 	tb.waitSolved(t, n+1)
 	params := eval[map[string]float64](t, tb, `window.edgewiseInternal.last().project.parameters`)
-	h7, _ := strconv.ParseFloat(row7[1], 64)
-	if params["h_top"] != h7 || params["k_plate"] != 167 {
-		t.Errorf("the loaded case has %v, want h_top %v and k_plate 167", params, h7)
+	h13, _ := strconv.ParseFloat(row13[1], 64)
+	if params["h_top"] != h13 || params["k_plate"] != 167 {
+		t.Errorf("the loaded case has %v, want h_top %v and k_plate 167", params, h13)
 	}
 	maxv := eval[float64](t, tb, `window.edgewiseInternal.last().result.max.value`)
-	if want, _ := strconv.ParseFloat(row7[3], 64); maxv != want {
+	if want, _ := strconv.ParseFloat(row13[3], 64); maxv != want {
 		t.Errorf("the loaded case's max.value %v, the study's row %v", maxv, want)
+	}
+	if !strings.Contains(hover, "probes.T1.value = "+row13[6]) {
+		t.Errorf("hover %q does not show row 13's exact T1 %s", hover, row13[6])
 	}
 
 	// ---- cancel: a held batch is stopped by restarting the worker ----
