@@ -9,8 +9,8 @@
 //
 // The sweep shows as a plot (one parameter: a line per output; two: a
 // family of lines, one per value of the second) and a table; hovering a
-// point gives its exact values and clicking it loads that case into the
-// main view. The CSV download is the runner's output for the same project
+// point gives its exact values and clicking it (or its row of the table)
+// loads that case into the main view. The CSV download is the runner's output for the same project
 // and study (header and rows formatted by the engine). The last study run
 // is kept in the project (its "study" key), so that a saved file, a share
 // link and autosave carry it.
@@ -368,7 +368,8 @@
   function drawTable(run) {
     const t = $("st-table");
     const head = el("tr", null, ...run.header.map((h) => el("th", { scope: "col", text: h })));
-    const body = run.rows.map((r) => el("tr", { "data-row": r.row },
+    const body = run.rows.map((r) => el("tr", { "data-row": r.row, class: "st-row", tabindex: 0, title: "Click to load this case",
+      onclick: () => loadCase(r.row), onkeydown: (e) => { if (e.key === "Enter") loadCase(r.row); } },
       el("td", { text: String(r.row) }),
       ...r.params.map((v) => el("td", { text: fmt(v) })),
       ...r.outputs.map((v) => el("td", { text: v === null ? "" : EW.num(v, 6), title: fmt(v) })),
