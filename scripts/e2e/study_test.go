@@ -197,6 +197,15 @@ func TestStudyOnPage(t *testing.T) {
 		t.Errorf("hover %q does not show row 13's exact T1 %s", hover, row13[6])
 	}
 
+	// a row of the table loads its case too (points of a flat output overlap)
+	n = tb.solved(t)
+	tb.click(t, `#st-table tr[data-row="4"]`)
+	tb.waitSolved(t, n+1)
+	params = eval[map[string]float64](t, tb, `window.edgewiseInternal.last().project.parameters`)
+	if h4, _ := strconv.ParseFloat(recs[5][1], 64); params["h_top"] != h4 || params["k_plate"] != 167 {
+		t.Errorf("the row's case has %v, want h_top %v and k_plate 167", params, h4)
+	}
+
 	// ---- cancel: a held batch is stopped by restarting the worker ----
 	restarts := eval[int](t, tb, `window.edgewiseInternal.engineState().restarts`)
 	eval[bool](t, tb, `window.edgewiseInternal.hold({fn: "study_rows", calls: 1})`)
