@@ -10,7 +10,9 @@ import (
 // runs the same Go code, as in WebAssembly), and exp and log with math's.
 func TestPortablePow(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
-	ulps := func(a, b float64) float64 { return math.Abs(a-b) / (math.Nextafter(math.Abs(b), math.Inf(1)) - math.Abs(b)) }
+	ulps := func(a, b float64) float64 {
+		return math.Abs(a-b) / (math.Nextafter(math.Abs(b), math.Inf(1)) - math.Abs(b))
+	}
 	for range 20000 {
 		x := math.Exp(rng.Float64()*60 - 30)
 		y := rng.Float64()
