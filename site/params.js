@@ -9,7 +9,10 @@
 // It joins the form's reading and filling: EW.read() gives the project
 // with its parameters, EW.fill(project) shows them.
 //
-//   EW.params = {list() -> [{name, value}], add(name, value)}
+//   EW.params = {list() -> [{name, value}], add(name, value), rename(from, to)}
+//
+// Renaming a parameter (when its name field is left) renames it in every
+// field that uses it.
 "use strict";
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
@@ -29,6 +32,12 @@
     const err = el("p", { class: "err", "data-err": name ? "parameters." + name : "parameters" });
     const nameIn = el("input", { type: "text", class: "param-name", spellcheck: "false", value: name, "aria-label": "Parameter name" });
     const valueIn = el("input", { type: "text", class: "param-value", inputmode: "decimal", value: String(value), "aria-label": "Parameter value" });
+    nameIn.dataset.was = name;
+    nameIn.addEventListener("change", () => {
+      const to = nameIn.value.trim();
+      rename(nameIn.dataset.was, to);
+      nameIn.dataset.was = to;
+    });
     const r = el("div", { class: "param-row" },
       el("div", { class: "pair" },
         el("label", { class: "row" }, el("span", { text: "Name" }), nameIn),
@@ -37,6 +46,22 @@
         onclick: () => { r.remove(); EW.edited && EW.edited(); } }),
       err);
     return r;
+  }
+
+  // rename carries a new name into every field that uses the old one (a
+  // whole name, not part of a longer one) and tells the other panels
+  // (study.js keeps its study's names in step).
+  function rename(from, to) {
+    if (!from || !to || from === to || !/^[A-Za-z_][A-Za-z0-9_]*$/.test(to)) return;
+    const esc = from.replace(/[^A-Za-z0-9_]/g, "");
+    const word = new RegExp("(^|[^A-Za-z0-9_])" + esc + "(?![A-Za-z0-9_])", "g");
+    for (const i of byId("inputs").querySelectorAll("input[type=text]")) {
+      if (i.classList.contains("param-name") || i.classList.contains("param-value")) continue;
+      const v = i.value.replace(word, (m, pre) => pre + to);
+      if (v !== i.value) i.value = v;
+    }
+    document.dispatchEvent(new CustomEvent("edgewise:renamed", { detail: { from, to } }));
+    EW.edited && EW.edited();
   }
 
   function add(name, value) {
@@ -92,5 +117,5 @@
     for (const [name, value] of Object.entries((p && p.parameters) || {})) rows.append(row(name, value));
   };
 
-  EW.params = { list: () => list().map(({ name, value }) => ({ name, value })), add };
+  EW.params = { list: () => list().map(({ name, value }) => ({ name, value })), add, rename };
 })();

@@ -249,6 +249,17 @@
     showStudy(kept);
   };
 
+  // a renamed parameter keeps its place in the study and the panel
+  document.addEventListener("edgewise:renamed", (ev) => {
+    const { from, to } = ev.detail;
+    for (const a of (kept && kept.vary) || []) if (a.name === from) a.name = to;
+    if (kept && kept.seek && kept.seek.name === from) kept.seek.name = to;
+    for (const id of ["st-a1-name", "st-a2-name", "sk-name"]) {
+      const sel = $(id);
+      for (const o of sel.options) if (o.value === from) { o.value = to; o.textContent = to; }
+    }
+  });
+
   function keep(st) {
     kept = st;
     EW.edited && EW.edited(); // saved with the project (autosave, links)

@@ -278,6 +278,22 @@ func TestStudyOnPage(t *testing.T) {
 		t.Errorf("rectangles differ, compare state %v", st)
 	}
 	tb.fullShot(t, "compare")
+
+	// renaming a parameter renames it where it is used, and in the study panel
+	n = tb.solved(t)
+	sel := `#params .param-row:nth-of-type(2) .param-name`
+	if v := eval[string](t, tb, `document.querySelector("`+sel+`").value`); v != "k_plate" {
+		t.Fatalf("second parameter %q", v)
+	}
+	tb.typeInto(t, sel, "k_alu")
+	if err := chromedp.Do(tb.ctx, chromedp.KeyEvent("\t")); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitSolved(t, n+1)
+	tb.waitFor(t, `window.edgewise.project().conductivity === "k_alu"`, "the conductivity field renamed")
+	if s := eval[string](t, tb, `document.getElementById("st-a2-name").value`); s != "k_alu" {
+		t.Errorf("the study panel's second parameter after the rename: %q", s)
+	}
 	tb.noErrors(t)
 }
 
