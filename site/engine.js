@@ -54,6 +54,7 @@
           if (m.type === "ready") resolve(w);
           else if (m.type === "fatal") reject(new Error("the engine failed to start: " + m.error));
           else if (m.type === "reply") settle(m);
+          else if (m.type === "progress" && EW.engine.onProgress) EW.engine.onProgress(m); // a seek's steps (study.js)
         };
         w.onerror = (e) => {
           const err = new Error("the engine stopped: " + ((e && e.message) || "unknown error"));

@@ -63,6 +63,9 @@
     const t = text.trim();
     if (t === "") return { err: what + " is required" };
     if (/^[+-]?\d+,\d+$/.test(t)) return { err: "use a point for decimals: " + t.replace(",", ".") + ", not " + t };
+    // text with a name is a formula of the parameters: the engine reads it
+    // (and reports its errors at the field)
+    if (/[A-Za-z_]/.test(t) && !/^[+-]?(\d+\.?\d*|\.\d+)[eE]/.test(t)) return { v: t };
     if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return { err: "not a number: " + JSON.stringify(t) };
     return { v: Number(t) };
   }

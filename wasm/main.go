@@ -16,6 +16,7 @@
 //	edgewise_version() -> {ok, version}
 //	edgewise_checks(checksJSON) -> {ok, cases: "[{id, title, source, basis}, ...]"}
 //	edgewise_check(checksJSON, id) -> {ok, outcome: "<verify.Outcome JSON>"}
+//	edgewise_study_paths, edgewise_study_rows, edgewise_study_seek: studies (study.go)
 //
 // A solve reply is a plain object: {ok: true, result: "<result JSON>", nx,
 // ny, w, h, u, ux, uy: Float64Array, and the isolines levels, segs, ends,
@@ -64,6 +65,10 @@ var calls = map[string]call{
 	"version":  versionCall,
 	"checks":   checksCall,
 	"check":    checkCall,
+
+	"study_paths": studyPathsCall, // study.go
+	"study_rows":  studyRowsCall,
+	"study_seek":  studySeekCall,
 }
 
 // engine is the one Solver of the bridge. Calls run one at a time on the

@@ -15,6 +15,7 @@ import (
 	"edgewise/solver/jsonlite"
 	"edgewise/solver/project"
 	"edgewise/solver/report"
+	"edgewise/solver/study"
 
 	"github.com/hack-pad/safejs"
 )
@@ -171,6 +172,9 @@ func validateText(text string) (map[string]any, error) {
 	p, err := project.Decode([]byte(text))
 	if err != nil {
 		return nil, err
+	}
+	if _, err := study.FromProject(p); err != nil {
+		return nil, err // a study the project keeps must fit it
 	}
 	if _, err := project.Compile(p); err != nil {
 		return nil, err

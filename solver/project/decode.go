@@ -32,6 +32,9 @@ type Project struct {
 	// parameters), keyed by their path ("width", "edges.top.h",
 	// "probes[0].x"); the number field holds its value.
 	Texts map[string]string `json:"-"`
+	// Study is the project's study file as canonical JSON text, or ""
+	// (the optional key "study"; see study.go).
+	Study string `json:"-"`
 }
 
 // Conductivity is isotropic (X == Y) or orthotropic. It encodes as a single
@@ -216,7 +219,7 @@ func (d *decoder) integer(v any, path string, lo, hi int) int {
 
 func (d *decoder) project(v any) *Project {
 	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
-		"title", "source", "probes", "grid", "parameters")
+		"title", "source", "probes", "grid", "parameters", "study")
 	if m == nil {
 		return nil
 	}
@@ -270,6 +273,9 @@ func (d *decoder) project(v any) *Project {
 		if gm != nil {
 			p.Grid = &GridSize{Nx: d.integer(gm["nx"], "grid.nx", 2, MaxGrid), Ny: d.integer(gm["ny"], "grid.ny", 2, MaxGrid)}
 		}
+	}
+	if sv, ok := m["study"]; ok {
+		p.Study = d.studyText(sv)
 	}
 	d.inRange(p)
 	return p

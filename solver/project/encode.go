@@ -55,5 +55,6 @@ func (p *Project) JSON() []byte {
 	if p.Grid != nil {
 		w.Key("grid").Open('{').Key("nx").Int(p.Grid.Nx).Key("ny").Int(p.Grid.Ny).Close('}')
 	}
+	p.writeStudy(&w)
 	return w.Close('}').Bytes()
 }

@@ -309,7 +309,8 @@ func (d *decoder) axis(v any, path string) Axis {
 }
 
 // Steps returns n values from from to to, both ends included and exact:
-// equally spaced on a linear scale, in equal ratios on a log scale.
+// equally spaced on a linear scale, in equal ratios on a log scale (the
+// same numbers on every processor: see pow).
 func Steps(from, to float64, n int, scale string) []float64 {
 	vals := make([]float64, n)
 	for i := range vals {
@@ -318,7 +319,7 @@ func Steps(from, to float64, n int, scale string) []float64 {
 		case i == n-1:
 			vals[i] = to
 		case scale == Log:
-			vals[i] = from * math.Pow(to/from, t)
+			vals[i] = from * pow(to/from, t)
 		default:
 			vals[i] = from + t*(to-from)
 		}
