@@ -61,7 +61,7 @@ func TestOutputsThroughJS(t *testing.T) {
 
 func TestExportKinds(t *testing.T) {
 	for _, c := range []struct{ kind, prefix, mime string }{
-		{"field-csv", "x [m],y [m],u,grad_x", "text/csv"},
+		{"field-csv", "x [m],y [m],value u,grad_x", "text/csv"},
 		{"probes-csv", "label,x [m]", "text/csv"},
 		{"svg", "<?xml", "image/svg+xml"},
 	} {
@@ -127,7 +127,7 @@ func TestParseOptions(t *testing.T) {
 
 func TestChecksFunctions(t *testing.T) {
 	file := `{"schema":"edgewise-checks/1","cases":[{"id":"centre","title":"centre of the square",
-	  "source":"Exact identity: the four rotations add up to 1","basis":"exact","project":` + square + `,
+	  "source":"Exact identity: the four rotations add up to 1","basis":"exact","kind":"identity","project":` + square + `,
 	  "quantity":{"formula":"probe_value","probe":"centre"},"expect":0.25,"tol":1e-9,"tol_reason":"exact identity"}]}`
 	r, err := checksText(file)
 	if err != nil {
