@@ -28,6 +28,7 @@
     call: engine.call,
     demo,
     last: store.last, // {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
+    good: () => copy(store.good()), // the last project the user meant that solved
     canvases: () => EW.canvases(), // {field, legend, profile}
     // the solve in flight: how long it has run (ms, or null), how many
     // times the worker was restarted, and how many calls it holds
@@ -36,8 +37,9 @@
     // fn wait in the worker until release() or a restart
     hold: engine.hold,
     release: engine.release,
-    // tune({busyMs, cancelMs}) changes when the page shows that it works
-    // and when a stale solve is cancelled
+    // tune({busyMs, cancelMs, pauseMs}) changes when the page shows that
+    // it works, when a stale solve is cancelled and how long a pause in
+    // typing makes the inputs meant
     tune: solving.tune,
     units: (physics) => (EW.unitsets || {})[physics || (store.project() || {}).physics],
   };

@@ -57,8 +57,9 @@
     record.failure = null;
     write();
   });
-  EW.store.on("solved", (d) => {
-    record = { project: d.project, solved: d.project, failure: null };
+  // the last project the user meant (store.js), not every solved keystroke
+  EW.store.on("meant", (d) => {
+    record = { project: EW.store.project() || d.project, solved: d.project, failure: null };
     write();
   });
   EW.store.on("failed", (d) => {

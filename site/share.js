@@ -153,14 +153,17 @@
     cache.frag = frag;
     showLink();
   }
+  // the project shared is the last one the user meant (store.js), not a
+  // half-typed one
+  const shared = () => EW.store.good() || api.project();
   function link() {
-    const p = api.project();
+    const p = shared();
     return p ? pageURL() + fragmentFor(JSON.stringify(p)) : pageURL();
   }
   api.link = link;
   // linkReady resolves with the compressed link once it is made.
   api.linkReady = async () => {
-    const p = api.project();
+    const p = shared();
     if (p) await refresh(p);
     return link();
   };
@@ -212,7 +215,7 @@
     linkBox.value = l;
     const i = l.indexOf("#");
     const src = i < 0 ? l + "?embed" : l.slice(0, i) + "?embed" + l.slice(i);
-    const t = (api.project() || {}).title || "edgewise field";
+    const t = (shared() || {}).title || "edgewise field";
     embedBox.value = el("iframe", { src, width: "760", height: "460", title: t, loading: "lazy" }).outerHTML;
   }
 
@@ -229,8 +232,7 @@
     }
   }
 
-  EW.store.on("solved", (d) => { refresh(d.project).catch(() => {}); });
-  EW.store.on("edited", (d) => { if (d.project) refresh(d.project).catch(() => {}); });
+  EW.store.on("meant", (d) => { refresh(d.project).catch(() => {}); });
 
   EW.share = {
     first, embed, readFragment, fromFragment, fragmentFor, pageURL, clearFragment, refresh, toBase64,
