@@ -11,6 +11,7 @@
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
   const { store, engine, solving } = EW;
+  const root = document.documentElement;
 
   async function demo() {
     const inline = document.getElementById("ew-demo");
@@ -44,11 +45,30 @@
     units: (physics) => (EW.unitsets || {})[physics || (store.project() || {}).physics],
   };
 
-  // Boot after the other scripts have run.
-  setTimeout(async () => {
+  // firstForm fills the inputs with the first project as soon as the
+  // physics table is in, before the engine has started: the project is
+  // known without it (EW.firstGuess: the link's or the autosave's, else the
+  // demo). The engine then solves it as the boot below decides.
+  async function firstForm() {
     try {
-      const [, colours] = await Promise.all([EW.loadPhysics(), engine.call("colours", 256)]);
-      EW.colours = colours.value;
+      await EW.loadPhysics();
+      const p = (EW.firstGuess && (await EW.firstGuess())) || (await demo());
+      if (p && !store.project()) {
+        EW.fill(p);
+        root.dataset.formAt = performance.now().toFixed(1);
+      }
+    } catch (e) { /* the boot below says what went wrong */ }
+  }
+
+  // Boot after the other scripts have run: the engine starts at once, the
+  // form is filled meanwhile.
+  setTimeout(async () => {
+    const colours = engine.call("colours", 256);
+    colours.catch(() => {});
+    await firstForm();
+    try {
+      const [, c] = await Promise.all([EW.loadPhysics(), colours]);
+      EW.colours = c.value;
     } catch (e) {
       solving.setStatus(e.message, "error");
       return;

@@ -204,5 +204,20 @@
     await api.load(await demo());
   }
 
+  // firstGuess is the project the page will most likely show first, read
+  // without the engine (the boot checks and solves it): the link's, else
+  // the autosave's last good one, else null.
+  EW.firstGuess = async function () {
+    if (share.first.key) {
+      try {
+        return JSON.parse(await share.peek(share.first));
+      } catch (e) {
+        return null;
+      }
+    }
+    const s = embed ? null : stored();
+    return (s && s.record && (s.record.solved || s.record.project)) || null;
+  };
+
   EW.autosave = { key: KEY, unreadableKey: KEY_UNREADABLE, unsolvedKey: KEY_UNSOLVED };
 })();

@@ -109,6 +109,11 @@
   // fromFragment returns the checked project object a fragment holds, or
   // throws a one-line reason.
   async function fromFragment(f) {
+    return EW.solving.check(await peek(f));
+  }
+
+  // peek returns the project text a fragment holds, not yet checked.
+  async function peek(f) {
     let text;
     if (f.key === "z") text = await inflate(fromBase64url(f.data), MAX_TEXT);
     else if (f.key === "j") {
@@ -121,7 +126,7 @@
       try { text = decodeURIComponent(f.data); } catch (e) { throw new Error("the link's text is not correctly percent-encoded"); }
     }
     if (text.length > MAX_TEXT) throw new Error("the link's project is too large");
-    return EW.solving.check(text);
+    return text;
   }
 
   // pageURL is the page's address without query or fragment (a link made
@@ -235,7 +240,7 @@
   EW.store.on("meant", (d) => { refresh(d.project).catch(() => {}); });
 
   EW.share = {
-    first, embed, readFragment, fromFragment, fragmentFor, pageURL, clearFragment, refresh, toBase64,
+    first, embed, readFragment, fromFragment, peek, fragmentFor, pageURL, clearFragment, refresh, toBase64,
     controls: { linkBox, embedBox, showLink, copyLink },
   };
 })();

@@ -6,7 +6,8 @@
 // The live picture follows the typing, but the store's good project is
 // the last one the user meant: typed and then paused on (PAUSE_MS without
 // an edit), confirmed with Enter, or left (the field loses focus), or
-// chosen (a list, a check box, a probe pinned or dropped), or loaded.
+// chosen (a list, a check box, a probe pinned or dropped), or loaded, or
+// the page is left.
 //
 // A probe outside the rectangle stays in the project (the table marks it
 // and offers to move it inside or drop it); the engine is sent only the
@@ -166,6 +167,8 @@
     const total = performance.now() - t0;
     setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms." + outsideNote(project));
     root.dataset.solved = String(Number(root.dataset.solved || 0) + 1);
+    // when the first picture was on screen, in ms from the page's start
+    if (!root.dataset.firstPictureAt) root.dataset.firstPictureAt = performance.now().toFixed(1);
     return result;
   }
 
@@ -206,6 +209,9 @@
   document.addEventListener("keydown", (e) => {
     if (e.key === "Enter" && e.target && e.target.dataset && e.target.dataset.path !== undefined) commit();
   });
+  // leaving the page is leaving the field: a solved edit is kept as meant
+  window.addEventListener("pagehide", () => commit());
+  document.addEventListener("visibilitychange", () => { if (document.visibilityState === "hidden") commit(); });
   document.addEventListener("focusout", (e) => {
     if (e.target && e.target.dataset && e.target.dataset.path !== undefined && typing(e.target)) commit();
   });

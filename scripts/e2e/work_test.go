@@ -1,12 +1,22 @@
 package e2e
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 
 	"github.com/chromedp/chromedp"
 	"github.com/chromedp/chromedp/kb"
 )
+
+// loadDemo loads the demo project (the autosave of another test may have
+// opened something else) and waits for its solve.
+func (tb *tab) loadDemo(t *testing.T) {
+	t.Helper()
+	n := tb.solved(t)
+	eval[bool](t, tb, `window.edgewiseInternal.demo().then(d => window.edgewise.load(d)).then(() => true)`)
+	tb.waitSolved(t, n+1)
+}
 
 // allPreviews holds when every edge preview shows a profile.
 const allPreviews = `["top", "bottom", "left", "right"].every(s =>
@@ -18,6 +28,7 @@ const allPreviews = `["top", "bottom", "left", "right"].every(s =>
 func TestProbeOutsideKeepsSolving(t *testing.T) {
 	tb := newTab(t)
 	tb.open(t, siteURL)
+	tb.loadDemo(t)
 	tb.waitFor(t, allPreviews, "the edge previews of the demo")
 	// the demo's probe T1 sits at y = 0.05, on the top edge
 	tb.pasteInto(t, "#in-height", "0.006")
@@ -68,6 +79,7 @@ func TestProbeOutsideKeepsSolving(t *testing.T) {
 func TestHalfTypedIsNotGood(t *testing.T) {
 	tb := newTab(t)
 	tb.open(t, siteURL)
+	tb.loadDemo(t)
 	eval[map[string]any](t, tb, `window.edgewiseInternal.tune({pauseMs: 600000})`)
 	good := func() string { return eval[string](t, tb, `window.edgewiseInternal.good().edges.right.expr`) }
 	saved := func() string {
@@ -127,4 +139,119 @@ func TestHalfTypedIsNotGood(t *testing.T) {
 	}
 	tb.waitFor(t, `window.edgewiseInternal.good().edges.right.expr === "3*s"`, "leaving the field to make it good")
 	tb.noErrors(t)
+}
+
+// Undo and redo step through the projects the user meant, by keys and by
+// the buttons, also with a solve in flight.
+func TestUndoRedo(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadDemo(t)
+	eval[map[string]any](t, tb, `window.edgewiseInternal.tune({pauseMs: 600000})`)
+	right := func() string { return eval[string](t, tb, `document.getElementById("in-right-expr").value`) }
+	meant := func(v string) {
+		t.Helper()
+		tb.pasteInto(t, "#in-right-expr", v)
+		if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(kb.Enter)); err != nil {
+			t.Fatal(err)
+		}
+		tb.waitFor(t, `window.edgewiseInternal.good().edges.right.expr === "`+v+`"`, "the edit "+v+" meant")
+	}
+	shown := func(v, what string) {
+		t.Helper()
+		tb.waitFor(t, `document.getElementById("in-right-expr").value === "`+v+`" && window.edgewiseInternal.last().project.edges.right.expr === "`+v+`" && window.edgewiseInternal.good().edges.right.expr === "`+v+`"`, what)
+	}
+	key := func(k string, mods kb.Modifier) {
+		t.Helper()
+		if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(k, chromedp.KeyModifiers(mods))); err != nil {
+			t.Fatal(err)
+		}
+	}
+	meant("40")
+	meant("50")
+	// keystrokes between are not steps: "5" on the way to "50" was never meant
+	key("z", kb.ModifierCtrl)
+	shown("40", "Ctrl+Z back to 40")
+	key("z", kb.ModifierCtrl)
+	shown("30", "Ctrl+Z back to the demo's 30")
+	key("z", kb.ModifierCtrl|kb.ModifierShift)
+	shown("40", "Ctrl+Shift+Z forward to 40")
+	key("y", kb.ModifierCtrl)
+	shown("50", "Ctrl+Y forward to 50")
+	if !eval[bool](t, tb, `document.getElementById("btn-redo").disabled`) {
+		t.Errorf("Redo is enabled with nothing to redo")
+	}
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.ID("btn-undo"))); err != nil {
+		t.Fatal(err)
+	}
+	shown("40", "the Undo button")
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.ID("btn-redo"))); err != nil {
+		t.Fatal(err)
+	}
+	shown("50", "the Redo button")
+	// a half-typed edit is dropped by the first undo, back to the last meant
+	tb.pasteInto(t, "#in-right-expr", "5")
+	tb.waitFor(t, `window.edgewiseInternal.last().project.edges.right.expr === "5"`, "the live picture of 5")
+	key("z", kb.ModifierCtrl)
+	shown("50", "Ctrl+Z drops the half-typed 5")
+	// undo while a solve is in flight: the held solve's answer is not shown
+	holdNextSolve(t, tb)
+	meantNoWait := "60"
+	tb.pasteInto(t, "#in-right-expr", meantNoWait)
+	if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(kb.Enter)); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `window.edgewiseInternal.engineState().held === 1`, "the solve of 60 held")
+	key("z", kb.ModifierCtrl)
+	if v := right(); v != "50" {
+		t.Errorf("undo with a solve in flight left %q in the field, want 50", v)
+	}
+	eval[bool](t, tb, `window.edgewiseInternal.release()`)
+	shown("50", "undo with a solve in flight")
+	tb.shot(t, "undo-redo")
+	tb.noErrors(t)
+}
+
+// holdEngineStart makes every page the tab opens keep its engine from
+// starting until window.startEngine() (the worker's "init" message waits).
+const holdEngineStart = `(() => {
+  try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}
+  const W = window.Worker; let go; const wait = new Promise(r => { go = r; });
+  window.startEngine = () => { go(); return true; };
+  window.Worker = class extends W {
+    postMessage(m, t) { if (m && m.type === "init") wait.then(() => super.postMessage(m, t)); else super.postMessage(m, t); }
+  };
+})()`
+
+// The first screen shows the first project's inputs before the engine is
+// up, and the picture once it is: on the served page and the offline file.
+func TestFirstScreen(t *testing.T) {
+	bothPages(t, func(t *testing.T, url string) {
+		tb := newTab(t)
+		tb.beforeScripts(t, holdEngineStart)
+		if err := chromedp.Do(tb.ctx, chromedp.Navigate(url)); err != nil {
+			t.Fatal(err)
+		}
+		tb.waitFor(t, `document.getElementById("in-width").value !== ""`, "the form filled before the engine is up")
+		got := eval[[]string](t, tb, `[document.getElementById("in-width").value, document.getElementById("in-height").value,
+		  document.getElementById("in-bottom-expr").value, document.getElementById("status").textContent,
+		  document.querySelector('[data-unit="length"]').textContent]`)
+		demo := eval[map[string]any](t, tb, `window.edgewiseInternal.demo()`)
+		if got[0] != fmt.Sprint(demo["width"]) || got[1] != fmt.Sprint(demo["height"]) || got[2] == "" {
+			t.Errorf("before the engine: width %q, height %q, bottom %q; want the demo's", got[0], got[1], got[2])
+		}
+		if !strings.Contains(got[3], "Starting the engine") {
+			t.Errorf("status %q before the engine is up", got[3])
+		}
+		if got[4] == "" {
+			t.Errorf("the inputs show no units before the engine is up")
+		}
+		if tb.solved(t) != 0 {
+			t.Errorf("solved before the engine started")
+		}
+		tb.shot(t, "first-screen-"+pageName(url))
+		eval[bool](t, tb, `window.startEngine()`)
+		tb.waitSolved(t, 1)
+		tb.noErrors(t)
+	})
 }
