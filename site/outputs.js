@@ -201,6 +201,7 @@
       el("span", { class: "ew-label", text: "Share" }),
       controls.linkBox,
       button("ew-copy-link", "Copy link", controls.copyLink, "The whole project travels in the link")),
+    controls.hostedNote,
     el("details", { class: "ew-embed-snippet" },
       el("summary", { text: "Embed in a wiki page" }),
       el("p", { class: "ew-hint", text: "Paste this into a page that allows iframes. It shows only the field, the legend and one line of results." }),

@@ -2,6 +2,7 @@ package e2e
 
 import (
 	"fmt"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -254,4 +255,87 @@ func TestFirstScreen(t *testing.T) {
 		tb.waitSolved(t, 1)
 		tb.noErrors(t)
 	})
+}
+
+// The embed snippet's frame takes its size from the project's aspect: the
+// embedded page fills it without scrolling and leaves no empty half.
+func TestEmbedSizeFollowsAspect(t *testing.T) {
+	for _, c := range []struct {
+		name string
+		w, h float64
+	}{{"wide", 0.4, 0.05}, {"demo", 0.2, 0.05}, {"square", 0.2, 0.2}} {
+		t.Run(c.name, func(t *testing.T) {
+			tb := newTab(t)
+			tb.open(t, siteURL)
+			eval[bool](t, tb, fmt.Sprintf(`window.edgewiseInternal.demo().then(d => { d.width = %g; d.height = %g; d.probes = []; return window.edgewise.load(d); }).then(() => true)`, c.w, c.h))
+			eval[string](t, tb, `window.edgewise.linkReady()`)
+			snip := eval[[]string](t, tb, `(() => { const d = new DOMParser().parseFromString(document.getElementById("ew-embed").value, "text/html").querySelector("iframe");
+			  return [d.getAttribute("src"), d.getAttribute("width"), d.getAttribute("height")]; })()`)
+			var fw, fh int64
+			fmt.Sscan(snip[1], &fw)
+			fmt.Sscan(snip[2], &fh)
+			if fw < 300 || fh < 150 || fw > 760 || fh > 760 {
+				t.Fatalf("snippet frame %s x %s", snip[1], snip[2])
+			}
+			fr := newTab(t)
+			fr.setWidth(t, fw, fh)
+			fr.open(t, snip[0])
+			got := eval[[]float64](t, fr, `[document.documentElement.scrollHeight, innerHeight,
+			  Math.max(...[...document.querySelectorAll("#field, .ew-compact")].map(e => e.getBoundingClientRect().bottom))]`)
+			if got[0] > got[1]+2 {
+				t.Errorf("%s plate in a %d x %d frame scrolls: content %g px high", c.name, fw, fh, got[0])
+			}
+			if got[2] < 0.7*got[1] {
+				t.Errorf("%s plate in a %d x %d frame: content ends at %g px, the rest is empty", c.name, fw, fh, got[2])
+			}
+			fr.shot(t, "embed-"+c.name)
+		})
+	}
+}
+
+// From the offline file a link to the file opens only on this computer:
+// the page says so and makes links for the hosted copy's address once it
+// is given, kept across reloads.
+func TestOfflineShareHostedAddress(t *testing.T) {
+	file := "file://" + filepath.Join(root, "dist", "edgewise.html")
+	tb := newTab(t)
+	tb.open(t, file)
+	eval[bool](t, tb, `(localStorage.removeItem("edgewise.hosted.1"), true)`)
+	tb.reload(t)
+	note := eval[string](t, tb, `(() => { const n = document.getElementById("ew-hosted-note"); return n && !n.hidden ? n.textContent : ""; })()`)
+	if !strings.Contains(note, "opens only here") {
+		t.Fatalf("the offline page says %q about its links, want that they open only here", note)
+	}
+	if l := eval[string](t, tb, `window.edgewise.linkReady()`); !strings.HasPrefix(l, file+"#z=") {
+		t.Errorf("link before the hosted address is set: %q", l)
+	}
+	// a bad address is refused in the notice line
+	tb.pasteInto(t, "#ew-hosted", "wiki/edgewise")
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.ID("ew-hosted-save"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `/not a web address/.test(document.getElementById("ew-notice").textContent)`, "the bad address refused")
+	host := "https://wiki.example.org/tools/edgewise/"
+	tb.pasteInto(t, "#ew-hosted", host)
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.ID("ew-hosted-save"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `window.edgewise.link().startsWith("`+host+`#")`, "links for the hosted copy")
+	tb.reload(t)
+	l := eval[string](t, tb, `window.edgewise.linkReady()`)
+	if !strings.HasPrefix(l, host+"#z=") {
+		t.Errorf("after a reload the link is %q, want the hosted copy's", l)
+	}
+	if src := eval[string](t, tb, `document.getElementById("ew-embed").value`); !strings.Contains(src, `src="`+host+`?embed#z=`) {
+		t.Errorf("embed snippet %q, want the hosted copy's address", src)
+	}
+	tb.shot(t, "offline-share-hosted")
+	// the served page makes links for itself and shows no such note
+	sv := newTab(t)
+	sv.open(t, siteURL)
+	if eval[bool](t, sv, `!document.getElementById("ew-hosted-note").hidden`) {
+		t.Errorf("the served page shows the offline note")
+	}
+	eval[bool](t, tb, `(localStorage.removeItem("edgewise.hosted.1"), true)`)
+	tb.noErrors(t)
 }
