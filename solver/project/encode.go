@@ -35,5 +35,8 @@ func (p *Project) JSON() []byte {
 	if p.Grid != nil {
 		w.Key("grid").Open('{').Key("nx").Int(p.Grid.Nx).Key("ny").Int(p.Grid.Ny).Close('}')
 	}
+	if p.Sheet != nil {
+		p.Sheet.write(w.Key("sheet"))
+	}
 	return w.Close('}').Bytes()
 }
