@@ -1,11 +1,17 @@
 package e2e
 
 import (
+	"bytes"
+	"context"
 	"fmt"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
 
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/cdproto/page"
 	"github.com/chromedp/chromedp"
 	"github.com/chromedp/chromedp/kb"
 )
@@ -337,5 +343,76 @@ func TestOfflineShareHostedAddress(t *testing.T) {
 		t.Errorf("the served page shows the offline note")
 	}
 	eval[bool](t, tb, `(localStorage.removeItem("edgewise.hosted.1"), true)`)
+	tb.noErrors(t)
+}
+
+// The report is a calculation sheet: a title block the user fills in the
+// report panel, kept in the project (saved, shared, reloaded), page
+// numbers in print and no heading left alone at the foot of a page.
+func TestCalculationSheet(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadDemo(t)
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-btn"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `!!document.querySelector("#ew-report #ew-sheet-form") && !!document.querySelector("#ew-report #ew-sheet-block")`, "the report with its title block form")
+	fill := map[string]string{"project": "Line 4 bracket", "number": "C-0042", "prepared_by": "A. N. Engineer",
+		"checked_by": "B. Checker", "date": "2026-12-02", "revision": "B"}
+	for _, k := range []string{"project", "number", "prepared_by", "checked_by", "date", "revision"} {
+		tb.pasteInto(t, "#ew-sheet-"+k, fill[k])
+		if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(kb.Tab)); err != nil {
+			t.Fatal(err)
+		}
+	}
+	tb.waitFor(t, `(window.edgewise.project().sheet || {}).revision === "B" && (window.edgewiseInternal.good().sheet || {}).revision === "B"`, "the title block in the project")
+	got := eval[map[string]any](t, tb, `window.edgewise.project().sheet`)
+	for k, v := range fill {
+		if got[k] != v {
+			t.Errorf("project sheet.%s = %v, want %q", k, got[k], v)
+		}
+	}
+	block := eval[string](t, tb, `document.getElementById("ew-sheet-block").textContent`)
+	for _, v := range fill {
+		if !strings.Contains(block, v) {
+			t.Errorf("the printed title block %q lacks %q", block, v)
+		}
+	}
+	// print rules: page numbers, headings kept with what follows
+	css := eval[string](t, tb, `[...document.styleSheets].flatMap(s => [...s.cssRules]).map(r => r.cssText).join("\n")`)
+	if !strings.Contains(css, "counter(page)") || !strings.Contains(css, "counter(pages)") {
+		t.Errorf("no page numbers in the print rules")
+	}
+	if !strings.Contains(css, "break-after: avoid") {
+		t.Errorf("no rule keeps a heading with what follows")
+	}
+	eval[bool](t, tb, `(document.getElementById("ew-report").scrollTop = 0, document.activeElement.blur(), true)`)
+	tb.shot(t, "calculation-sheet")
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		_, err := cdp.Call(ctx, tg, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"})
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+	eval[bool](t, tb, `(window.scrollTo(0, 0), true)`)
+	tb.shot(t, "calculation-sheet-print")
+	var pdf []byte
+	if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+		r, err := cdp.Call(ctx, tg, page.PrintToPDF, page.PrintToPDFParams{})
+		pdf = r.Data
+		return err
+	})); err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.HasPrefix(pdf, []byte("%PDF-")) {
+		t.Fatalf("print to PDF gave %.8q", pdf)
+	}
+	_ = os.WriteFile(filepath.Join(root, "scripts", "e2e", "screens", "calculation-sheet.pdf"), pdf, 0o644)
+	// kept: a reload brings the title block back with the project
+	eval[bool](t, tb, `(window.edgewiseOutputs.closeReport(), true)`)
+	tb.reload(t)
+	if r := eval[string](t, tb, `(window.edgewise.project().sheet || {}).number || ""`); r != "C-0042" {
+		t.Errorf("after reload the calculation number is %q", r)
+	}
 	tb.noErrors(t)
 }
