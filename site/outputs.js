@@ -32,7 +32,7 @@
   async function download(kind, options) {
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
-    const r = await call("export", kind, JSON.stringify(p), EW.report.options(p, options));
+    const r = await call("export", kind, JSON.stringify(EW.solving.forEngine(p)), EW.report.options(p, options));
     save(r.name, r.mime, r.text);
     return r.name;
   }
@@ -63,7 +63,7 @@
   async function downloadPNG(width) {
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
-    const r = await call("export", "svg", JSON.stringify(p), EW.report.options(p, { pixel_width: 640 }));
+    const r = await call("export", "svg", JSON.stringify(EW.solving.forEngine(p)), EW.report.options(p, { pixel_width: 640 }));
     const img = await svgImage(r.text);
     const w0 = img.naturalWidth || img.width, h0 = img.naturalHeight || img.height;
     const scale = width / w0;

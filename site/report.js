@@ -132,7 +132,7 @@
     if (!p) throw new Error("there is no project yet");
     const date = new Date().toISOString().slice(0, 16).replace("T", " ") + " UTC";
     await share.refresh(p).catch(() => {});
-    const r = await call("report", JSON.stringify(p), options(p, { date }));
+    const r = await call("report", JSON.stringify(EW.solving.forEngine(p)), options(p, { date }));
     const rep = JSON.parse(r.report);
     reportData = { rep, svg: r.svg };
     closeReport();

@@ -382,6 +382,7 @@
     check,
     edit,
     commit,
+    forEngine, // the project without its probes outside the rectangle (for every engine call)
     stop,
     setStatus,
     running: () => (running ? performance.now() - running.started : null),

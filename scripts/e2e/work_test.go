@@ -56,6 +56,12 @@ func TestProbeOutsideKeepsSolving(t *testing.T) {
 	}
 	tb.waitFor(t, allPreviews, "edge previews while a probe is outside")
 	tb.shot(t, "probe-outside")
+	// the report and the downloads leave the outside probe out too
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-btn"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `!!document.querySelector("#ew-report img") && document.querySelector("#ew-report img").naturalWidth > 0`, "the report with a probe outside")
+	eval[bool](t, tb, `(window.edgewiseOutputs.closeReport(), true)`)
 	// Move inside: onto the nearest point of the rectangle, solved with it
 	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS(`#probes tr.outside button.probe-move`))); err != nil {
 		t.Fatal(err)
