@@ -422,3 +422,30 @@ func TestCalculationSheet(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// The published checks show how far they are and let edits solve between
+// cases: with a case held in flight, an edit is solved and drawn.
+func TestChecksProgressAndEdits(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadDemo(t)
+	eval[bool](t, tb, `window.edgewiseInternal.hold({fn: "check", calls: 1})`)
+	eval[bool](t, tb, `(document.getElementById("ew-checks-panel").open = true, true)`)
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-checks-run"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitFor(t, `window.edgewiseInternal.engineState().held === 1 && !!document.getElementById("ew-checks-progress")`, "the first case held, with a progress bar")
+	bar := eval[[]float64](t, tb, `(() => { const p = document.getElementById("ew-checks-progress"); return [p.value, p.max]; })()`)
+	if bar[0] != 0 || bar[1] < 10 {
+		t.Errorf("progress %v of %v before the first case is done", bar[0], bar[1])
+	}
+	tb.pasteInto(t, "#in-right-expr", "35")
+	tb.waitFor(t, `window.edgewiseInternal.last().project.edges.right.expr === "35"`, "an edit solved while a check is in flight")
+	eval[bool](t, tb, `window.edgewiseInternal.release()`)
+	tb.waitFor(t, `document.getElementById("ew-checks-panel").dataset.state === "done"`, "the checks")
+	bar = eval[[]float64](t, tb, `(() => { const p = document.getElementById("ew-checks-progress"); return [p.value, p.max]; })()`)
+	if bar[0] != bar[1] {
+		t.Errorf("progress %v of %v after the run", bar[0], bar[1])
+	}
+	tb.noErrors(t)
+}
