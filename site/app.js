@@ -69,6 +69,7 @@
     try {
       const [, c] = await Promise.all([EW.loadPhysics(), colours]);
       EW.colours = c.value;
+      root.dataset.engineAt = performance.now().toFixed(1); // the engine's first answer (benchmark)
     } catch (e) {
       solving.setStatus(e.message, "error");
       return;
