@@ -341,6 +341,7 @@ func TestOfflineShareHostedAddress(t *testing.T) {
 	if src := eval[string](t, tb, `document.getElementById("ew-embed").value`); !strings.Contains(src, `src="`+host+`?embed#z=`) {
 		t.Errorf("embed snippet %q, want the hosted copy's address", src)
 	}
+	eval[bool](t, tb, `(document.getElementById("ew-hosted-note").scrollIntoView({block: "center"}), true)`)
 	tb.shot(t, "offline-share-hosted")
 	// the served page makes links for itself and shows no such note
 	sv := newTab(t)
