@@ -135,9 +135,10 @@ size-baseline:
 bench:
 	$(GO) test -run='^$$' -bench=. -benchmem ./solver/...
 
-## bench-browser: edit-to-picture time in headless chromium
-bench-browser: build chromium
-	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -run='^$$' -bench=. -benchtime=20x ./scripts/e2e/
+## bench-browser: edit-to-picture time and, from the offline file, time to the first picture, in headless chromium
+bench-browser: build dist chromium
+	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -run='^$$' -bench=EditToPicture -benchtime=20x ./scripts/e2e/
+	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -run='^$$' -bench=FirstPicture -benchtime=5x ./scripts/e2e/
 
 # FUZZTIME from the environment or the command line wins; when it is unset
 # test-fuzz runs 200000 inputs per target and `make fuzz` two minutes.

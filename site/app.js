@@ -11,6 +11,7 @@
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
   const { store, engine, solving } = EW;
+  const root = document.documentElement;
 
   async function demo() {
     const inline = document.getElementById("ew-demo");
@@ -28,6 +29,7 @@
     call: engine.call,
     demo,
     last: store.last, // {project, result, units, nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
+    good: () => copy(store.good()), // the last project the user meant that solved
     canvases: () => EW.canvases(), // {field, legend, profile}
     // the solve in flight: how long it has run (ms, or null), how many
     // times the worker was restarted, and how many calls it holds
@@ -36,17 +38,38 @@
     // fn wait in the worker until release() or a restart
     hold: engine.hold,
     release: engine.release,
-    // tune({busyMs, cancelMs}) changes when the page shows that it works
-    // and when a stale solve is cancelled
+    // tune({busyMs, cancelMs, pauseMs}) changes when the page shows that
+    // it works, when a stale solve is cancelled and how long a pause in
+    // typing makes the inputs meant
     tune: solving.tune,
     units: (physics) => (EW.unitsets || {})[physics || (store.project() || {}).physics],
   };
 
-  // Boot after the other scripts have run.
-  setTimeout(async () => {
+  // firstForm fills the inputs with the first project as soon as the
+  // physics table is in, before the engine has started: the project is
+  // known without it (EW.firstGuess: the link's or the autosave's, else the
+  // demo). The engine then solves it as the boot below decides.
+  async function firstForm() {
     try {
-      const [, colours] = await Promise.all([EW.loadPhysics(), engine.call("colours", 256)]);
-      EW.colours = colours.value;
+      await EW.loadPhysics();
+      const p = (EW.firstGuess && (await EW.firstGuess())) || (await demo());
+      if (p && !store.project()) {
+        EW.fill(p);
+        root.dataset.formAt = performance.now().toFixed(1);
+      }
+    } catch (e) { /* the boot below says what went wrong */ }
+  }
+
+  // Boot after the other scripts have run: the engine starts at once, the
+  // form is filled meanwhile.
+  setTimeout(async () => {
+    const colours = engine.call("colours", 256);
+    colours.catch(() => {});
+    await firstForm();
+    try {
+      const [, c] = await Promise.all([EW.loadPhysics(), colours]);
+      EW.colours = c.value;
+      root.dataset.engineAt = performance.now().toFixed(1); // the engine's first answer (benchmark)
     } catch (e) {
       solving.setStatus(e.message, "error");
       return;

@@ -57,8 +57,9 @@
     record.failure = null;
     write();
   });
-  EW.store.on("solved", (d) => {
-    record = { project: d.project, solved: d.project, failure: null };
+  // the last project the user meant (store.js), not every solved keystroke
+  EW.store.on("meant", (d) => {
+    record = { project: EW.store.project() || d.project, solved: d.project, failure: null };
     write();
   });
   EW.store.on("failed", (d) => {
@@ -202,6 +203,21 @@
     }
     await api.load(await demo());
   }
+
+  // firstGuess is the project the page will most likely show first, read
+  // without the engine (the boot checks and solves it): the link's, else
+  // the autosave's last good one, else null.
+  EW.firstGuess = async function () {
+    if (share.first.key) {
+      try {
+        return JSON.parse(await share.peek(share.first));
+      } catch (e) {
+        return null;
+      }
+    }
+    const s = embed ? null : stored();
+    return (s && s.record && (s.record.solved || s.record.project)) || null;
+  };
 
   EW.autosave = { key: KEY, unreadableKey: KEY_UNREADABLE, unsolvedKey: KEY_UNSOLVED };
 })();

@@ -1,6 +1,8 @@
 // edgewise page: the published checks, run in the browser: each case the
 // test suite checks the engine with, its computed and published values,
-// and a verification record to download.
+// and a verification record to download. The cases run one by one, each
+// a call of its own to the worker, so edits solve between them; a bar
+// shows how far the run is.
 //
 //   EW.checks = {box, run()}
 "use strict";
@@ -30,9 +32,10 @@
     const cases = JSON.parse((await call("checks", text)).cases);
     const tbody = el("tbody");
     const summary = el("p", { class: "ew-checks-summary", role: "status" });
+    const bar = el("progress", { id: "ew-checks-progress", max: String(cases.length), value: "0", "aria-label": "Published checks run so far" });
     const head = el("tr");
     for (const h of ["Case", "Computed", "Published or exact", "Difference", "Tolerance", "Result", "Source"]) head.append(el("th", { scope: "col", text: h }));
-    out.replaceChildren(summary, el("div", { class: "ew-scroll" }, el("table", { class: "ew-checks-table" }, el("thead", {}, head), tbody)));
+    out.replaceChildren(bar, summary, el("div", { class: "ew-scroll" }, el("table", { class: "ew-checks-table" }, el("thead", {}, head), tbody)));
     const outcomes = [];
     let passed = 0, failed = 0;
     for (const c of cases) {
@@ -45,6 +48,7 @@
         el("td", { class: "ew-source", text: c.source + " [" + c.basis + "]" }));
       tbody.append(tr);
       summary.textContent = "Running case " + (outcomes.length + 1) + " of " + cases.length + "…";
+      await new Promise((go) => setTimeout(go, 0)); // let the page draw and take input between cases
       let o;
       try {
         o = JSON.parse((await call("check", text, c.id)).outcome);
@@ -60,6 +64,7 @@
       cells.result.textContent = o.pass ? "pass" : o.error ? "not computed: " + o.error : "FAIL";
       tr.className = o.pass ? "ew-pass" : "ew-fail";
       if (o.pass) passed++; else failed++;
+      bar.value = outcomes.length;
     }
     summary.textContent = passed + " of " + cases.length + " published checks passed" + (failed ? "; " + failed + " did not." : ".");
     let version = "";

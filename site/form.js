@@ -147,12 +147,14 @@
     probes = (p.probes || []).map((q) => Object.assign({}, q));
     extra = {};
     if (p.grid) extra.grid = p.grid;
+    if (p.sheet) extra.sheet = Object.assign({}, p.sheet); // the report's title block (report.js)
     $("k-iso").hidden = ortho;
     $("k-ortho").hidden = !ortho;
     EW.relabel();
     clearErrors();
   };
 
+  EW.setSheet = (s) => { if (s) extra.sheet = s; else delete extra.sheet; };
   EW.probes = () => probes.map((q) => Object.assign({}, q));
   EW.setProbes = (list) => { probes = list.map((q) => Object.assign({}, q)); };
 

@@ -32,7 +32,7 @@
   async function download(kind, options) {
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
-    const r = await call("export", kind, JSON.stringify(p), EW.report.options(p, options));
+    const r = await call("export", kind, JSON.stringify(EW.solving.forEngine(p)), EW.report.options(p, options));
     save(r.name, r.mime, r.text);
     return r.name;
   }
@@ -63,7 +63,7 @@
   async function downloadPNG(width) {
     const p = api.project();
     if (!p) throw new Error("there is no project yet");
-    const r = await call("export", "svg", JSON.stringify(p), EW.report.options(p, { pixel_width: 640 }));
+    const r = await call("export", "svg", JSON.stringify(EW.solving.forEngine(p)), EW.report.options(p, { pixel_width: 640 }));
     const img = await svgImage(r.text);
     const w0 = img.naturalWidth || img.width, h0 = img.naturalHeight || img.height;
     const scale = width / w0;
@@ -201,6 +201,7 @@
       el("span", { class: "ew-label", text: "Share" }),
       controls.linkBox,
       button("ew-copy-link", "Copy link", controls.copyLink, "The whole project travels in the link")),
+    controls.hostedNote,
     el("details", { class: "ew-embed-snippet" },
       el("summary", { text: "Embed in a wiki page" }),
       el("p", { class: "ew-hint", text: "Paste this into a page that allows iframes. It shows only the field, the legend and one line of results." }),

@@ -44,6 +44,7 @@
       : "Click the picture (or focus it and press Enter) to pin a probe.";
     if (!S) return;
     for (const p of list) {
+      if (EW.outsideProbe(p)) { body.append(outsideRow(p)); continue; }
       const hit = (S.result.probes || []).find((q) => q.label === p.label && q.x === p.x && q.y === p.y);
       let v, gx, gy, qx, qy, approx = false;
       if (hit) {
@@ -63,6 +64,24 @@
         ...EW.probeCells(p, S, gx, gy, qx, qy),
         el("td", {}, button)));
     }
+  }
+
+  // outsideRow marks a probe outside the rectangle (left out of the
+  // solves, kept in the project) and offers to move it inside or drop it.
+  function outsideRow(p) {
+    const P = store.project();
+    const clamp = (v, hi) => Math.min(Math.max(v, 0), hi);
+    const move = () => {
+      EW.setProbes(EW.probes().map((q) => (q.label === p.label ? Object.assign({}, q, { x: clamp(q.x, P.width), y: clamp(q.y, P.height) }) : q)));
+      EW.edited();
+    };
+    return el("tr", { "data-label": p.label, class: "outside" },
+      el("th", { scope: "row", text: p.label }),
+      el("td", { text: EW.num(p.x, 4) + ", " + EW.num(p.y, 4) }),
+      el("td", { colspan: "3", class: "probe-outside" }, "outside the rectangle, left out ",
+        el("button", { type: "button", class: "probe-move", text: "Move inside", onclick: move }), " ",
+        el("button", { type: "button", class: "probe-drop", text: "Drop", onclick: () => remove(p.label) })),
+      el("td", {}));
   }
 
   store.on("solved", render);

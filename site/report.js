@@ -32,8 +32,58 @@
     ".ew-report img{max-width:100%;height:auto}",
     ".ew-report footer{margin-top:1.5rem;color:#555;font-size:.9em}",
     ".ew-report-link{font-family:ui-monospace,monospace;font-size:.75em;word-break:break-all}",
-    "@media print{.ew-report{padding:0;max-width:none}.ew-report table,.ew-report figure{break-inside:avoid}}",
+    ".ew-report table.ew-sheet{width:100%;margin:0 0 .6rem}",
+    ".ew-report table.ew-sheet th{width:9rem;background:#f4f1ea;font-weight:600}",
+    "@media print{.ew-report{padding:0;max-width:none}.ew-report table,.ew-report figure{break-inside:avoid}" +
+      ".ew-report h1,.ew-report h2,.ew-report caption{break-after:avoid}.ew-report p,.ew-report li{orphans:3;widows:3}}",
+    "@page{margin:16mm 14mm 18mm;@bottom-right{content:\"Page \" counter(page) \" of \" counter(pages);font:9pt system-ui,sans-serif;color:#444}}",
   ].join("\n");
+
+  // ---- the calculation sheet's title block (the project's "sheet") ----
+
+  const SHEET = [
+    ["project", "Project"], ["number", "Calculation no."], ["prepared_by", "Prepared by"],
+    ["checked_by", "Checked by"], ["date", "Date"], ["revision", "Revision"],
+  ];
+
+  // sheetTable is the title block as printed; an empty field prints as a
+  // line to fill in by hand.
+  function sheetTable(s) {
+    const tb = el("table", { class: "ew-sheet", id: "ew-sheet-block" }, el("caption", { text: "Calculation sheet" }));
+    const body = el("tbody");
+    for (let i = 0; i < SHEET.length; i += 2) {
+      const tr = el("tr");
+      for (const [k, label] of SHEET.slice(i, i + 2)) {
+        tr.append(el("th", { scope: "row", text: label }), el("td", { "data-sheet": k, text: (s && s[k]) || "" }));
+      }
+      body.append(tr);
+    }
+    tb.append(body);
+    return tb;
+  }
+
+  // sheetForm is the small form in the report panel that fills the title
+  // block; what is typed goes into the project (kept, saved, shared).
+  function sheetForm(s) {
+    const form = el("form", { class: "ew-noprint ew-sheet-form", id: "ew-sheet-form", "aria-label": "Calculation sheet title block" });
+    for (const [k, label] of SHEET) {
+      form.append(el("label", {}, el("span", { text: label }),
+        el("input", { type: "text", id: "ew-sheet-" + k, name: k, maxlength: "200", value: (s && s[k]) || "", spellcheck: "false" })));
+    }
+    form.addEventListener("submit", (e) => e.preventDefault());
+    form.addEventListener("change", () => {
+      const next = {};
+      for (const [k] of SHEET) {
+        const v = form.elements[k].value.trim();
+        if (v) next[k] = v;
+      }
+      EW.setSheet(Object.keys(next).length ? next : null);
+      EW.edited();
+      const block = reportEl && reportEl.querySelector("#ew-sheet-block");
+      if (block) block.replaceWith(sheetTable(next));
+    });
+    return form;
+  }
 
   let reportEl = null;
   let reportData = null;
@@ -65,7 +115,7 @@
 
   // reproduceLink is the share link of p (compressed when it is ready).
   function reproduceLink(p) {
-    return share.pageURL() + share.fragmentFor(JSON.stringify(p));
+    return share.shareBase() + share.fragmentFor(JSON.stringify(p));
   }
 
   function closeReport() {
@@ -82,7 +132,7 @@
     if (!p) throw new Error("there is no project yet");
     const date = new Date().toISOString().slice(0, 16).replace("T", " ") + " UTC";
     await share.refresh(p).catch(() => {});
-    const r = await call("report", JSON.stringify(p), options(p, { date }));
+    const r = await call("report", JSON.stringify(EW.solving.forEngine(p)), options(p, { date }));
     const rep = JSON.parse(r.report);
     reportData = { rep, svg: r.svg };
     closeReport();
@@ -94,7 +144,9 @@
       el("button", { type: "button", id: "ew-report-close", text: "Close the report", onclick: closeReport }));
     reportEl = el("article", { id: "ew-report", class: "ew-report", "aria-label": "Report" },
       tools,
+      sheetForm(p.sheet),
       el("h1", { text: rep.title }),
+      sheetTable(p.sheet),
       el("p", { class: "ew-meta", text: "Date: " + rep.date + " · edgewise " + rep.version + " · physics: " + rep.physics }),
       el("h2", { text: "Inputs" }), table(rep.inputs), table(rep.edges),
       el("h2", { text: "Picture" }), el("figure", {}, img),

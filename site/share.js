@@ -11,8 +11,15 @@
 // (EW.solving.check); a link that inflates past the size limit is refused
 // as soon as the limit is passed, not after inflating all of it.
 //
-//   EW.share = {readFragment, fromFragment, fragmentFor, pageURL, clearFragment,
-//               refresh(project), embed, toBase64, controls}
+// Opened from a file (the offline copy), a link to the page itself opens
+// only on this computer: the page says so, and links use the address of
+// the hosted copy (an organisation's wiki or file server) once the user
+// gives it; it is kept in the browser's storage (HOSTED_KEY).
+//
+// The embed snippet's frame takes its size from the project's aspect.
+//
+//   EW.share = {readFragment, fromFragment, peek, fragmentFor, pageURL, shareBase, setHosted(address),
+//               embedSize(project), clearFragment, refresh(project), embed, toBase64, controls}
 // window.edgewise.link() and linkReady() come from here.
 "use strict";
 (function () {
@@ -21,6 +28,7 @@
   const { tell } = EW.notice;
   const api = window.edgewise;
   const MAX_TEXT = 1 << 20; // bytes of a decompressed link
+  const HOSTED_KEY = "edgewise.hosted.1"; // the hosted copy's address, for links made from a file
   const FEED = 1024; // compressed bytes fed to the inflater at a time
 
   // ---- base64url and compression ----
@@ -109,6 +117,11 @@
   // fromFragment returns the checked project object a fragment holds, or
   // throws a one-line reason.
   async function fromFragment(f) {
+    return EW.solving.check(await peek(f));
+  }
+
+  // peek returns the project text a fragment holds, not yet checked.
+  async function peek(f) {
     let text;
     if (f.key === "z") text = await inflate(fromBase64url(f.data), MAX_TEXT);
     else if (f.key === "j") {
@@ -121,12 +134,49 @@
       try { text = decodeURIComponent(f.data); } catch (e) { throw new Error("the link's text is not correctly percent-encoded"); }
     }
     if (text.length > MAX_TEXT) throw new Error("the link's project is too large");
-    return EW.solving.check(text);
+    return text;
   }
 
   // pageURL is the page's address without query or fragment (a link made
   // in the embed view is a plain link)
   const pageURL = () => location.href.split(/[?#]/)[0];
+
+  const fromFile = location.protocol === "file:";
+  function hosted() {
+    try {
+      return localStorage.getItem(HOSTED_KEY) || "";
+    } catch (e) {
+      return "";
+    }
+  }
+  // shareBase is the address links are made for: the page's own, or from
+  // a file the hosted copy's when one is set
+  const shareBase = () => (fromFile && hosted()) || pageURL();
+
+  // setHosted checks and keeps the hosted copy's address (empty: forget
+  // it); it returns the address kept or throws a one-line reason.
+  function setHosted(text) {
+    const t = String(text || "").trim();
+    let v = "";
+    if (t) {
+      let u;
+      try {
+        u = new URL(t);
+      } catch (e) {
+        throw new Error("the hosted copy's address is not a web address: " + JSON.stringify(t.slice(0, 80)));
+      }
+      if (u.protocol !== "https:" && u.protocol !== "http:") throw new Error("the hosted copy's address must start with https:// or http://");
+      v = u.href.split(/[?#]/)[0];
+    }
+    try {
+      if (v) localStorage.setItem(HOSTED_KEY, v);
+      else localStorage.removeItem(HOSTED_KEY);
+    } catch (e) {
+      throw new Error("this browser does not let the page keep the address (" + (e.name || "storage blocked") + ")");
+    }
+    showLink();
+    return v;
+  }
 
   function clearFragment() {
     try {
@@ -153,14 +203,17 @@
     cache.frag = frag;
     showLink();
   }
+  // the project shared is the last one the user meant (store.js), not a
+  // half-typed one
+  const shared = () => EW.store.good() || api.project();
   function link() {
-    const p = api.project();
-    return p ? pageURL() + fragmentFor(JSON.stringify(p)) : pageURL();
+    const p = shared();
+    return p ? shareBase() + fragmentFor(JSON.stringify(p)) : shareBase();
   }
   api.link = link;
   // linkReady resolves with the compressed link once it is made.
   api.linkReady = async () => {
-    const p = api.project();
+    const p = shared();
     if (p) await refresh(p);
     return link();
   };
@@ -207,21 +260,55 @@
 
   const linkBox = el("input", { id: "ew-link", type: "text", readonly: true, "aria-label": "Share link", spellcheck: "false" });
   const embedBox = el("textarea", { id: "ew-embed", readonly: true, rows: "3", "aria-label": "Embed snippet for a wiki page", spellcheck: "false" });
+  // embedSize is the frame for a project: 760 px wide at most, as tall as
+  // the picture at the project's aspect plus the legend's and the results
+  // line's room (the embedded page gives the picture at most 58 % of the
+  // frame's height), so a wide plate leaves no empty half.
+  function embedSize(p) {
+    const W = p && p.width, H = p && p.height;
+    if (!(W > 0 && H > 0 && Number.isFinite(W / H))) return { width: 760, height: 460 };
+    const r = H / W;
+    let fw = 572; // the picture's width in a 760 px frame
+    let fh = fw * r;
+    if (fh > 300) { fh = 300; fw = fh / r; }
+    fh = Math.max(fh, 48);
+    return { width: Math.min(760, Math.max(400, Math.ceil(fw + 188))), height: Math.ceil(Math.max(fh / 0.58, fh + 130)) };
+  }
+
   function showLink() {
     const l = link();
     linkBox.value = l;
     const i = l.indexOf("#");
     const src = i < 0 ? l + "?embed" : l.slice(0, i) + "?embed" + l.slice(i);
-    const t = (api.project() || {}).title || "edgewise field";
-    embedBox.value = el("iframe", { src, width: "760", height: "460", title: t, loading: "lazy" }).outerHTML;
+    const p = shared() || {};
+    const t = p.title || "edgewise field";
+    const size = embedSize(p);
+    embedBox.value = el("iframe", { src, width: String(size.width), height: String(size.height), title: t, loading: "lazy" }).outerHTML;
+    hostedNote.hidden = !fromFile;
+    hostedNote.firstChild.textContent = hosted()
+      ? "This copy is a file on your computer; links point to the hosted copy at " + hosted() + ". "
+      : "This copy is a file on your computer: a link to it opens only here, for no one else. Give the address of the hosted copy (your organisation's wiki or file server) to make links others can open. ";
+    if (document.activeElement !== hostedBox) hostedBox.value = hosted();
   }
+
+  const hostedBox = el("input", { id: "ew-hosted", type: "url", spellcheck: "false", placeholder: "https://wiki.example.org/tools/edgewise/", "aria-label": "Address of the hosted copy" });
+  const hostedNote = el("p", { id: "ew-hosted-note", class: "ew-hint", hidden: true }, el("span"), hostedBox, " ",
+    el("button", {
+      type: "button", id: "ew-hosted-save", text: "Use for links",
+      onclick: () => EW.notice.act(() => {
+        const v = setHosted(hostedBox.value);
+        tell(v ? "Links now open the hosted copy at " + v + "." : "Links point to this file again (they open only on this computer).", "info");
+      }),
+    }));
 
   async function copyLink() {
     await api.linkReady();
     showLink();
+    const local = fromFile && !hosted();
     try {
       await navigator.clipboard.writeText(linkBox.value);
-      tell("Link copied. Anyone who opens it sees this project exactly; it holds the whole project, nothing is stored anywhere.", "info");
+      if (local) tell("Link copied, but it opens only on this computer: this page is a file here. Give the address of the hosted copy (under Share) for links others can open.", "warn");
+      else tell("Link copied. Anyone who opens it sees this project exactly; it holds the whole project, nothing is stored anywhere.", "info");
     } catch (e) {
       linkBox.focus();
       linkBox.select();
@@ -229,11 +316,10 @@
     }
   }
 
-  EW.store.on("solved", (d) => { refresh(d.project).catch(() => {}); });
-  EW.store.on("edited", (d) => { if (d.project) refresh(d.project).catch(() => {}); });
+  EW.store.on("meant", (d) => { refresh(d.project).catch(() => {}); });
 
   EW.share = {
-    first, embed, readFragment, fromFragment, fragmentFor, pageURL, clearFragment, refresh, toBase64,
-    controls: { linkBox, embedBox, showLink, copyLink },
+    first, embed, readFragment, fromFragment, peek, fragmentFor, pageURL, shareBase, setHosted, embedSize, clearFragment, refresh, toBase64,
+    controls: { linkBox, embedBox, hostedNote, showLink, copyLink },
   };
 })();

@@ -3,7 +3,18 @@
 // wins, and a long stale solve is cancelled by restarting the worker),
 // puts what comes back into the store, and loads projects strictly.
 //
-//   EW.solving = {edited(), load(value), check(text), edit(project), stop(), tune(t), running()}
+// The live picture follows the typing, but the store's good project is
+// the last one the user meant: typed and then paused on (PAUSE_MS without
+// an edit), confirmed with Enter, or left (the field loses focus), or
+// chosen (a list, a check box, a probe pinned or dropped), or loaded, or
+// the page is left.
+//
+// A probe outside the rectangle stays in the project (the table marks it
+// and offers to move it inside or drop it); the engine is sent only the
+// probes inside, so the page keeps solving.
+//
+//   EW.solving = {edited(), load(value), check(text), edit(project), commit(), stop(), tune(t), running()}
+//   EW.outsideProbe(probe, project) -> true when the probe lies outside
 //
 // EW.edited is the form's hook (form.js calls it on every input).
 "use strict";
@@ -17,6 +28,7 @@
   const DEBOUNCE_MS = 40; // keys faster than QUIET_MS apart: wait this long for the next
   const QUIET_MS = 60; // an edit this long after the last one solves at once
   let BUSY_MS = 250; // show that the engine is working after this long
+  let PAUSE_MS = 1500; // typing paused this long: the inputs are meant
   let CANCEL_MS = 600; // a stale solve running longer is cancelled
   const LEVELS = 12; // isoline levels asked for
   const MAX_TEXT = 1 << 20; // bytes of a project text
@@ -31,6 +43,32 @@
 
   const cancelled = (reason) => Object.assign(new Error(reason), { cancelled: true });
 
+  // ---- probes outside the rectangle ----
+
+  const finite = (v) => typeof v === "number" && Number.isFinite(v);
+  // outsideProbe tells whether a probe lies outside the project's
+  // rectangle (a probe or rectangle that is not numbers is left to the
+  // engine's strict reader).
+  function outsideProbe(q, project) {
+    const p = project || store.project() || {};
+    if (!q || !finite(q.x) || !finite(q.y) || !finite(p.width) || !finite(p.height) || !(p.width > 0 && p.height > 0)) return false;
+    return q.x < 0 || q.x > p.width || q.y < 0 || q.y > p.height;
+  }
+  EW.outsideProbe = outsideProbe;
+
+  // forEngine is the project as the engine gets it: without the probes
+  // outside the rectangle.
+  function forEngine(project) {
+    if (!Array.isArray(project.probes) || !project.probes.some((q) => outsideProbe(q, project))) return project;
+    return Object.assign({}, project, { probes: project.probes.filter((q) => !outsideProbe(q, project)) });
+  }
+  const outsideNote = (project) => {
+    const out = (Array.isArray(project.probes) ? project.probes : []).filter((q) => outsideProbe(q, project));
+    if (!out.length) return "";
+    const names = out.map((q) => q.label || "?").join(", ");
+    return " Probe" + (out.length > 1 ? "s " : " ") + names + (out.length > 1 ? " lie" : " lies") + " outside the rectangle and " + (out.length > 1 ? "are" : "is") + " left out (see Probes).";
+  };
+
   // ---- the newest request wins ----
 
   let gen = 0; // generation of the newest request
@@ -41,7 +79,7 @@
   // request solves a project. It resolves with the engine's reply and
   // whether it is still the newest request; it rejects when cancelled.
   function request(project) {
-    const text = JSON.stringify(project);
+    const text = JSON.stringify(forEngine(project));
     return new Promise((resolve, reject) => {
       const job = { gen: ++gen, text, project, resolve, reject };
       if (queued) queued.reject(cancelled(CANCELLED_BY_EDIT));
@@ -116,15 +154,21 @@
     const k = project.conductivity;
     markStale(false);
     EW.clearErrors();
-    store.solved({
+    const solve = {
       project, result, units: (EW.unitsets || {})[project.physics] || {},
       nx: r.nx, ny: r.ny, w: r.w, h: r.h, u: r.u, ux: r.ux, uy: r.uy,
       levels: r.levels, segs: r.segs, ends: r.ends, labels: r.labels,
       kx: typeof k === "object" ? k.x : k, ky: typeof k === "object" ? k.y : k,
-    });
+    };
+    const text = JSON.stringify(project);
+    lastSolve = { text, solve };
+    store.solved(solve);
+    if (text === meantText) store.meant(solve);
     const total = performance.now() - t0;
-    setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms.");
+    setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms." + outsideNote(project));
     root.dataset.solved = String(Number(root.dataset.solved || 0) + 1);
+    // when the first picture was on screen, in ms from the page's start
+    if (!root.dataset.firstPictureAt) root.dataset.firstPictureAt = performance.now().toFixed(1);
     return result;
   }
 
@@ -135,23 +179,63 @@
     document.querySelector(".numbers").classList.toggle("stale", on);
   }
 
+  // ---- what the user meant ----
+
+  let meantText = null; // the project last meant, as JSON text
+  let lastSolve = null; // {text, solve} of the newest solve drawn
+  let pauseTimer = 0;
+
+  // commit makes the inputs as they stand the project the user meant; it
+  // becomes the good project as soon as it has solved.
+  function commit() {
+    clearTimeout(pauseTimer);
+    const p = store.project();
+    if (!p) return;
+    meantText = JSON.stringify(p);
+    if (lastSolve && lastSolve.text === meantText) store.meant(lastSolve.solve);
+  }
+
+  // typing is text typed into a field (meant after a pause, Enter or
+  // leaving the field); anything else is meant at once
+  const typing = (target) => !!target && target.tagName === "INPUT" && target.type === "text";
+
+  // failedHere shows the good project's picture again when the one on
+  // screen is half-typed, and marks the numbers as not those of the inputs.
+  function failedHere() {
+    store.fallback();
+    if (store.last()) markStale(true);
+  }
+
+  document.addEventListener("keydown", (e) => {
+    if (e.key === "Enter" && e.target && e.target.dataset && e.target.dataset.path !== undefined) commit();
+  });
+  // leaving the page is leaving the field: a solved edit is kept as meant
+  window.addEventListener("pagehide", () => commit());
+  document.addEventListener("visibilitychange", () => { if (document.visibilityState === "hidden") commit(); });
+  document.addEventListener("focusout", (e) => {
+    if (e.target && e.target.dataset && e.target.dataset.path !== undefined && typing(e.target)) commit();
+  });
+
   // ---- edits ----
 
   let editTimer = 0;
   let previewTimer = 0;
   let lastEditAt = -Infinity;
 
-  function edited() {
+  function edited(target) {
     const { project, errors } = EW.read();
     store.edited(project);
+    clearTimeout(pauseTimer);
+    if (typing(target)) pauseTimer = setTimeout(commit, PAUSE_MS);
+    else commit();
     clearTimeout(previewTimer);
     previewTimer = setTimeout(() => previews(project), 120);
     clearTimeout(editTimer);
     if (errors.length) {
       EW.clearErrors();
       for (const e of errors) EW.showError(e.path, 0, e.path + ": " + e.msg);
-      setStatus("Fix the marked field; the picture shows the last project that solved.", "error");
-      if (store.last()) markStale(true);
+      failedHere();
+      setStatus("Fix the marked field; the picture shows the last project you meant that solved.", "error");
       return;
     }
     // debounce only while keys come very fast (key repeat, a burst of
@@ -177,8 +261,8 @@
       const e = engineError(out.reply);
       EW.clearErrors();
       const placed = EW.showError(e.path, e.col, e.message);
+      failedHere();
       setStatus((placed ? "Not solved (see the marked field): " : "Not solved: ") + EW.onScreenMessage(e.path, e.message), "error");
-      if (store.last()) markStale(true);
       store.failed(project, e);
       return;
     }
@@ -198,10 +282,12 @@
   // previews redraws the edge previews whose edge or rectangle changed.
   // Each pass has a sequence number: a pass stops as soon as a newer one
   // has started, so an older pass can never draw over a newer one, and a
-  // side counts as drawn only once its preview is on screen.
+  // side counts as drawn only once its preview is on screen. The probes
+  // are not sent (a preview does not depend on them), and a preview that
+  // could not be drawn is tried again on the next edit, so none sticks.
   async function previews(project) {
     const seq = ++previewSeq;
-    const text = JSON.stringify(project);
+    const text = JSON.stringify(Object.assign({}, project, { probes: [] }));
     for (const side of EW.SIDES) {
       const key = JSON.stringify([project.width, project.height, (project.edges || {})[side]]);
       if (previewed[side] === key) continue;
@@ -215,8 +301,9 @@
       }
       if (seq !== previewSeq) return;
       const r = m.value;
-      previewed[side] = key;
       EW.drawPreview(side, r.s, r.v, !r.ok);
+      if (r.ok) previewed[side] = key;
+      else delete previewed[side];
     }
   }
 
@@ -252,7 +339,12 @@
       const schema = typeof obj.schema === "string" ? JSON.stringify(obj.schema.slice(0, 40)) : "missing";
       throw Object.assign(new Error("not an edgewise project (its schema is " + schema + ", expected \"edgewise/1\")"), { path: "", col: 0 });
     }
-    const m = await engine.call("validate", text);
+    let m = await engine.call("validate", text);
+    // a probe outside the rectangle is kept and left out of the solves
+    // (the strict reader has read the whole text by then)
+    if (m.value && !m.value.ok && /^probes\[\d+\]\.[xy]$/.test(m.value.path || "") && forEngine(obj) !== obj) {
+      m = await engine.call("validate", JSON.stringify(forEngine(obj)));
+    }
     if (!m.value || !m.value.ok) throw engineError(m.value || { error: "the engine gave no answer" });
     return obj;
   }
@@ -285,6 +377,7 @@
     EW.fill(obj);
     store.edited(obj);
     previews(obj);
+    meantText = JSON.stringify(obj);
     return apply(obj, out.reply, out.ms, t0);
   }
 
@@ -293,6 +386,8 @@
     load,
     check,
     edit,
+    commit,
+    forEngine, // the project without its probes outside the rectangle (for every engine call)
     stop,
     setStatus,
     running: () => (running ? performance.now() - running.started : null),
@@ -301,7 +396,8 @@
     tune(t) {
       if (t.busyMs >= 0) BUSY_MS = t.busyMs;
       if (t.cancelMs >= 0) CANCEL_MS = t.cancelMs;
-      return { busyMs: BUSY_MS, cancelMs: CANCEL_MS };
+      if (t.pauseMs >= 0) PAUSE_MS = t.pauseMs;
+      return { busyMs: BUSY_MS, cancelMs: CANCEL_MS, pauseMs: PAUSE_MS };
     },
   };
 })();

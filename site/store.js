@@ -2,9 +2,13 @@
 // notifications. It holds
 //
 //   typed   the project as the inputs stand now (may have errors)
-//   good    the last project that solved
+//   good    the last project the user meant (paused on, confirmed with
+//           Enter, left the field, chose, loaded) that solved: what the
+//           page falls back to, autosaves and shares
 //   solve   the last successful solve, as drawn: {project, result, units,
-//           nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky}
+//           nx, ny, w, h, u, ux, uy, levels, segs, ends, labels, kx, ky};
+//           the live picture follows the typing, so it may be newer than
+//           good
 //
 // and tells its listeners (EW.store.on(name, fn)) and the document
 // ("edgewise:<name>" events, for scripts outside the page) when
@@ -12,13 +16,14 @@
 //   edited   {project}          the inputs changed
 //   solved   {project, result, nx, ny, u, ux, uy}
 //   failed   {project, error}   a project that passed the form did not solve
+//   meant    {project}          a new good project (solved and meant)
 //
 // Nothing else keeps a copy of these.
 "use strict";
 (function () {
   const EW = (window.edgewiseParts = window.edgewiseParts || {});
-  const state = { typed: null, good: null, solve: null };
-  const listeners = { edited: [], solved: [], failed: [] };
+  const state = { typed: null, good: null, goodSolve: null, solve: null };
+  const listeners = { edited: [], solved: [], failed: [], meant: [] };
 
   function emit(name, detail) {
     for (const fn of listeners[name]) {
@@ -52,10 +57,24 @@
       emit("edited", { project });
     },
     solved(solve) {
-      state.good = solve.project;
       state.solve = solve;
       if (!state.typed) state.typed = solve.project;
       emit("solved", { project: solve.project, result: solve.result, nx: solve.nx, ny: solve.ny, u: solve.u, ux: solve.ux, uy: solve.uy });
+    },
+    // meant makes solve (a solve as given to solved()) the good project
+    meant(solve) {
+      const same = state.good && JSON.stringify(state.good) === JSON.stringify(solve.project);
+      state.goodSolve = solve;
+      state.good = JSON.parse(JSON.stringify(solve.project));
+      if (!same) emit("meant", { project: state.good });
+    },
+    // fallback draws the good project's solve again when the picture shows
+    // a half-typed one (the inputs now fail); true when it did
+    fallback() {
+      const g = state.goodSolve;
+      if (!g || state.solve === g) return false;
+      this.solved(g);
+      return true;
     },
     failed(project, error) {
       emit("failed", { project, error });

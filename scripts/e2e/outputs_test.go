@@ -502,6 +502,8 @@ func TestReloadRestores(t *testing.T) {
 	if got := eval[map[string]any](t, tb, `window.edgewise.project()`); !reflect.DeepEqual(got, want) {
 		t.Errorf("after reload with a broken edit %v\nwant %v", got, want)
 	}
+	// the notice comes after the engine has checked the edit, which may be after the first solve
+	tb.until(t, `document.getElementById("ew-notice").textContent !== ""`, "the notice about the broken edit")
 	if msg := eval[string](t, tb, `document.getElementById("ew-notice").textContent`); !strings.Contains(msg, "did not solve") || !strings.Contains(msg, "edges.bottom.expr") {
 		t.Errorf("notice %q, want one saying the last edit did not solve", msg)
 	}

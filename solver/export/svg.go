@@ -33,6 +33,17 @@ type Picture struct {
 	// A tall rectangle is drawn at most 2*PixelW high, narrower to keep
 	// the scale.
 	PixelW int
+	// Ticks draws round-valued ticks with their coordinates along the
+	// bottom and left sides.
+	Ticks bool
+	// Marks are points to mark with their labels (the probes).
+	Marks []Mark
+}
+
+// Mark is a labelled point in field coordinates.
+type Mark struct {
+	X, Y  float64
+	Label string
 }
 
 // Layout constants, in pixels.
@@ -84,11 +95,16 @@ func SVG(w io.Writer, p *Picture) error {
 		top += titleSpace
 	}
 	left := margin + sizeSpace
+	below := sizeSpace // under the drawing: the width note (and the x ticks' labels)
+	if p.Ticks {
+		left += tickSpaceY
+		below += tickSpaceX
+	}
 	legendH := math.Max(plotH, legendMinH)
 	legendW := math.Max(legendSpace, textWidth(p.LegendUnit, 11))
 	totalW := left + plotW + legendGap + legendW + margin
 	totalW = math.Max(totalW, left+textWidth(p.Title, 16)+margin)
-	totalH := top + math.Max(plotH, legendH) + sizeSpace + margin
+	totalH := top + math.Max(plotH, legendH) + below + margin
 
 	var b bytes.Buffer
 	b.WriteString(`<?xml version="1.0" encoding="UTF-8"?>` + "\n")
@@ -168,12 +184,20 @@ func SVG(w io.Writer, p *Picture) error {
 	fmt.Fprintf(&b, `<rect x="%s" y="%s" width="%s" height="%s" fill="none" stroke="#1b1b1b" stroke-width="1"/>`+"\n",
 		num(left), num(top), num(plotW), num(plotH))
 
+	// Axis ticks and the marked points.
+	noteX, noteY := left-8, top+plotH+16
+	if p.Ticks {
+		ticks(&b, f.W, f.H, left, top, plotW, plotH)
+		noteX, noteY = left-8-tickSpaceY, top+plotH+16+tickSpaceX
+	}
+	marks(&b, p.Marks, px, py)
+
 	// Width and height notes.
 	fmt.Fprintf(&b, `<g font-family="sans-serif" font-size="11" fill="#1b1b1b" text-anchor="middle">`+"\n")
-	fmt.Fprintf(&b, `<text x="%s" y="%s">`, num(left+plotW/2), num(top+plotH+16))
+	fmt.Fprintf(&b, `<text x="%s" y="%s">`, num(left+plotW/2), num(noteY))
 	escape(&b, "W = "+strconv.FormatFloat(f.W, 'g', 6, 64)+" "+f.LengthUnit)
 	b.WriteString("</text>\n")
-	fmt.Fprintf(&b, `<text transform="translate(%s %s) rotate(-90)">`, num(left-8), num(top+plotH/2))
+	fmt.Fprintf(&b, `<text transform="translate(%s %s) rotate(-90)">`, num(noteX), num(top+plotH/2))
 	escape(&b, "H = "+strconv.FormatFloat(f.H, 'g', 6, 64)+" "+f.LengthUnit)
 	b.WriteString("</text>\n</g>\n")
 

@@ -28,6 +28,7 @@ type Project struct {
 	Edges        Edges        `json:"edges"`
 	Probes       []Probe      `json:"probes"`
 	Grid         *GridSize    `json:"grid,omitempty"`
+	Sheet        *Sheet       `json:"sheet,omitempty"` // the calculation sheet's title block (sheet.go)
 	// Texts holds the number fields written as text (a formula of the
 	// parameters), keyed by their path ("width", "edges.top.h",
 	// "probes[0].x"); the number field holds its value.
@@ -219,7 +220,7 @@ func (d *decoder) integer(v any, path string, lo, hi int) int {
 
 func (d *decoder) project(v any) *Project {
 	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
-		"title", "source", "probes", "grid", "parameters", "study")
+		"title", "source", "probes", "grid", "parameters", "study", "sheet")
 	if m == nil {
 		return nil
 	}
@@ -276,6 +277,9 @@ func (d *decoder) project(v any) *Project {
 	}
 	if sv, ok := m["study"]; ok {
 		p.Study = d.studyText(sv)
+	}
+	if sv, ok := m["sheet"]; ok {
+		p.Sheet = d.sheet(sv)
 	}
 	d.inRange(p)
 	return p

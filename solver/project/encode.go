@@ -56,5 +56,8 @@ func (p *Project) JSON() []byte {
 		w.Key("grid").Open('{').Key("nx").Int(p.Grid.Nx).Key("ny").Int(p.Grid.Ny).Close('}')
 	}
 	p.writeStudy(&w)
+	if p.Sheet != nil {
+		p.Sheet.write(w.Key("sheet"))
+	}
 	return w.Close('}').Bytes()
 }

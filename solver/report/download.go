@@ -65,6 +65,10 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 			Title:      p.Title,
 			LegendUnit: with(l.Value, l.ValueUnit),
 			PixelW:     opt.PixelW,
+			Ticks:      true,
+		}
+		for _, q := range p.Probes {
+			pic.Marks = append(pic.Marks, export.Mark{X: q.X, Y: q.Y, Label: q.Label})
 		}
 		if n > 0 {
 			pic.Levels = contour.Levels(out.Result.Min.Value, out.Result.Max.Value, n)
