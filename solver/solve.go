@@ -80,6 +80,7 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	settleCorners(pr, out, breaks)
 	out.Result = report(p, pr, f, out)
 	checkConverged(pr, &out.Result)
+	out.Result.Answers = answers(p, pr, f, out, breaks)
 	out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	out.Result.chooseColour()
 	if !opt.NoCrossCheck {

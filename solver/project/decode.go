@@ -35,6 +35,7 @@ type Project struct {
 	Edges        Edges        `json:"edges"`
 	Probes       []Probe      `json:"probes"`
 	Grid         *GridSize    `json:"grid,omitempty"`
+	Answers      *Asked       `json:"answers,omitempty"` // inputs of the derived answers (answers.go)
 }
 
 // Conductivity is isotropic (X == Y) or orthotropic. It encodes as a single
@@ -209,7 +210,7 @@ func (d *decoder) integer(v any, path string, lo, hi int) int {
 
 func (d *decoder) project(v any) *Project {
 	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
-		"title", "source", "probes", "grid")
+		"title", "source", "probes", "grid", "answers")
 	if m == nil {
 		return nil
 	}
@@ -259,6 +260,9 @@ func (d *decoder) project(v any) *Project {
 		if gm != nil {
 			p.Grid = &GridSize{Nx: d.integer(gm["nx"], "grid.nx", 2, MaxGrid), Ny: d.integer(gm["ny"], "grid.ny", 2, MaxGrid)}
 		}
+	}
+	if a, ok := m["answers"]; ok {
+		p.Answers = d.asked(a)
 	}
 	d.inRange(p)
 	return p

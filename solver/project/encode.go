@@ -35,5 +35,9 @@ func (p *Project) JSON() []byte {
 	if p.Grid != nil {
 		w.Key("grid").Open('{').Key("nx").Int(p.Grid.Nx).Key("ny").Int(p.Grid.Ny).Close('}')
 	}
+	if p.Answers != nil {
+		w.Key("answers")
+		p.Answers.write(&w)
+	}
 	return w.Close('}').Bytes()
 }

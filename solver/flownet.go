@@ -1,0 +1,181 @@
+package solver
+
+import (
+	"math"
+
+	"edgewise/solver/contour"
+	"edgewise/solver/gauss"
+	"edgewise/solver/problem"
+)
+
+// The flow net: flow lines drawn so that each channel between two
+// neighbouring lines carries the same flow, with equipotentials at the
+// matching step, so that the cells are curvilinear squares (in the mapped
+// coordinates y' = y sqrt(kx/ky) when the material is orthotropic).
+//
+// For a source-free field the flow function psi (the harmonic conjugate,
+// up to the factor k) has
+//
+//	dpsi/dy = qx,  dpsi/dx = -qy      (q = -K grad u, the flux)
+//
+// so that along the boundary, walked counter-clockwise, psi grows by the
+// flow leaving the region, and psi is constant along insulated parts.
+// The boundary values come from Gauss-Legendre sums of the series' flux
+// (exact to the series' accuracy); inside, each column is integrated from
+// the bottom by the trapezoid rule on the grid's gradient and its small
+// mismatch with the top value spread linearly, which is exact enough for a
+// drawing.
+
+// DefaultChannels is the number of flow channels when the project does
+// not say.
+const DefaultChannels = 8
+
+// FlowNet describes the flow net of a solve; Reason says why there is
+// none ("" when there is one).
+type FlowNet struct {
+	Reason string
+	// Channels is the number of flow channels, Drops the number of
+	// potential drops that makes the cells square (not a whole number in
+	// general), Ratio = Channels/Drops = Flow/(k Difference).
+	Channels      int
+	Drops         float64
+	Ratio         float64
+	Flow          float64 // total flow through the net, per unit depth
+	Difference    float64 // the potential difference across it
+	FlowStep      float64 // flow per channel
+	PotentialStep float64 // potential per drop
+	Low           float64 // the potential the drops count from
+	psi           []float64
+	psiMin        float64
+}
+
+// flowNet builds the flow function on the output grid and the net's
+// numbers.
+func flowNet(pr *problem.Problem, f field, out *Output, a *Answers, channels int) FlowNet {
+	if channels <= 0 {
+		channels = DefaultChannels
+	}
+	r := &out.Result
+	if pr.Source != 0 {
+		return FlowNet{Reason: "not drawn: with a source the flow grows along its path, so no flow function exists and a flow net would not be square"}
+	}
+	var in float64
+	for _, e := range r.Edges {
+		if !e.Finite {
+			return FlowNet{Reason: "not drawn: a flow is infinite (two prescribed values meet), so equal channels cannot be counted"}
+		}
+		in += max(*e.Flow, 0)
+	}
+	du := r.Max.Value - r.Min.Value
+	low := r.Min.Value
+	if c := a.Conductance; c != nil {
+		du, low = c.High.Value-c.Low.Value, c.Low.Value
+	}
+	if !(in > 0) || !(du > 0) {
+		return FlowNet{Reason: "not drawn: nothing flows"}
+	}
+	psi, psiMin := flowFunction(pr, f, out)
+	k := math.Sqrt(pr.Kx * pr.Ky)
+	n := FlowNet{Channels: channels, Flow: in, Difference: du, Low: low, psi: psi, psiMin: psiMin}
+	n.Ratio = in / (k * du)
+	n.Drops = float64(channels) / n.Ratio
+	n.FlowStep = in / float64(channels)
+	n.PotentialStep = du / n.Drops
+	return n
+}
+
+// boundaryWalk returns the grid nodes of the boundary counter-clockwise
+// from (0, 0), with the edge each step runs along.
+func boundaryWalk(nx, ny int) (nodes []int, sides []problem.Side) {
+	add := func(i, j int, s problem.Side) {
+		nodes, sides = append(nodes, j*(nx+1)+i), append(sides, s)
+	}
+	for i := 1; i <= nx; i++ {
+		add(i, 0, problem.Bottom)
+	}
+	for j := 1; j <= ny; j++ {
+		add(nx, j, problem.Right)
+	}
+	for i := nx - 1; i >= 0; i-- {
+		add(i, ny, problem.Top)
+	}
+	for j := ny - 1; j >= 0; j-- {
+		add(0, j, problem.Left)
+	}
+	return nodes, sides
+}
+
+// flowFunction returns psi on the output grid, psi(0, 0) = 0, and its
+// smallest boundary value.
+func flowFunction(pr *problem.Problem, f field, out *Output) ([]float64, float64) {
+	nx, ny := out.Nx, out.Ny
+	hx, hy := out.W/float64(nx), out.H/float64(ny)
+	psi := make([]float64, (nx+1)*(ny+1))
+	const m = 8
+	xs, ws := make([]float64, m), make([]float64, m)
+	nodes, sides := boundaryWalk(nx, ny)
+	prev, v, lo := 0, 0.0, 0.0
+	for t, k := range nodes {
+		side := sides[t]
+		// the step from node prev to node k along side, in s
+		s0, s1 := nodeS(side, prev, nx, hx, hy), nodeS(side, k, nx, hx, hy)
+		a, b := min(s0, s1), max(s0, s1)
+		gauss.Legendre(xs, ws, a, b)
+		var out float64 // leaving the region over the step
+		for i, s := range xs {
+			x, y := pr.Point(side, s)
+			_, ux, uy := f.At(x, y)
+			out -= ws[i] * entering(pr, side, ux, uy)
+		}
+		if t == len(nodes)-1 {
+			break // back at (0, 0): psi stays 0 there (the closure is the balance)
+		}
+		v += out
+		psi[k] = v
+		lo = min(lo, v)
+		prev = k
+	}
+	// inside: up each column from the bottom, matching the top
+	for i := 1; i < nx; i++ {
+		col := psi[i]
+		acc := make([]float64, ny+1)
+		acc[0] = col
+		for j := 1; j <= ny; j++ {
+			k0, k1 := (j-1)*(nx+1)+i, j*(nx+1)+i
+			acc[j] = acc[j-1] - pr.Kx*(out.Ux[k0]+out.Ux[k1])/2*hy
+		}
+		miss := psi[ny*(nx+1)+i] - acc[ny]
+		for j := 1; j < ny; j++ {
+			psi[j*(nx+1)+i] = acc[j] + miss*float64(j)/float64(ny)
+		}
+	}
+	return psi, lo
+}
+
+// nodeS is the place along side of grid node k.
+func nodeS(side problem.Side, k, nx int, hx, hy float64) float64 {
+	i, j := k%(nx+1), k/(nx+1)
+	if side == problem.Bottom || side == problem.Top {
+		return float64(i) * hx
+	}
+	return float64(j) * hy
+}
+
+// FlowLines returns the flow net's flow lines and equipotentials as
+// segments x0,y0,x1,y1 (field coordinates); nil when there is no net.
+func (o *Output) FlowLines() (flow, equi []float64) {
+	n := o.Result.Answers
+	if n == nil || n.FlowNet.Reason != "" || n.FlowNet.psi == nil {
+		return nil, nil
+	}
+	net := &n.FlowNet
+	// at most the asked channels' lines; fewer when the flow function
+	// spans less than the total inflow (several inflow parts)
+	for c := 1; c < net.Channels; c++ {
+		flow = contour.Lines(flow, net.psi, o.Nx, o.Ny, o.W, o.H, net.psiMin+float64(c)*net.FlowStep)
+	}
+	for d := 1; float64(d) < net.Drops; d++ {
+		equi = contour.Lines(equi, o.U, o.Nx, o.Ny, o.W, o.H, net.Low+float64(d)*net.PotentialStep)
+	}
+	return flow, equi
+}
