@@ -73,10 +73,10 @@ func partsOf(pr *problem.Problem, side problem.Side) []part {
 }
 
 // edgeRule returns Gauss-Legendre nodes and weights over [lo, hi] in
-// panels (8 panels of 16 points): the mean of a smooth field along an edge
-// to round-off, and of one with an r^-1/2 end behaviour to a few digits.
+// panels (4 panels of 16 points): the mean of a smooth field along an edge
+// to round-off.
 func edgeRule(lo, hi float64) (xs, ws []float64) {
-	const panels, n = 8, 16
+	const panels, n = 4, 16
 	x, w := make([]float64, n), make([]float64, n)
 	for p := 0; p < panels; p++ {
 		a := lo + (hi-lo)*float64(p)/panels
@@ -263,7 +263,7 @@ func answers(p *project.Project, pr *problem.Problem, f field, out *Output, brea
 	if p.Answers != nil {
 		asked = *p.Answers
 	}
-	a.FlowNet = flowNet(pr, f, out, a, asked.Channels)
+	a.FlowNet = flowNet(pr, out, a, asked.Channels)
 	switch p.Physics {
 	case physics.Heat:
 		a.Heat = heatAnswers(pr, r, a)

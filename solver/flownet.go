@@ -4,7 +4,6 @@ import (
 	"math"
 
 	"edgewise/solver/contour"
-	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
 )
 
@@ -20,8 +19,8 @@ import (
 //
 // so that along the boundary, walked counter-clockwise, psi grows by the
 // flow leaving the region, and psi is constant along insulated parts.
-// The boundary values come from Gauss-Legendre sums of the series' flux
-// (exact to the series' accuracy); inside, each column is integrated from
+// Along the boundary psi follows the series' flux at the grid nodes and
+// its jump along each edge is the series' edge flow; inside, each column is integrated from
 // the bottom by the trapezoid rule on the grid's gradient and its small
 // mismatch with the top value spread linearly, which is exact enough for a
 // drawing.
@@ -51,7 +50,7 @@ type FlowNet struct {
 
 // flowNet builds the flow function on the output grid and the net's
 // numbers.
-func flowNet(pr *problem.Problem, f field, out *Output, a *Answers, channels int) FlowNet {
+func flowNet(pr *problem.Problem, out *Output, a *Answers, channels int) FlowNet {
 	if channels <= 0 {
 		channels = DefaultChannels
 	}
@@ -74,7 +73,7 @@ func flowNet(pr *problem.Problem, f field, out *Output, a *Answers, channels int
 	if !(in > 0) || !(du > 0) {
 		return FlowNet{Reason: "not drawn: nothing flows"}
 	}
-	psi, psiMin := flowFunction(pr, f, out)
+	psi, psiMin := flowFunction(pr, r, out)
 	k := math.Sqrt(pr.Kx * pr.Ky)
 	n := FlowNet{Channels: channels, Flow: in, Difference: du, Low: low, psi: psi, psiMin: psiMin}
 	n.Ratio = in / (k * du)
@@ -106,34 +105,46 @@ func boundaryWalk(nx, ny int) (nodes []int, sides []problem.Side) {
 }
 
 // flowFunction returns psi on the output grid, psi(0, 0) = 0, and its
-// smallest boundary value.
-func flowFunction(pr *problem.Problem, f field, out *Output) ([]float64, float64) {
+// smallest boundary value. Along each edge psi is the trapezoid sum of the
+// flux leaving at the grid nodes (the series' own gradient there), with its
+// small difference from the series' edge flow spread linearly along the
+// edge, so that the jump of psi along every edge is the series' flow.
+func flowFunction(pr *problem.Problem, r *Result, out *Output) ([]float64, float64) {
 	nx, ny := out.Nx, out.Ny
 	hx, hy := out.W/float64(nx), out.H/float64(ny)
 	psi := make([]float64, (nx+1)*(ny+1))
-	const m = 8
-	xs, ws := make([]float64, m), make([]float64, m)
 	nodes, sides := boundaryWalk(nx, ny)
+	leaving := func(k int, side problem.Side) float64 { return -entering(pr, side, out.Ux[k], out.Uy[k]) }
 	prev, v, lo := 0, 0.0, 0.0
-	for t, k := range nodes {
+	for t := 0; t < len(nodes); {
 		side := sides[t]
-		// the step from node prev to node k along side, in s
-		s0, s1 := nodeS(side, prev, nx, hx, hy), nodeS(side, k, nx, hx, hy)
-		a, b := min(s0, s1), max(s0, s1)
-		gauss.Legendre(xs, ws, a, b)
-		var out float64 // leaving the region over the step
-		for i, s := range xs {
-			x, y := pr.Point(side, s)
-			_, ux, uy := f.At(x, y)
-			out -= ws[i] * entering(pr, side, ux, uy)
+		// the run of steps along this side
+		end := t
+		for end < len(nodes) && sides[end] == side {
+			end++
 		}
-		if t == len(nodes)-1 {
-			break // back at (0, 0): psi stays 0 there (the closure is the balance)
+		h := hx
+		if side == problem.Left || side == problem.Right {
+			h = hy
 		}
-		v += out
-		psi[k] = v
-		lo = min(lo, v)
-		prev = k
+		start, acc := v, make([]float64, 0, end-t)
+		sum, q0 := 0.0, leaving(prev, side)
+		for u := t; u < end; u++ {
+			q1 := leaving(nodes[u], side)
+			sum += (q0 + q1) / 2 * h
+			acc = append(acc, sum)
+			q0 = q1
+		}
+		miss := -*r.Edges[side].Flow - sum
+		for u := t; u < end; u++ {
+			val := start + acc[u-t] + miss*float64(u-t+1)/float64(end-t)
+			if u < len(nodes)-1 { // the last node is (0, 0): psi stays 0 there (the closure is the balance)
+				psi[nodes[u]] = val
+				lo = min(lo, val)
+			}
+			v = val
+		}
+		prev, t = nodes[end-1], end
 	}
 	// inside: up each column from the bottom, matching the top
 	for i := 1; i < nx; i++ {
