@@ -144,12 +144,15 @@
     probes = (p.probes || []).map((q) => Object.assign({}, q));
     extra = {};
     if (p.grid) extra.grid = p.grid;
+    if (p.answers) extra.answers = p.answers;
     $("k-iso").hidden = ortho;
     $("k-ortho").hidden = !ortho;
     EW.relabel();
     clearErrors();
   };
 
+  // setAnswers keeps the inputs of the derived answers (answers.js)
+  EW.setAnswers = (a) => { if (a && Object.keys(a).length) extra.answers = a; else delete extra.answers; };
   EW.probes = () => probes.map((q) => Object.assign({}, q));
   EW.setProbes = (list) => { probes = list.map((q) => Object.assign({}, q)); };
 
