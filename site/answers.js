@@ -277,6 +277,8 @@
     const net = a.flow_net || {};
     if (net.reason) {
       kvRow(dl, "Flow net", net.reason).id = "ans-net";
+    } else if (net.square === false) {
+      kvRow(dl, "Flow net", net.channels + " channels, not square", net.note + "; " + n(net.flow_step, 4) + " " + (u.flow_unit || "") + " of outflow per channel").id = "ans-net";
     } else {
       kvRow(dl, "Flow net", net.channels + " channels, " + n(net.drops, 4) + " drops",
         "channels/drops = " + n(net.ratio, 4) + " = Q/(k ΔU); " + n(net.flow_step, 4) + " " + (u.flow_unit || "") + " per channel, " + n(net.potential_step, 4) + " " + vu + " per drop; cells are squares" +

@@ -35,9 +35,14 @@ func (a *Answers) writeJSON(w *jsonlite.Writer) {
 	w.Close(']')
 	n := a.FlowNet
 	w.Key("flow_net").Open('{')
-	if n.Reason != "" {
+	switch {
+	case n.Reason != "":
 		w.Key("reason").Str(n.Reason)
-	} else {
+	case n.Traced:
+		w.Key("channels").Int(n.Channels).Key("square").Bool(false).Key("note").Str(n.Note).
+			Key("flow").Num(n.Flow).Key("flow_step").Num(n.FlowStep)
+	default:
+		w.Key("square").Bool(true)
 		w.Key("channels").Int(n.Channels).Key("drops").Num(n.Drops).Key("ratio").Num(n.Ratio).
 			Key("flow").Num(n.Flow).Key("difference").Num(n.Difference).
 			Key("flow_step").Num(n.FlowStep).Key("potential_step").Num(n.PotentialStep)

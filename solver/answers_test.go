@@ -338,3 +338,49 @@ func BenchmarkAnswers(b *testing.B) {
 		}
 	})
 }
+
+// With a source there is no flow function: the lines are traced upstream
+// from equal steps of the outflow, and the result says the net is not
+// square. A uniform source in a square held at 0 all round: every line
+// starts on the boundary and climbs towards the centre (the field rises
+// along it), and there is one line per channel.
+func TestTracedFlowLinesWithSource(t *testing.T) {
+	text := `{"schema": "edgewise/1", "physics": "heat", "width": 1, "height": 1, "conductivity": 2, "source": 100,
+	  "edges": {"bottom": {"kind": "value", "expr": "0"}, "top": {"kind": "value", "expr": "0"},
+	    "left": {"kind": "value", "expr": "0"}, "right": {"kind": "value", "expr": "0"}}, "answers": {"channels": 12}}`
+	_, out := mustSolve(t, text, Options{NoCrossCheck: true, Nx: 80, Ny: 80})
+	net := out.Result.Answers.FlowNet
+	if net.Reason != "" || !net.Traced || !strings.Contains(net.Note, "not square") || math.Abs(net.Flow-100) > 1e-6 {
+		t.Fatalf("flow net %+v", net)
+	}
+	flow, equi := out.FlowLines()
+	if equi != nil || len(flow) == 0 {
+		t.Fatalf("%d flow segments, %d equipotential segments", len(flow), len(equi))
+	}
+	// split into lines: a segment that does not start where the last ended
+	// begins a new line
+	lines := 0
+	var sx, sy float64
+	end := func(k int) {
+		u0, _, _ := out.field.At(sx, sy)
+		u1, _, _ := out.field.At(flow[k-2], flow[k-1])
+		if !(u1 > u0) || !(onBoundary(&problem.Problem{W: 1, H: 1}, sx, sy)) {
+			t.Errorf("line from (%g, %g) to (%g, %g): u %g -> %g, want a start on the boundary and a climb", sx, sy, flow[k-2], flow[k-1], u0, u1)
+		}
+	}
+	for k := 0; k < len(flow); k += 4 {
+		if k == 0 || flow[k] != flow[k-2] || flow[k+1] != flow[k-1] {
+			if k > 0 {
+				end(k)
+			}
+			lines++
+			sx, sy = flow[k], flow[k+1]
+		}
+	}
+	end(len(flow))
+	// 12 channels round a closed outflow boundary are bounded by 12 lines;
+	// the walk's start, the corner (0, 0) where nothing flows, is the 12th
+	if lines != 11 {
+		t.Errorf("%d traced lines, want 11 (one per inner step of the outflow)", lines)
+	}
+}

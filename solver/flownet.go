@@ -44,8 +44,13 @@ type FlowNet struct {
 	FlowStep      float64 // flow per channel
 	PotentialStep float64 // potential per drop
 	Low           float64 // the potential the drops count from
-	psi           []float64
-	psiMin        float64
+	// Traced is set when the lines were traced through the flux field
+	// (a source: no flow function, the net is not square); Note says so.
+	Traced bool
+	Note   string
+	psi    []float64
+	psiMin float64
+	traced []float64 // the traced lines' segments
 }
 
 // flowNet builds the flow function on the output grid and the net's
@@ -55,15 +60,21 @@ func flowNet(pr *problem.Problem, out *Output, a *Answers, channels int) FlowNet
 		channels = DefaultChannels
 	}
 	r := &out.Result
-	if pr.Source != 0 {
-		return FlowNet{Reason: "not drawn: with a source the flow grows along its path, so no flow function exists and a flow net would not be square"}
-	}
-	var in float64
+	var in, leaving float64
 	for _, e := range r.Edges {
 		if !e.Finite {
 			return FlowNet{Reason: "not drawn: a flow is infinite (two prescribed values meet), so equal channels cannot be counted"}
 		}
 		in += max(*e.Flow, 0)
+		leaving += max(-*e.Flow, 0)
+	}
+	if pr.Source != 0 {
+		if !(leaving > 0) {
+			return FlowNet{Reason: "not drawn: nothing leaves through the edges"}
+		}
+		n := FlowNet{Channels: channels, Traced: true, Note: tracedNote, Flow: leaving, FlowStep: leaving / float64(channels)}
+		n.traced = out.traceFlowLines(pr, channels, leaving)
+		return n
 	}
 	du := r.Max.Value - r.Min.Value
 	low := r.Min.Value
@@ -176,10 +187,13 @@ func nodeS(side problem.Side, k, nx int, hx, hy float64) float64 {
 // segments x0,y0,x1,y1 (field coordinates); nil when there is no net.
 func (o *Output) FlowLines() (flow, equi []float64) {
 	n := o.Result.Answers
-	if n == nil || n.FlowNet.Reason != "" || n.FlowNet.psi == nil {
+	if n == nil || n.FlowNet.Reason != "" {
 		return nil, nil
 	}
 	net := &n.FlowNet
+	if net.Traced {
+		return net.traced, nil
+	}
 	// at most the asked channels' lines; fewer when the flow function
 	// spans less than the total inflow (several inflow parts)
 	for c := 1; c < net.Channels; c++ {

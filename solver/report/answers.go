@@ -52,9 +52,14 @@ func answerTables(p *project.Project, out *solver.Output) []Table {
 
 	n := a.FlowNet
 	net := Table{Caption: "Flow net", Head: []string{"", "value"}}
-	if n.Reason != "" {
+	switch {
+	case n.Reason != "":
 		add(&net, "flow net", n.Reason)
-	} else {
+	case n.Traced:
+		add(&net, "flow channels", strconv.Itoa(n.Channels))
+		add(&net, with("outflow per channel", l.FlowUnit), num(n.FlowStep))
+		add(&net, "flow net", n.Note)
+	default:
 		add(&net, "flow channels", strconv.Itoa(n.Channels))
 		add(&net, "potential drops (square cells)", num(n.Drops))
 		add(&net, "channels / drops = Q/(k ΔU)", num(n.Ratio))
