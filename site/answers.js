@@ -55,6 +55,10 @@
     el("p", { class: "hint", id: "hint-epsr", text: "Permittivity ε = εr × ε0, with the vacuum permittivity ε0 = 8.8541878128 × 10⁻¹² F/m (CODATA 2018)." }));
   byId("k-iso").after(epsrRow);
 
+  // recharge as a rate with its unit spelt out (the form's unit reads 1/s)
+  const rechargeHint = el("p", { class: "hint", id: "hint-recharge", hidden: true });
+  byId("hint-source").after(rechargeHint);
+
   function fillDielectrics(physics) {
     const list = termsOf(physics).dielectrics || [];
     const was = dielectric.value;
@@ -110,8 +114,9 @@
     set("ans-gs", a.specific_gravity);
     set("ans-e", a.void_ratio);
     fillDielectrics("electrostatic");
-    if (a.dielectric && [...dielectric.options].some((o) => o.value === a.dielectric)) dielectric.value = a.dielectric;
-    else if (a.dielectric) dielectric.value = "";
+    if (!a.dielectric) dielectric.selectedIndex = 0; // the engine's default: the first, dry air
+    else if ([...dielectric.options].some((o) => o.value === a.dielectric)) dielectric.value = a.dielectric;
+    else dielectric.value = "";
     dielectricHint();
   }
 
@@ -121,6 +126,13 @@
     byId("ans-seepage").hidden = physics !== "seepage";
     const iso = p ? typeof p.conductivity !== "object" : !byId("in-ortho").checked;
     epsrRow.hidden = physics !== "electrostatic" || !iso;
+    rechargeHint.hidden = physics !== "seepage";
+    if (physics === "seepage") {
+      const tm = termsOf(physics);
+      const q = p && typeof p.source === "number" && typeof p.width === "number" && typeof p.height === "number" ? p.source * p.width * p.height : null;
+      rechargeHint.textContent = EW.capital(tm.source_rate || "recharge rate") + " in " + (tm.source_rate_unit || "1/s") + " (1/s)" +
+        (q ? ": over this section " + n(q * 86400, 4) + " m³/day per metre of depth." : ".");
+    }
     if (!epsrRow.hidden && document.activeElement !== epsr && p && typeof p.conductivity === "number") {
       epsr.value = String(Number((p.conductivity / EPS0).toPrecision(8)));
     }

@@ -1,6 +1,7 @@
 package solver
 
 import (
+	"fmt"
 	"math"
 
 	"edgewise/solver/contour"
@@ -24,6 +25,9 @@ import (
 // the bottom by the trapezoid rule on the grid's gradient and its small
 // mismatch with the top value spread linearly, which is exact enough for a
 // drawing.
+
+// MaxDrops is the most potential drops a drawn net may have.
+const MaxDrops = 1000
 
 // DefaultChannels is the number of flow channels when the project does
 // not say.
@@ -81,14 +85,24 @@ func flowNet(pr *problem.Problem, out *Output, a *Answers, channels int) FlowNet
 	if c := a.Conductance; c != nil {
 		du, low = c.High.Value-c.Low.Value, c.Low.Value
 	}
-	if !(in > 0) || !(du > 0) {
+	if !(du > 0) {
 		return FlowNet{Reason: "not drawn: nothing flows"}
 	}
-	psi, psiMin := flowFunction(pr, r, out)
+	psi, psiMin, psiMax := flowFunction(pr, r, out)
+	// the flow through the net is the span of the flow function: the
+	// inflow when it enters through one stretch of the boundary, less when
+	// the same edge lets it in and out
+	in = psiMax - psiMin
 	k := math.Sqrt(pr.Kx * pr.Ky)
+	if !(in > 1e-9*k*du) {
+		return FlowNet{Reason: "not drawn: nothing flows"}
+	}
 	n := FlowNet{Channels: channels, Flow: in, Difference: du, Low: low, psi: psi, psiMin: psiMin}
 	n.Ratio = in / (k * du)
 	n.Drops = float64(channels) / n.Ratio
+	if n.Drops > MaxDrops {
+		return FlowNet{Reason: fmt.Sprintf("not drawn: %d channels would need %.3g drops; ask for fewer channels", channels, n.Drops)}
+	}
 	n.FlowStep = in / float64(channels)
 	n.PotentialStep = du / n.Drops
 	return n
@@ -116,17 +130,17 @@ func boundaryWalk(nx, ny int) (nodes []int, sides []problem.Side) {
 }
 
 // flowFunction returns psi on the output grid, psi(0, 0) = 0, and its
-// smallest boundary value. Along each edge psi is the trapezoid sum of the
+// smallest and largest boundary values. Along each edge psi is the trapezoid sum of the
 // flux leaving at the grid nodes (the series' own gradient there), with its
 // small difference from the series' edge flow spread linearly along the
 // edge, so that the jump of psi along every edge is the series' flow.
-func flowFunction(pr *problem.Problem, r *Result, out *Output) ([]float64, float64) {
+func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, lo, hi float64) {
 	nx, ny := out.Nx, out.Ny
 	hx, hy := out.W/float64(nx), out.H/float64(ny)
-	psi := make([]float64, (nx+1)*(ny+1))
+	psi = make([]float64, (nx+1)*(ny+1))
 	nodes, sides := boundaryWalk(nx, ny)
 	leaving := func(k int, side problem.Side) float64 { return -entering(pr, side, out.Ux[k], out.Uy[k]) }
-	prev, v, lo := 0, 0.0, 0.0
+	prev, v := 0, 0.0
 	for t := 0; t < len(nodes); {
 		side := sides[t]
 		// the run of steps along this side
@@ -151,7 +165,7 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) ([]float64, float
 			val := start + acc[u-t] + miss*float64(u-t+1)/float64(end-t)
 			if u < len(nodes)-1 { // the last node is (0, 0): psi stays 0 there (the closure is the balance)
 				psi[nodes[u]] = val
-				lo = min(lo, val)
+				lo, hi = min(lo, val), max(hi, val)
 			}
 			v = val
 		}
@@ -171,7 +185,7 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) ([]float64, float
 			psi[j*(nx+1)+i] = acc[j] + miss*float64(j)/float64(ny)
 		}
 	}
-	return psi, lo
+	return psi, lo, hi
 }
 
 // nodeS is the place along side of grid node k.
