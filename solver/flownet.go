@@ -139,7 +139,13 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, l
 	hx, hy := out.W/float64(nx), out.H/float64(ny)
 	psi = make([]float64, (nx+1)*(ny+1))
 	nodes, sides := boundaryWalk(nx, ny)
-	leaving := func(k int, side problem.Side) float64 { return -entering(pr, side, out.Ux[k], out.Uy[k]) }
+	leaving := func(k int, side problem.Side) float64 {
+		q := -entering(pr, side, out.Ux[k], out.Uy[k])
+		if q-q != 0 { // a corner node with no gradient of its own: the edge's flow corrects the sum
+			return 0
+		}
+		return q
+	}
 	prev, v := 0, 0.0
 	for t := 0; t < len(nodes); {
 		side := sides[t]

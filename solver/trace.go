@@ -22,7 +22,11 @@ func (o *Output) traceFlowLines(pr *problem.Problem, channels int, outflow float
 	hx, hy := o.W/float64(nx), o.H/float64(ny)
 	nodes, sides := boundaryWalk(nx, ny)
 	leaving := func(k int, side problem.Side) float64 {
-		return max(-entering(pr, side, o.Ux[k], o.Uy[k]), 0)
+		q := -entering(pr, side, o.Ux[k], o.Uy[k])
+		if q-q != 0 { // a corner node with no gradient of its own
+			return 0
+		}
+		return max(q, 0)
 	}
 	step := outflow / float64(channels)
 	var segs []float64
