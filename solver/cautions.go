@@ -34,7 +34,12 @@ func (f *solvedField) Exits() []physics.Exit {
 		if f.pr.Edges[side].Kind != problem.Value {
 			continue // exit faces are value edges where water leaves
 		}
-		if g, x, y, found := exitGradient(f.pr, f.out, side); found {
+		var pts [][2]float64
+		var near float64
+		if a := f.r.Answers; a != nil { // the same places as the answers' exit gradients
+			pts, near = a.Singular, a.Near
+		}
+		if g, x, y, found := exitGradientAway(f.pr, f.out, side, pts, near); found {
 			list = append(list, physics.Exit{Edge: side.String(), G: g, X: x, Y: y})
 		}
 	}
