@@ -415,3 +415,17 @@ func TestFlowNetInAndOutOneEdge(t *testing.T) {
 		t.Errorf("no lines")
 	}
 }
+
+// A long thin slab needs more drops than a drawing can hold for the
+// default channels: the net says to ask for fewer instead of drawing 800
+// lines; one channel fits.
+func TestFlowNetTooManyDrops(t *testing.T) {
+	_, out := mustSolve(t, twoTerminal("heat", "1", 100, 1, false, ""), Options{NoCrossCheck: true})
+	if n := out.Result.Answers.FlowNet; !strings.Contains(n.Reason, "8 channels would need 800 drops") {
+		t.Errorf("flow net %+v", n)
+	}
+	_, out = mustSolve(t, twoTerminal("heat", "1", 100, 1, false, `, "answers": {"channels": 1}`), Options{NoCrossCheck: true})
+	if n := out.Result.Answers.FlowNet; n.Reason != "" || math.Abs(n.Drops-100) > 1e-9 {
+		t.Errorf("one channel: %+v", n)
+	}
+}

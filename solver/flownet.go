@@ -27,7 +27,7 @@ import (
 // drawing.
 
 // MaxDrops is the most potential drops a drawn net may have.
-const MaxDrops = 1000
+const MaxDrops = 200
 
 // DefaultChannels is the number of flow channels when the project does
 // not say.
