@@ -93,3 +93,28 @@ func TestProfileCSV(t *testing.T) {
 		t.Error("a profile download with no line was accepted")
 	}
 }
+
+// Each physics puts its own answers in the report, named in its terms.
+func TestReportAnswersEachPhysics(t *testing.T) {
+	for physics, want := range map[string][]string{
+		"electrostatic": {"capacitance per metre of depth [F/m]", "dielectric assumed", "peak / breakdown"},
+		"seepage":       {"discharge per metre [m³/day]", "critical hydraulic gradient", "exit gradient on right[0]"},
+		"generic":       {"conductance per metre of depth", "flow channels"},
+	} {
+		text := strings.Replace(slab, `"physics":"heat"`, `"physics":"`+physics+`"`, 1)
+		p, out := solved(t, text)
+		rep := Build(p, out, "today", "test")
+		var rows []string
+		for _, tb := range rep.Answers {
+			for _, r := range tb.Rows {
+				rows = append(rows, r[0])
+			}
+		}
+		all := strings.Join(rows, "|")
+		for _, w := range want {
+			if !strings.Contains(all, w) {
+				t.Errorf("%s: no row %q in %q", physics, w, all)
+			}
+		}
+	}
+}
