@@ -15,7 +15,7 @@ import (
 // by the engine, so that the runner and the page agree. The quantities
 // that hold for every physics (edge means, flows per length, conductance
 // between terminals, the flow net) come first; each physics then adds its
-// own (heat.go-style sections below).
+// own (trades.go); the flow net is in flownet.go and trace.go.
 //
 // Parts: the conductance, the charge and the exit gradient are taken part
 // by part. Today every edge is one part (index 0); an edge made of segments

@@ -136,6 +136,9 @@ func TestAnswersSeepage(t *testing.T) {
 	if got := text(t, tb, "#ans-critical"); !strings.Contains(got, "common practice") {
 		t.Errorf("critical gradient shows %q", got)
 	}
+	if got := text(t, tb, "#hint-recharge"); !strings.Contains(got, "m³ of water per m³ of ground per second") {
+		t.Errorf("recharge hint %q", got)
+	}
 	n := tb.solved(t)
 	tb.pasteInto(t, "#ans-gsat", "19.62")
 	tb.waitSolved(t, n+1)
