@@ -124,6 +124,7 @@
     ctx.rect(box.x0, box.y0, box.w, box.h);
     ctx.clip();
     if (opts.iso && S.levels) drawIsolines(ctx);
+    if (EW.drawFlowNet) EW.drawFlowNet(ctx, S, X, Y); // answers.js
     if (opts.arrows) drawArrows(ctx);
     ctx.restore();
     ctx.strokeStyle = INK;

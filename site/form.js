@@ -148,6 +148,7 @@
     extra = {};
     if (p.grid) extra.grid = p.grid;
     if (p.sheet) extra.sheet = Object.assign({}, p.sheet); // the report's title block (report.js)
+    if (p.answers) extra.answers = p.answers;
     $("k-iso").hidden = ortho;
     $("k-ortho").hidden = !ortho;
     EW.relabel();
@@ -155,6 +156,8 @@
   };
 
   EW.setSheet = (s) => { if (s) extra.sheet = s; else delete extra.sheet; };
+  // setAnswers keeps the inputs of the derived answers (answers.js)
+  EW.setAnswers = (a) => { if (a && Object.keys(a).length) extra.answers = a; else delete extra.answers; };
   EW.probes = () => probes.map((q) => Object.assign({}, q));
   EW.setProbes = (list) => { probes = list.map((q) => Object.assign({}, q)); };
 

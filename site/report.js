@@ -15,7 +15,9 @@
   // options asks the engine for the grid of the picture on screen when it
   // shows this project (the page's detail choice), else the project's own.
   function options(p, extra) {
-    return JSON.stringify(Object.assign({}, extra || {}, EW.store.grid(p) || {}));
+    // the profile line on screen goes along (profile-csv, the report's profile table)
+    const line = EW.profileLine ? EW.profileLine() : null;
+    return JSON.stringify(Object.assign({}, extra || {}, EW.store.grid(p) || {}, line ? { profile: line } : {}));
   }
 
 
@@ -151,6 +153,8 @@
       el("h2", { text: "Inputs" }), table(rep.inputs), table(rep.edges),
       el("h2", { text: "Picture" }), el("figure", {}, img),
       el("h2", { text: "Results" }), table(rep.extremes), table(rep.flows), table(rep.probes), table(rep.accuracy),
+      (rep.answers || []).length ? el("h2", { text: "Answers" }) : null, ...(rep.answers || []).map(table),
+      rep.profile ? table(rep.profile) : null,
       el("h2", { text: "Cautions" }), list("ul", rep.cautions, "No cautions for this project."),
       rep.warnings && rep.warnings.length ? el("h2", { text: "Notes from the engine" }) : null,
       rep.warnings && rep.warnings.length ? list("ul", rep.warnings.map((w) => (typeof w === "string" ? w : String((w && w.text) || ""))), "") : null,

@@ -158,6 +158,7 @@
       project, result, units: (EW.unitsets || {})[project.physics] || {},
       nx: r.nx, ny: r.ny, w: r.w, h: r.h, u: r.u, ux: r.ux, uy: r.uy,
       levels: r.levels, segs: r.segs, ends: r.ends, labels: r.labels,
+      flowsegs: r.flowsegs || null, equisegs: r.equisegs || null,
       kx: typeof k === "object" ? k.x : k, ky: typeof k === "object" ? k.y : k,
     };
     const text = JSON.stringify(project);

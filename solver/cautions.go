@@ -34,11 +34,25 @@ func (f *solvedField) Exits() []physics.Exit {
 		if f.pr.Edges[side].Kind != problem.Value {
 			continue // exit faces are value edges where water leaves
 		}
-		if g, x, y, found := exitGradient(f.pr, f.out, side); found {
+		var pts [][2]float64
+		var near float64
+		if a := f.r.Answers; a != nil { // the same places as the answers' exit gradients
+			pts, near = a.Singular, a.Near
+		}
+		if g, x, y, found := exitGradientAway(f.pr, f.out, side, pts, near); found {
 			list = append(list, physics.Exit{Edge: side.String(), G: g, X: x, Y: y})
 		}
 	}
 	return list
+}
+
+func (f *solvedField) Dielectric() (name, source string, strength, peak, x, y, near float64) {
+	e := f.r.Answers.Electrostatic
+	if e == nil { // not an electrostatic result: the answers were not made
+		g, px, py := peakGradient(f.out)
+		return "dry air at sea level", "AMS Glossary of Meteorology", physics.AirBreakdown, g, px, py, 0
+	}
+	return e.Dielectric, e.Source, e.Breakdown, e.Peak.G, e.Peak.X, e.Peak.Y, f.r.Answers.Near
 }
 
 func (f *solvedField) Singular() bool {
@@ -56,6 +70,12 @@ func (f *solvedField) Singular() bool {
 // false when nothing leaves through that edge. Nodes where the gradient is
 // unbounded (NaN: a jump of head) are left out.
 func exitGradient(pr *problem.Problem, out *Output, side problem.Side) (g, x, y float64, found bool) {
+	return exitGradientAway(pr, out, side, nil, 0)
+}
+
+// exitGradientAway is exitGradient over the nodes at least d from every
+// point of pts.
+func exitGradientAway(pr *problem.Problem, out *Output, side problem.Side, pts [][2]float64, d float64) (g, x, y float64, found bool) {
 	nx, ny := out.Nx, out.Ny
 	var i0, j0, di, dj, n int
 	var nxo, nyo float64 // outward normal
@@ -77,8 +97,9 @@ func exitGradient(pr *problem.Problem, out *Output, side problem.Side) (g, x, y 
 		if gx-gx != 0 || gy-gy != 0 || -(pr.Kx*gx*nxo+pr.Ky*gy*nyo) <= 0 {
 			continue
 		}
-		if m := math.Hypot(gx, gy); m > g {
-			g, x, y, found = m, float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny), true
+		px, py := float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny)
+		if m := math.Hypot(gx, gy); m > g && farFrom(pts, px, py, d) {
+			g, x, y, found = m, px, py, true
 		}
 	}
 	return g, x, y, found

@@ -31,6 +31,9 @@ type Result struct {
 	// Colour is how every picture of this result is coloured (colour.Choose
 	// over Min.Value .. Max.Value).
 	Colour ColourScale `json:"colour"`
+	// Answers are the derived quantities each trade reports (answers.go);
+	// written as "conductance" (or "conductance_none") and "answers".
+	Answers *Answers `json:"-"`
 }
 
 // ColourScale names a colour map (colour.Map.Name) and the values its two
@@ -60,6 +63,10 @@ type EdgeFlows [4]EdgeFlow
 type EdgeFlow struct {
 	Flow   *float64 `json:"flow"`
 	Finite bool     `json:"finite"`
+	// Mean is the average field value along the edge; PerLength the flow
+	// per unit length of edge (nil when infinite).
+	Mean      float64  `json:"mean"`
+	PerLength *float64 `json:"per_length"`
 }
 
 // Extreme is a smallest or largest value and where it is.
@@ -103,7 +110,9 @@ func (r *Result) JSON() []byte {
 		f := r.Edges[side]
 		w.Key(side.String()).Open('{').Key("flow")
 		numOrNull(&w, f.Flow)
-		w.Key("finite").Bool(f.Finite).Close('}')
+		w.Key("finite").Bool(f.Finite).Key("mean").Num(f.Mean).Key("per_length")
+		numOrNull(&w, f.PerLength)
+		w.Close('}')
 	}
 	w.Close('}')
 	w.Key("source_total").Num(r.SourceTotal).Key("balance")
@@ -141,6 +150,9 @@ func (r *Result) JSON() []byte {
 	w.Key("grid").Open('{').Key("nx").Int(r.Grid.Nx).Key("ny").Int(r.Grid.Ny).Close('}')
 	c := r.Colour
 	w.Key("colour").Open('{').Key("map").Str(c.Map).Key("from").Num(c.From).Key("to").Num(c.To).Close('}')
+	if r.Answers != nil {
+		r.Answers.writeJSON(&w)
+	}
 	return w.Close('}').Bytes()
 }
 

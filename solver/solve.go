@@ -38,6 +38,10 @@ type Output struct {
 	// U, Ux, Uy hold the value and gradient at node j*(Nx+1)+i, at
 	// x = i*W/Nx, y = j*H/Ny.
 	U, Ux, Uy []float64
+	// field is the solved series and kx, ky the conductivity, for
+	// evaluations off the grid (Profile).
+	field  field
+	kx, ky float64
 }
 
 // field is what the engine provides.
@@ -83,10 +87,11 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	n := (nx + 1) * (ny + 1)
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
-	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy}
+	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy, field: f, kx: pr.Kx, ky: pr.Ky}
 	settleCorners(pr, out, breaks)
 	out.Result = report(p, pr, f, out)
 	checkConverged(pr, &out.Result)
+	out.Result.Answers = answers(p, pr, f, out, breaks)
 	if out.Result.Accuracy.Converged {
 		out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	} else {

@@ -4,6 +4,7 @@ package main
 
 import (
 	"encoding/json"
+	"math"
 	"strings"
 	"testing"
 
@@ -192,4 +193,52 @@ func TestPanicBecomesError(t *testing.T) {
 	if !ok || r["ok"] != false || !strings.Contains(r["error"].(string), "boom") {
 		t.Errorf("reply = %v, want an error reply naming the panic", r)
 	}
+}
+
+// The solve reply carries the flow net's flow lines and equipotentials
+// when there is a net (a slab between two full-side terminals: flow lines
+// along x, equipotentials along y), and neither when there is none (the
+// square's corner jumps make its flows infinite).
+func TestSolveFlowNet(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, _ := safejs.Global().Get("edgewise_solve")
+	slab := `{"schema":"edgewise/1","physics":"heat","width":2,"height":1,"conductivity":1,
+	  "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"flux","expr":"0"},
+	  "left":{"kind":"value","expr":"1"},"right":{"kind":"value","expr":"0"}}}`
+	reply, err := fn.Invoke(slab, 20, 10, 5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, horizontal := range map[string]bool{"flowsegs": true, "equisegs": false} {
+		segs := mustGet(t, reply, name)
+		n, _ := segs.Length()
+		if n == 0 || n%4 != 0 {
+			t.Fatalf("%s: %d numbers", name, n)
+		}
+		for k := 0; k < n; k += 4 {
+			a, _ := segs.Index(k + 1 - boolInt(!horizontal))
+			b, _ := segs.Index(k + 3 - boolInt(!horizontal))
+			fa, _ := a.Float()
+			fb, _ := b.Float()
+			if math.Abs(fa-fb) > 1e-9 {
+				t.Fatalf("%s: segment %d not straight along its axis: %g vs %g", name, k/4, fa, fb)
+			}
+		}
+	}
+	reply, err = fn.Invoke(square, 16, 16, 5)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v, _ := reply.Get("flowsegs"); !v.IsUndefined() {
+		t.Error("a net for a project whose flows are infinite")
+	}
+}
+
+func boolInt(b bool) int {
+	if b {
+		return 1
+	}
+	return 0
 }

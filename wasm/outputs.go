@@ -30,6 +30,8 @@ type callOptions struct {
 	PixelWidth int
 	Levels     int
 	Date       string
+	// Profile is a line profile [x0, y0, x1, y1] (profile-csv, report).
+	Profile *report.ProfileLine
 }
 
 func readOptions(args []safejs.Value, i int) (callOptions, error) {
@@ -55,6 +57,14 @@ func parseOptions(text string) (callOptions, error) {
 	}
 	ints := map[string]*int{"nx": &o.Nx, "ny": &o.Ny, "pixel_width": &o.PixelWidth, "levels": &o.Levels}
 	for k, v := range m {
+		if k == "profile" {
+			line, err := profileOption(v)
+			if err != nil {
+				return o, err
+			}
+			o.Profile = line
+			continue
+		}
 		if k == "date" {
 			s, ok := v.(string)
 			if !ok || len(s) > 100 {
@@ -81,6 +91,27 @@ func parseOptions(text string) (callOptions, error) {
 		return o, fmt.Errorf("options: at most %d grid intervals per side", project.MaxGrid)
 	}
 	return o, nil
+}
+
+// profileOption reads the profile option: [x0, y0, x1, y1], finite numbers.
+func profileOption(v any) (*report.ProfileLine, error) {
+	list, ok := v.([]any)
+	if !ok || len(list) != 4 {
+		return nil, errors.New("options: profile must be a list [x0, y0, x1, y1]")
+	}
+	var f [4]float64
+	for i, x := range list {
+		n, ok := x.(jsonlite.Number)
+		if !ok {
+			return nil, errors.New("options: profile must hold four numbers")
+		}
+		v, err := n.Float64()
+		if err != nil || v-v != 0 {
+			return nil, errors.New("options: profile must hold four finite numbers")
+		}
+		f[i] = v
+	}
+	return &report.ProfileLine{X0: f[0], Y0: f[1], X1: f[2], Y1: f[3]}, nil
 }
 
 // solveProject decodes and solves a project for an output.
@@ -122,7 +153,7 @@ func exportText(kind, text string, o callOptions) (map[string]any, error) {
 	if err != nil {
 		return nil, err
 	}
-	d, err := report.Make(kind, p, out, report.PictureOptions{PixelW: o.PixelWidth, Levels: o.Levels})
+	d, err := report.Make(kind, p, out, report.PictureOptions{PixelW: o.PixelWidth, Levels: o.Levels, Profile: o.Profile})
 	if err != nil {
 		return nil, err
 	}
@@ -148,6 +179,9 @@ func reportText(text string, o callOptions) (map[string]any, error) {
 		return nil, err
 	}
 	rep := report.Build(p, out, o.Date, report.Version())
+	if o.Profile != nil {
+		rep.SetProfile(p, out, *o.Profile)
+	}
 	pw := o.PixelWidth
 	if pw == 0 {
 		pw = 560

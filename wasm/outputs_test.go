@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"edgewise/solver/jsonlite"
+	"edgewise/solver/report"
 
 	"github.com/hack-pad/safejs"
 )
@@ -118,7 +119,12 @@ func TestParseOptions(t *testing.T) {
 	if err != nil || o.Nx != 10 || o.Ny != 5 || o.PixelWidth != 800 || o.Levels != -1 || o.Date != "today" {
 		t.Errorf("options %+v, %v", o, err)
 	}
-	for _, bad := range []string{`[]`, `{"nx": 1.5}`, `{"colour": 1}`, `{"pixel_width": -1}`, `{"nx": 5000}`, `{"date": 3}`, `{`} {
+	o, err = parseOptions(`{"profile": [0, 0.5, 1, 0.25]}`)
+	if err != nil || o.Profile == nil || *o.Profile != (report.ProfileLine{X0: 0, Y0: 0.5, X1: 1, Y1: 0.25}) {
+		t.Errorf("profile option %+v, %v", o.Profile, err)
+	}
+	for _, bad := range []string{`[]`, `{"nx": 1.5}`, `{"colour": 1}`, `{"pixel_width": -1}`, `{"nx": 5000}`, `{"date": 3}`, `{`,
+		`{"profile": [0, 1, 2]}`, `{"profile": [0, 1, 2, "3"]}`, `{"profile": "0,1,2,3"}`} {
 		if _, err := parseOptions(bad); err == nil {
 			t.Errorf("options %s accepted", bad)
 		}

@@ -64,6 +64,10 @@ func solveText(text string, opt solver.Options, levels int) (map[string]any, err
 			ends[k] = float64(e)
 		}
 		arrays["levels"], arrays["segs"], arrays["ends"], arrays["labels"] = iso.Levels, iso.Segs, ends, iso.Labels
+		// the flow net: flow lines and its equipotentials, when there is one
+		if flow, equi := out.FlowLines(); flow != nil {
+			arrays["flowsegs"], arrays["equisegs"] = flow, equi
+		}
 	}
 	for name, s := range arrays {
 		arr, err := float64Array(s)

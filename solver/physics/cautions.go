@@ -36,6 +36,11 @@ type Field interface {
 	// Singular reports whether the gradient is unbounded somewhere (a
 	// jump of prescribed value at a corner or inside an edge).
 	Singular() bool
+	// Dielectric is the insulating material the breakdown caution
+	// assumes, where its breakdown strength comes from, that strength
+	// (V/m), and the peak field strength at least near from the points
+	// where it is unbounded.
+	Dielectric() (name, source string, strength, peak, x, y, near float64)
 }
 
 // Exit is the largest size of the gradient where the flux leaves through
@@ -71,25 +76,27 @@ func heatCautions(p *Physics, f Field) []string {
 }
 
 func electrostaticCautions(p *Physics, f Field) []string {
-	peak, x, y := f.PeakGradient()
-	kvmm := peak / 1e6
+	name, source, strength, peak, x, y, near := f.Dielectric()
+	kvmm, bd := peak/1e6, strength/1e6
+	at := fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m", kvmm, x, y)
+	if f.Singular() {
+		at += fmt.Sprintf(" (at least %.3g m from where two prescribed potentials meet)", near)
+	}
+	against := fmt.Sprintf("about %.3g kV/mm, the breakdown strength of %s (%s)", bd, name, source)
 	var msg string
 	switch {
-	case peak >= AirBreakdown:
-		msg = fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m exceeds about 3 kV/mm, the breakdown field of dry "+
-			"air at sea level (AMS Glossary of Meteorology): an air gap of this shape would spark over.", kvmm, x, y)
-	case peak >= AirBreakdown/3:
-		msg = fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m is more than a third of about 3 kV/mm, the "+
-			"breakdown field of dry air at sea level (AMS Glossary of Meteorology); humidity, altitude, dirt and sharp "+
-			"edges lower it in practice.", kvmm, x, y)
+	case peak >= strength:
+		msg = at + " exceeds " + against + ": a gap of this shape in that dielectric would break down."
+	case peak >= strength/3:
+		msg = at + " is more than a third of " + against + "; humidity, dirt, ageing and sharp edges lower it in practice."
 	default:
-		msg = fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m, against about 3 kV/mm for the breakdown of dry "+
-			"air at sea level (AMS Glossary of Meteorology).", kvmm, x, y)
+		msg = at + ", against " + against + "."
 	}
 	list := []string{msg}
 	if f.Singular() {
-		list = append(list, "The field strength is unbounded at a corner where the prescribed potential jumps; the peak "+
-			"above is limited by the output grid. Real electrodes there need rounded edges or a gap.")
+		list = append(list, "The field strength is unbounded where two prescribed potentials meet (a sharp electrode edge "+
+			"or corner); the ideal value there is not a design number. Real edges are rounded: the peak above is taken "+
+			"at a stated distance from those points.")
 	}
 	return list
 }

@@ -50,6 +50,7 @@ func JSON() []byte {
 			w.Key("example")
 			writeValue(&w, v)
 		}
+		p.Terms.write(&w)
 		w.Close('}')
 	}
 	return w.Close(']').Close('}').Bytes()
@@ -118,4 +119,23 @@ func (u *Units) Pairs() [][2]string {
 		{"coefficient", u.Coefficient}, {"coefficient_unit", u.CoefUnit},
 		{"length_unit", u.Length},
 	}
+}
+
+// write writes the answer terms as the key "terms": {"conductance", ..,
+// "dielectrics": [{"name", "strength", "rel_perm", "source"}, ..]}.
+func (t *Terms) write(w *jsonlite.Writer) {
+	w.Key("terms").Open('{')
+	for _, kv := range [][2]string{{"conductance", t.Conductance}, {"conductance_unit", t.ConductanceUnit},
+		{"resistance", t.Resistance}, {"resistance_unit", t.ResistanceUnit}, {"edge_flow", t.EdgeFlow},
+		{"per_length", t.PerLength}, {"per_length_unit", t.PerLengthUnit},
+		{"source_rate", t.SourceRate}, {"source_rate_unit", t.SourceRateUnit}} {
+		w.Key(kv[0]).Str(kv[1])
+	}
+	w.Key("vacuum_permittivity").Num(VacuumPermittivity)
+	w.Key("dielectrics").Open('[')
+	for _, d := range t.Dielectrics {
+		w.Open('{').Key("name").Str(d.Name).Key("strength").Num(d.Strength).Key("rel_perm").Num(d.RelPerm).
+			Key("source").Str(d.Source).Close('}')
+	}
+	w.Close(']').Close('}')
 }

@@ -40,7 +40,34 @@ type Physics struct {
 	// Cautions lists the physics-specific cautions of a solved field
 	// (without the Deferral, which Cautions adds); nil when there are none.
 	cautions func(p *Physics, f Field) []string
+	// Terms name the derived answers (answers.go in package solver).
+	Terms Terms
 }
+
+// Terms name the derived answers of a physics with their units.
+type Terms struct {
+	Conductance, ConductanceUnit string // flow per unit difference between two terminals
+	Resistance, ResistanceUnit   string // its inverse, when the trade quotes it
+	EdgeFlow                     string // the flow through a value part (charge on an electrode)
+	PerLength, PerLengthUnit     string // flow per unit length of edge
+	// SourceRate names the source as a rate the trade recognises, with
+	// its unit spelt out.
+	SourceRate, SourceRateUnit string
+	// Dielectrics are typical insulating materials offered for the
+	// breakdown check, each with its source.
+	Dielectrics []Dielectric
+}
+
+// Dielectric is an insulating material with its breakdown strength (V/m)
+// and relative permittivity, and where the values come from.
+type Dielectric struct {
+	Name              string
+	Strength, RelPerm float64
+	Source            string
+}
+
+// VacuumPermittivity is ε0 in F/m (CODATA 2018).
+const VacuumPermittivity = 8.8541878128e-12
 
 // Units names the quantities and units of one physics, for labels,
 // legends, CSV headers and cautions. Lengths are in metres throughout.
@@ -146,6 +173,12 @@ var table = []*Physics{
 		Usual: Usual{Conductivity: [2]float64{0.01, 2500}, H: [2]float64{0.5, 1e5},
 			Source: "insulating foams to diamond; still air to condensing steam (Incropera & DeWitt, Tables A.1, A.3 and 1.1)"},
 		cautions: heatCautions,
+		Terms: Terms{
+			Conductance: "thermal conductance", ConductanceUnit: "W/(m·K)",
+			Resistance: "thermal resistance", ResistanceUnit: "m·K/W",
+			EdgeFlow: "heat flow", PerLength: "heat flow per metre of edge", PerLengthUnit: "W/m²",
+			SourceRate: "heat generation", SourceRateUnit: "W/m³",
+		},
 	},
 	{
 		ID: Electrostatic, Name: "Electrostatics (potential)",
@@ -182,6 +215,17 @@ var table = []*Physics{
 		Usual: Usual{Conductivity: [2]float64{8.8e-12, 8.9e-8}, H: [2]float64{8.8e-12, 0.1},
 			Source: "from vacuum (εr = 1) to ferroelectric ceramics (εr ≈ 10⁴)"},
 		cautions: electrostaticCautions,
+		Terms: Terms{
+			Conductance: "capacitance", ConductanceUnit: "F/m",
+			EdgeFlow: "charge", PerLength: "mean surface charge density", PerLengthUnit: "C/m²",
+			SourceRate: "charge density", SourceRateUnit: "C/m³",
+			Dielectrics: []Dielectric{
+				// AMS Glossary of Meteorology, "dielectric strength" (read)
+				{Name: "dry air at sea level", Strength: AirBreakdown, RelPerm: 1, Source: "AMS Glossary of Meteorology"},
+				// laminate datasheets quote about 20 kV/mm and εr about 4.4 (common practice)
+				{Name: "FR-4 laminate", Strength: 20e6, RelPerm: 4.4, Source: "common practice; check the laminate's datasheet"},
+			},
+		},
 	},
 	{
 		ID: Seepage, Name: "Groundwater seepage (hydraulic head)",
@@ -213,6 +257,11 @@ var table = []*Physics{
 		Usual: Usual{Conductivity: [2]float64{1e-13, 1}, H: [2]float64{1e-14, 10},
 			Source: "unfractured rock to clean gravel (Freeze & Cherry, Groundwater, Table 2.2)"},
 		cautions: seepageCautions,
+		Terms: Terms{
+			Conductance: "discharge per metre of head difference", ConductanceUnit: "m²/s per m",
+			EdgeFlow: "discharge", PerLength: "mean Darcy flux across the edge", PerLengthUnit: "m/s",
+			SourceRate: "recharge rate", SourceRateUnit: "m³ of water per m³ of ground per second",
+		},
 	},
 	{
 		ID: Generic, Name: "Generic (lengths in m, no other units)",
@@ -232,6 +281,7 @@ var table = []*Physics{
 		},
 		Magnitude: "gradient magnitude |∇u|", Readout: "gradient |∇u|",
 		DefaultH: "1",
+		Terms:    Terms{Conductance: "conductance", EdgeFlow: "flow", PerLength: "flow per unit length of edge", SourceRate: "source"},
 	},
 }
 

@@ -86,6 +86,24 @@ func TestJSON(t *testing.T) {
 				Source       string    `json:"source"`
 			} `json:"usual"`
 			Example map[string]any `json:"example"`
+			Terms   struct {
+				Conductance        string  `json:"conductance"`
+				ConductanceUnit    string  `json:"conductance_unit"`
+				Resistance         string  `json:"resistance"`
+				ResistanceUnit     string  `json:"resistance_unit"`
+				EdgeFlow           string  `json:"edge_flow"`
+				PerLength          string  `json:"per_length"`
+				PerLengthUnit      string  `json:"per_length_unit"`
+				SourceRate         string  `json:"source_rate"`
+				SourceRateUnit     string  `json:"source_rate_unit"`
+				VacuumPermittivity float64 `json:"vacuum_permittivity"`
+				Dielectrics        []struct {
+					Name     string  `json:"name"`
+					Strength float64 `json:"strength"`
+					RelPerm  float64 `json:"rel_perm"`
+					Source   string  `json:"source"`
+				} `json:"dielectrics"`
+			} `json:"terms"`
 		} `json:"physics"`
 	}
 	dec := json.NewDecoder(strings.NewReader(string(JSON())))
@@ -116,6 +134,16 @@ func TestJSON(t *testing.T) {
 		}
 		if (got.Example != nil) != (p.Example() != nil) || got.Example != nil && got.Example["physics"] != p.ID {
 			t.Errorf("%s: example %v", p.ID, got.Example)
+		}
+		tm := got.Terms
+		if tm.Conductance != p.Terms.Conductance || tm.ConductanceUnit != p.Terms.ConductanceUnit || tm.SourceRateUnit != p.Terms.SourceRateUnit ||
+			tm.VacuumPermittivity != 8.8541878128e-12 || len(tm.Dielectrics) != len(p.Terms.Dielectrics) {
+			t.Errorf("%s: terms %+v", p.ID, tm)
+		}
+		for k, d := range tm.Dielectrics {
+			if want := p.Terms.Dielectrics[k]; d.Name != want.Name || d.Strength != want.Strength || d.Source == "" {
+				t.Errorf("%s: dielectric %+v, want %+v", p.ID, d, want)
+			}
 		}
 		if (got.Also != nil) != (p.Also.Unit != "") || got.Also != nil && (got.Also.Unit != p.Also.Unit || got.Also.Scale != p.Also.Scale) {
 			t.Errorf("%s: also %+v, want %+v", p.ID, got.Also, p.Also)

@@ -28,7 +28,8 @@ type Project struct {
 	Edges        Edges        `json:"edges"`
 	Probes       []Probe      `json:"probes"`
 	Grid         *GridSize    `json:"grid,omitempty"`
-	Sheet        *Sheet       `json:"sheet,omitempty"` // the calculation sheet's title block (sheet.go)
+	Answers      *Asked       `json:"answers,omitempty"` // inputs of the derived answers (answers.go)
+	Sheet        *Sheet       `json:"sheet,omitempty"`   // the calculation sheet's title block (sheet.go)
 	// Texts holds the number fields written as text (a formula of the
 	// parameters), keyed by their path ("width", "edges.top.h",
 	// "probes[0].x"); the number field holds its value.
@@ -220,7 +221,7 @@ func (d *decoder) integer(v any, path string, lo, hi int) int {
 
 func (d *decoder) project(v any) *Project {
 	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
-		"title", "source", "probes", "grid", "parameters", "study", "sheet")
+		"title", "source", "probes", "grid", "parameters", "study", "sheet", "answers")
 	if m == nil {
 		return nil
 	}
@@ -280,6 +281,9 @@ func (d *decoder) project(v any) *Project {
 	}
 	if sv, ok := m["sheet"]; ok {
 		p.Sheet = d.sheet(sv)
+	}
+	if a, ok := m["answers"]; ok {
+		p.Answers = d.asked(a)
 	}
 	d.inRange(p)
 	return p

@@ -59,5 +59,9 @@ func (p *Project) JSON() []byte {
 	if p.Sheet != nil {
 		p.Sheet.write(w.Key("sheet"))
 	}
+	if p.Answers != nil {
+		w.Key("answers")
+		p.Answers.write(&w)
+	}
 	return w.Close('}').Bytes()
 }

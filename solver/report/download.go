@@ -17,6 +17,8 @@ const (
 	FieldCSV  = "field-csv"
 	ProbesCSV = "probes-csv"
 	Picture   = "svg"
+	// ProfileCSV is the line profile PictureOptions.Profile asks for.
+	ProfileCSV = "profile-csv"
 )
 
 // Download is one file for the page to save.
@@ -30,6 +32,8 @@ type Download struct {
 type PictureOptions struct {
 	PixelW int // width of the field drawing; 0 means 640
 	Levels int // about this many isolines; 0 means 12, negative none
+	// Profile is the line of a ProfileCSV download.
+	Profile *ProfileLine
 }
 
 // Make builds one download of a solved project: FieldCSV, ProbesCSV or
@@ -77,8 +81,14 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 			return nil, err
 		}
 		d.Name, d.MIME = FileName(p.Title, "picture", "svg"), "image/svg+xml"
+	case ProfileCSV:
+		if opt.Profile == nil {
+			return nil, fmt.Errorf("report: a profile download needs the line (option profile)")
+		}
+		profileCSV(&b, p, out, *opt.Profile)
+		d.Name, d.MIME = FileName(p.Title, "profile", "csv"), "text/csv;charset=utf-8"
 	default:
-		return nil, fmt.Errorf("report: unknown download %q (use %s, %s or %s)", kind, FieldCSV, ProbesCSV, Picture)
+		return nil, fmt.Errorf("report: unknown download %q (use %s, %s, %s or %s)", kind, FieldCSV, ProbesCSV, Picture, ProfileCSV)
 	}
 	d.Data = b.Bytes()
 	return d, nil

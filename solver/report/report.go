@@ -30,6 +30,10 @@ type Report struct {
 	Flows    Table
 	Probes   Table
 	Accuracy Table
+	// Answers are the derived answers of the trade (answers.go); Profile
+	// is a line profile, when one was asked for (SetProfile).
+	Answers  []Table
+	Profile  *Table
 	Cautions []string
 	Warnings []string
 	Methods  []string
@@ -77,6 +81,24 @@ func (r *Report) JSON() []byte {
 		}
 		w.Close(']').Close('}')
 	}
+	table := func(t *Table) {
+		w.Open('{').Key("caption").Str(t.Caption).Key("head")
+		strs(t.Head)
+		w.Key("rows").Open('[')
+		for _, row := range t.Rows {
+			strs(row)
+		}
+		w.Close(']').Close('}')
+	}
+	w.Key("answers").Open('[')
+	for i := range r.Answers {
+		table(&r.Answers[i])
+	}
+	w.Close(']')
+	if r.Profile != nil {
+		w.Key("profile")
+		table(r.Profile)
+	}
 	w.Key("cautions")
 	strs(r.Cautions)
 	w.Key("warnings")
@@ -86,6 +108,12 @@ func (r *Report) JSON() []byte {
 	w.Key("csp").Str(csp.Report())
 	w.Close('}')
 	return w.Bytes()
+}
+
+// SetProfile adds the table of a line profile to the report.
+func (r *Report) SetProfile(p *project.Project, out *solver.Output, line ProfileLine) {
+	t := profileTable(p, out, line)
+	r.Profile = &t
 }
 
 // Build makes the report of a solved project. date is printed as given.
@@ -174,6 +202,7 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 		}
 		add(&rep.Accuracy, "finite-difference cross-check", "skipped: "+reason)
 	}
+	rep.Answers = answerTables(p, out)
 	return rep
 }
 

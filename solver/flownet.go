@@ -1,0 +1,226 @@
+package solver
+
+import (
+	"fmt"
+	"math"
+
+	"edgewise/solver/contour"
+	"edgewise/solver/problem"
+)
+
+// The flow net: flow lines drawn so that each channel between two
+// neighbouring lines carries the same flow, with equipotentials at the
+// matching step, so that the cells are curvilinear squares (in the mapped
+// coordinates y' = y sqrt(kx/ky) when the material is orthotropic).
+//
+// For a source-free field the flow function psi (the harmonic conjugate,
+// up to the factor k) has
+//
+//	dpsi/dy = qx,  dpsi/dx = -qy      (q = -K grad u, the flux)
+//
+// so that along the boundary, walked counter-clockwise, psi grows by the
+// flow leaving the region, and psi is constant along insulated parts.
+// Along the boundary psi follows the series' flux at the grid nodes and
+// its jump along each edge is the series' edge flow; inside, each column is integrated from
+// the bottom by the trapezoid rule on the grid's gradient and its small
+// mismatch with the top value spread linearly, which is exact enough for a
+// drawing.
+
+// MaxDrops is the most potential drops a drawn net may have.
+const MaxDrops = 200
+
+// DefaultChannels is the number of flow channels when the project does
+// not say.
+const DefaultChannels = 8
+
+// FlowNet describes the flow net of a solve; Reason says why there is
+// none ("" when there is one).
+type FlowNet struct {
+	Reason string
+	// Channels is the number of flow channels, Drops the number of
+	// potential drops that makes the cells square (not a whole number in
+	// general), Ratio = Channels/Drops = Flow/(k Difference).
+	Channels      int
+	Drops         float64
+	Ratio         float64
+	Flow          float64 // total flow through the net, per unit depth
+	Difference    float64 // the potential difference across it
+	FlowStep      float64 // flow per channel
+	PotentialStep float64 // potential per drop
+	Low           float64 // the potential the drops count from
+	// Traced is set when the lines were traced through the flux field
+	// (a source: no flow function, the net is not square); Note says so.
+	Traced bool
+	Note   string
+	psi    []float64
+	psiMin float64
+	traced []float64 // the traced lines' segments
+}
+
+// flowNet builds the flow function on the output grid and the net's
+// numbers.
+func flowNet(pr *problem.Problem, out *Output, a *Answers, channels int) FlowNet {
+	if channels <= 0 {
+		channels = DefaultChannels
+	}
+	r := &out.Result
+	var in, leaving float64
+	for _, e := range r.Edges {
+		if !e.Finite {
+			return FlowNet{Reason: "not drawn: a flow is infinite (two prescribed values meet), so equal channels cannot be counted"}
+		}
+		in += max(*e.Flow, 0)
+		leaving += max(-*e.Flow, 0)
+	}
+	if pr.Source != 0 {
+		if !(leaving > 0) {
+			return FlowNet{Reason: "not drawn: nothing leaves through the edges"}
+		}
+		n := FlowNet{Channels: channels, Traced: true, Note: tracedNote, Flow: leaving, FlowStep: leaving / float64(channels)}
+		n.traced = out.traceFlowLines(pr, channels, leaving)
+		return n
+	}
+	du := r.Max.Value - r.Min.Value
+	low := r.Min.Value
+	if c := a.Conductance; c != nil {
+		du, low = c.High.Value-c.Low.Value, c.Low.Value
+	}
+	if !(du > 0) {
+		return FlowNet{Reason: "not drawn: nothing flows"}
+	}
+	psi, psiMin, psiMax := flowFunction(pr, r, out)
+	// the flow through the net is the span of the flow function: the
+	// inflow when it enters through one stretch of the boundary, less when
+	// the same edge lets it in and out
+	in = psiMax - psiMin
+	k := math.Sqrt(pr.Kx * pr.Ky)
+	if !(in > 1e-9*k*du) {
+		return FlowNet{Reason: "not drawn: nothing flows"}
+	}
+	n := FlowNet{Channels: channels, Flow: in, Difference: du, Low: low, psi: psi, psiMin: psiMin}
+	n.Ratio = in / (k * du)
+	n.Drops = float64(channels) / n.Ratio
+	if n.Drops > MaxDrops {
+		return FlowNet{Reason: fmt.Sprintf("not drawn: %d channels would need %.3g drops; ask for fewer channels", channels, n.Drops)}
+	}
+	n.FlowStep = in / float64(channels)
+	n.PotentialStep = du / n.Drops
+	return n
+}
+
+// boundaryWalk returns the grid nodes of the boundary counter-clockwise
+// from (0, 0), with the edge each step runs along.
+func boundaryWalk(nx, ny int) (nodes []int, sides []problem.Side) {
+	add := func(i, j int, s problem.Side) {
+		nodes, sides = append(nodes, j*(nx+1)+i), append(sides, s)
+	}
+	for i := 1; i <= nx; i++ {
+		add(i, 0, problem.Bottom)
+	}
+	for j := 1; j <= ny; j++ {
+		add(nx, j, problem.Right)
+	}
+	for i := nx - 1; i >= 0; i-- {
+		add(i, ny, problem.Top)
+	}
+	for j := ny - 1; j >= 0; j-- {
+		add(0, j, problem.Left)
+	}
+	return nodes, sides
+}
+
+// flowFunction returns psi on the output grid, psi(0, 0) = 0, and its
+// smallest and largest boundary values. Along each edge psi is the trapezoid sum of the
+// flux leaving at the grid nodes (the series' own gradient there), with its
+// small difference from the series' edge flow spread linearly along the
+// edge, so that the jump of psi along every edge is the series' flow.
+func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, lo, hi float64) {
+	nx, ny := out.Nx, out.Ny
+	hx, hy := out.W/float64(nx), out.H/float64(ny)
+	psi = make([]float64, (nx+1)*(ny+1))
+	nodes, sides := boundaryWalk(nx, ny)
+	leaving := func(k int, side problem.Side) float64 {
+		q := -entering(pr, side, out.Ux[k], out.Uy[k])
+		if q-q != 0 { // a corner node with no gradient of its own: the edge's flow corrects the sum
+			return 0
+		}
+		return q
+	}
+	prev, v := 0, 0.0
+	for t := 0; t < len(nodes); {
+		side := sides[t]
+		// the run of steps along this side
+		end := t
+		for end < len(nodes) && sides[end] == side {
+			end++
+		}
+		h := hx
+		if side == problem.Left || side == problem.Right {
+			h = hy
+		}
+		start, acc := v, make([]float64, 0, end-t)
+		sum, q0 := 0.0, leaving(prev, side)
+		for u := t; u < end; u++ {
+			q1 := leaving(nodes[u], side)
+			sum += (q0 + q1) / 2 * h
+			acc = append(acc, sum)
+			q0 = q1
+		}
+		miss := -*r.Edges[side].Flow - sum
+		for u := t; u < end; u++ {
+			val := start + acc[u-t] + miss*float64(u-t+1)/float64(end-t)
+			if u < len(nodes)-1 { // the last node is (0, 0): psi stays 0 there (the closure is the balance)
+				psi[nodes[u]] = val
+				lo, hi = min(lo, val), max(hi, val)
+			}
+			v = val
+		}
+		prev, t = nodes[end-1], end
+	}
+	// inside: up each column from the bottom, matching the top
+	for i := 1; i < nx; i++ {
+		col := psi[i]
+		acc := make([]float64, ny+1)
+		acc[0] = col
+		for j := 1; j <= ny; j++ {
+			k0, k1 := (j-1)*(nx+1)+i, j*(nx+1)+i
+			acc[j] = acc[j-1] - pr.Kx*(out.Ux[k0]+out.Ux[k1])/2*hy
+		}
+		miss := psi[ny*(nx+1)+i] - acc[ny]
+		for j := 1; j < ny; j++ {
+			psi[j*(nx+1)+i] = acc[j] + miss*float64(j)/float64(ny)
+		}
+	}
+	return psi, lo, hi
+}
+
+// nodeS is the place along side of grid node k.
+func nodeS(side problem.Side, k, nx int, hx, hy float64) float64 {
+	i, j := k%(nx+1), k/(nx+1)
+	if side == problem.Bottom || side == problem.Top {
+		return float64(i) * hx
+	}
+	return float64(j) * hy
+}
+
+// FlowLines returns the flow net's flow lines and equipotentials as
+// segments x0,y0,x1,y1 (field coordinates); nil when there is no net.
+func (o *Output) FlowLines() (flow, equi []float64) {
+	n := o.Result.Answers
+	if n == nil || n.FlowNet.Reason != "" {
+		return nil, nil
+	}
+	net := &n.FlowNet
+	if net.Traced {
+		return net.traced, nil
+	}
+	// at most the asked channels' lines; fewer when the flow function
+	// spans less than the total inflow (several inflow parts)
+	for c := 1; c < net.Channels; c++ {
+		flow = contour.Lines(flow, net.psi, o.Nx, o.Ny, o.W, o.H, net.psiMin+float64(c)*net.FlowStep)
+	}
+	for d := 1; float64(d) < net.Drops; d++ {
+		equi = contour.Lines(equi, o.U, o.Nx, o.Ny, o.W, o.H, net.Low+float64(d)*net.PotentialStep)
+	}
+	return flow, equi
+}

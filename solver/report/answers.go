@@ -1,0 +1,157 @@
+package report
+
+import (
+	"bytes"
+	"strconv"
+	"strings"
+
+	"edgewise/solver"
+	"edgewise/solver/physics"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
+)
+
+// answerTables lays out the derived answers of a solve (solver.Answers)
+// as report tables, in the trade's own terms and units.
+func answerTables(p *project.Project, out *solver.Output) []Table {
+	r := &out.Result
+	a := r.Answers
+	if a == nil {
+		return nil
+	}
+	l := solver.Units(p.Physics)
+	tm := physics.Get(p.Physics).Terms
+	var list []Table
+	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
+
+	edges := Table{Caption: "Along each edge", Head: []string{"edge", with("mean "+l.Value, l.ValueUnit), with(tm.PerLength, tm.PerLengthUnit)}}
+	for _, side := range problem.Sides {
+		e := r.Edges[side]
+		pl := "infinite"
+		if e.PerLength != nil {
+			pl = num(*e.PerLength)
+		}
+		add(&edges, side.String(), num(e.Mean), pl)
+	}
+	list = append(list, edges)
+
+	c := Table{Caption: "Between two terminals", Head: []string{"", "value"}}
+	if k := a.Conductance; k != nil {
+		add(&c, "high terminal", num(k.High.Value)+unitNote(l.ValueUnit)+" on "+strings.Join(k.High.Parts, ", "))
+		add(&c, "low terminal", num(k.Low.Value)+unitNote(l.ValueUnit)+" on "+strings.Join(k.Low.Parts, ", "))
+		add(&c, with("flow between them", l.FlowUnit), num(k.Flow))
+		add(&c, with(tm.Conductance+" per metre of depth", tm.ConductanceUnit), num(k.PerDifference))
+		if tm.Resistance != "" {
+			add(&c, with(tm.Resistance+" per metre of depth", tm.ResistanceUnit), num(1/k.PerDifference))
+		}
+		add(&c, "shape factor Q/(k ΔU)", num(k.ShapeFactor))
+	} else {
+		add(&c, tm.Conductance, a.NoConductance)
+	}
+	list = append(list, c)
+
+	n := a.FlowNet
+	net := Table{Caption: "Flow net", Head: []string{"", "value"}}
+	switch {
+	case n.Reason != "":
+		add(&net, "flow net", n.Reason)
+	case n.Traced:
+		add(&net, "flow channels", strconv.Itoa(n.Channels))
+		add(&net, with("outflow per channel", l.FlowUnit), num(n.FlowStep))
+		add(&net, "flow net", n.Note)
+	default:
+		add(&net, "flow channels", strconv.Itoa(n.Channels))
+		add(&net, "potential drops (square cells)", num(n.Drops))
+		add(&net, "channels / drops = Q/(k ΔU)", num(n.Ratio))
+		add(&net, with("flow per channel", l.FlowUnit), num(n.FlowStep))
+		add(&net, with(l.Value+" per drop", l.ValueUnit), num(n.PotentialStep))
+	}
+	list = append(list, net)
+
+	switch {
+	case a.Heat != nil:
+		h := a.Heat
+		t := Table{Caption: "Heat lost to the fluid on convection edges", Head: []string{"part", "heat lost [W/m]", "Biot number h L/k", "L [m]", "reading"}}
+		for _, cv := range h.Convection {
+			add(&t, cv.Part, num(cv.Loss), num(cv.Biot), num(cv.L), cv.Reading)
+		}
+		s := Table{Caption: "Mean surface temperature under flux and convection parts", Head: []string{"part", "kind", with("mean temperature", l.ValueUnit)}}
+		for _, x := range h.Surfaces {
+			add(&s, x.Part, x.Kind, num(x.Mean))
+		}
+		list = append(list, t, s)
+	case a.Electrostatic != nil:
+		e := a.Electrostatic
+		t := Table{Caption: "Electrodes (value parts)", Head: []string{"part", with("potential", l.ValueUnit), "charge [C/m]", "surface charge density, least .. greatest [C/m²]"}}
+		for _, el := range e.Electrodes {
+			q := "infinite"
+			if el.Charge != nil {
+				q = num(*el.Charge)
+			}
+			lo, hi := el.Sigma[0], el.Sigma[0]
+			for _, v := range el.Sigma {
+				lo, hi = min(lo, v), max(hi, v)
+			}
+			add(&t, el.Part, num(el.Potential), q, num(lo)+" .. "+num(hi))
+		}
+		b := Table{Caption: "Peak field strength against breakdown", Head: []string{"", "value"}}
+		add(&b, "peak field strength [kV/mm]", num(e.Peak.G/1e6)+" at ("+num(e.Peak.X)+", "+num(e.Peak.Y)+") m")
+		if len(a.Singular) > 0 {
+			add(&b, "taken at least", num(a.Near)+" m from where two prescribed potentials meet (unbounded there in the ideal model)")
+		}
+		add(&b, "dielectric assumed", e.Dielectric+" ("+e.Source+")")
+		add(&b, "breakdown strength [kV/mm]", num(e.Breakdown/1e6))
+		add(&b, "peak / breakdown", num(e.Ratio))
+		list = append(list, t, b)
+	case a.Seepage != nil:
+		s := a.Seepage
+		t := Table{Caption: "Discharge and exit gradient", Head: []string{"", "value"}}
+		add(&t, "discharge per metre [m³/s]", num(s.Discharge))
+		add(&t, "discharge per metre [m³/day]", num(s.PerDay))
+		if s.PerHead != nil {
+			add(&t, with(tm.Conductance, tm.ConductanceUnit), num(*s.PerHead))
+		}
+		if s.Recharge != 0 {
+			add(&t, "recharge into the section per metre [m³/day]", num(s.Recharge*86400))
+		}
+		add(&t, "critical hydraulic gradient", num(s.Critical)+": "+s.Rule)
+		for _, x := range s.Exits {
+			add(&t, "exit gradient on "+x.Part, num(x.G)+" at ("+num(x.X)+", "+num(x.Y)+") m; factor of safety against heave "+num(x.FactorOfSafety))
+		}
+		list = append(list, t)
+	}
+	return list
+}
+
+// ProfileLine is a line profile asked for: from (X0, Y0) to (X1, Y1).
+type ProfileLine struct{ X0, Y0, X1, Y1 float64 }
+
+// profilePoints is the number of intervals of a profile in the CSV; the
+// report shows every tenth.
+const profilePoints = 100
+
+// profileTable is the report's table of a line profile.
+func profileTable(p *project.Project, out *solver.Output, line ProfileLine) Table {
+	l := solver.Units(p.Physics)
+	t := Table{Caption: "Line profile from (" + num(line.X0) + ", " + num(line.Y0) + ") to (" + num(line.X1) + ", " + num(line.Y1) + ") m",
+		Head: []string{with("distance", l.Length), with("x", l.Length), with("y", l.Length), with(l.Value, l.ValueUnit), with(l.Flux+" x", l.FluxUnit), with(l.Flux+" y", l.FluxUnit)}}
+	for i, q := range out.Profile(line.X0, line.Y0, line.X1, line.Y1, profilePoints) {
+		if i%10 == 0 {
+			t.Rows = append(t.Rows, []string{num(q.D), num(q.X), num(q.Y), num(q.Value), num(q.Qx), num(q.Qy)})
+		}
+	}
+	return t
+}
+
+// profileCSV writes a line profile as CSV: distance, x, y, value,
+// gradient and flux, with units in the header.
+func profileCSV(b *bytes.Buffer, p *project.Project, out *solver.Output, line ProfileLine) {
+	l := solver.Units(p.Physics)
+	head := []string{with("distance", l.Length), with("x", l.Length), with("y", l.Length), with(l.Value, l.ValueUnit),
+		with("grad_x", l.GradientUnit), with("grad_y", l.GradientUnit), with("flux_x", l.FluxUnit), with("flux_y", l.FluxUnit)}
+	b.WriteString(strings.Join(head, ",") + "\r\n")
+	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 10, 64) }
+	for _, q := range out.Profile(line.X0, line.Y0, line.X1, line.Y1, profilePoints) {
+		b.WriteString(strings.Join([]string{f(q.D), f(q.X), f(q.Y), f(q.Value), f(q.Gx), f(q.Gy), f(q.Qx), f(q.Qy)}, ",") + "\r\n")
+	}
+}

@@ -1,0 +1,241 @@
+package solver
+
+import (
+	"math"
+
+	"edgewise/solver/physics"
+	"edgewise/solver/problem"
+	"edgewise/solver/project"
+)
+
+// HeatAnswers are the answers of a heat problem.
+type HeatAnswers struct {
+	// ThermalConductance (W/(m·K)) and ThermalResistance (m·K/W) are per
+	// metre of depth, between the two terminals; nil when not defined.
+	ThermalConductance, ThermalResistance *float64
+	Convection                            []ConvectionEdge
+	// Surfaces are the mean temperatures under the flux and convection
+	// parts.
+	Surfaces []SurfaceMean
+}
+
+// ConvectionEdge is the heat lost to the fluid through one convection
+// part and its Biot number.
+type ConvectionEdge struct {
+	Part string
+	// Loss is the heat leaving to the fluid, W per metre of depth (the
+	// edge's inflow with the sign turned).
+	Loss float64
+	// Biot = h L / k with L the extent of the rectangle across the edge
+	// and k the conductivity across it.
+	Biot, L float64
+	Reading string
+}
+
+// SurfaceMean is the mean field value along a flux or convection part.
+type SurfaceMean struct {
+	Part string
+	Kind string
+	Mean float64
+}
+
+// Biot number thresholds (common practice): above BiotHigh the surface
+// sits close to the fluid's temperature, below BiotLow the surface film
+// resistance dominates and the edge passes little heat.
+const (
+	BiotHigh = 10.0
+	BiotLow  = 0.1
+)
+
+func biotReading(bi float64) string {
+	switch {
+	case bi > BiotHigh:
+		return "close to isothermal at the fluid temperature (Bi > 10, common practice)"
+	case bi < BiotLow:
+		return "close to insulated: the surface film limits the heat flow (Bi < 0.1, common practice)"
+	}
+	return "neither: conduction and the surface film both matter (0.1 ≤ Bi ≤ 10)"
+}
+
+func heatAnswers(pr *problem.Problem, r *Result, a *Answers) *HeatAnswers {
+	h := &HeatAnswers{}
+	if c := a.Conductance; c != nil {
+		g, res := c.PerDifference, 1/c.PerDifference
+		h.ThermalConductance, h.ThermalResistance = &g, &res
+	}
+	for _, side := range problem.Sides {
+		e := pr.Edges[side]
+		for _, q := range partsOf(pr, side) {
+			if e.Kind == problem.Value {
+				continue
+			}
+			h.Surfaces = append(h.Surfaces, SurfaceMean{Part: q.name(), Kind: e.Kind.String(), Mean: r.Edges[side].Mean})
+			if e.Kind != problem.Convection || e.Hc == 0 || !r.Edges[side].Finite {
+				continue
+			}
+			L, k := pr.H, pr.Ky
+			if side == problem.Left || side == problem.Right {
+				L, k = pr.W, pr.Kx
+			}
+			bi := e.Hc * L / k
+			h.Convection = append(h.Convection, ConvectionEdge{Part: q.name(), Loss: -*r.Edges[side].Flow, Biot: bi, L: L, Reading: biotReading(bi)})
+		}
+	}
+	return h
+}
+
+// Peak is the largest size of the gradient and where, away from the
+// points where it is unbounded.
+type Peak struct {
+	G, X, Y float64
+}
+
+// peakAway returns the largest size of the gradient over the output grid
+// nodes at least d from every singular point.
+func peakAway(out *Output, pts [][2]float64, d float64) Peak {
+	var p Peak
+	nx, ny := out.Nx, out.Ny
+	for j := 0; j <= ny; j++ {
+		for i := 0; i <= nx; i++ {
+			k := j*(nx+1) + i
+			x, y := float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny)
+			if g := math.Hypot(out.Ux[k], out.Uy[k]); g > p.G && farFrom(pts, x, y, d) {
+				p = Peak{G: g, X: x, Y: y}
+			}
+		}
+	}
+	return p
+}
+
+// ElectroAnswers are the answers of an electrostatic problem.
+type ElectroAnswers struct {
+	Capacitance *float64 // F per metre of depth between the terminals
+	Electrodes  []Electrode
+	Peak        Peak
+	// Dielectric is the insulating material the breakdown check assumes,
+	// Breakdown its breakdown strength (V/m) and Source where that value
+	// comes from; Ratio = Peak.G / Breakdown.
+	Dielectric, Source string
+	Breakdown, Ratio   float64
+}
+
+// Electrode is a value part: its potential, the charge on it per metre
+// of depth (nil when infinite) and the surface charge density along it.
+type Electrode struct {
+	Part      string
+	Potential float64
+	Charge    *float64
+	S, Sigma  []float64 // C/m² at places s along the edge
+}
+
+// profilePoints is the number of places of a surface charge profile.
+const profilePoints = 41
+
+func electroAnswers(pr *problem.Problem, f field, out *Output, a *Answers, asked project.Asked) *ElectroAnswers {
+	r := &out.Result
+	e := &ElectroAnswers{Capacitance: nil}
+	if c := a.Conductance; c != nil {
+		v := c.PerDifference
+		e.Capacitance = &v
+	}
+	for _, side := range problem.Sides {
+		if pr.Edges[side].Kind != problem.Value {
+			continue
+		}
+		for _, q := range partsOf(pr, side) {
+			el := Electrode{Part: q.name(), Potential: partMean(pr, f, q), Charge: r.Edges[side].Flow}
+			for i := 0; i < profilePoints; i++ {
+				s := q.from + (q.to-q.from)*(float64(i)+0.5)/profilePoints
+				x, y := pr.Point(side, s)
+				_, ux, uy := f.At(x, y)
+				el.S, el.Sigma = append(el.S, s), append(el.Sigma, entering(pr, side, ux, uy))
+			}
+			e.Electrodes = append(e.Electrodes, el)
+		}
+	}
+	e.Peak = peakAway(out, a.Singular, a.Near)
+	e.Dielectric, e.Breakdown, e.Source = "dry air at sea level", physics.AirBreakdown, "AMS Glossary of Meteorology"
+	if asked.BreakdownStrength > 0 {
+		e.Dielectric, e.Breakdown, e.Source = asked.Dielectric, asked.BreakdownStrength, "given by the user"
+		if e.Dielectric == "" {
+			e.Dielectric = "the dielectric given"
+		}
+	}
+	e.Ratio = e.Peak.G / e.Breakdown
+	return e
+}
+
+// SeepageAnswers are the answers of a seepage problem.
+type SeepageAnswers struct {
+	// Discharge is the total inflow, m³/s per metre of depth; PerDay the
+	// same in m³/day.
+	Discharge, PerDay float64
+	// PerHead is the discharge per metre of head difference between the
+	// terminals (m²/s per m); nil when not defined.
+	PerHead *float64
+	Exits   []ExitGradient
+	// Critical is the critical hydraulic gradient and Rule how it was
+	// found.
+	Critical float64
+	Rule     string
+	// Recharge is the source over the whole section, m³/s per metre of
+	// depth (0 for none).
+	Recharge float64
+}
+
+// ExitGradient is the largest hydraulic gradient where water leaves
+// through a value part, away from singular points, and the factor of
+// safety against heave there (Critical / G).
+type ExitGradient struct {
+	Part           string
+	G, X, Y        float64
+	FactorOfSafety float64
+}
+
+// WaterUnitWeight is the unit weight of water in kN/m³ when the user does
+// not give one.
+const WaterUnitWeight = 9.81
+
+func seepageAnswers(pr *problem.Problem, out *Output, a *Answers, asked project.Asked) *SeepageAnswers {
+	r := &out.Result
+	s := &SeepageAnswers{Recharge: r.SourceTotal}
+	for _, e := range r.Edges {
+		if e.Finite {
+			s.Discharge += max(*e.Flow, 0)
+		}
+	}
+	s.Discharge += max(r.SourceTotal, 0)
+	s.PerDay = s.Discharge * 86400
+	if c := a.Conductance; c != nil {
+		v := c.PerDifference
+		s.PerHead = &v
+	}
+	gw := asked.WaterUnitWeight
+	if gw == 0 {
+		gw = WaterUnitWeight
+	}
+	switch {
+	case asked.SaturatedUnitWeight > 0:
+		s.Critical = (asked.SaturatedUnitWeight - gw) / gw
+		s.Rule = "(γsat − γw)/γw from the unit weights given"
+	case asked.SpecificGravity > 0 && asked.VoidRatio > 0:
+		s.Critical = (asked.SpecificGravity - 1) / (1 + asked.VoidRatio)
+		s.Rule = "(Gs − 1)/(1 + e) from the soil data given"
+	default:
+		s.Critical = physics.CriticalGradient
+		s.Rule = "about 1 for common soils (common practice)"
+	}
+	for _, side := range problem.Sides {
+		if pr.Edges[side].Kind != problem.Value {
+			continue
+		}
+		for _, q := range partsOf(pr, side) {
+			g, x, y, found := exitGradientAway(pr, out, side, a.Singular, a.Near)
+			if !found {
+				continue
+			}
+			s.Exits = append(s.Exits, ExitGradient{Part: q.name(), G: g, X: x, Y: y, FactorOfSafety: s.Critical / g})
+		}
+	}
+	return s
+}
