@@ -45,7 +45,7 @@
       };
       tr.append(el("th", { scope: "row" }, el("span", { text: c.title }), el("br"), el("code", { text: c.id })),
         cells.computed, cells.expected, cells.diff, cells.tol, cells.result,
-        el("td", { class: "ew-source", text: c.source + " [" + c.basis + "]" }));
+        el("td", { class: "ew-source", text: c.source + " [" + c.kind + "; " + c.basis + "]" }));
       tbody.append(tr);
       summary.textContent = "Running case " + (outcomes.length + 1) + " of " + cases.length + "…";
       await new Promise((go) => setTimeout(go, 0)); // let the page draw and take input between cases
@@ -66,7 +66,13 @@
       if (o.pass) passed++; else failed++;
       bar.value = outcomes.length;
     }
-    summary.textContent = passed + " of " + cases.length + " published checks passed" + (failed ? "; " + failed + " did not." : ".");
+    // how many of each kind ran: identities, closed forms, table values
+    // (and how many of those were recalled from memory)
+    const kinds = {};
+    for (const c of cases) kinds[c.kind] = (kinds[c.kind] || 0) + 1;
+    const fromMemory = cases.filter((c) => c.basis === "memory").length;
+    const kindText = Object.keys(kinds).map((k) => kinds[k] + " " + k).join(", ") + "; " + fromMemory + " of them from memory";
+    summary.textContent = passed + " of " + cases.length + " published checks passed" + (failed ? "; " + failed + " did not" : "") + " (" + kindText + ").";
     let version = "";
     try { version = (await call("version")).version; } catch (e) { version = "unknown"; }
     let digest = null;
@@ -85,6 +91,8 @@
       total: cases.length,
       passed,
       failed,
+      kinds, // how many cases of each kind: identity, closed form, table
+      from_memory: fromMemory,
       outcomes,
     };
     const dl = el("button", { type: "button", id: "ew-checks-download", text: "Download the verification record (JSON)", onclick: () => act(downloadRecord) });

@@ -37,7 +37,7 @@ func checksText(text string) (map[string]any, error) {
 	var w jsonlite.Writer
 	w.Open('[')
 	for _, c := range f.Cases {
-		w.Open('{').Key("id").Str(c.ID).Key("title").Str(c.Title).Key("source").Str(c.Source).Key("basis").Str(c.Basis).Close('}')
+		w.Open('{').Key("id").Str(c.ID).Key("title").Str(c.Title).Key("source").Str(c.Source).Key("basis").Str(c.Basis).Key("kind").Str(c.Kind).Close('}')
 	}
 	w.Close(']')
 	return map[string]any{"ok": true, "cases": string(w.Bytes())}, nil

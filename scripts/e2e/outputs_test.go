@@ -667,7 +667,7 @@ func TestChecksPanel(t *testing.T) {
 		}
 		var file struct {
 			Cases []struct {
-				ID, Source string
+				ID, Source, Kind string
 			}
 		}
 		if err := json.Unmarshal(data, &file); err != nil {
@@ -707,7 +707,8 @@ func TestChecksPanel(t *testing.T) {
 			Total, Passed int
 			Failed        int
 			Outcomes      []map[string]any
-			ChecksFileSHA *string `json:"checks_file_sha256"`
+			ChecksFileSHA *string        `json:"checks_file_sha256"`
+			Kinds         map[string]int `json:"kinds"`
 		}
 		if err := json.Unmarshal(rec, &record); err != nil {
 			t.Fatalf("%s: %v", name, err)
@@ -716,6 +717,14 @@ func TestChecksPanel(t *testing.T) {
 			record.Passed+record.Failed != record.Total || record.Failed > len(knownEngineIssues) || len(record.Outcomes) != record.Total {
 			t.Errorf("record %s: schema %q version %q total %d passed %d failed %d outcomes %d",
 				name, record.Schema, record.Version, record.Total, record.Passed, record.Failed, len(record.Outcomes))
+		}
+		// the record says how many of each kind ran (identity, closed form, table)
+		kinds := map[string]int{}
+		for _, c := range file.Cases {
+			kinds[c.Kind]++
+		}
+		if len(kinds) != 3 || !reflect.DeepEqual(kinds, record.Kinds) {
+			t.Errorf("record kinds %v, the file has %v", record.Kinds, kinds)
 		}
 		for i, o := range record.Outcomes {
 			if o["id"] != rows[i]["id"] || o["source"] == "" || o["computed"] == nil || o["expected"] == nil ||
