@@ -23,9 +23,14 @@
 //
 // Report paths name numbers of the result (Lookup, Paths): max.value,
 // max.x, max.y, min.*, mean, balance, source_total, accuracy.terms,
-// accuracy.estimate, accuracy.crosscheck, edges.<side>.flow,
+// accuracy.estimate, accuracy.crosscheck, edges.<side>.flow|mean|per_length,
 // probes.<label>.value, probes.<label>.gradient.x|y,
-// probes.<label>.flux.x|y. A new output is one line in the outputs table.
+// probes.<label>.flux.x|y, conductance.flow|per_difference|shape_factor,
+// answers.flow_net.ratio, answers.heat.thermal_conductance|thermal_resistance,
+// answers.electrostatic.capacitance|peak.value and
+// answers.seepage.discharge|per_day|per_head (a result without such an
+// answer gives an empty field). A new output is one line in the outputs
+// table.
 //
 // Each row is the project with the varied parameters set (Project.With),
 // solved as a single solve would solve it, so a row's numbers are the

@@ -35,6 +35,34 @@ var outputs = []struct {
 	{"accuracy.estimate", func(r *solver.Result, _ int) (float64, bool) { return r.Accuracy.Estimate, true }},
 	{"accuracy.crosscheck", func(r *solver.Result, _ int) (float64, bool) { return deref(r.Accuracy.Crosscheck) }},
 	{"edges.<side>.flow", func(r *solver.Result, i int) (float64, bool) { return deref(r.Edges[i].Flow) }},
+	{"edges.<side>.mean", func(r *solver.Result, i int) (float64, bool) { return r.Edges[i].Mean, true }},
+	{"edges.<side>.per_length", func(r *solver.Result, i int) (float64, bool) { return deref(r.Edges[i].PerLength) }},
+	{"conductance.flow", conductance(func(c *solver.Conductance) float64 { return c.Flow })},
+	{"conductance.per_difference", conductance(func(c *solver.Conductance) float64 { return c.PerDifference })},
+	{"conductance.shape_factor", conductance(func(c *solver.Conductance) float64 { return c.ShapeFactor })},
+	{"answers.flow_net.ratio", func(r *solver.Result, _ int) (float64, bool) {
+		if r.Answers == nil || r.Answers.FlowNet.Reason != "" || r.Answers.FlowNet.Traced {
+			return 0, false
+		}
+		return r.Answers.FlowNet.Ratio, true
+	}},
+	{"answers.heat.thermal_conductance", heat(func(h *solver.HeatAnswers) *float64 { return h.ThermalConductance })},
+	{"answers.heat.thermal_resistance", heat(func(h *solver.HeatAnswers) *float64 { return h.ThermalResistance })},
+	{"answers.electrostatic.capacitance", func(r *solver.Result, _ int) (float64, bool) {
+		if r.Answers == nil || r.Answers.Electrostatic == nil {
+			return 0, false
+		}
+		return deref(r.Answers.Electrostatic.Capacitance)
+	}},
+	{"answers.electrostatic.peak.value", func(r *solver.Result, _ int) (float64, bool) {
+		if r.Answers == nil || r.Answers.Electrostatic == nil {
+			return 0, false
+		}
+		return r.Answers.Electrostatic.Peak.G, true
+	}},
+	{"answers.seepage.discharge", seepage(func(s *solver.SeepageAnswers) (float64, bool) { return s.Discharge, true })},
+	{"answers.seepage.per_day", seepage(func(s *solver.SeepageAnswers) (float64, bool) { return s.PerDay, true })},
+	{"answers.seepage.per_head", seepage(func(s *solver.SeepageAnswers) (float64, bool) { return deref(s.PerHead) })},
 	{"probes.<label>.value", func(r *solver.Result, i int) (float64, bool) { return r.Probes[i].Value, true }},
 	{"probes.<label>.gradient.x", func(r *solver.Result, i int) (float64, bool) { return r.Probes[i].Gradient[0], true }},
 	{"probes.<label>.gradient.y", func(r *solver.Result, i int) (float64, bool) { return r.Probes[i].Gradient[1], true }},
@@ -46,6 +74,36 @@ var outputs = []struct {
 // cross-check; a study that reports none of them skips it (it changes no
 // other number).
 var crossCheckPaths = []string{"accuracy.crosscheck"}
+
+// conductance, heat and seepage read a number of the result's derived
+// answers; a result without them (no two terminals, another physics) has
+// no number there.
+func conductance(get func(*solver.Conductance) float64) func(*solver.Result, int) (float64, bool) {
+	return func(r *solver.Result, _ int) (float64, bool) {
+		if r.Answers == nil || r.Answers.Conductance == nil {
+			return 0, false
+		}
+		return get(r.Answers.Conductance), true
+	}
+}
+
+func heat(get func(*solver.HeatAnswers) *float64) func(*solver.Result, int) (float64, bool) {
+	return func(r *solver.Result, _ int) (float64, bool) {
+		if r.Answers == nil || r.Answers.Heat == nil {
+			return 0, false
+		}
+		return deref(get(r.Answers.Heat))
+	}
+}
+
+func seepage(get func(*solver.SeepageAnswers) (float64, bool)) func(*solver.Result, int) (float64, bool) {
+	return func(r *solver.Result, _ int) (float64, bool) {
+		if r.Answers == nil || r.Answers.Seepage == nil {
+			return 0, false
+		}
+		return get(r.Answers.Seepage)
+	}
+}
 
 func deref(v *float64) (float64, bool) {
 	if v == nil {

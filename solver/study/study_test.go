@@ -334,8 +334,8 @@ func TestDecodeErrors(t *testing.T) {
 			`report[0]: unknown output "probes.T2.value": "T2" is not a probe label (the project has T1)`},
 		{"unknown edge", head + `"vary": [{"name": "h_top", "values": [1]}], "report": ["edges.north.flow"]}`,
 			`report[0]: unknown output "edges.north.flow": "north" is not an edge (bottom, right, top or left)`},
-		{"later output", head + `"vary": [{"name": "h_top", "values": [1]}], "report": ["conductance.per_difference"]}`,
-			`report[0]: unknown output "conductance.per_difference" (use one of ...`},
+		{"later output", head + `"vary": [{"name": "h_top", "values": [1]}], "report": ["answers.uplift.force"]}`,
+			`report[0]: unknown output "answers.uplift.force" (use one of ...`},
 		{"unknown key", head + `"vary": [{"name": "h_top", "values": [1]}], "report": ["mean"], "repeat": 2}`,
 			"repeat: unknown key (allowed here: schema, vary, report, seek)"},
 		{"unknown axis key", head + `"vary": [{"name": "h_top", "from": 1, "to": 2, "steps": 3, "step": 1}], "report": ["mean"]}`,
@@ -432,5 +432,39 @@ func TestUnconvergedRowFails(t *testing.T) {
 	_, seek := decodeBoth(t, proj, []byte(`{"schema":"edgewise-study/1","seek":{"name":"h_top","from":10,"to":1e9,"target":{"max.value":85}},"report":[]}`))
 	if _, err := seek.Find(p, &sv, solver.Options{}, nil); err == nil || !strings.Contains(err.Error(), "not converged") {
 		t.Errorf("seek through an unconverged end: %v, want not converged", err)
+	}
+}
+
+// The derived answers are report paths too. A slab between two values
+// with insulated sides has the conductance k H / W exactly (exact
+// identity, one-dimensional conduction), so a sweep of k gives it at each
+// row; the thermal resistance is its inverse, the hot edge's mean its
+// value, and a path the result does not have (a seepage answer of a heat
+// project) is an empty field.
+func TestAnswerPaths(t *testing.T) {
+	proj := []byte(`{"schema":"edgewise/1","physics":"heat","width":2,"height":0.5,"conductivity":"k","source":0,
+	 "parameters":{"k":4},
+	 "edges":{"bottom":{"kind":"flux","expr":"0"},"top":{"kind":"flux","expr":"0"},"left":{"kind":"value","expr":"80"},"right":{"kind":"value","expr":"20"}}}`)
+	p, s := decodeBoth(t, proj, []byte(`{"schema":"edgewise-study/1","vary":[{"name":"k","values":[1, 4, 15]}],
+	 "report":["conductance.per_difference","answers.heat.thermal_resistance","edges.left.mean","answers.seepage.discharge"]}`))
+	var sv solver.Solver
+	for i, k := range []float64{1, 4, 15} {
+		r := s.Run(p, i, &sv, solver.Options{})
+		if r.Err != nil {
+			t.Fatal(r.Err)
+		}
+		want := k * 0.5 / 2
+		if got := r.Outputs[0]; math.Abs(got-want) > 1e-9*want {
+			t.Errorf("k = %g: conductance %v, want %v", k, got, want)
+		}
+		if got := r.Outputs[1]; math.Abs(got*want-1) > 1e-9 {
+			t.Errorf("k = %g: resistance %v, want %v", k, got, 1/want)
+		}
+		if got := r.Outputs[2]; math.Abs(got-80) > 1e-9 {
+			t.Errorf("k = %g: mean of the hot edge %v, want 80", k, got)
+		}
+		if got := r.Outputs[3]; !math.IsNaN(got) {
+			t.Errorf("k = %g: a seepage answer of a heat project %v, want none", k, got)
+		}
 	}
 }
