@@ -79,7 +79,7 @@ test-wasm:
 
 ## test-browser: the page in headless chromium (installed from Debian when missing and root)
 test-browser: build dist chromium
-	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -v -timeout 20m ./scripts/e2e/ 2>&1 | tee /tmp/edgewise-e2e.log | grep -E '^(=== RUN|--- |PASS|FAIL|ok|panic)|_test.go' ; \
+	EDGEWISE_E2E=require EDGEWISE_CHROMIUM=$(CHROMIUM) $(GO) test -count=1 -v -timeout 45m ./scripts/e2e/ 2>&1 | tee /tmp/edgewise-e2e.log | grep -E '^(=== RUN|--- |PASS|FAIL|ok|panic)|_test.go' ; \
 	  exit $${PIPESTATUS[0]}
 
 chromium:
