@@ -20,6 +20,7 @@ package jsonlite
 import (
 	"fmt"
 	"math"
+	"sort"
 	"strconv"
 	"unicode/utf16"
 	"unicode/utf8"
@@ -451,4 +452,51 @@ func appendString(b []byte, s string) []byte {
 		i += size
 	}
 	return append(b, '"')
+}
+
+// Value writes a tree that Parse returned (objects, arrays, strings,
+// Numbers, booleans and nil), object keys in sorted order, so that the
+// same tree always gives the same text. It returns an error for a Number
+// that float64 cannot hold (it would not read back the same) and for a
+// value Parse never returns.
+func (w *Writer) Value(v any) error {
+	switch x := v.(type) {
+	case nil:
+		w.Null()
+	case bool:
+		w.Bool(x)
+	case string:
+		w.Str(x)
+	case Number:
+		f, err := x.Float64()
+		if err != nil {
+			return fmt.Errorf("number %s: %v", x, err)
+		}
+		w.Num(f)
+	case []any:
+		w.Open('[')
+		for _, e := range x {
+			if err := w.Value(e); err != nil {
+				return err
+			}
+		}
+		w.Close(']')
+	case map[string]any:
+		keys := make([]string, 0, len(x))
+		for k := range x {
+			keys = append(keys, k)
+		}
+		sort.Strings(keys)
+		w.Open('{')
+		for _, k := range keys {
+			w.Key(k)
+			if err := w.Value(x[k]); err != nil {
+				return err
+			}
+		}
+		w.Close('}')
+	default:
+		return fmt.Errorf("jsonlite: a value of type %T is not a JSON value", v)
+	}
+	return nil
 }

@@ -169,3 +169,33 @@ func FuzzParse(f *testing.F) {
 }
 
 func utf8Valid(b []byte) bool { return strings.ToValidUTF8(string(b), "\ufffd") == string(b) }
+
+// Value writes a parsed tree back with object keys sorted, so that two
+// orders of the same object give one text, and the text parses to the same
+// tree; a number float64 cannot hold is an error, not a changed number.
+func TestWriterValue(t *testing.T) {
+	for _, pair := range [][2]string{
+		{`{"b": [1, 2.5e-3, "x", true, null], "a": {"d": {}, "c": []}}`, `{"a":{"c":[],"d":{}},"b":[1,0.0025,"x",true,null]}`},
+		{`{"a": {"c": [], "d": {}}, "b": [1, 0.0025, "x", true, null]}`, `{"a":{"c":[],"d":{}},"b":[1,0.0025,"x",true,null]}`},
+	} {
+		v, err := Parse([]byte(pair[0]))
+		if err != nil {
+			t.Fatal(err)
+		}
+		var w Writer
+		if err := w.Value(v); err != nil {
+			t.Fatal(err)
+		}
+		if got := string(w.Bytes()); got != pair[1] {
+			t.Errorf("%s\nwrote %s\nwant  %s", pair[0], got, pair[1])
+		}
+	}
+	v, err := Parse([]byte(`[1e999]`))
+	if err != nil {
+		t.Skip("the parser refuses 1e999 itself")
+	}
+	var w Writer
+	if err := w.Value(v); err == nil {
+		t.Errorf("a number beyond float64 was written: %s", w.Bytes())
+	}
+}

@@ -1,9 +1,6 @@
 package physics
 
 import (
-	"fmt"
-	"sort"
-
 	"edgewise/solver/jsonlite"
 )
 
@@ -47,52 +44,14 @@ func JSON() []byte {
 			if err != nil {
 				panic("physics: example of " + p.ID + ": " + err.Error())
 			}
-			w.Key("example")
-			writeValue(&w, v)
+			if w.Key("example"); w.Value(v) != nil {
+				panic("physics: example of " + p.ID + " holds a number JSON cannot keep")
+			}
 		}
 		p.Terms.write(&w)
 		w.Close('}')
 	}
 	return w.Close(']').Close('}').Bytes()
-}
-
-// writeValue writes a value jsonlite.Parse returned; object keys in
-// sorted order.
-func writeValue(w *jsonlite.Writer, v any) {
-	switch x := v.(type) {
-	case map[string]any:
-		keys := make([]string, 0, len(x))
-		for k := range x {
-			keys = append(keys, k)
-		}
-		sort.Strings(keys)
-		w.Open('{')
-		for _, k := range keys {
-			w.Key(k)
-			writeValue(w, x[k])
-		}
-		w.Close('}')
-	case []any:
-		w.Open('[')
-		for _, e := range x {
-			writeValue(w, e)
-		}
-		w.Close(']')
-	case string:
-		w.Str(x)
-	case jsonlite.Number:
-		f, err := x.Float64()
-		if err != nil {
-			panic("physics: example number " + string(x))
-		}
-		w.Num(f)
-	case bool:
-		w.Bool(x)
-	case nil:
-		w.Null()
-	default:
-		panic(fmt.Sprintf("physics: example value of type %T", v))
-	}
 }
 
 // write writes the unit set as a JSON object with the keys physics, value,

@@ -1,8 +1,6 @@
 package project
 
 import (
-	"sort"
-
 	"edgewise/solver/jsonlite"
 )
 
@@ -21,54 +19,11 @@ func (d *decoder) studyText(v any) string {
 		return ""
 	}
 	var w jsonlite.Writer
-	if !writeValue(&w, v) {
+	if w.Value(v) != nil {
 		d.fail("study", "holds a number JSON cannot keep exactly")
 		return ""
 	}
 	return string(w.Bytes())
-}
-
-// writeValue writes a value of jsonlite.Parse back as JSON.
-func writeValue(w *jsonlite.Writer, v any) bool {
-	switch x := v.(type) {
-	case map[string]any:
-		keys := make([]string, 0, len(x))
-		for k := range x {
-			keys = append(keys, k)
-		}
-		sort.Strings(keys)
-		w.Open('{')
-		for _, k := range keys {
-			w.Key(k)
-			if !writeValue(w, x[k]) {
-				return false
-			}
-		}
-		w.Close('}')
-	case []any:
-		w.Open('[')
-		for _, e := range x {
-			if !writeValue(w, e) {
-				return false
-			}
-		}
-		w.Close(']')
-	case jsonlite.Number:
-		f, err := x.Float64()
-		if err != nil {
-			return false
-		}
-		w.Num(f)
-	case string:
-		w.Str(x)
-	case bool:
-		w.Bool(x)
-	case nil:
-		w.Null()
-	default:
-		return false
-	}
-	return true
 }
 
 // writeStudy writes the "study" key when the project has a study.
@@ -81,5 +36,7 @@ func (p *Project) writeStudy(w *jsonlite.Writer) {
 		panic("project: study text is not JSON: " + err.Error())
 	}
 	w.Key("study")
-	writeValue(w, v)
+	if err := w.Value(v); err != nil {
+		panic("project: study text: " + err.Error())
+	}
 }

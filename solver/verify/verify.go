@@ -3,7 +3,6 @@ package verify
 import (
 	"fmt"
 	"math"
-	"sort"
 	"strings"
 
 	"edgewise/solver"
@@ -207,53 +206,10 @@ func projectText(v any, where string) ([]byte, error) {
 		return nil, fmt.Errorf("%s: expected an object, got %s", where, describe(v))
 	}
 	var w jsonlite.Writer
-	if err := write(&w, v); err != nil {
+	if err := w.Value(v); err != nil {
 		return nil, fmt.Errorf("%s: %v", where, err)
 	}
 	return w.Bytes(), nil
-}
-
-// write writes a jsonlite tree, object keys in sorted order.
-func write(w *jsonlite.Writer, v any) error {
-	switch x := v.(type) {
-	case nil:
-		w.Null()
-	case bool:
-		w.Bool(x)
-	case string:
-		w.Str(x)
-	case jsonlite.Number:
-		f, err := x.Float64()
-		if err != nil {
-			return fmt.Errorf("number %s: %v", x, err)
-		}
-		w.Num(f)
-	case []any:
-		w.Open('[')
-		for _, e := range x {
-			if err := write(w, e); err != nil {
-				return err
-			}
-		}
-		w.Close(']')
-	case map[string]any:
-		keys := make([]string, 0, len(x))
-		for k := range x {
-			keys = append(keys, k)
-		}
-		sort.Strings(keys)
-		w.Open('{')
-		for _, k := range keys {
-			w.Key(k)
-			if err := write(w, x[k]); err != nil {
-				return err
-			}
-		}
-		w.Close('}')
-	default:
-		return fmt.Errorf("unexpected value %v", v)
-	}
-	return nil
 }
 
 func quantity(v any, where string) (Quantity, error) {
