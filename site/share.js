@@ -165,7 +165,7 @@
       } catch (e) {
         throw new Error("the hosted copy's address is not a web address: " + JSON.stringify(t.slice(0, 80)));
       }
-      if (u.protocol !== "https:" && u.protocol !== "http:") throw new Error("the hosted copy's address must start with https:// or http://");
+      if (u.protocol !== "https:" && u.protocol !== "http:") throw new Error("the hosted copy's address must be an https or http address");
       v = u.href.split(/[?#]/)[0];
     }
     try {
@@ -291,7 +291,7 @@
     if (document.activeElement !== hostedBox) hostedBox.value = hosted();
   }
 
-  const hostedBox = el("input", { id: "ew-hosted", type: "url", spellcheck: "false", placeholder: "https://wiki.example.org/tools/edgewise/", "aria-label": "Address of the hosted copy" });
+  const hostedBox = el("input", { id: "ew-hosted", type: "url", spellcheck: "false", placeholder: "the hosted copy's address (https or http)", "aria-label": "Address of the hosted copy" });
   const hostedNote = el("p", { id: "ew-hosted-note", class: "ew-hint", hidden: true }, el("span"), hostedBox, " ",
     el("button", {
       type: "button", id: "ew-hosted-save", text: "Use for links",
