@@ -148,4 +148,4 @@ fuzz: FUZZTIME = 2m
 endif
 
 clean:
-	rm -rf dist site/app.wasm site/wasm_exec.js site/checks.json
+	rm -rf dist site/app.wasm site/wasm_exec.js site/checks.json site/physics.json
