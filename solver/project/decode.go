@@ -3,7 +3,6 @@ package project
 import (
 	"fmt"
 	"math"
-	"sort"
 	"strings"
 
 	"edgewise/solver/expr"
@@ -127,28 +126,9 @@ func (d *decoder) fail(path, format string, args ...any) {
 }
 
 func (d *decoder) object(v any, path string, required []string, optional ...string) map[string]any {
-	m, ok := v.(map[string]any)
-	if !ok {
-		d.fail(path, "expected an object {...}, got %s", describe(v))
-		return nil
-	}
-	allowed := append(append([]string{}, required...), optional...)
-	var unknown []string
-	for k := range m {
-		if !contains(allowed, k) {
-			unknown = append(unknown, k)
-		}
-	}
-	if len(unknown) > 0 {
-		sort.Strings(unknown)
-		d.fail(join(path, unknown[0]), "unknown key (allowed here: %s)", strings.Join(allowed, ", "))
-		return nil
-	}
-	for _, k := range required {
-		if _, ok := m[k]; !ok {
-			d.fail(join(path, k), "missing")
-			return nil
-		}
+	m, err := Object(v, path, required, optional...)
+	if err != nil && d.err == nil {
+		d.err = err
 	}
 	return m
 }
@@ -169,7 +149,7 @@ func (d *decoder) number(v any, path string) float64 {
 			d.fail(path, "expected a number, got the text %q", t)
 		}
 	default:
-		d.fail(path, "expected a number, got %s", describe(v))
+		d.fail(path, "expected a number, got %s", Describe(v))
 	}
 	return 0
 }
@@ -185,7 +165,7 @@ func (d *decoder) positive(v any, path string) float64 {
 func (d *decoder) text(v any, path string) string {
 	s, ok := v.(string)
 	if !ok {
-		d.fail(path, "expected text in quotes, got %s", describe(v))
+		d.fail(path, "expected text in quotes, got %s", Describe(v))
 		return ""
 	}
 	if len(s) > MaxTextBytes {
@@ -313,7 +293,7 @@ func sideNames() []string {
 func (d *decoder) probes(v any, p *Project) []Probe {
 	list, ok := v.([]any)
 	if !ok {
-		d.fail("probes", "expected a list [...], got %s", describe(v))
+		d.fail("probes", "expected a list [...], got %s", Describe(v))
 		return nil
 	}
 	if len(list) > MaxProbes {
@@ -342,38 +322,4 @@ func (d *decoder) probes(v any, p *Project) []Probe {
 		out = append(out, pr)
 	}
 	return out
-}
-
-func describe(v any) string {
-	switch t := v.(type) {
-	case nil:
-		return "null"
-	case bool:
-		return fmt.Sprint(t)
-	case jsonlite.Number:
-		return "the number " + string(t)
-	case string:
-		return fmt.Sprintf("the text %q", t)
-	case []any:
-		return "a list"
-	case map[string]any:
-		return "an object"
-	}
-	return fmt.Sprintf("%T", v)
-}
-
-func join(path, key string) string {
-	if path == "" {
-		return key
-	}
-	return path + "." + key
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }

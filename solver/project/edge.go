@@ -154,7 +154,7 @@ func (d *decoder) segments(v any, path string, length float64) Edge {
 	list, ok := m["segments"].([]any)
 	switch {
 	case !ok:
-		d.fail(path, "expected a list [..] of segments, got %s", describe(m["segments"]))
+		d.fail(path, "expected a list [..] of segments, got %s", Describe(m["segments"]))
 		return Edge{}
 	case len(list) == 0:
 		d.fail(path, "empty list (give at least one segment, or the edge's one condition {\"kind\": ..})")
@@ -209,7 +209,7 @@ func (d *decoder) segments(v any, path string, length float64) Edge {
 func (d *decoder) segment(v any, path string, extra []string) Segment {
 	m, ok := v.(map[string]any)
 	if !ok {
-		d.fail(path, "expected an object {\"kind\": ..}, got %s", describe(v))
+		d.fail(path, "expected an object {\"kind\": ..}, got %s", Describe(v))
 		return Segment{}
 	}
 	if _, ok := m["kind"]; !ok {

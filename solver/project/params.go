@@ -65,7 +65,7 @@ func DecodeWith(data []byte, values map[string]float64) (*Project, error) {
 func (d *decoder) parameters(v any) []Parameter {
 	m, ok := v.(map[string]any)
 	if !ok {
-		d.fail("parameters", "expected an object {\"name\": number, ...}, got %s", describe(v))
+		d.fail("parameters", "expected an object {\"name\": number, ...}, got %s", Describe(v))
 		return nil
 	}
 	if len(m) > MaxParameters {
@@ -85,7 +85,7 @@ func (d *decoder) parameters(v any) []Parameter {
 			return nil
 		}
 		if _, isText := m[name].(string); isText {
-			d.fail(path, "a parameter is a number, got %s", describe(m[name]))
+			d.fail(path, "a parameter is a number, got %s", Describe(m[name]))
 			return nil
 		}
 		val := d.number(m[name], path)

@@ -15,7 +15,7 @@ import (
 // studyText reads the "study" value: an object, kept as canonical JSON.
 func (d *decoder) studyText(v any) string {
 	if _, ok := v.(map[string]any); !ok {
-		d.fail("study", "expected a study object {\"schema\": \"edgewise-study/1\", ...}, got %s", describe(v))
+		d.fail("study", "expected a study object {\"schema\": \"edgewise-study/1\", ...}, got %s", Describe(v))
 		return ""
 	}
 	var w jsonlite.Writer

@@ -3,7 +3,6 @@ package study
 import (
 	"fmt"
 	"math"
-	"sort"
 	"strings"
 
 	"edgewise/solver/jsonlite"
@@ -86,32 +85,9 @@ func (d *decoder) fail(path, format string, args ...any) {
 }
 
 func (d *decoder) object(v any, path string, required []string, optional ...string) map[string]any {
-	m, ok := v.(map[string]any)
-	if !ok {
-		d.fail(path, "expected an object {...}, got %s", describe(v))
-		return nil
-	}
-	allowed := append(append([]string{}, required...), optional...)
-	var unknown []string
-	for k := range m {
-		known := false
-		for _, a := range allowed {
-			known = known || a == k
-		}
-		if !known {
-			unknown = append(unknown, k)
-		}
-	}
-	if len(unknown) > 0 {
-		sort.Strings(unknown)
-		d.fail(join(path, unknown[0]), "unknown key (allowed here: %s)", strings.Join(allowed, ", "))
-		return nil
-	}
-	for _, k := range required {
-		if _, ok := m[k]; !ok {
-			d.fail(join(path, k), "missing")
-			return nil
-		}
+	m, err := project.Object(v, path, required, optional...)
+	if err != nil && d.err == nil {
+		d.err = err
 	}
 	return m
 }
@@ -119,7 +95,7 @@ func (d *decoder) object(v any, path string, required []string, optional ...stri
 func (d *decoder) number(v any, path string) float64 {
 	n, ok := v.(jsonlite.Number)
 	if !ok {
-		d.fail(path, "expected a number, got %s", describe(v))
+		d.fail(path, "expected a number, got %s", project.Describe(v))
 		return 0
 	}
 	f, err := n.Float64()
@@ -133,7 +109,7 @@ func (d *decoder) number(v any, path string) float64 {
 func (d *decoder) text(v any, path string) string {
 	s, ok := v.(string)
 	if !ok {
-		d.fail(path, "expected text in quotes, got %s", describe(v))
+		d.fail(path, "expected text in quotes, got %s", project.Describe(v))
 	}
 	return s
 }
@@ -141,7 +117,7 @@ func (d *decoder) text(v any, path string) string {
 func (d *decoder) list(v any, path string) []any {
 	l, ok := v.([]any)
 	if !ok {
-		d.fail(path, "expected a list [...], got %s", describe(v))
+		d.fail(path, "expected a list [...], got %s", project.Describe(v))
 	}
 	return l
 }
@@ -158,9 +134,9 @@ func (d *decoder) parameter(v any, path string) string {
 			has[i] = q.Name
 		}
 		if len(has) == 0 {
-			d.fail(path, "unknown parameter %q (the project defines no parameters)", clip(name))
+			d.fail(path, "unknown parameter %q (the project defines no parameters)", project.Clip(name))
 		} else {
-			d.fail(path, "unknown parameter %q (the project defines %s)", clip(name), strings.Join(has, ", "))
+			d.fail(path, "unknown parameter %q (the project defines %s)", project.Clip(name), strings.Join(has, ", "))
 		}
 	}
 	return name
@@ -172,7 +148,7 @@ func (d *decoder) study(v any) *Study {
 		return nil
 	}
 	if sc := d.text(m["schema"], "schema"); d.err == nil && sc != Schema {
-		d.fail("schema", "expected %q, got %q (not an edgewise study, or a newer version)", Schema, clip(sc))
+		d.fail("schema", "expected %q, got %q (not an edgewise study, or a newer version)", Schema, project.Clip(sc))
 	}
 	s := &Study{}
 	_, hasVary := m["vary"]
@@ -257,7 +233,7 @@ func (d *decoder) vary(v any) []Axis {
 func (d *decoder) axis(v any, path string) Axis {
 	m, ok := v.(map[string]any)
 	if !ok {
-		d.fail(path, "expected an object {\"name\": ..}, got %s", describe(v))
+		d.fail(path, "expected an object {\"name\": ..}, got %s", project.Describe(v))
 		return Axis{}
 	}
 	if _, ok := m["values"]; ok {
@@ -295,7 +271,7 @@ func (d *decoder) axis(v any, path string) Axis {
 	switch {
 	case d.err != nil:
 	case scale != Linear && scale != Log:
-		d.fail(path+".scale", "unknown scale %q (use linear or log)", clip(scale))
+		d.fail(path+".scale", "unknown scale %q (use linear or log)", project.Clip(scale))
 	case scale == Log && !(from > 0 && to > 0):
 		bad, at := from, ".from"
 		if from > 0 {
@@ -341,7 +317,7 @@ func (d *decoder) seek(v any) *Seek {
 	}
 	tm, ok := m["target"].(map[string]any)
 	if d.err == nil && (!ok || len(tm) != 1) {
-		d.fail("seek.target", "expected one output and its target, such as {\"max.value\": 85}, got %s", describe(m["target"]))
+		d.fail("seek.target", "expected one output and its target, such as {\"max.value\": 85}, got %s", project.Describe(m["target"]))
 	}
 	for k, tv := range tm {
 		s.Output = k
@@ -362,42 +338,3 @@ func (d *decoder) seek(v any) *Seek {
 // DefaultTolerance is the seek's tolerance on the output when the study
 // gives none: a millionth of the target, and at least 1e-9.
 func DefaultTolerance(target float64) float64 { return max(1e-6*math.Abs(target), 1e-9) }
-
-func describe(v any) string {
-	switch t := v.(type) {
-	case nil:
-		return "null"
-	case bool:
-		return fmt.Sprint(t)
-	case jsonlite.Number:
-		return "the number " + project.Shorten(string(t))
-	case string:
-		return fmt.Sprintf("the text %q", clip(t))
-	case []any:
-		return "a list"
-	case map[string]any:
-		return fmt.Sprintf("an object of %d keys", len(t))
-	}
-	return fmt.Sprintf("%T", v)
-}
-
-func join(path, key string) string {
-	if path == "" {
-		return key
-	}
-	return path + "." + key
-}
-
-// clip shortens a text from the file that an error message repeats, so
-// that a message stays one readable line: "1234567890123456...(5000 bytes)".
-func clip(s string) string {
-	const keep = 32
-	if len(s) <= keep+8 {
-		return s
-	}
-	i := keep
-	for i > 0 && s[i]&0xC0 == 0x80 { // not inside a UTF-8 sequence
-		i--
-	}
-	return fmt.Sprintf("%s...(%d bytes)", s[:i], len(s))
-}

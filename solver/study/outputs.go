@@ -150,7 +150,7 @@ func Lookup(path string, p *project.Project) (output, error) {
 			if wild == "<label>" {
 				what = "a probe label (the project has " + probeLabels(p) + ")"
 			}
-			return nil, fmt.Errorf("unknown output %q: %q is not %s", clip(path), clip(name), what)
+			return nil, fmt.Errorf("unknown output %q: %q is not %s", project.Clip(path), project.Clip(name), what)
 		}
 		get := o.get
 		return func(r *solver.Result) (float64, bool) {
@@ -160,7 +160,7 @@ func Lookup(path string, p *project.Project) (output, error) {
 			return get(r, i)
 		}, nil
 	}
-	return nil, fmt.Errorf("unknown output %q (use one of %s)", clip(path), Paths())
+	return nil, fmt.Errorf("unknown output %q (use one of %s)", project.Clip(path), Paths())
 }
 
 // Paths lists the report paths, placeholders included, in table order.

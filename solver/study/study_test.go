@@ -351,7 +351,7 @@ func TestDecodeErrors(t *testing.T) {
 		{"seek unknown output", head + `"seek": {"name": "h_top", "from": 1, "to": 2, "target": {"hottest": 3}}}`,
 			`seek.target: unknown output "hottest" (use one of ...`},
 		{"seek two targets", head + `"seek": {"name": "h_top", "from": 1, "to": 2, "target": {"mean": 3, "max.value": 4}}}`,
-			"seek.target: expected one output and its target, such as {\"max.value\": 85}, got an object of 2 keys"},
+			"seek.target: expected one output and its target, such as {\"max.value\": 85}, got an object"},
 		{"seek empty bracket", head + `"seek": {"name": "h_top", "from": 2, "to": 2, "target": {"mean": 3}}}`,
 			"seek.to: the bracket is empty: from and to are both 2"},
 		{"seek bad tolerance", head + `"seek": {"name": "h_top", "from": 1, "to": 2, "target": {"mean": 3}, "tolerance": 0}}`,
