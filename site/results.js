@@ -103,7 +103,7 @@
     if (unreliable) {
       box.append(el("p", { class: "unconverged", id: "res-unconverged", role: "alert",
         text: "Not converged: the engine could not meet its tolerance for this project (see the notes from the engine). " +
-          "The extremes and cautions are withheld and the picture is for orientation only; do not use these numbers." }));
+          "The extremes, derived answers and cautions are withheld and the picture is for orientation only; do not use these numbers." }));
     }
     const headline = (v) => (unreliable ? "not reliable" : EW.withUnit(EW.value(v, 5), vu));
     kvRow(dl, "Highest " + (u.value || "value"), headline(r.max.value), unreliable ? "" : at(r.max)).id = "res-max";

@@ -12,8 +12,8 @@ import (
 
 // CautionsWithheld replaces the physics' cautions of a result that did not
 // converge.
-const CautionsWithheld = "No cautions are given for this result: the engine could not meet its tolerance (see the " +
-	"warnings), so the extremes they would be computed from are not reliable. Change the data (a smoother step, " +
+const CautionsWithheld = "No cautions or derived answers are given for this result: the engine could not meet its " +
+	"tolerance (see the warnings), so the numbers they would be computed from are not reliable. Change the data (a smoother step, " +
 	"a smaller Biot number) or check the case by another method."
 
 // Options controls a solve.
@@ -91,12 +91,12 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	settleCorners(pr, out, breaks)
 	out.Result = report(p, pr, f, out)
 	checkConverged(pr, &out.Result)
-	out.Result.Answers = answers(p, pr, f, out, breaks)
 	if out.Result.Accuracy.Converged {
+		out.Result.Answers = answers(p, pr, f, out, breaks)
 		out.Result.Cautions = cautions(p, pr, out, &out.Result)
 	} else {
-		// cautions computed from numbers the engine cannot stand behind
-		// would mislead either way
+		// derived answers and cautions computed from numbers the engine
+		// cannot stand behind would mislead either way
 		out.Result.Cautions = []string{CautionsWithheld, physics.Deferral}
 	}
 	out.Result.chooseColour()

@@ -335,6 +335,9 @@ func TestUnconvergedWithholdsCautions(t *testing.T) {
 	if len(r.Cautions) != 2 || r.Cautions[0] != CautionsWithheld || r.Cautions[1] != physics.Deferral {
 		t.Errorf("cautions %q, want only the withheld note and the deferral", r.Cautions)
 	}
+	if r.Answers != nil || strings.Contains(string(r.JSON()), `"answers"`) {
+		t.Errorf("derived answers given for an unconverged result")
+	}
 	// the same plate with a value top edge converges and cautions burns
 	_, out = mustSolve(t, `{"schema":"edgewise/1","physics":"heat","width":0.2,"height":0.05,"conductivity":15,"source":0,
 	 "edges":{"bottom":{"kind":"value","expr":"90"},"right":{"kind":"value","expr":"90"},

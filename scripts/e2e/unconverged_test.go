@@ -6,8 +6,8 @@ import (
 )
 
 // A result the engine cannot stand behind (accuracy.converged false) is
-// not headlined: the page says "Not converged", shows no extremes and no
-// physics cautions. The project is a strongly exchanging top edge
+// not headlined: the page says "Not converged", shows no extremes, no
+// derived answers and no physics cautions. The project is a strongly exchanging top edge
 // (h = 1e9) between value edges in the burn range, which the engine flags;
 // a converged result there would headline 90 °C and caution burns.
 func TestUnconvergedNotHeadlined(t *testing.T) {
@@ -20,7 +20,7 @@ func TestUnconvergedNotHeadlined(t *testing.T) {
 	  const r = await window.edgewise.load(p);
 	  const text = (id) => (document.getElementById(id) || {}).textContent || "";
 	  return {converged: r.accuracy.converged, banner: text("res-unconverged"), max: text("res-max"),
-	          min: text("res-min"), cautions: text("cautions")};
+	          min: text("res-min"), cautions: text("cautions"), answers: !!document.getElementById("answers")};
 	})()`)
 	if got["converged"] != false {
 		t.Fatalf("the engine says converged (%v); the case was chosen because it does not", got["converged"])
@@ -35,6 +35,9 @@ func TestUnconvergedNotHeadlined(t *testing.T) {
 	}
 	if c := got["cautions"].(string); strings.Contains(c, "burn") || !strings.Contains(c, "No cautions") {
 		t.Errorf("cautions %q: want the withheld note, not a burn caution", c)
+	}
+	if got["answers"] != false {
+		t.Errorf("the derived answers are shown for an unconverged result")
 	}
 	tb.noErrors(t)
 }
