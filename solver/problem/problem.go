@@ -114,6 +114,52 @@ type Edge struct {
 	// so that a break costs them no accuracy. Optional: nil when F is
 	// continuous or its breaks are not known.
 	Breaks []float64
+	// Parts, when not nil, makes the edge mixed: its conditions change
+	// along it (see Part). Kind, F and Hc then describe no condition:
+	// Compile sets Kind and F to the first part's kind and a function
+	// giving each part's data, for displays only, and every solver must
+	// read the parts (Mixed says when). A one-condition edge with a
+	// constant Hc has no parts.
+	Parts []Part
+}
+
+// Part is one stretch of a mixed edge, from the previous part's To (0 for
+// the first) to its own To (the edge's length for the last).
+type Part struct {
+	To   float64
+	Kind Kind
+	// F is the data as for Edge.F (value, entering flux or ambient), as a
+	// function of s along the whole edge.
+	F func(s float64) float64
+	// Hc is the convection coefficient along the edge (>= 0), for a
+	// Convection part; nil otherwise.
+	Hc func(s float64) float64
+}
+
+// Mixed reports whether the edge's conditions change along it.
+func (e *Edge) Mixed() bool { return len(e.Parts) > 0 }
+
+// PartRange returns where part i of an edge of length L starts and ends.
+func (e *Edge) PartRange(i int, L float64) (from, to float64) {
+	if i > 0 {
+		from = e.Parts[i-1].To
+	}
+	to = L
+	if i < len(e.Parts)-1 {
+		to = e.Parts[i].To
+	}
+	return from, to
+}
+
+// PartAt returns the index of the part that holds s (the later part at a
+// boundary between two).
+func (e *Edge) PartAt(s float64) int {
+	for i := range len(e.Parts) - 1 {
+		if s < e.Parts[i].To {
+			return i
+		}
+	}
+	return len(e.Parts) - 1
 }
 
 // Problem is a steady field problem on a rectangle.
@@ -189,6 +235,12 @@ func (p *Problem) Validate() error {
 	}
 	for _, s := range Sides {
 		e := p.Edges[s]
+		if e.Mixed() {
+			if err := p.validParts(s); err != nil {
+				return err
+			}
+			continue
+		}
 		if e.F == nil {
 			return fmt.Errorf("problem: %v edge has no data function", s)
 		}
@@ -197,6 +249,32 @@ func (p *Problem) Validate() error {
 		}
 		if e.Kind == Convection && (e.Hc < 0 || e.Hc-e.Hc != 0) {
 			return fmt.Errorf("problem: %v edge convection coefficient must be >= 0, got %g", s, e.Hc)
+		}
+	}
+	return nil
+}
+
+// validParts checks the parts of a mixed edge: each with data, a known
+// kind and, for convection, a coefficient function; their ends strictly
+// inside the edge and increasing.
+func (p *Problem) validParts(s Side) error {
+	e := p.Edges[s]
+	L := p.Length(s)
+	prev := 0.0
+	for i, q := range e.Parts {
+		switch {
+		case q.F == nil:
+			return fmt.Errorf("problem: %v edge part %d has no data function", s, i)
+		case q.Kind < Value || q.Kind > Convection:
+			return fmt.Errorf("problem: %v edge part %d has bad kind %v", s, i, q.Kind)
+		case q.Kind == Convection && q.Hc == nil:
+			return fmt.Errorf("problem: %v edge part %d is convection without a coefficient", s, i)
+		}
+		if i < len(e.Parts)-1 {
+			if !(q.To > prev && q.To < L) {
+				return fmt.Errorf("problem: %v edge part %d ends at %g, not between %g and %g", s, i, q.To, prev, L)
+			}
+			prev = q.To
 		}
 	}
 	return nil

@@ -13,15 +13,11 @@ func Compile(p *Project) (*problem.Problem, error) {
 		Source: p.Source,
 	}
 	for _, side := range problem.Sides {
-		h, err := p.checkEdge(side)
+		e, err := p.compileEdge(side)
 		if err != nil {
 			return nil, err
 		}
-		f, seg, _, err := p.EdgeData(side)
-		if err != nil {
-			return nil, err
-		}
-		pr.Edges[side] = problem.Edge{Kind: seg.Kind, F: f, Hc: h}
+		pr.Edges[side] = e
 	}
 	if err := pr.Validate(); err != nil {
 		return nil, Errorf("", "%v", err)
@@ -31,17 +27,18 @@ func Compile(p *Project) (*problem.Problem, error) {
 
 // EdgeData compiles the formula that holds an edge's data (the value, the
 // entering flux or the ambient, whichever its kind takes) into a function
-// of the distance s along the edge, and returns the edge's segment and the
-// formula's project path. The edge must be one segment.
+// of the distance s along the edge, and returns the edge's first segment
+// and the formula's project path. For an edge made of segments the
+// function gives each segment's data and the path is the segment list's.
 func (p *Project) EdgeData(side problem.Side) (f func(s float64) float64, seg Segment, path string, err error) {
-	seg, ok := p.Edges[side].Whole()
-	if !ok {
-		return nil, seg, "", Errorf("edges."+side.String()+".segments", "mixed conditions along one edge are not solved yet (%d segments); give the edge one condition", len(p.Edges[side].Segments))
+	e, err := p.compileEdge(side)
+	if err != nil {
+		return nil, Segment{}, "", err
 	}
-	src, key := seg.data()
-	path = "edges." + side.String() + "." + key
-	pr := problem.Problem{W: p.Width, H: p.Height}
-	point := func(s float64) (x, y float64) { return pr.Point(side, s) }
-	f, err = compileFormula(src, path, point, p.Width, p.Height, p.Consts())
-	return f, seg, path, err
+	seg = p.Edges[side].Segments[0]
+	if whole, ok := p.Edges[side].Whole(); ok {
+		_, key := whole.data()
+		return e.F, seg, "edges." + side.String() + "." + key, nil
+	}
+	return e.F, seg, "edges." + side.String() + ".segments", nil
 }

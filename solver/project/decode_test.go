@@ -77,7 +77,7 @@ func TestDecodeGood(t *testing.T) {
 }
 
 // An edge in the one-condition form is one segment; an edge of more than
-// one segment built in Go is refused by Compile with its path, and written
+// one segment built in Go compiles to a mixed edge, and is written
 // in the segments form (segments_test.go has the rest).
 func TestEdgeIsOneSegment(t *testing.T) {
 	p, err := Decode([]byte(baseProject))
@@ -97,12 +97,17 @@ func TestEdgeIsOneSegment(t *testing.T) {
 		{To: 0.1, Kind: problem.Value, Expr: "12"},
 		{Kind: problem.Flux, Expr: "0"},
 	}}
-	if _, err := Compile(p); err == nil || err.Error() != "edges.top.segments: mixed conditions along one edge are not solved yet (2 segments); give the edge one condition" {
-		t.Errorf("compile of two segments: error %v", err)
+	pr, err := Compile(p)
+	if err != nil {
+		t.Fatalf("compile of two segments: %v", err)
 	}
-	const top = `"top":{"segments":[{"to":0.1,"kind":"value","expr":"12"},{"kind":"flux","expr":"0"}]}`
-	if text := string(p.JSON()); !strings.Contains(text, top) {
-		t.Errorf("two segments written as\n%s\nwant %s", text, top)
+	top := pr.Edges[problem.Top]
+	if !top.Mixed() || len(top.Parts) != 2 || top.Parts[0].To != 0.1 || top.Parts[1].Kind != problem.Flux || top.F(0.05) != 12 || top.F(0.2) != 0 {
+		t.Errorf("two segments compiled to %+v", top)
+	}
+	const topJSON = `"top":{"segments":[{"to":0.1,"kind":"value","expr":"12"},{"kind":"flux","expr":"0"}]}`
+	if text := string(p.JSON()); !strings.Contains(text, topJSON) {
+		t.Errorf("two segments written as\n%s\nwant %s", text, topJSON)
 	}
 }
 

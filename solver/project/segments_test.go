@@ -1,6 +1,7 @@
 package project
 
 import (
+	"math"
 	"reflect"
 	"strings"
 	"testing"
@@ -121,8 +122,8 @@ func TestSegmentErrors(t *testing.T) {
 }
 
 // Compile checks every segment's formulas and an h formula along its
-// segment, then refuses what the engine cannot solve yet with an error
-// that says so; an h formula of one value compiles like the number.
+// segment; an h formula of one value compiles like the number, more than
+// one segment or an h that varies makes a mixed edge.
 func TestCompileSegments(t *testing.T) {
 	v := func(to any, e string) map[string]any { return seg("to", to, "kind", "value", "expr", e) }
 	conv := func(h any) map[string]any { return seg("kind", "convection", "h", h, "ambient", "18") }
@@ -143,10 +144,6 @@ func TestCompileSegments(t *testing.T) {
 		{"negative h on an edge", oneTop("10 - 100*s"), "edges.top.h: the convection coefficient must be zero or more; it is -0.04 at s = 0.1004"},
 		{"h negative before a pole", oneTop("1/(s - 0.2)"), "edges.top.h: the convection coefficient must be zero or more; it is -5 at s = 0"},
 		{"h pole", oneTop("1/(s - 0.2)^2"), "edges.top.h: not a finite number at s = 0.2"},
-		{"mixed", segmented(t, v(0.1, "12"), seg("kind", "flux", "expr", "0")),
-			"edges.top.segments: mixed conditions along one edge are not solved yet (2 segments); give the edge one condition"},
-		{"varying h", oneTop("when(s < 0.3, 8, 20)"), "edges.top.h: an h that varies along the edge is not solved yet; give one number"},
-		{"varying h, one segment in a list", segmented(t, conv("8 + s")), "edges.top.h: an h that varies along the edge is not solved yet; give one number"},
 	}
 	for _, tt := range tests {
 		// an h that is no formula at all is refused already by Decode,
@@ -177,8 +174,44 @@ func TestCompileSegments(t *testing.T) {
 		if err != nil {
 			t.Fatalf("h %v: %v", h, err)
 		}
-		if got := pr.Edges[problem.Top].Hc; got != 10 {
-			t.Errorf("h %v compiles to %g, want 10", h, got)
+		if got := pr.Edges[problem.Top]; got.Hc != 10 || got.Mixed() {
+			t.Errorf("h %v compiles to %g (mixed %v), want 10 on a one-condition edge", h, got.Hc, got.Mixed())
+		}
+	}
+	mixed := []struct {
+		name  string
+		b     []byte
+		kinds []problem.Kind
+		h     float64 // h of the last part at s = 0.35
+	}{
+		{"value then flux", segmented(t, v(0.1, "12"), seg("kind", "flux", "expr", "0")), []problem.Kind{problem.Value, problem.Flux}, -1},
+		{"varying h", oneTop("when(s < 0.3, 8, 20)"), []problem.Kind{problem.Convection}, 20},
+		{"varying h, one segment in a list", segmented(t, conv("8 + 20*s")), []problem.Kind{problem.Convection}, 15},
+	}
+	for _, tt := range mixed {
+		p, err := Decode(tt.b)
+		if err != nil {
+			t.Fatal(err)
+		}
+		pr, err := Compile(p)
+		if err != nil {
+			t.Fatalf("%s: %v", tt.name, err)
+		}
+		top := pr.Edges[problem.Top]
+		if !top.Mixed() || len(top.Parts) != len(tt.kinds) {
+			t.Errorf("%s: %d parts, want %d", tt.name, len(top.Parts), len(tt.kinds))
+			continue
+		}
+		for i, k := range tt.kinds {
+			if top.Parts[i].Kind != k {
+				t.Errorf("%s: part %d is %v, want %v", tt.name, i, top.Parts[i].Kind, k)
+			}
+		}
+		if last := top.Parts[len(top.Parts)-1]; tt.h >= 0 && math.Abs(last.Hc(0.35)-tt.h) > 1e-12 {
+			t.Errorf("%s: h(0.35) = %g, want %g", tt.name, last.Hc(0.35), tt.h)
+		}
+		if err := pr.Validate(); err != nil {
+			t.Errorf("%s: %v", tt.name, err)
 		}
 	}
 }

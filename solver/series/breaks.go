@@ -31,9 +31,13 @@ const (
 	// max(0, ...) or the knots of readings(...). From and To are the
 	// slopes (data per unit of s) before and after. The flows stay finite.
 	KinkBreak
+	// PartMeet: inside a mixed edge (problem.Edge.Parts) a value part
+	// meets a flux or convection part. Near it the gradient grows like
+	// r^-1/2: the flows stay finite.
+	PartMeet
 )
 
-var breakClassNames = [...]string{ValueBreak: "value break", FluxBreak: "flux break", CornerBreak: "corner break", KinkBreak: "kink"}
+var breakClassNames = [...]string{ValueBreak: "value break", FluxBreak: "flux break", CornerBreak: "corner break", KinkBreak: "kink", PartMeet: "part meeting"}
 
 func (c BreakClass) String() string {
 	if c < 0 || int(c) >= len(breakClassNames) {
@@ -130,6 +134,9 @@ const (
 // At the corners: two value edges whose values there differ by more than
 // 1e-14 of the data scale (see Solution.Scale).
 func FindBreaks(p *problem.Problem) ([]Break, error) {
+	if mixed(p) {
+		return mixedBreaks(p)
+	}
 	var out []Break
 	for _, side := range problem.Sides {
 		p.Edges[side].Breaks = nil

@@ -63,6 +63,9 @@ type Field interface {
 // breaks go to the corner pieces, the breaks inside edges to break pieces
 // (see breakfield.go), the series sums the rest. Errors as for Solve.
 func SolveBreaks(p *problem.Problem, breaks []Break, opt Options) (Field, error) {
+	if mixed(p) {
+		return solveMixed(p, opt)
+	}
 	var corners, inner []Break
 	for _, b := range breaks {
 		if b.Class == CornerBreak {
@@ -127,6 +130,9 @@ func Solve(p *problem.Problem, opt Options) (*Solution, error) {
 func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) {
 	if err := p.Validate(); err != nil {
 		return nil, err
+	}
+	if mixed(p) {
+		return nil, errors.New("series: a mixed edge reached the plain series (SolveBreaks solves mixed edges)")
 	}
 	if !(opt.Tol > 0) || math.IsInf(opt.Tol, 1) {
 		opt.Tol = 1e-9
