@@ -18,8 +18,8 @@ import (
 // own (trades.go); the flow net is in flownet.go and trace.go.
 //
 // Parts: the conductance, the charge and the exit gradient are taken part
-// by part. Today every edge is one part (index 0); an edge made of segments
-// will list one part per segment (partsOf), and everything below reads
+// by part: a one-condition edge is one part (index 0), an edge made of
+// segments one part per segment (partsOf), and everything below reads
 // parts only.
 
 // Answers are the derived quantities of a solve.
@@ -58,18 +58,55 @@ type Conductance struct {
 	ShapeFactor   float64 // Flow / (sqrt(kx ky) (high - low))
 }
 
-// part is a stretch of one edge with one condition: today a whole edge.
+// part is a stretch of one edge with one condition: a whole one-condition
+// edge, or one part (segment) of a mixed edge.
 type part struct {
 	side     problem.Side
 	index    int
 	from, to float64 // along the edge
+	kind     problem.Kind
+	f        func(float64) float64 // its data
+	hc       func(float64) float64 // its convection coefficient (convection)
+	seg      *SegmentFlow          // its flow and mean in the result (nil before)
 }
 
 func (q part) name() string { return fmt.Sprintf("%s[%d]", q.side, q.index) }
 
-// partsOf lists the parts of an edge.
-func partsOf(pr *problem.Problem, side problem.Side) []part {
-	return []part{{side: side, from: 0, to: pr.Length(side)}}
+// partsOf lists the parts of an edge, with their flows and means from the
+// result r (nil: without them).
+func partsOf(pr *problem.Problem, r *Result, side problem.Side) []part {
+	e := pr.Edges[side]
+	L := pr.Length(side)
+	var out []part
+	if !e.Mixed() {
+		hc := e.Hc
+		out = []part{{side: side, from: 0, to: L, kind: e.Kind, f: e.F, hc: func(float64) float64 { return hc }}}
+	}
+	for i, p := range e.Parts {
+		from, to := e.PartRange(i, L)
+		out = append(out, part{side: side, index: i, from: from, to: to, kind: p.Kind, f: p.F, hc: p.Hc})
+	}
+	if r != nil && len(r.Edges[side].Segments) == len(out) {
+		for i := range out {
+			out[i].seg = &r.Edges[side].Segments[i]
+		}
+	}
+	return out
+}
+
+// constH returns a part's convection coefficient when it is one number
+// along the part.
+func (q part) constH() (float64, bool) {
+	if q.hc == nil {
+		return 0, false
+	}
+	v := q.hc(q.from)
+	for i := 1; i <= 64; i++ {
+		if q.hc(q.from+(q.to-q.from)*float64(i)/64) != v {
+			return 0, false
+		}
+	}
+	return v, true
 }
 
 // edgeRule returns Gauss-Legendre nodes and weights over [lo, hi] in
@@ -93,8 +130,8 @@ func partMean(pr *problem.Problem, f field, q part) float64 {
 	xs, ws := edgeRule(q.from, q.to)
 	var sum float64
 	for i, s := range xs {
-		if pr.Edges[q.side].Kind == problem.Value {
-			sum += ws[i] * pr.Edges[q.side].F(s)
+		if q.kind == problem.Value {
+			sum += ws[i] * q.f(s)
 			continue
 		}
 		x, y := pr.Point(q.side, s)
@@ -120,7 +157,7 @@ func entering(pr *problem.Problem, side problem.Side, ux, uy float64) float64 {
 // uniform reports whether a value part holds one value, and which.
 func uniform(pr *problem.Problem, q part) (float64, bool) {
 	const n = 64
-	f := pr.Edges[q.side].F
+	f := q.f
 	v0 := f(q.from)
 	for i := 1; i <= n; i++ {
 		v := f(q.from + (q.to-q.from)*float64(i)/n)
@@ -133,13 +170,13 @@ func uniform(pr *problem.Problem, q part) (float64, bool) {
 
 // insulated reports whether a flux part carries no flux.
 func insulated(pr *problem.Problem, q part) bool {
-	e := pr.Edges[q.side]
-	if e.Kind == problem.Convection {
-		return e.Hc == 0
+	if q.kind == problem.Convection {
+		h, ok := q.constH()
+		return ok && h == 0
 	}
 	const n = 64
 	for i := 0; i <= n; i++ {
-		if e.F(q.from+(q.to-q.from)*float64(i)/n) != 0 {
+		if q.f(q.from+(q.to-q.from)*float64(i)/n) != 0 {
 			return false
 		}
 	}
@@ -158,12 +195,15 @@ func conductance(pr *problem.Problem, r *Result) (*Conductance, string) {
 	}
 	var groups []group
 	for _, side := range problem.Sides {
-		for _, q := range partsOf(pr, side) {
-			e := pr.Edges[side]
+		for _, q := range partsOf(pr, r, side) {
 			switch {
-			case e.Kind == problem.Convection && e.Hc > 0:
-				return nil, fmt.Sprintf("not defined: convection is present (the %s edge)", side)
-			case e.Kind != problem.Value:
+			case q.kind == problem.Convection && !insulated(pr, q):
+				where := "the " + side.String() + " edge"
+				if pr.Edges[side].Mixed() {
+					where = q.name()
+				}
+				return nil, fmt.Sprintf("not defined: convection is present (%s)", where)
+			case q.kind != problem.Value:
 				if !insulated(pr, q) {
 					return nil, fmt.Sprintf("not defined: a flux enters through %s, which is not insulated", q.name())
 				}
@@ -197,15 +237,14 @@ func conductance(pr *problem.Problem, r *Result) (*Conductance, string) {
 	c := &Conductance{High: Terminal{Value: hi.v}, Low: Terminal{Value: lo.v}}
 	for _, q := range hi.parts {
 		c.High.Parts = append(c.High.Parts, q.name())
-		f := r.Edges[q.side]
-		if !f.Finite {
+		if q.seg == nil || !q.seg.Finite {
 			return nil, "infinite: the two terminals meet at a corner (or a step), where the flow has no finite total"
 		}
-		c.Flow += *f.Flow
+		c.Flow += *q.seg.Flow
 	}
 	for _, q := range lo.parts {
 		c.Low.Parts = append(c.Low.Parts, q.name())
-		if !r.Edges[q.side].Finite {
+		if q.seg == nil || !q.seg.Finite {
 			return nil, "infinite: the two terminals meet at a corner (or a step), where the flow has no finite total"
 		}
 	}
@@ -216,7 +255,8 @@ func conductance(pr *problem.Problem, r *Result) (*Conductance, string) {
 }
 
 // singularPoints lists where two prescribed values meet (a corner break
-// or a step inside a value edge): the gradient is unbounded there.
+// or a step inside a value edge) and where a value part meets a flux or
+// convection part: the gradient is unbounded there.
 func singularPoints(pr *problem.Problem, breaks []series.Break) [][2]float64 {
 	var pts [][2]float64
 	corners := [4][2]float64{{0, 0}, {pr.W, 0}, {pr.W, pr.H}, {0, pr.H}}
@@ -224,7 +264,7 @@ func singularPoints(pr *problem.Problem, breaks []series.Break) [][2]float64 {
 		switch b.Class {
 		case series.CornerBreak:
 			pts = append(pts, corners[b.Corner])
-		case series.ValueBreak:
+		case series.ValueBreak, series.PartMeet:
 			x, y := pr.Point(b.Side, b.S)
 			pts = append(pts, [2]float64{x, y})
 		}
@@ -250,14 +290,6 @@ func farFrom(pts [][2]float64, x, y, d float64) bool {
 func answers(p *project.Project, pr *problem.Problem, f field, out *Output, breaks []series.Break) *Answers {
 	r := &out.Result
 	a := &Answers{Singular: singularPoints(pr, breaks), Near: NearFraction * min(pr.W, pr.H)}
-	for _, side := range problem.Sides {
-		q := partsOf(pr, side)[0]
-		r.Edges[side].Mean = partMean(pr, f, q)
-		if r.Edges[side].Finite {
-			v := *r.Edges[side].Flow / pr.Length(side)
-			r.Edges[side].PerLength = &v
-		}
-	}
 	a.Conductance, a.NoConductance = conductance(pr, r)
 	asked := project.Asked{}
 	if p.Answers != nil {

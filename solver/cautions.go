@@ -31,16 +31,19 @@ func (f *solvedField) PeakGradient() (g, x, y float64) { return peakGradient(f.o
 func (f *solvedField) Exits() []physics.Exit {
 	var list []physics.Exit
 	for _, side := range problem.Sides {
-		if f.pr.Edges[side].Kind != problem.Value {
-			continue // exit faces are value edges where water leaves
-		}
 		var pts [][2]float64
 		var near float64
 		if a := f.r.Answers; a != nil { // the same places as the answers' exit gradients
 			pts, near = a.Singular, a.Near
 		}
-		if g, x, y, found := exitGradientAway(f.pr, f.out, side, pts, near); found {
-			list = append(list, physics.Exit{Edge: side.String(), G: g, X: x, Y: y})
+		// exit faces are value parts where water leaves
+		for _, q := range partsOf(f.pr, nil, side) {
+			if q.kind != problem.Value {
+				continue
+			}
+			if g, x, y, found := exitGradientAway(f.pr, f.out, side, q.from, q.to, pts, near); found {
+				list = append(list, physics.Exit{Edge: side.String(), G: g, X: x, Y: y})
+			}
 		}
 	}
 	return list
@@ -70,12 +73,12 @@ func (f *solvedField) Singular() bool {
 // false when nothing leaves through that edge. Nodes where the gradient is
 // unbounded (NaN: a jump of head) are left out.
 func exitGradient(pr *problem.Problem, out *Output, side problem.Side) (g, x, y float64, found bool) {
-	return exitGradientAway(pr, out, side, nil, 0)
+	return exitGradientAway(pr, out, side, 0, pr.Length(side), nil, 0)
 }
 
 // exitGradientAway is exitGradient over the nodes at least d from every
 // point of pts.
-func exitGradientAway(pr *problem.Problem, out *Output, side problem.Side, pts [][2]float64, d float64) (g, x, y float64, found bool) {
+func exitGradientAway(pr *problem.Problem, out *Output, side problem.Side, from, to float64, pts [][2]float64, d float64) (g, x, y float64, found bool) {
 	nx, ny := out.Nx, out.Ny
 	var i0, j0, di, dj, n int
 	var nxo, nyo float64 // outward normal
@@ -98,6 +101,13 @@ func exitGradientAway(pr *problem.Problem, out *Output, side problem.Side, pts [
 			continue
 		}
 		px, py := float64(i)*out.W/float64(nx), float64(j)*out.H/float64(ny)
+		s := py // along the edge
+		if side == problem.Bottom || side == problem.Top {
+			s = px
+		}
+		if s < from || s > to {
+			continue // outside the part
+		}
 		if m := math.Hypot(gx, gy); m > g && farFrom(pts, px, py, d) {
 			g, x, y, found = m, px, py, true
 		}

@@ -30,12 +30,13 @@ func dataRange(pr *problem.Problem) (lo, hi float64, applies bool) {
 	for _, side := range problem.Sides {
 		e := pr.Edges[side]
 		L := pr.Length(side)
-		bounds := e.Kind == problem.Value || (e.Kind == problem.Convection && e.Hc > 0)
-		if e.Kind == problem.Convection && e.Hc == 0 {
-			continue // insulated
-		}
 		for i := 0; i <= n; i++ {
-			v := e.F(L * float64(i) / n)
+			kind, f, hc := e.Condition(L * float64(i) / n)
+			bounds := kind == problem.Value || (kind == problem.Convection && hc > 0)
+			if kind == problem.Convection && hc == 0 {
+				continue // insulated
+			}
+			v := f(L * float64(i) / n)
 			if !bounds {
 				if v != 0 {
 					return 0, 0, false // a prescribed inflow
@@ -53,9 +54,6 @@ func dataRange(pr *problem.Problem) (lo, hi float64, applies bool) {
 func boundingData(pr *problem.Problem, x, y float64) (float64, bool) {
 	for _, side := range problem.Sides {
 		e := pr.Edges[side]
-		if e.Kind == problem.Flux || (e.Kind == problem.Convection && e.Hc == 0) {
-			continue
-		}
 		var s float64
 		switch {
 		case side == problem.Bottom && y == 0, side == problem.Top && y == pr.H:
@@ -65,7 +63,11 @@ func boundingData(pr *problem.Problem, x, y float64) (float64, bool) {
 		default:
 			continue
 		}
-		if v := e.F(s); v-v == 0 {
+		kind, f, hc := e.Condition(s)
+		if kind == problem.Flux || (kind == problem.Convection && hc == 0) {
+			continue
+		}
+		if v := f(s); v-v == 0 {
 			return v, true
 		}
 	}

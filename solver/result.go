@@ -67,6 +67,21 @@ type EdgeFlow struct {
 	// per unit length of edge (nil when infinite).
 	Mean      float64  `json:"mean"`
 	PerLength *float64 `json:"per_length"`
+	// Segments lists the edge's parts in order (one for a one-condition
+	// edge), each with its own flow and mean.
+	Segments []SegmentFlow `json:"segments"`
+}
+
+// SegmentFlow is one part of an edge: where it runs along the edge, its
+// kind, the flow into the region through it (nil when infinite) and the
+// average field value along it.
+type SegmentFlow struct {
+	From   float64  `json:"from"`
+	To     float64  `json:"to"`
+	Kind   string   `json:"kind"`
+	Flow   *float64 `json:"flow"`
+	Finite bool     `json:"finite"`
+	Mean   float64  `json:"mean"`
 }
 
 // Extreme is a smallest or largest value and where it is.
@@ -112,6 +127,13 @@ func (r *Result) JSON() []byte {
 		numOrNull(&w, f.Flow)
 		w.Key("finite").Bool(f.Finite).Key("mean").Num(f.Mean).Key("per_length")
 		numOrNull(&w, f.PerLength)
+		w.Key("segments").Open('[')
+		for _, g := range f.Segments {
+			w.Open('{').Key("from").Num(g.From).Key("to").Num(g.To).Key("kind").Str(g.Kind).Key("flow")
+			numOrNull(&w, g.Flow)
+			w.Key("finite").Bool(g.Finite).Key("mean").Num(g.Mean).Close('}')
+		}
+		w.Close(']')
 		w.Close('}')
 	}
 	w.Close('}')

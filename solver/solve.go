@@ -191,6 +191,7 @@ func report(p *project.Project, pr *problem.Problem, f field, out *Output) Resul
 	if finite {
 		r.Balance = &sum
 	}
+	edgeParts(pr, f, &r)
 	r.Min, r.Max = extremes(pr, f, out)
 	r.Accuracy.Terms = f.Terms()
 	r.Accuracy.Estimate = f.ErrorEstimate()

@@ -49,7 +49,8 @@ func TestResultJSON(t *testing.T) {
 	r := Result{
 		Schema:      ResultSchema,
 		Probes:      []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
-		Edges:       EdgeFlows{problem.Bottom: {Flow: &f1, Finite: true, Mean: 2, PerLength: &f2}, problem.Top: {Finite: false, Mean: -1}, problem.Left: {Flow: &f2, Finite: true}, problem.Right: {Flow: &f1, Finite: true}},
+		Edges: EdgeFlows{problem.Bottom: {Flow: &f1, Finite: true, Mean: 2, PerLength: &f2,
+			Segments: []SegmentFlow{{From: 0, To: 0.5, Kind: "value", Flow: &f1, Finite: true, Mean: 2}, {From: 0.5, To: 1, Kind: "flux", Finite: false, Mean: -0.5}}}, problem.Top: {Finite: false, Mean: -1}, problem.Left: {Flow: &f2, Finite: true}, problem.Right: {Flow: &f1, Finite: true}},
 		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
 		Accuracy: Accuracy{Terms: 120, Estimate: 1e-10, Crosscheck: &cc, CrosscheckGrid: "24x12"},
 		Warnings: []problem.Warning{{Code: problem.TermLimit, Edges: []problem.Side{problem.Top, problem.Bottom}, Text: "w\n1"}}, Cautions: []string{"c1", "c2"}, Grid: project.GridSize{Nx: 10, Ny: 5},
@@ -66,10 +67,12 @@ func TestResultJSON(t *testing.T) {
 			t.Fatal(err)
 		}
 		a["edges"] = map[string]any{
-			"bottom": map[string]any{"flow": f1, "finite": true, "mean": 2.0, "per_length": f2},
-			"right":  map[string]any{"flow": f1, "finite": true, "mean": 0.0, "per_length": nil},
-			"top":    map[string]any{"flow": nil, "finite": false, "mean": -1.0, "per_length": nil},
-			"left":   map[string]any{"flow": f2, "finite": true, "mean": 0.0, "per_length": nil},
+			"bottom": map[string]any{"flow": f1, "finite": true, "mean": 2.0, "per_length": f2, "segments": []any{
+				map[string]any{"from": 0.0, "to": 0.5, "kind": "value", "flow": f1, "finite": true, "mean": 2.0},
+				map[string]any{"from": 0.5, "to": 1.0, "kind": "flux", "flow": nil, "finite": false, "mean": -0.5}}},
+			"right": map[string]any{"flow": f1, "finite": true, "mean": 0.0, "per_length": nil, "segments": []any{}},
+			"top":   map[string]any{"flow": nil, "finite": false, "mean": -1.0, "per_length": nil, "segments": []any{}},
+			"left":  map[string]any{"flow": f2, "finite": true, "mean": 0.0, "per_length": nil, "segments": []any{}},
 		}
 		if err := json.Unmarshal(r.JSON(), &b); err != nil {
 			t.Fatalf("%v in %s", err, r.JSON())

@@ -64,21 +64,29 @@ func heatAnswers(pr *problem.Problem, r *Result, a *Answers) *HeatAnswers {
 		h.ThermalConductance, h.ThermalResistance = &g, &res
 	}
 	for _, side := range problem.Sides {
-		e := pr.Edges[side]
-		for _, q := range partsOf(pr, side) {
-			if e.Kind == problem.Value {
+		for _, q := range partsOf(pr, r, side) {
+			if q.kind == problem.Value || q.seg == nil {
 				continue
 			}
-			h.Surfaces = append(h.Surfaces, SurfaceMean{Part: q.name(), Kind: e.Kind.String(), Mean: r.Edges[side].Mean})
-			if e.Kind != problem.Convection || e.Hc == 0 || !r.Edges[side].Finite {
+			h.Surfaces = append(h.Surfaces, SurfaceMean{Part: q.name(), Kind: q.kind.String(), Mean: q.seg.Mean})
+			hc, constant := q.constH()
+			if q.kind != problem.Convection || hc == 0 || !q.seg.Finite {
 				continue
 			}
 			L, k := pr.H, pr.Ky
 			if side == problem.Left || side == problem.Right {
 				L, k = pr.W, pr.Kx
 			}
-			bi := e.Hc * L / k
-			h.Convection = append(h.Convection, ConvectionEdge{Part: q.name(), Loss: -*r.Edges[side].Flow, Biot: bi, L: L, Reading: biotReading(bi)})
+			loss := -*q.seg.Flow
+			if !constant {
+				// h varies along the part: the Biot number of its mean h
+				hc = 0
+				for k := 0; k < 64; k++ {
+					hc += q.hc(q.from+(q.to-q.from)*(float64(k)+0.5)/64) / 64
+				}
+			}
+			bi := hc * L / k
+			h.Convection = append(h.Convection, ConvectionEdge{Part: q.name(), Loss: loss, Biot: bi, L: L, Reading: biotReading(bi)})
 		}
 	}
 	return h
@@ -139,11 +147,11 @@ func electroAnswers(pr *problem.Problem, f field, out *Output, a *Answers, asked
 		e.Capacitance = &v
 	}
 	for _, side := range problem.Sides {
-		if pr.Edges[side].Kind != problem.Value {
-			continue
-		}
-		for _, q := range partsOf(pr, side) {
-			el := Electrode{Part: q.name(), Potential: partMean(pr, f, q), Charge: r.Edges[side].Flow}
+		for _, q := range partsOf(pr, r, side) {
+			if q.kind != problem.Value || q.seg == nil {
+				continue
+			}
+			el := Electrode{Part: q.name(), Potential: q.seg.Mean, Charge: q.seg.Flow}
 			for i := 0; i < profilePoints; i++ {
 				s := q.from + (q.to-q.from)*(float64(i)+0.5)/profilePoints
 				x, y := pr.Point(side, s)
@@ -226,11 +234,11 @@ func seepageAnswers(pr *problem.Problem, out *Output, a *Answers, asked project.
 		s.Rule = "about 1 for common soils (common practice)"
 	}
 	for _, side := range problem.Sides {
-		if pr.Edges[side].Kind != problem.Value {
-			continue
-		}
-		for _, q := range partsOf(pr, side) {
-			g, x, y, found := exitGradientAway(pr, out, side, a.Singular, a.Near)
+		for _, q := range partsOf(pr, nil, side) {
+			if q.kind != problem.Value {
+				continue
+			}
+			g, x, y, found := exitGradientAway(pr, out, side, q.from, q.to, a.Singular, a.Near)
 			if !found {
 				continue
 			}

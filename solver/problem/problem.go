@@ -139,6 +139,20 @@ type Part struct {
 // Mixed reports whether the edge's conditions change along it.
 func (e *Edge) Mixed() bool { return len(e.Parts) > 0 }
 
+// Condition returns the condition held at s along the edge: its kind,
+// data and convection coefficient there (the part's, on a mixed edge).
+func (e *Edge) Condition(s float64) (Kind, func(float64) float64, float64) {
+	if !e.Mixed() {
+		return e.Kind, e.F, e.Hc
+	}
+	p := e.Parts[e.PartAt(s)]
+	h := 0.0
+	if p.Kind == Convection {
+		h = p.Hc(s)
+	}
+	return p.Kind, p.F, h
+}
+
 // PartRange returns where part i of an edge of length L starts and ends.
 func (e *Edge) PartRange(i int, L float64) (from, to float64) {
 	if i > 0 {
