@@ -571,17 +571,13 @@ func (s *system) cornerShare(e problem.Side, t int, o problem.Side, ot int, reac
 // the error of the corner term is O(h^4) and leaves the h^2 expansion of
 // the flow clean for Richardson; times the value length it is the
 // trapezoid term that the node balance holds (every node's term is its
-// point flux times its segment). Only inner nodes wholly inside the same
-// value part count: with two of them it extrapolates linearly, with one
-// it takes that node's flux, with none it reports false.
+// point flux times its segment). Only inner nodes whose segments lie
+// wholly on value parts count (the flux is smooth across a boundary
+// between two value parts that agree there; where they disagree the flow
+// is infinite anyway): with two of them it extrapolates linearly, with
+// one it takes that node's flux, with none it reports false.
 func (s *system) cornerFlux(e problem.Side, t int, react []float64) (float64, bool) {
 	m := s.edgeNodes(e)
-	corner := -1
-	for _, pc := range s.bnodes[e][t].pieces {
-		if pc.kind == problem.Value {
-			corner = pc.part
-		}
-	}
 	var q [3]float64 // flux at the k-th inner node from the corner
 	n := 0
 	for k := 1; k <= min(3, m-1); k++ {
@@ -590,7 +586,7 @@ func (s *system) cornerFlux(e problem.Side, t int, react []float64) (float64, bo
 			i = m - k
 		}
 		bn := s.bnodes[e][i]
-		if !bn.fixed || !onlyValue(bn.pieces, corner) {
+		if !bn.fixed || !onlyValue(bn.pieces) {
 			break
 		}
 		_, seg := s.edgeNode(e, i)
@@ -608,10 +604,10 @@ func (s *system) cornerFlux(e problem.Side, t int, react []float64) (float64, bo
 	return 0, false
 }
 
-// onlyValue reports whether every piece is a value piece of part q.
-func onlyValue(pieces []piece, q int) bool {
+// onlyValue reports whether every piece is a value piece.
+func onlyValue(pieces []piece) bool {
 	for _, pc := range pieces {
-		if pc.kind != problem.Value || pc.part != q {
+		if pc.kind != problem.Value {
 			return false
 		}
 	}
