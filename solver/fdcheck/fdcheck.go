@@ -68,8 +68,8 @@ func locate(v, length float64, n int) (k int, t float64) {
 	return k, f - float64(k)
 }
 
-// ImbalanceError reports an all-flux problem (no Value edge, no Convection
-// edge with Hc > 0) whose discrete inflows and source do not add up to
+// ImbalanceError reports an all-flux problem (no value part, no
+// convection part with Hc > 0) whose discrete inflows and source do not add up to
 // zero, so that it has no steady state.
 type ImbalanceError struct {
 	Inflow      float64 // sum of the discrete edge inflows, per unit depth
@@ -88,8 +88,9 @@ const balanceTol = 1e-9
 
 // Solve solves on an Nx x Ny interval grid (nx, ny >= 2).
 //
-// It returns the error of p.Validate, a *problem.NonFiniteError (unchanged
-// from p.Eval) for edge data that is not finite at a boundary node, an
+// It returns the error of p.Validate, a *problem.NonFiniteError for edge
+// data or a convection coefficient that is not finite where it is
+// evaluated (a boundary node, or a quadrature point of a piece), an
 // *ImbalanceError for an unbalanced all-flux problem, or an error if the
 // system cannot be factorized. It panics if nx or ny is below 2.
 func Solve(p *problem.Problem, nx, ny int) (*Grid, error) {
