@@ -100,7 +100,10 @@
 // pieces take their data terms (convection at the node's value) and its
 // value pieces the rest, in proportion to their lengths; at a corner
 // between two value parts the rule of "Edge flows" below shares it. The
-// part flows of an edge add up to its Inflow.
+// part flows of an edge add up to its Inflow. Grid.PartMean holds the mean
+// of the field along each part: the mean of the data on a value part, the
+// mean of the piecewise-linear interpolation of the edge's node values on
+// any other part (second order for a smooth field).
 //
 // # All-flux problems
 //

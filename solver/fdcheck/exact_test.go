@@ -142,7 +142,9 @@ func twoPartErrors(t *testing.T, c twoPartCase, p *problem.Problem, tp *exact.Tw
 // at least 3 over the two doublings (4 is first order; observed 3.4 to
 // 4.4), near them by at least 1.4 (2 is order 1/2; observed 1.6 to 1.9),
 // and the flow through each part (the conductance times the difference)
-// by at least 3 (observed 4.0 to 4.1); on the finest grid the far
+// by at least 3 (observed 4.0 to 4.1), and so must the mean along each
+// part (Grid.PartMean against the exact mean; observed 3.8 to 3.9); on
+// the finest grid the far
 // error must be below 1% of the difference of the values (observed 0.4%
 // to 0.7%) and the flows within 2% of the exact one (observed 0.7% to
 // 1.5%). The flows balance to round-off (1e-11 of the largest part flow).
@@ -160,7 +162,7 @@ func TestTwoPartExact(t *testing.T) {
 	}
 	for _, c := range cases {
 		p, tp := c.problem(t)
-		var near, far, flow [3]float64
+		var near, far, flow, mean [3]float64
 		for k, m := range []int{1, 2, 4} {
 			nx, ny := problem.Proportional(c.w, c.h, m*c.n)
 			g, err := Solve(p, nx, ny)
@@ -169,6 +171,15 @@ func TestTwoPartExact(t *testing.T) {
 			}
 			checkPartBalance(t, c.name, g, 1e-11)
 			near[k], far[k], flow[k] = twoPartErrors(t, c.twoPartCase, p, tp, g)
+			for _, e := range problem.Sides {
+				for i, m := range g.PartMean[e] {
+					from, to := 0.0, p.Length(e)
+					if p.Edges[e].Mixed() {
+						from, to = p.Edges[e].PartRange(i, to)
+					}
+					mean[k] = max(mean[k], math.Abs(m-tp.MeanAlong(e, from, to))/math.Abs(c.ub-c.ua))
+				}
+			}
 		}
 		if fall := far[0] / far[2]; fall < 3 {
 			t.Errorf("%s: error away from the meeting points falls by %.3g (errors %.3g)", c.name, fall, far)
@@ -176,13 +187,16 @@ func TestTwoPartExact(t *testing.T) {
 		if fall := near[0] / near[2]; fall < 1.4 {
 			t.Errorf("%s: error near the meeting points falls by %.3g (errors %.3g)", c.name, fall, near)
 		}
+		if fall := mean[0] / mean[2]; fall < 3 {
+			t.Errorf("%s: part-mean error falls by %.3g (errors %.3g)", c.name, fall, mean)
+		}
 		if fall := flow[0] / flow[2]; fall < 3 {
 			t.Errorf("%s: part-flow error falls by %.3g (errors %.3g)", c.name, fall, flow)
 		}
 		if far[2] > 0.01 || flow[2] > 0.02 {
 			t.Errorf("%s: finest grid: error away %.3g (want below 0.01), flow error %.3g (want below 0.02)", c.name, far[2], flow[2])
 		}
-		t.Logf("%s: errors near %.3g, away %.3g, flows %.3g (exact conductance %.10g)", c.name, near, far, flow, tp.Conductance())
+		t.Logf("%s: errors near %.3g, away %.3g, flows %.3g, means %.3g (exact conductance %.10g)", c.name, near, far, flow, mean, tp.Conductance())
 	}
 }
 

@@ -26,6 +26,12 @@ type Grid struct {
 	// Inflow, for an edge that is not mixed); each edge's entries add up
 	// to its Inflow (see the package comment, "Edges made of parts").
 	PartInflow [4][]float64
+	// PartMean is the mean of the field along each part of each edge,
+	// indexed like PartInflow: the mean of the data on a value part, the
+	// mean of the piecewise-linear interpolation of the edge's node values
+	// on any other part (for a flux or convection part, the mean surface
+	// value under it).
+	PartMean [4][]float64
 	// SourceTotal is Source*W*H, so that the four inflows plus SourceTotal
 	// add up to zero to round-off.
 	SourceTotal float64
@@ -125,6 +131,9 @@ func solve(p *problem.Problem, nx, ny int, balanced bool) (*Grid, error) {
 	}
 	g.Inflow, g.PartInflow = s.inflows()
 	g.Mean = s.mean()
+	if g.PartMean, err = s.partMeans(); err != nil {
+		return nil, err
+	}
 	return g, nil
 }
 
@@ -172,6 +181,11 @@ func richardson(p *problem.Problem, nx, ny int, balanced bool) (g *Grid, indicat
 		}
 	}
 	coarse.Mean = (4*fine.Mean - coarse.Mean) / 3
+	for e := range coarse.PartMean {
+		for i, c := range coarse.PartMean[e] {
+			coarse.PartMean[e][i] = (4*fine.PartMean[e][i] - c) / 3
+		}
+	}
 	return coarse, indicator, nil
 }
 

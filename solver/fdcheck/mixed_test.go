@@ -86,6 +86,40 @@ func exactPartFlows(p *problem.Problem, f field) [4][]float64 {
 	return out
 }
 
+// exactPartMeans returns the mean of field f along each part of each edge
+// of p (a 40-point Gauss-Legendre rule on each part of a smooth field).
+func exactPartMeans(p *problem.Problem, f field) [4][]float64 {
+	var out [4][]float64
+	var xs, ws [40]float64
+	for _, e := range problem.Sides {
+		n := max(len(p.Edges[e].Parts), 1)
+		out[e] = make([]float64, n)
+		for i := range n {
+			from, to := 0.0, p.Length(e)
+			if p.Edges[e].Mixed() {
+				from, to = p.Edges[e].PartRange(i, to)
+			}
+			gauss.Legendre(xs[:], ws[:], from, to)
+			for k, s := range xs {
+				out[e][i] += ws[k] * f.u(p.Point(e, s)) / (to - from)
+			}
+		}
+	}
+	return out
+}
+
+// partMeanError returns the largest error of the part means of g against
+// want.
+func partMeanError(g *Grid, want [4][]float64) float64 {
+	worst := 0.0
+	for e, means := range g.PartMean {
+		for i, m := range means {
+			worst = math.Max(worst, math.Abs(m-want[e][i]))
+		}
+	}
+	return worst
+}
+
 // partFlowError returns the largest error of the part flows of g against
 // want, and checks on the way that each edge's part flows add up to its
 // Inflow (to round-off: 1e-12 of the largest part flow).
@@ -277,14 +311,17 @@ func mixedExactProblem(ends [5]float64, dataMeet bool) (*problem.Problem, field)
 // stands for the field over the convection piece of its segment, an
 // O(h^2) term in that node's balance, so the node error there falls like
 // h^2 log(1/h) (observed order 1.67, 1.73, 1.76); required 1.6..2.15. The
-// part flows keep order 2 (required within 1.85..2.15).
+// part flows and part means (Grid.PartMean against the exact field's
+// means along the parts) keep order 2 on both layouts (observed
+// 1.97..2.0; required within 1.85..2.15).
 //
 // With boundaries between nodes they sit at other fractions of a cell on
 // each grid and the errors fall unevenly (a free node whose segment
 // reaches into a value part carries its own part's data there, an O(h^2)
 // term), so only the overall fall from grid 12 to grid 96 is required:
-// at least 12 for nodes (8 would be first order; observed 18 and 58) and
-// 25 for part flows (observed 40 and 57).
+// at least 12 for nodes (8 would be first order; observed 18 and 58), 25
+// for part flows (observed 40 and 57) and 30 for part means (observed 56
+// and 65).
 func TestMixedExactConvergence(t *testing.T) {
 	on := [5]float64{0.5, 1.0, 0.375, 0.75, 0.5}
 	between := [5]float64{0.53, 1.07, 0.41, 0.7, 0.45}
@@ -301,8 +338,8 @@ func TestMixedExactConvergence(t *testing.T) {
 	}
 	for _, c := range cases {
 		p, f := mixedExactProblem(c.ends, c.dataMeet)
-		want := exactPartFlows(p, f)
-		var errs, ferrs []float64
+		want, wantMeans := exactPartFlows(p, f), exactPartMeans(p, f)
+		var errs, ferrs, merrs []float64
 		for _, n := range []int{12, 24, 48, 96} {
 			nx, ny := problem.Proportional(p.W, p.H, n)
 			g, err := Solve(p, nx, ny)
@@ -311,6 +348,7 @@ func TestMixedExactConvergence(t *testing.T) {
 			}
 			errs = append(errs, maxNodeError(g, f.u))
 			ferrs = append(ferrs, partFlowError(t, g, want))
+			merrs = append(merrs, partMeanError(g, wantMeans))
 			checkBalance(t, c.name, g, 1e-11)
 		}
 		if c.lo == 0 {
@@ -320,6 +358,9 @@ func TestMixedExactConvergence(t *testing.T) {
 			if fall := ferrs[0] / ferrs[3]; fall < 25 {
 				t.Errorf("%s: part-flow error falls by %.3g from grid 12 to 96 (errors %.3g)", c.name, fall, ferrs)
 			}
+			if fall := merrs[0] / merrs[3]; fall < 30 {
+				t.Errorf("%s: part-mean error falls by %.3g from grid 12 to 96 (errors %.3g)", c.name, fall, merrs)
+			}
 		} else {
 			for i := 1; i < len(errs); i++ {
 				if order := math.Log2(errs[i-1] / errs[i]); order < c.lo || order > 2.15 {
@@ -327,6 +368,9 @@ func TestMixedExactConvergence(t *testing.T) {
 				}
 				if order := math.Log2(ferrs[i-1] / ferrs[i]); order < 1.85 || order > 2.15 {
 					t.Errorf("%s: part-flow error order %.3f between grids %d and %d (errors %.3g)", c.name, order, i-1, i, ferrs)
+				}
+				if order := math.Log2(merrs[i-1] / merrs[i]); order < 1.85 || order > 2.15 {
+					t.Errorf("%s: part-mean error order %.3f between grids %d and %d (errors %.3g)", c.name, order, i-1, i, merrs)
 				}
 			}
 		}
@@ -339,7 +383,7 @@ func TestMixedExactConvergence(t *testing.T) {
 		if c.lo > 1.8 && rerr > errs[2]/8 {
 			t.Errorf("%s: Richardson node error %.3g, fine grid %.3g", c.name, rerr, errs[2])
 		}
-		t.Logf("%s: node errors %.3g, part-flow errors %.3g, Richardson %.3g and %.3g", c.name, errs, ferrs, rerr, rferr)
+		t.Logf("%s: node errors %.3g, part-flow errors %.3g, part-mean errors %.3g, Richardson %.3g, %.3g and %.3g", c.name, errs, ferrs, merrs, rerr, rferr, partMeanError(rg, wantMeans))
 	}
 }
 
