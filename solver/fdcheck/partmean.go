@@ -33,6 +33,7 @@ func (s *system) partMeans() ([4][]float64, error) {
 					}
 				}
 				slices.Sort(cuts)
+				cuts = slices.Compact(cuts)
 				for k := 0; k+1 < len(cuts); k++ {
 					gauss.Legendre(xs[:], ws[:], cuts[k], cuts[k+1])
 					for j, x := range xs {
