@@ -118,9 +118,10 @@ func (s *system) boundary(e problem.Side) ([]bnode, error) {
 		}
 		slices.Sort(cuts)
 		cuts = slices.CompactFunc(cuts, func(x, y float64) bool { return math.Abs(x-y) <= tol })
-		if len(cuts) == 2 && parts[held[0]].Kind != problem.Value {
+		if q := partAt(ends, (lo+hi)/2); len(cuts) == 2 && parts[q].Kind != problem.Value {
 			// an uncut segment: the node's own sample (the ghost-node scheme)
-			pc, err := sample(parts[held[0]], held[0], e, pos, seg)
+			from, to := partRange(parts, q, length)
+			pc, err := sample(parts[q], q, e, min(max(pos, from), to), seg)
 			if err != nil {
 				return nil, err
 			}

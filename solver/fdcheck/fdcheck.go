@@ -507,13 +507,14 @@ func (s *system) inflows() (flow [4]float64, parts [4][]float64) {
 }
 
 // shareByLength adds r to the parts of the value pieces among pieces, in
-// proportion to their lengths.
+// proportion to their lengths (all to the first piece's part if none is
+// a value piece, as on a node held by a value part shorter than the
+// round-off of the node positions).
 func shareByLength(parts []float64, pieces []piece, r float64) {
-	total := 0.0
-	for _, pc := range pieces {
-		if pc.kind == problem.Value {
-			total += pc.length
-		}
+	total := valueLength(pieces)
+	if total == 0 {
+		parts[pieces[0].part] += r
+		return
 	}
 	for _, pc := range pieces {
 		if pc.kind == problem.Value {
