@@ -574,3 +574,20 @@ func TestRandomMixedEdges(t *testing.T) {
 	}
 	t.Logf("%d solves, %d held nodes checked", solved, held)
 }
+
+// BenchmarkRichardsonMixed is the cross-check of a problem with a mixed
+// edge on every side (three parts on the bottom, h varying), on the
+// cross-check's grid and twice it.
+func BenchmarkRichardsonMixed(b *testing.B) {
+	p, _ := mixedExactProblem([5]float64{0.53, 1.07, 0.41, 0.7, 0.45}, true)
+	for _, n := range []int{24, 48} {
+		b.Run(fmt.Sprint(n), func(b *testing.B) {
+			nx, ny := problem.Proportional(p.W, p.H, n)
+			for b.Loop() {
+				if _, _, err := Richardson(p, nx, ny); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
