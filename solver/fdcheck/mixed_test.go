@@ -591,3 +591,48 @@ func BenchmarkRichardsonMixed(b *testing.B) {
 		})
 	}
 }
+
+// An all-flux problem with mixed edges (a heater part, an insulated part
+// and a convection part whose h is zero, so no node is held and nothing
+// convects): balanced data solve with the area mean at zero and the
+// flows balancing (the pieces a part boundary cuts are integrated, so
+// constant data give the exact integral: 2 W/m over 0.7 in, 0.7 over 2
+// out); data out of balance by 1% give an *ImbalanceError, unless the
+// balance is declared known (RichardsonBalanced).
+func TestMixedAllFlux(t *testing.T) {
+	for _, out := range []float64{-0.7, -0.707} {
+		p := &problem.Problem{W: 2, H: 1, Kx: 1, Ky: 1}
+		bottom := problem.Edge{Kind: F, Parts: []problem.Part{
+			{To: 0.7, Kind: F, F: problem.Const(2)},
+			{To: 1.3, Kind: F, F: problem.Const(0)},
+			{Kind: C, F: problem.Const(50), Hc: problem.Const(0)},
+		}}
+		bottom.F = func(s float64) float64 { return bottom.Parts[bottom.PartAt(s)].F(s) }
+		p.Edges[problem.Bottom] = bottom
+		p.Edges[problem.Top] = problem.Edge{Kind: F, F: problem.Const(out)}
+		p.Edges[problem.Left] = problem.Edge{Kind: F, F: problem.Const(0)}
+		p.Edges[problem.Right] = problem.Edge{Kind: F, F: problem.Const(0)}
+		g, _, err := Richardson(p, 12, 6)
+		if out != -0.7 {
+			var ie *ImbalanceError
+			if !errors.As(err, &ie) {
+				t.Fatalf("out %g: error %v, want an *ImbalanceError", out, err)
+			}
+			if g, _, err = RichardsonBalanced(p, 12, 6); err != nil {
+				t.Fatalf("out %g, balance known: %v", out, err)
+			}
+		} else if err != nil {
+			t.Fatal(err)
+		}
+		// tolerances: round-off on values of order 1 and flows of order 1
+		if math.Abs(g.Mean) > 1e-12 {
+			t.Errorf("out %g: mean %g, want 0", out, g.Mean)
+		}
+		if got := g.PartInflow[problem.Bottom]; math.Abs(got[0]-1.4) > 1e-12 || got[1] != 0 || got[2] != 0 {
+			t.Errorf("out %g: bottom part flows %v, want [1.4 0 0]", out, got)
+		}
+		if out == -0.7 {
+			checkBalance(t, "all-flux mixed", g, 1e-12)
+		}
+	}
+}
