@@ -19,8 +19,10 @@ const CrossCheckGrid = 24
 // solution (Richardson-extrapolated from two grids) at the coarse grid's
 // nodes, leaving out the neighbourhood of corners where the finite
 // differences are not meant to be accurate: two coarse cells around every
-// corner, and a fifth of the shorter side around corner breaks and value
-// breaks inside edges.
+// corner, and a fifth of the shorter side around corner breaks, value
+// breaks inside edges and the points where a value part of a mixed edge
+// meets a flux or convection part (the field goes like r^(1/2) there,
+// which the finite differences resolve only to first order).
 func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) {
 	nx, ny := problem.Proportional(pr.W, pr.H, CrossCheckGrid)
 	// A weakly exchanging problem is checked through the flux problem its
@@ -57,7 +59,7 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 			x, y := float64(i)*hx, float64(j)*hy
 			skip := false
 			for _, b := range breaks {
-				if b.Class == series.ValueBreak {
+				if b.Class == series.ValueBreak || b.Class == series.PartMeet {
 					jx, jy := pr.Point(b.Side, b.S)
 					skip = skip || near(x, y, jx, jy, 0.2*min(pr.W, pr.H))
 				}

@@ -8,7 +8,6 @@ import (
 	"gonum.org/v1/gonum/blas/blas64"
 	"gonum.org/v1/gonum/lapack/lapack64"
 
-	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
 )
 
@@ -22,6 +21,17 @@ type Grid struct {
 	// depth, indexed by problem.Side (see the package comment for how
 	// corners are shared).
 	Inflow [4]float64
+	// PartInflow is the discrete flow entering through each part of each
+	// edge, indexed by problem.Side and then by part (one entry, equal to
+	// Inflow, for an edge that is not mixed); each edge's entries add up
+	// to its Inflow (see the package comment, "Edges made of parts").
+	PartInflow [4][]float64
+	// PartMean is the mean of the field along each part of each edge,
+	// indexed like PartInflow: the mean of the data on a value part, the
+	// mean of the piecewise-linear interpolation of the edge's node values
+	// on any other part (for a flux or convection part, the mean surface
+	// value under it).
+	PartMean [4][]float64
 	// SourceTotal is Source*W*H, so that the four inflows plus SourceTotal
 	// add up to zero to round-off.
 	SourceTotal float64
@@ -64,8 +74,8 @@ func locate(v, length float64, n int) (k int, t float64) {
 	return k, f - float64(k)
 }
 
-// ImbalanceError reports an all-flux problem (no Value edge, no Convection
-// edge with Hc > 0) whose discrete inflows and source do not add up to
+// ImbalanceError reports an all-flux problem (no value part, no
+// convection part with Hc > 0) whose discrete inflows and source do not add up to
 // zero, so that it has no steady state.
 type ImbalanceError struct {
 	Inflow      float64 // sum of the discrete edge inflows, per unit depth
@@ -84,8 +94,9 @@ const balanceTol = 1e-9
 
 // Solve solves on an Nx x Ny interval grid (nx, ny >= 2).
 //
-// It returns the error of p.Validate, a *problem.NonFiniteError (unchanged
-// from p.Eval) for edge data that is not finite at a boundary node, an
+// It returns the error of p.Validate, a *problem.NonFiniteError for edge
+// data or a convection coefficient that is not finite where it is
+// evaluated (a boundary node, or a quadrature point of a piece), an
 // *ImbalanceError for an unbalanced all-flux problem, or an error if the
 // system cannot be factorized. It panics if nx or ny is below 2.
 func Solve(p *problem.Problem, nx, ny int) (*Grid, error) {
@@ -118,8 +129,11 @@ func solve(p *problem.Problem, nx, ny int, balanced bool) (*Grid, error) {
 			g.U[j*(nx+1)+i] = s.u[s.node(i, j)]
 		}
 	}
-	g.Inflow = s.inflows()
+	g.Inflow, g.PartInflow = s.inflows()
 	g.Mean = s.mean()
+	if g.PartMean, err = s.partMeans(); err != nil {
+		return nil, err
+	}
 	return g, nil
 }
 
@@ -162,8 +176,16 @@ func richardson(p *problem.Problem, nx, ny int, balanced bool) (g *Grid, indicat
 	}
 	for e := range coarse.Inflow {
 		coarse.Inflow[e] = (4*fine.Inflow[e] - coarse.Inflow[e]) / 3
+		for i, c := range coarse.PartInflow[e] {
+			coarse.PartInflow[e][i] = (4*fine.PartInflow[e][i] - c) / 3
+		}
 	}
 	coarse.Mean = (4*fine.Mean - coarse.Mean) / 3
+	for e := range coarse.PartMean {
+		for i, c := range coarse.PartMean[e] {
+			coarse.PartMean[e][i] = (4*fine.PartMean[e][i] - c) / 3
+		}
+	}
 	return coarse, indicator, nil
 }
 
@@ -179,12 +201,13 @@ type system struct {
 	n        int       // number of nodes
 	band     []float64 // upper band, row-major, stride k+1
 	rhs      []float64
-	fixed    []bool // node value prescribed (Value edges, or the pinned node)
+	fixed    []bool // node value prescribed (value parts, or the pinned node)
 	val      []float64
-	onValue  []bool       // node lies on a Value edge (not merely pinned)
-	data     [4][]float64 // edge data at the nodes of each edge, by s
-	singular bool         // all-flux: one node pinned, mean removed after
-	balanced bool         // all-flux balance known: spread any discrete imbalance
+	onValue  []bool            // node held by a value part (not merely pinned)
+	parts    [4][]problem.Part // each edge's parts (one for an edge that is not mixed)
+	bnodes   [4][]bnode        // each edge's nodes, by s
+	singular bool              // all-flux: one node pinned, mean removed after
+	balanced bool              // all-flux balance known: spread any discrete imbalance
 	u        []float64
 }
 
@@ -204,65 +227,14 @@ func newSystem(p *problem.Problem, nx, ny int) (*system, error) {
 	s.val = make([]float64, s.n)
 	s.onValue = make([]bool, s.n)
 	for _, e := range problem.Sides {
-		m := s.edgeNodes(e)
-		d := make([]float64, m+1)
-		length := p.Length(e)
-		for t := range d {
-			pos := float64(t) * length / float64(m)
-			if t == m {
-				pos = length
-			}
-			v, err := p.Eval(e, pos)
-			if err != nil {
-				return nil, err
-			}
-			d[t] = v
+		s.parts[e] = edgeParts(p, e)
+		bn, err := s.boundary(e)
+		if err != nil {
+			return nil, err
 		}
-		if p.Edges[e].Kind != problem.Value && len(p.Edges[e].Breaks) > 0 {
-			if err := cellAverages(p, e, d, length/float64(m)); err != nil {
-				return nil, err
-			}
-		}
-		s.data[e] = d
+		s.bnodes[e] = bn
 	}
 	return s, nil
-}
-
-// cellAverages replaces the node samples of flux or ambient data by their
-// average over the node's segment [s - h/2, s + h/2] (clipped to the edge)
-// where a jump of the data (problem.Edge.Breaks) falls inside the segment:
-// a sample there would count the whole segment on one side of the step.
-// The average is a Gauss-Legendre rule on each piece between the jumps.
-func cellAverages(p *problem.Problem, e problem.Side, d []float64, h float64) error {
-	breaks := p.Edges[e].Breaks
-	length := p.Length(e)
-	var xs, ws [8]float64
-	for t := range d {
-		lo, hi := max(0, float64(t)*h-h/2), min(length, float64(t)*h+h/2)
-		cut := []float64{lo}
-		for _, b := range breaks {
-			if b > lo && b < hi {
-				cut = append(cut, b)
-			}
-		}
-		if len(cut) == 1 {
-			continue
-		}
-		cut = append(cut, hi)
-		sum := 0.0
-		for k := 0; k+1 < len(cut); k++ {
-			gauss.Legendre(xs[:], ws[:], cut[k], cut[k+1])
-			for q := range xs {
-				v, err := p.Eval(e, xs[q])
-				if err != nil {
-					return err
-				}
-				sum += ws[q] * v
-			}
-		}
-		d[t] = sum / (hi - lo)
-	}
-	return nil
 }
 
 // weights returns the cell widths of a grid of n intervals of width h.
@@ -320,17 +292,16 @@ func (s *system) eachFace(f func(a, b int, c float64)) {
 // assemble builds the band matrix and right-hand side.
 func (s *system) assemble() error {
 	p := s.p
-	// Value edges fix their nodes; two value edges meeting at a corner
-	// give it the mean of their end values.
+	// Value parts fix their nodes; where two hold one node (a corner, or a
+	// boundary between two value parts, which the edge has averaged) it
+	// takes the mean of their values.
 	count := make([]int, s.n)
 	for _, e := range problem.Sides {
-		if p.Edges[e].Kind != problem.Value {
-			continue
-		}
-		for t, v := range s.data[e] {
-			a, _ := s.edgeNode(e, t)
-			s.val[a] += v
-			count[a]++
+		for _, bn := range s.bnodes[e] {
+			if bn.fixed {
+				s.val[bn.a] += bn.val
+				count[bn.a]++
+			}
 		}
 	}
 	for a, c := range count {
@@ -362,20 +333,14 @@ func (s *system) assemble() error {
 		}
 	}
 	for _, e := range problem.Sides {
-		edge := p.Edges[e]
-		if edge.Kind == problem.Value {
-			continue
-		}
-		for t, v := range s.data[e] {
-			a, seg := s.edgeNode(e, t)
-			if s.fixed[a] {
+		for _, bn := range s.bnodes[e] {
+			if s.fixed[bn.a] {
 				continue
 			}
-			if edge.Kind == problem.Flux {
-				s.rhs[a] += v * seg
-			} else {
-				s.band[a*stride] += edge.Hc * seg
-				s.rhs[a] += edge.Hc * seg * v
+			for _, pc := range bn.pieces {
+				// a free node has data pieces only: Flux and Convection
+				s.band[bn.a*stride] += pc.h
+				s.rhs[bn.a] += pc.f
 			}
 		}
 	}
@@ -388,30 +353,37 @@ func (s *system) assemble() error {
 	return nil
 }
 
-// checkBalance decides whether the problem is all-flux and, if so, checks
-// that the discrete inflows balance the source. A balanced all-flux problem
-// has its imbalance (at most balanceTol of the largest term, any size when
-// the balance is known) spread over
-// the cells by area, so that the system is exactly compatible, and node 0
-// pinned; solve removes the mean afterwards.
+// checkBalance decides whether the problem is all-flux (no node held by a
+// value part, no convection with a positive integral of Hc over any
+// segment) and, if so, checks that the discrete inflows balance the
+// source. A balanced all-flux problem has its imbalance (at most
+// balanceTol of the largest term, any size when the balance is known)
+// spread over the cells by area, so that the system is exactly compatible,
+// and node 0 pinned; solve removes the mean afterwards.
 func (s *system) checkBalance() error {
 	p := s.p
 	for _, e := range problem.Sides {
-		edge := p.Edges[e]
-		if edge.Kind == problem.Value || (edge.Kind == problem.Convection && edge.Hc > 0) {
-			return nil
+		for _, bn := range s.bnodes[e] {
+			if bn.fixed {
+				return nil
+			}
+			for _, pc := range bn.pieces {
+				if pc.h > 0 {
+					return nil
+				}
+			}
 		}
 	}
 	source := p.Source * p.W * p.H
 	inflow, largest := 0.0, math.Abs(source)
 	for _, e := range problem.Sides {
-		if p.Edges[e].Kind != problem.Flux {
-			continue // convection with Hc = 0: insulated
-		}
-		for t, v := range s.data[e] {
-			_, seg := s.edgeNode(e, t)
-			inflow += v * seg
-			largest = math.Max(largest, math.Abs(v*seg))
+		for _, bn := range s.bnodes[e] {
+			in := 0.0
+			for _, pc := range bn.pieces {
+				in += pc.f // convection with Hc = 0: insulated, f = 0
+			}
+			inflow += in
+			largest = math.Max(largest, math.Abs(in))
 		}
 	}
 	imbalance := inflow + source
@@ -469,20 +441,11 @@ func (s *system) mean() float64 {
 	return sum / (s.p.W * s.p.H)
 }
 
-// dataFlow returns the inflow through the segment of node a on the non-Value
-// edge e, from the edge's own data.
-func (s *system) dataFlow(e problem.Side, v, seg float64, a int) float64 {
-	edge := s.p.Edges[e]
-	if edge.Kind == problem.Flux {
-		return v * seg
-	}
-	return edge.Hc * seg * (v - s.u[a])
-}
-
-// inflows returns the discrete flow entering through each edge.
-func (s *system) inflows() [4]float64 {
+// inflows returns the discrete flow entering through each edge and
+// through each of its parts.
+func (s *system) inflows() (flow [4]float64, parts [4][]float64) {
 	p := s.p
-	// Reaction of the nodes on Value edges: what enters through their
+	// Reaction of the nodes held by value parts: what enters through their
 	// boundary segments so that their balance closes.
 	react := make([]float64, s.n)
 	s.eachFace(func(a, b int, c float64) {
@@ -497,70 +460,174 @@ func (s *system) inflows() [4]float64 {
 			react[s.node(i, j)] -= p.Source * wx * wy
 		}
 	}
-	var flow [4]float64
 	for _, e := range problem.Sides {
-		d := s.data[e]
-		m := len(d) - 1
-		if p.Edges[e].Kind != problem.Value {
-			for t, v := range d {
-				a, seg := s.edgeNode(e, t)
-				flow[e] += s.dataFlow(e, v, seg, a)
+		parts[e] = make([]float64, len(s.parts[e]))
+	}
+	for _, e := range problem.Sides {
+		m := len(s.bnodes[e]) - 1
+		for t, bn := range s.bnodes[e] {
+			if !s.onValue[bn.a] {
+				for _, pc := range bn.pieces {
+					parts[e][pc.part] += pc.flow(s.u[bn.a])
+				}
+				continue
 			}
-			continue
-		}
-		for t := range d {
-			a, seg := s.edgeNode(e, t)
-			r := react[a]
 			if t == 0 || t == m {
-				r = s.cornerShare(e, t, a, seg, r, react)
+				continue // corners below, once each
 			}
-			flow[e] += r
+			r := react[bn.a]
+			for _, pc := range bn.pieces {
+				if pc.kind != problem.Value {
+					f := pc.flow(s.u[bn.a])
+					parts[e][pc.part] += f
+					r -= f
+				}
+			}
+			shareByLength(parts[e], bn.pieces, r)
 		}
 	}
-	return flow
+	for e := problem.Bottom; e <= problem.Left; e++ {
+		// the corner at the start of e (bottom-left for the bottom edge,
+		// and so on counter-clockwise)
+		t := 0
+		if e == problem.Top || e == problem.Left {
+			t = len(s.bnodes[e]) - 1
+		}
+		if bn := s.bnodes[e][t]; s.onValue[bn.a] {
+			o, ot := s.neighbour(e, t)
+			s.cornerShare(e, t, o, ot, react, &parts)
+		}
+	}
+	for _, e := range problem.Sides {
+		for _, f := range parts[e] {
+			flow[e] += f
+		}
+	}
+	return flow, parts
 }
 
-// cornerShare returns the part of the reaction r of corner node a (the t-th
-// node of Value edge e) that belongs to e. Next to a non-Value edge o, o
-// takes its own data term and e the rest. Between two Value edges each
-// takes its entering flux extrapolated from its own inner nodes times its
-// half segment, and the two share what is left (the discretisation error,
-// O(h^2) for smooth data) equally; a split in proportion to the segments
-// would be only first-order accurate where the two fluxes differ.
-func (s *system) cornerShare(e problem.Side, t, a int, seg, r float64, react []float64) float64 {
-	o, ot := s.neighbour(e, t)
-	_, oseg := s.edgeNode(o, ot)
-	if s.p.Edges[o].Kind != problem.Value {
-		return r - s.dataFlow(o, s.data[o][ot], oseg, a)
+// shareByLength adds r to the parts of the value pieces among pieces, in
+// proportion to their lengths (all to the first piece's part if none is
+// a value piece, as on a node held by a value part shorter than the
+// round-off of the node positions).
+func shareByLength(parts []float64, pieces []piece, r float64) {
+	total := valueLength(pieces)
+	if total == 0 {
+		parts[pieces[0].part] += r
+		return
 	}
-	own := s.cornerFlux(e, t, react) * seg
-	other := s.cornerFlux(o, ot, react) * oseg
-	return own + (r-own-other)/2
+	for _, pc := range pieces {
+		if pc.kind == problem.Value {
+			parts[pc.part] += r * pc.length / total
+		}
+	}
+}
+
+// valueLength returns the length of the value pieces among pieces.
+func valueLength(pieces []piece) float64 {
+	l := 0.0
+	for _, pc := range pieces {
+		if pc.kind == problem.Value {
+			l += pc.length
+		}
+	}
+	return l
+}
+
+// cornerShare shares the reaction of a corner node held by a value part
+// between the parts of its two edges: e (its t-th node) and o (its ot-th
+// node). Data pieces (a flux or convection part touching the corner) take
+// their own data term. If only one edge holds the corner at a value, its
+// value pieces take the rest. If both do, each takes its entering flux
+// extrapolated from its own inner nodes times its value length, and the
+// two share what is left (the discretisation error, O(h^2) for smooth
+// data) equally; a split in proportion to the lengths would be only
+// first-order accurate where the two fluxes differ.
+func (s *system) cornerShare(e problem.Side, t int, o problem.Side, ot int, react []float64, parts *[4][]float64) {
+	a := s.bnodes[e][t].a
+	u := s.u[a]
+	r := react[a]
+	for _, side := range [2]problem.Side{e, o} {
+		k := t
+		if side == o {
+			k = ot
+		}
+		for _, pc := range s.bnodes[side][k].pieces {
+			if pc.kind != problem.Value {
+				f := pc.flow(u)
+				parts[side][pc.part] += f
+				r -= f
+			}
+		}
+	}
+	pe, po := s.bnodes[e][t].pieces, s.bnodes[o][ot].pieces
+	le, lo := valueLength(pe), valueLength(po)
+	switch {
+	case lo == 0:
+		shareByLength(parts[e], pe, r)
+		return
+	case le == 0:
+		shareByLength(parts[o], po, r)
+		return
+	}
+	fe, oke := s.cornerFlux(e, t, react)
+	fo, oko := s.cornerFlux(o, ot, react)
+	re := r * le / (le + lo) // no inner nodes to extrapolate from: by length
+	if oke && oko {
+		own, other := fe*le, fo*lo
+		re = own + (r-own-other)/2
+	}
+	shareByLength(parts[e], pe, re)
+	shareByLength(parts[o], po, r-re)
 }
 
 // cornerFlux estimates the entering flux per unit length at the t-th
-// (corner) node of Value edge e from the reactions of the nearest inner
-// nodes (at h, 2h, 3h) by quadratic extrapolation, so that the error of the
-// corner term is O(h^4) and leaves the h^2 expansion of the flow clean for
-// Richardson; times the half segment it is the trapezoid term that the node
-// balance holds (every node's term is its point flux times its segment).
-// Edges of 3 or 2 intervals fall back to linear and constant extrapolation.
-func (s *system) cornerFlux(e problem.Side, t int, react []float64) float64 {
+// (corner) node of edge e, held by a value part, from the reactions of the
+// nearest inner nodes (at h, 2h, 3h) by quadratic extrapolation, so that
+// the error of the corner term is O(h^4) and leaves the h^2 expansion of
+// the flow clean for Richardson; times the value length it is the
+// trapezoid term that the node balance holds (every node's term is its
+// point flux times its segment). Only inner nodes whose segments lie
+// wholly on value parts count (the flux is smooth across a boundary
+// between two value parts that agree there; where they disagree the flow
+// is infinite anyway): with two of them it extrapolates linearly, with
+// one it takes that node's flux, with none it reports false.
+func (s *system) cornerFlux(e problem.Side, t int, react []float64) (float64, bool) {
 	m := s.edgeNodes(e)
-	q := func(k int) float64 { // flux at the k-th inner node from the corner
+	var q [3]float64 // flux at the k-th inner node from the corner
+	n := 0
+	for k := 1; k <= min(3, m-1); k++ {
+		i := k
 		if t != 0 {
-			k = m - k
+			i = m - k
 		}
-		a, seg := s.edgeNode(e, k)
-		return react[a] / seg
+		bn := s.bnodes[e][i]
+		if !bn.fixed || !onlyValue(bn.pieces) {
+			break
+		}
+		_, seg := s.edgeNode(e, i)
+		q[k-1] = react[bn.a] / seg
+		n++
 	}
-	switch {
-	case m >= 4:
-		return 3*q(1) - 3*q(2) + q(3)
-	case m == 3:
-		return 2*q(1) - q(2)
+	switch n {
+	case 3:
+		return 3*q[0] - 3*q[1] + q[2], true
+	case 2:
+		return 2*q[0] - q[1], true
+	case 1:
+		return q[0], true
 	}
-	return q(1)
+	return 0, false
+}
+
+// onlyValue reports whether every piece is a value piece.
+func onlyValue(pieces []piece) bool {
+	for _, pc := range pieces {
+		if pc.kind != problem.Value {
+			return false
+		}
+	}
+	return true
 }
 
 // neighbour returns the other edge meeting edge e at its t-th node (t = 0
