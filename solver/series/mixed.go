@@ -43,8 +43,9 @@ import (
 // at places between the collocation points; a flux residual r over a span
 // of length l moves the field by about r l / k, which is added to the
 // series' own estimate. If that is above the target the polynomials and
-// the family grow (three levels); if the last level misses the target, a
-// not-converged warning says so and gives the estimate.
+// the family grow (mixedLevels), and the level with the smallest estimate
+// is kept; when that misses the target a warning says so and gives the
+// estimate (not converged above mixedUnconverged of the data's range).
 //
 // Why this method: the singular family makes the meetings exact in form
 // (the coefficients of r^(1/2), r^(3/2) ... are fitted, not approximated by
@@ -56,11 +57,11 @@ import (
 
 // Sizes of the fit, by level: polynomial terms per span, family members
 // per meeting (plus two), collocation points per unknown.
-var mixedLevels = [...]struct{ poly, perMeet int }{{10, 4}, {24, 8}}
+var mixedLevels = [...]struct{ poly, perMeet int }{{10, 4}, {16, 6}}
 
 const (
 	mixedRowsPer   = 3     // collocation points per unknown of a span
-	mixedRcond     = 1e-13 // singular values treated as zero, relative
+	mixedRcond     = 1e-10 // singular values treated as zero, relative
 	mixedCheckEach = 4     // check places per collocation interval
 	// each unknown's response: its errors enter the fit, which the check
 	// of the final field measures; the final field is solved to Options.Tol
@@ -224,7 +225,9 @@ func solveMixed(p *problem.Problem, opt Options) (Field, error) {
 			return nil, err
 		}
 		mf.pr = p
-		last = mf
+		if last == nil || mf.ErrorEstimate() < last.ErrorEstimate() {
+			last = mf // the best level so far
+		}
 		if mf.ErrorEstimate() <= mf.target {
 			break
 		}
