@@ -93,6 +93,7 @@
     $("probe-head-g").replaceChildren(bar >= 0 ? g.slice(0, bar) : g + " ", sym);
     $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " x, y " + unit(u.flux_unit);
     document.documentElement.dataset.physics = P.id;
+    if (EW.parts) EW.parts.relabel(); // the parts of split edges (segments.js)
     checkPlausible();
   }
   EW.relabel = relabel;
