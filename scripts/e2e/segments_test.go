@@ -5,6 +5,7 @@ import (
 	"compress/flate"
 	"encoding/base64"
 	"encoding/json"
+	"fmt"
 	"io"
 	"math"
 	"reflect"
@@ -209,6 +210,37 @@ func TestSegmentFlowsInTable(t *testing.T) {
 	}
 	if math.Abs(flows[1]) > 1e-6*largest {
 		t.Errorf("the impervious part carries %g, want 0", flows[1])
+	}
+	tb.noErrors(t)
+}
+
+// The examples with segments are offered on the page: chosen from the
+// examples list, each comes into the inputs with its edges in parts (and
+// its picture, once the engine solves segments); "Back to my project"
+// brings the user's project back.
+func TestSegmentExamplesOffered(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, pools)
+	for _, c := range []struct {
+		choice string
+		parts  map[string]int
+	}{
+		{"seepage:1", map[string]int{"top": 3}},
+		{"electrostatic:1", map[string]int{"bottom": 3, "right": 2}},
+		{"heat:1", map[string]int{"bottom": 3}},
+	} {
+		tb.setSelect(t, "in-example", c.choice)
+		for side, n := range c.parts {
+			tb.waitFor(t, fmt.Sprintf(`document.querySelectorAll("#parts-%s > .part").length === %d &&
+			  window.edgewise.project().edges.%s.segments.length === %d`, side, n, side, n), c.choice+" "+side+" in parts")
+		}
+		tb.waitFor(t, `!!document.getElementById("offer-back")`, "the way back")
+		if c.choice == "heat:1" {
+			tb.fullShot(t, "segments-example-heat")
+		}
+		tb.click(t, "#offer-back")
+		tb.waitFor(t, `window.edgewise.project().title === "two pools" && document.getElementById("parts-top").hidden`, "the user's project back")
 	}
 	tb.noErrors(t)
 }
