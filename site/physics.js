@@ -202,7 +202,7 @@
       }
       // read but not solved: it stays in the inputs with its error marked
       EW.solving.edit(JSON.parse(JSON.stringify(ex)));
-      offer([para("The example is in the inputs but does not solve here: " + e.message + " Your own project is kept until you bring it back or leave the page."),
+      offer([para("The example is in the inputs but does not solve here: " + e.message.replace(/\.?$/, ".") + " Your own project is kept until you bring it back or leave the page."),
         actions(button("Back to my project", "offer-back", true, back), button("Stay with the example", "offer-keep", false, () => { kept = null; offer([]); }))]);
       return;
     }
