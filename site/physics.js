@@ -124,6 +124,12 @@
       if (e && e.kind === "convection") {
         check(e.h, us.h, "edges." + side + ".h", EW.capital(side) + " edge, " + (u.coefficient || "h"), u.coefficient_unit);
       }
+      const parts = e && Array.isArray(e.segments) ? e.segments : [];
+      parts.forEach((g, i) => {
+        if (g && g.kind === "convection") {
+          check(g.h, us.h, "edges." + side + ".segments[" + i + "].h", EW.capital(side) + " edge, part " + (i + 1) + ", " + (u.coefficient || "h"), u.coefficient_unit);
+        }
+      });
     }
     return out;
   };
