@@ -461,7 +461,7 @@
     segs.forEach((g, i) => {
       const name = "  part " + (i + 1) + " (" + g.kind + ", s " + EW.num(g.from, 3) + "–" + EW.num(g.to, 3) + ")";
       const finite = g.finite !== false && typeof g.flow === "number";
-      const tr = add(name, finite ? EW.flow(g.flow, 5) : "∞ infinite", "part" + (finite ? "" : " inf"));
+      const tr = add(name, finite ? EW.flow(g.flow, 5) : "∞ infinite", "seg" + (finite ? "" : " inf"));
       tr.classList.add("part-row");
       tr.dataset.edge = side;
       tr.dataset.part = String(i);
