@@ -115,14 +115,14 @@ func TestSegmentsTyped(t *testing.T) {
 		t.Errorf("autosaved top edge %s, want %s", saved, wantTopJSON)
 	}
 	// solved, the link carries it; not yet solved, the page says why at the edge
-	tb.waitFor(t, `(() => { const p = window.edgewiseInternal.last(); const s = document.getElementById("status").textContent;
-	  return (p && JSON.stringify(p.project.edges.top) === `+jsString(wantTopJSON)+`) || /^Not solved/.test(s); })()`, "the solve of the split edge")
-	if eval[bool](t, tb, `/^Not solved/.test(document.getElementById("status").textContent)`) {
-		msg := eval[string](t, tb, `document.getElementById("err-top").textContent`)
-		t.Logf("the engine does not solve segments yet: %q", msg)
-		if !strings.Contains(msg, "Top edge") {
-			t.Errorf("the engine's refusal %q is not shown at the top edge", msg)
+	v := eval[map[string]any](t, tb, `window.edgewiseInternal.call("validate", JSON.stringify(window.edgewise.project())).then((m) => m.value)`)
+	if ok, _ := v["ok"].(bool); !ok {
+		why, _ := v["error"].(string)
+		if !strings.Contains(why, "not solved yet") {
+			t.Fatalf("the split edge is refused: %v", v)
 		}
+		t.Logf("the engine does not solve segments yet: %q", why)
+		tb.waitFor(t, `/^Top edge, .*not solved yet/.test(document.getElementById("err-top").textContent)`, "the engine's refusal at the top edge")
 	} else {
 		tb.until(t, `JSON.stringify(window.edgewiseInternal.good().edges.top) === `+jsString(wantTopJSON), "the split edge meant")
 		if got := fromLink(t, tb.shareLink(t))["edges"].(map[string]any)["top"]; !reflect.DeepEqual(got, wantTop) {
