@@ -39,6 +39,9 @@
     whole.after(split, parts);
   }
 
+  // a new width or height moves the end of every edge's last part
+  for (const f of ["in-width", "in-height"]) byId(f).addEventListener("input", () => SIDES.forEach(froms));
+
   // lengthOf is the edge's length as typed (NaN when it is not a number).
   function lengthOf(side) {
     const r = EW.number(byId(side === "top" || side === "bottom" ? "in-width" : "in-height").value, "");
