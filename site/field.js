@@ -130,6 +130,7 @@
     ctx.strokeStyle = INK;
     ctx.lineWidth = 1.5;
     ctx.strokeRect(box.x0, box.y0, box.w, box.h);
+    if (EW.parts) EW.parts.mark(ctx, S.project, X, Y); // each edge's parts along the outline (segments.js)
     drawAxes(ctx);
   }
 

@@ -43,12 +43,13 @@
     return el("fieldset", { class: "edge", "data-side": side },
       el("legend", {}, el("span", { class: "glyph g-" + side, "aria-hidden": "true" }), side[0].toUpperCase() + side.slice(1) + " edge",
         el("small", { text: "  " + WHERE[side] + ", " + ALONG[side] })),
-      el("label", { class: "row" }, el("span", { text: "Condition" }), kind),
-      el("div", { class: "f-expr" }, el("label", { class: "row" }, exprLabel, expr)),
-      el("div", { class: "f-conv pair", hidden: "" },
-        el("label", { class: "row" }, el("span", { class: "lbl-h", text: "h" }), h),
-        el("label", { class: "row" }, el("span", { class: "lbl-amb", text: "Ambient" }), amb)),
-      el("p", { class: "hint", id: "hint-h-" + side, hidden: "" }),
+      el("div", { class: "whole" }, // the one-condition controls (segments.js adds the parts after them)
+        el("label", { class: "row" }, el("span", { text: "Condition" }), kind),
+        el("div", { class: "f-expr" }, el("label", { class: "row" }, exprLabel, expr)),
+        el("div", { class: "f-conv pair", hidden: "" },
+          el("label", { class: "row" }, el("span", { class: "lbl-h", text: "h" }), h),
+          el("label", { class: "row" }, el("span", { class: "lbl-amb", text: "Ambient" }), amb)),
+        el("p", { class: "hint", id: "hint-h-" + side, hidden: "" })),
       el("div", { class: "err", id: "err-" + side, "data-err": "edges." + side }),
       preview);
   }
@@ -69,6 +70,7 @@
     if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return { err: "not a number: " + JSON.stringify(t) };
     return { v: Number(t) };
   }
+  EW.number = number;
   function show(v) {
     if (typeof v !== "number") return v === undefined || v === null ? "" : String(v);
     return String(v);
@@ -102,6 +104,10 @@
     p.source = num("in-source", "source", "source");
     p.edges = {};
     for (const side of ["bottom", "top", "left", "right"]) {
+      if (EW.parts && EW.parts.count(side) > 1) { // an edge in parts (segments.js)
+        p.edges[side] = EW.parts.read(side, num);
+        continue;
+      }
       const kind = $("in-" + side + "-kind").value;
       const e = { kind };
       if (kind === "convection") {
@@ -138,7 +144,10 @@
     $("in-source").value = show(p.source || 0);
     const edges = p.edges || {};
     for (const side of SIDES) {
-      const e = edges[side] || { kind: "flux", expr: "0" };
+      let e = edges[side] || { kind: "flux", expr: "0" };
+      const segs = Array.isArray(e.segments) ? e.segments : null;
+      if (EW.parts) EW.parts.fill(side, segs);
+      if (segs) e = segs[0] || { kind: "flux", expr: "0" }; // an edge in parts: its first part behind the parts
       $("in-" + side + "-kind").value = e.kind;
       $("in-" + side + "-expr").value = e.kind === "convection" ? "" : show(e.expr);
       $("in-" + side + "-h").value = e.kind === "convection" ? show(e.h) : "";
@@ -309,7 +318,7 @@
   $("in-title").addEventListener("input", () => EW.edited && EW.edited($("in-title")));
   form.addEventListener("change", (e) => {
     const t = e.target;
-    if (/-kind$/.test(t.id)) {
+    if (/^in-\w+-kind$/.test(t.id)) {
       // carry the edge's numbers over to the fields the new kind shows
       const side = t.id.split("-")[1];
       const expr = $("in-" + side + "-expr"), h = $("in-" + side + "-h"), amb = $("in-" + side + "-ambient");

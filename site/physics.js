@@ -42,6 +42,7 @@
         }
         select.value = EW.physicsOf(was).id;
         relabel();
+        chooser();
       });
     }
     return loading;
@@ -93,6 +94,7 @@
     $("probe-head-g").replaceChildren(bar >= 0 ? g.slice(0, bar) : g + " ", sym);
     $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " x, y " + unit(u.flux_unit);
     document.documentElement.dataset.physics = P.id;
+    if (EW.parts) EW.parts.relabel(); // the parts of split edges (segments.js)
     checkPlausible();
   }
   EW.relabel = relabel;
@@ -122,6 +124,12 @@
       if (e && e.kind === "convection") {
         check(e.h, us.h, "edges." + side + ".h", EW.capital(side) + " edge, " + (u.coefficient || "h"), u.coefficient_unit);
       }
+      const parts = e && Array.isArray(e.segments) ? e.segments : [];
+      parts.forEach((g, i) => {
+        if (g && g.kind === "convection") {
+          check(g.h, us.h, "edges." + side + ".segments[" + i + "].h", EW.capital(side) + " edge, part " + (i + 1) + ", " + (u.coefficient || "h"), u.coefficient_unit);
+        }
+      });
     }
     return out;
   };
@@ -178,6 +186,9 @@
     if (ex) {
       bs.push(button("Open the example: " + (ex.title || P.name), "offer-example", true, () => openExample(from, ex)));
     }
+    (P.more_examples || []).forEach((m, i) => {
+      bs.push(button("Open: " + (m.title || P.name + " " + (i + 2)), "offer-example-" + (i + 2), false, () => openExample(from, m)));
+    });
     bs.push(button("Keep my numbers", "offer-keep", false, () => offer([])));
     kids.push(actions(...bs));
     offer(kids);
@@ -190,12 +201,53 @@
     try {
       await window.edgewise.load(JSON.parse(JSON.stringify(ex)));
     } catch (e) {
-      kept = null;
-      offer([para("The example did not open: " + e.message)]);
+      if (e.cancelled || !e.path) {
+        kept = null;
+        offer([para("The example did not open: " + e.message)]);
+        return;
+      }
+      // read but not solved: it stays in the inputs with its error marked
+      EW.solving.edit(JSON.parse(JSON.stringify(ex)));
+      offer([para("The example is in the inputs but does not solve here: " + e.message.replace(/\.?$/, ".") + " Your own project is kept until you bring it back or leave the page."),
+        actions(button("Back to my project", "offer-back", true, back), button("Stay with the example", "offer-keep", false, () => { kept = null; offer([]); }))]);
       return;
     }
     offer([para("The example is open. Your own project, as it was before the switch, is kept until you bring it back or leave the page."),
       actions(button("Back to my project", "offer-back", true, back), button("Stay with the example", "offer-keep", false, () => { kept = null; offer([]); }))]);
+  }
+
+  // the examples chooser in the physics group: every example of every
+  // physics, opened as above (the user's project kept for "Back")
+  function chooser() {
+    const sel = $("in-example");
+    if (!sel) return;
+    sel.replaceChildren();
+    const first = document.createElement("option");
+    first.value = "";
+    first.textContent = "Open an example…";
+    sel.append(first);
+    for (const P of list) {
+      const all = (P.example ? [P.example] : []).concat(P.more_examples || []);
+      if (!all.length) continue;
+      const g = document.createElement("optgroup");
+      g.label = P.name;
+      all.forEach((ex, i) => {
+        const o = document.createElement("option");
+        o.value = P.id + ":" + i;
+        o.textContent = ex.title || P.name;
+        g.append(o);
+      });
+      sel.append(g);
+    }
+    sel.addEventListener("input", (e) => e.stopPropagation()); // not an edit of the project
+    sel.addEventListener("change", (e) => {
+      e.stopPropagation();
+      const [pid, i] = sel.value.split(":");
+      sel.value = "";
+      const P = list.find((q) => q.id === pid);
+      const ex = P && (P.example ? [P.example] : []).concat(P.more_examples || [])[Number(i)];
+      if (ex) openExample($("in-physics").value, ex);
+    });
   }
 
   async function back() {

@@ -58,6 +58,7 @@
       if (e.finite && e.flow !== null) {
         largest = Math.max(largest, Math.abs(e.flow));
         add(EW.capital(side), EW.flow(e.flow, 5));
+        if (EW.parts) EW.parts.flowRows(add, side, e, u); // each segment's flow and mean (segments.js)
         continue;
       }
       infinite.push(side);
@@ -71,6 +72,7 @@
         causes.add(w.code);
         tr.lastChild.append(el("span", { class: "reason", "data-code": w.code, text: why }));
       }
+      if (EW.parts) EW.parts.flowRows(add, side, e, u);
     }
     if (r.source_total) add("Source", EW.flow(r.source_total, 5));
     let balanceText;

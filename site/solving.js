@@ -293,8 +293,10 @@
       const key = JSON.stringify([project.width, project.height, (project.edges || {})[side]]);
       if (previewed[side] === key) continue;
       let m;
+      // an edge in parts: each part's data on its own stretch (segments.js)
+      const parts = Array.isArray(((project.edges || {})[side] || {}).segments);
       try {
-        m = await engine.call("preview", text, side, 96);
+        m = parts ? await EW.parts.sample(project, side, 240) : await engine.call("preview", text, side, 96);
       } catch (e) {
         // the worker was restarted: this pass starts again unless a newer one took over
         if (seq === previewSeq) setTimeout(() => seq === previewSeq && previews(project), 0);
@@ -302,7 +304,8 @@
       }
       if (seq !== previewSeq) return;
       const r = m.value;
-      EW.drawPreview(side, r.s, r.v, !r.ok);
+      if (parts) EW.parts.draw(side, r);
+      else EW.drawPreview(side, r.s, r.v, !r.ok);
       if (r.ok) previewed[side] = key;
       else delete previewed[side];
     }

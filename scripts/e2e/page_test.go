@@ -474,6 +474,8 @@ func TestLineProfile(t *testing.T) {
 	}
 	// drawing the line with the mouse: press at A, drag, release at B
 	eval[bool](t, tb, `(document.getElementById("btn-profile").click(), true)`)
+	// the picture in view, as a user would have it (typing the ends may have scrolled it away)
+	eval[bool](t, tb, `(document.getElementById("field").scrollIntoView({block: "nearest"}), true)`)
 	ends := eval[[]float64](t, tb, `(() => { const r = document.getElementById("field").getBoundingClientRect();
 	  const E = window.edgewiseParts, a = E.screenOf(0.1, 0.05), b = E.screenOf(0.3, 0.15);
 	  return [a[0] + r.left, a[1] + r.top, b[0] + r.left, b[1] + r.top]; })()`)

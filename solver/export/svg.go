@@ -38,6 +38,13 @@ type Picture struct {
 	Ticks bool
 	// Marks are points to mark with their labels (the probes).
 	Marks []Mark
+	// Parts are the edges' parts, each marked along the outline in the
+	// code of its kind (parts.go) and explained in a key under the
+	// drawing; nil marks none and draws no key.
+	Parts []EdgePart
+	// KindNames names the kinds in the key ("value": "Fixed temperature
+	// (Dirichlet)", ...; user text).
+	KindNames map[string]string
 }
 
 // Mark is a labelled point in field coordinates.
@@ -104,6 +111,15 @@ func SVG(w io.Writer, p *Picture) error {
 	legendW := math.Max(legendSpace, textWidth(p.LegendUnit, 11))
 	totalW := left + plotW + legendGap + legendW + margin
 	totalW = math.Max(totalW, left+textWidth(p.Title, 16)+margin)
+	var keys []keyItem
+	var keyX []float64
+	var keyRow []int
+	if len(p.Parts) > 0 {
+		keys = keyItems(p.KindNames)
+		var lines int
+		keyX, keyRow, lines = keyLayout(keys, totalW-left-margin)
+		below += float64(lines)*keyLine + 6
+	}
 	totalH := top + math.Max(plotH, legendH) + below + margin
 
 	var b bytes.Buffer
@@ -183,6 +199,11 @@ func SVG(w io.Writer, p *Picture) error {
 	}
 	fmt.Fprintf(&b, `<rect x="%s" y="%s" width="%s" height="%s" fill="none" stroke="#1b1b1b" stroke-width="1"/>`+"\n",
 		num(left), num(top), num(plotW), num(plotH))
+
+	if len(p.Parts) > 0 {
+		edgeParts(&b, p.Parts, f.W, f.H, px, py)
+		key(&b, keys, keyX, keyRow, left, top+math.Max(plotH, legendH)+below-float64(keyRow[len(keyRow)-1]+1)*keyLine)
+	}
 
 	// Axis ticks and the marked points.
 	noteX, noteY := left-8, top+plotH+16

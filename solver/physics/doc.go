@@ -29,7 +29,8 @@
 //	    "also": {"unit": "kV/mm", "scale": 1e-6},  // optional: |grad u| also in this unit
 //	    "default_h": "10",                         // h filled in when an edge turns to convection
 //	    "usual": {"conductivity": [lo, hi], "h": [lo, hi], "source": ...}, // optional: usual spans
-//	    "example": {...}},                         // optional: the physics' example project
+//	    "example": {...},                          // optional: the physics' example project
+//	    "more_examples": [{...}, ...]},            // optional: further examples (e.g. edges made of segments)
 //	   ...]}
 //
 // The order of the list is the order of the page's choice.

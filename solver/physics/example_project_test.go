@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"os"
 	"reflect"
+	"strings"
 	"testing"
 
 	"edgewise/solver"
@@ -88,6 +89,76 @@ func TestUsualSpans(t *testing.T) {
 		}
 		if (p.Usual.Conductivity != [2]float64{}) && p.Usual.Source == "" {
 			t.Errorf("%s: usual spans without a source", p.ID)
+		}
+	}
+}
+
+// Every physics but the generic one has a further example whose edges are
+// made of segments (an edge of two or more parts): it names that physics,
+// decodes, keeps its numbers (h of every part too) in the usual spans, and
+// solves once the engine solves segments.
+func TestSegmentExamples(t *testing.T) {
+	for _, p := range physics.All() {
+		more := p.MoreExamples()
+		if p.ID == physics.Generic {
+			continue
+		}
+		split := 0
+		for _, ex := range more {
+			proj, err := project.Decode(ex)
+			if err != nil {
+				t.Errorf("%s: a further example does not decode: %v", p.ID, err)
+				continue
+			}
+			var raw struct {
+				Physics      string  `json:"physics"`
+				Title        string  `json:"title"`
+				Conductivity float64 `json:"conductivity"`
+				Edges        map[string]struct {
+					H        *float64 `json:"h"`
+					Segments []struct {
+						H *float64 `json:"h"`
+					} `json:"segments"`
+				} `json:"edges"`
+			}
+			if err := json.Unmarshal(ex, &raw); err != nil {
+				t.Fatal(err)
+			}
+			if raw.Physics != p.ID {
+				t.Errorf("%s: %q says physics %q", p.ID, raw.Title, raw.Physics)
+			}
+			in := func(v float64, span [2]float64) bool { return span[1] == 0 || v >= span[0] && v <= span[1] }
+			if !in(raw.Conductivity, p.Usual.Conductivity) {
+				t.Errorf("%s: %q: conductivity %g outside the usual %v", p.ID, raw.Title, raw.Conductivity, p.Usual.Conductivity)
+			}
+			parts := false
+			for side, e := range raw.Edges {
+				hs := []*float64{e.H}
+				for _, s := range e.Segments {
+					hs = append(hs, s.H)
+				}
+				for _, h := range hs {
+					if h != nil && !in(*h, p.Usual.H) {
+						t.Errorf("%s: %q: %s h %g outside the usual %v", p.ID, raw.Title, side, *h, p.Usual.H)
+					}
+				}
+				parts = parts || len(e.Segments) > 1
+			}
+			if !parts {
+				continue
+			}
+			split++
+			var s solver.Solver
+			if _, err := s.Solve(proj, solver.Options{NoCrossCheck: true}); err != nil {
+				if strings.Contains(err.Error(), "not solved yet") {
+					t.Logf("%s: %q waits for the engine to solve segments: %v", p.ID, raw.Title, err)
+					continue
+				}
+				t.Errorf("%s: %q does not solve: %v", p.ID, raw.Title, err)
+			}
+		}
+		if split == 0 {
+			t.Errorf("%s: no further example has an edge made of segments", p.ID)
 		}
 	}
 }

@@ -48,6 +48,19 @@ func JSON() []byte {
 				panic("physics: example of " + p.ID + " holds a number JSON cannot keep")
 			}
 		}
+		if more := p.MoreExamples(); len(more) > 0 {
+			w.Key("more_examples").Open('[')
+			for _, ex := range more {
+				v, err := jsonlite.Parse(ex)
+				if err != nil {
+					panic("physics: an example of " + p.ID + ": " + err.Error())
+				}
+				if w.Value(v) != nil {
+					panic("physics: an example of " + p.ID + " holds a number JSON cannot keep")
+				}
+			}
+			w.Close(']')
+		}
 		p.Terms.write(&w)
 		w.Close('}')
 	}

@@ -1,10 +1,14 @@
 package physics
 
-import "embed"
+import (
+	"embed"
+	"io/fs"
+)
 
 // examples holds each physics' example project, as the page offers it when
 // the user switches to that physics (examples/ID.json; heat's is the
-// page's first demo, site/demo.json).
+// page's first demo, site/demo.json), and its further examples
+// (examples/ID-NAME.json, e.g. one whose edges are made of segments).
 //
 //go:embed examples/*.json
 var examples embed.FS
@@ -129,6 +133,24 @@ func (p *Physics) Example() []byte {
 		return nil
 	}
 	return b
+}
+
+// MoreExamples returns the physics' further example projects (JSON), in
+// the order of their file names.
+func (p *Physics) MoreExamples() [][]byte {
+	names, err := fs.Glob(examples, "examples/"+p.ID+"-*.json")
+	if err != nil {
+		panic("physics: " + err.Error())
+	}
+	var out [][]byte
+	for _, name := range names {
+		b, err := examples.ReadFile(name)
+		if err != nil {
+			panic("physics: " + err.Error())
+		}
+		out = append(out, b)
+	}
+	return out
 }
 
 // Also is a second unit for the size of the gradient: Scale gradient units

@@ -85,8 +85,9 @@ func TestJSON(t *testing.T) {
 				H            []float64 `json:"h"`
 				Source       string    `json:"source"`
 			} `json:"usual"`
-			Example map[string]any `json:"example"`
-			Terms   struct {
+			Example      map[string]any   `json:"example"`
+			MoreExamples []map[string]any `json:"more_examples"`
+			Terms        struct {
 				Conductance        string  `json:"conductance"`
 				ConductanceUnit    string  `json:"conductance_unit"`
 				Resistance         string  `json:"resistance"`
@@ -134,6 +135,14 @@ func TestJSON(t *testing.T) {
 		}
 		if (got.Example != nil) != (p.Example() != nil) || got.Example != nil && got.Example["physics"] != p.ID {
 			t.Errorf("%s: example %v", p.ID, got.Example)
+		}
+		if len(got.MoreExamples) != len(p.MoreExamples()) {
+			t.Errorf("%s: %d more examples in the JSON, %d files", p.ID, len(got.MoreExamples), len(p.MoreExamples()))
+		}
+		for _, ex := range got.MoreExamples {
+			if ex["physics"] != p.ID {
+				t.Errorf("%s: a further example says physics %v", p.ID, ex["physics"])
+			}
 		}
 		tm := got.Terms
 		if tm.Conductance != p.Terms.Conductance || tm.ConductanceUnit != p.Terms.ConductanceUnit || tm.SourceRateUnit != p.Terms.SourceRateUnit ||

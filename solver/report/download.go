@@ -9,6 +9,8 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/contour"
 	"edgewise/solver/export"
+	"edgewise/solver/physics"
+	"edgewise/solver/problem"
 	"edgewise/solver/project"
 )
 
@@ -74,6 +76,7 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 		for _, q := range p.Probes {
 			pic.Marks = append(pic.Marks, export.Mark{X: q.X, Y: q.Y, Label: q.Label})
 		}
+		pic.Parts, pic.KindNames = edgeParts(p)
 		if n > 0 {
 			pic.Levels = contour.Levels(out.Result.Min.Value, out.Result.Max.Value, n)
 		}
@@ -92,6 +95,30 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 	}
 	d.Data = b.Bytes()
 	return d, nil
+}
+
+// edgeParts lists every edge's parts (one for an edge of one condition)
+// for the picture's outline, and the physics' names of the kinds.
+func edgeParts(p *project.Project) ([]export.EdgePart, map[string]string) {
+	var parts []export.EdgePart
+	for _, side := range problem.Sides {
+		L := p.Width
+		if side == problem.Left || side == problem.Right {
+			L = p.Height
+		}
+		segs := p.Edges[side].Segments
+		from := 0.0
+		for i, s := range segs {
+			to := s.To
+			if i == len(segs)-1 {
+				to = L
+			}
+			parts = append(parts, export.EdgePart{Side: side.String(), From: from, To: to, Kind: s.Kind.String()})
+			from = to
+		}
+	}
+	ph := physics.Get(p.Physics)
+	return parts, map[string]string{"value": ph.Kinds.Value, "flux": ph.Kinds.Flux, "convection": ph.Kinds.Convection}
 }
 
 // field is the export view of a solved output.
