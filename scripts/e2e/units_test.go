@@ -1,0 +1,162 @@
+package e2e
+
+import (
+	"math"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/chromedp/chromedp"
+)
+
+// a heat project with a probe, for the display units
+const unitsPlate = `{schema: "edgewise/1", title: "units plate", physics: "heat", width: 0.4, height: 0.2,
+  conductivity: 50, source: 0,
+  edges: {bottom: {kind: "value", expr: "90"}, top: {kind: "convection", h: 15, ambient: "20"},
+          left: {kind: "flux", expr: "0"}, right: {kind: "value", expr: "40"}},
+  probes: [{x: 0.1, y: 0.1, label: "P1"}], grid: {nx: 40, ny: 20}}`
+
+// chooseUnit picks a display unit in the panel as a user does (the
+// select's input event) and waits for the solve it brings.
+func (tb *tab) chooseUnit(t *testing.T, kind, unit string) {
+	t.Helper()
+	n := tb.solved(t)
+	eval[bool](t, tb, `(() => { const s = document.getElementById("du-`+kind+`"); s.value = `+strconv.Quote(unit)+`;
+	  s.dispatchEvent(new Event("input", {bubbles: true})); s.dispatchEvent(new Event("change", {bubbles: true})); return s.value === `+strconv.Quote(unit)+`; })()`)
+	tb.waitSolved(t, n+1)
+}
+
+func shownNumber(t *testing.T, tb *tab, js string) float64 {
+	t.Helper()
+	s := eval[string](t, tb, js)
+	f, err := readNumber(strings.Fields(s)[0])
+	if err != nil {
+		t.Fatalf("%s: %q is not a number: %v", js, s, err)
+	}
+	return f
+}
+
+func near(a, b, rel float64) bool { return math.Abs(a-b) <= rel*math.Max(math.Abs(a), math.Abs(b)) }
+
+// Number fields read a number with a unit and say what they understood;
+// the project stays SI and keeps the choice of display units.
+func TestUnitsTypedIntoFields(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, unitsPlate)
+	eval[bool](t, tb, `(window.edgewiseInternal.tune({pauseMs: 200}), true)`)
+
+	// lengths in mm: the field shows 400 for the file's 0.4
+	tb.chooseUnit(t, "length", "mm")
+	if v := eval[string](t, tb, `document.getElementById("in-width").value`); v != "400" {
+		t.Errorf("width field %q in mm, want 400", v)
+	}
+	if u := eval[string](t, tb, `document.querySelector('[data-unit="length"]').textContent`); u != "[mm]" {
+		t.Errorf("width unit %q, want [mm]", u)
+	}
+
+	n := tb.solved(t)
+	tb.typeInto(t, "#in-width", "200 mm")
+	tb.waitSolved(t, n+1)
+	tb.until(t, `window.edgewiseInternal.good().width === 0.2`, "the meant project to have width 0.2")
+	if got := eval[string](t, tb, `document.getElementById("in-width").value`); got != "200 mm" {
+		t.Errorf("the field holds %q, want the text as typed", got)
+	}
+	if note := eval[string](t, tb, `document.querySelector("#in-width").closest("label").nextElementSibling.textContent`); note != "= 0.2 m" {
+		t.Errorf("understood %q, want \"= 0.2 m\"", note)
+	}
+	// inches (exact: 0.0254 m) and an expression of constants
+	n = tb.solved(t)
+	tb.typeInto(t, "#in-width", "10 in")
+	tb.waitSolved(t, n+1)
+	tb.until(t, `Math.abs(window.edgewiseInternal.good().width - 0.254) < 1e-12`, "width 10 in = 0.254 m")
+	n = tb.solved(t)
+	tb.typeInto(t, "#in-k", "2*25")
+	tb.waitSolved(t, n+1)
+	tb.until(t, `window.edgewiseInternal.good().conductivity === "2*25"`, "an SI expression kept as written")
+	// a temperature with its unit in a formula field becomes the SI number
+	n = tb.solved(t)
+	tb.typeInto(t, "#in-bottom-expr", "194 °F")
+	tb.waitSolved(t, n+1)
+	tb.until(t, `window.edgewiseInternal.good().edges.bottom.expr === "90"`, "194 °F read as 90 °C")
+
+	// a unit the field cannot have: one line naming the field, the text kept
+	tb.typeInto(t, "#in-height", "200 kg")
+	tb.until(t, `document.querySelector('[data-err="height"], #err-height') && /unknown unit/.test(document.getElementById("inputs").textContent)`, "the unit error")
+	msg := eval[string](t, tb, `[...document.querySelectorAll(".err-msg")].map(e => e.textContent).join(" | ")`)
+	if !strings.Contains(msg, "Height") || !strings.Contains(msg, `unknown unit "kg"`) {
+		t.Errorf("error %q, want it to name Height and the unit", msg)
+	}
+	if got := eval[string](t, tb, `document.getElementById("in-height").value`); got != "200 kg" {
+		t.Errorf("the field holds %q after an error, want the text as typed", got)
+	}
+	n = tb.solved(t)
+	tb.typeInto(t, "#in-height", "100")
+	tb.waitSolved(t, n+1)
+	tb.until(t, `window.edgewiseInternal.good().height === 0.1`, "100 (mm) read as 0.1 m")
+	if d := eval[map[string]any](t, tb, `window.edgewiseInternal.good().display`); d["length"] != "mm" {
+		t.Errorf("display %v, want length mm kept in the project", d)
+	}
+	tb.noErrors(t)
+}
+
+// In °F a temperature is 9/5 T + 32 of the engine's SI result and a
+// difference 9/5 of it; the choice survives a reload and the share link.
+func TestUnitsFahrenheitPersist(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, unitsPlate)
+	eval[bool](t, tb, `(window.edgewiseInternal.tune({pauseMs: 200}), true)`)
+	tb.chooseUnit(t, "temperature", "degF")
+	r := eval[map[string]any](t, tb, `window.edgewiseInternal.last().result`)
+	maxC := r["max"].(map[string]any)["value"].(float64)
+	est := r["accuracy"].(map[string]any)["estimate"].(float64)
+	probeC := r["probes"].([]any)[0].(map[string]any)["value"].(float64)
+
+	shownMax := shownNumber(t, tb, `document.getElementById("res-max").firstChild.textContent`)
+	if !strings.Contains(eval[string](t, tb, `document.getElementById("res-max").firstChild.textContent`), "°F") {
+		t.Errorf("highest temperature not in °F")
+	}
+	if !near(shownMax, 1.8*maxC+32, 1e-4) {
+		t.Errorf("highest %g °F, want 9/5 × %g + 32 = %g", shownMax, maxC, 1.8*maxC+32)
+	}
+	shownProbe := shownNumber(t, tb, `document.querySelector("#probes .probe-value").textContent`)
+	if !near(shownProbe, 1.8*probeC+32, 1e-5) {
+		t.Errorf("probe %g °F, want %g", shownProbe, 1.8*probeC+32)
+	}
+	// the error estimate is a difference: 9/5 of the SI one, no offset
+	estText := eval[string](t, tb, `[...document.querySelectorAll("#results dt")].find(d => d.textContent === "Error estimate").nextElementSibling.textContent`)
+	shownEst, err := readNumber(strings.Fields(estText)[0])
+	if err != nil || !strings.Contains(estText, "°F") || !near(shownEst, 1.8*est, 0.05) {
+		t.Errorf("error estimate %q, want 9/5 × %g = %g °F", estText, est, 1.8*est)
+	}
+	if h := eval[string](t, tb, `document.getElementById("probe-head-v").textContent`); !strings.Contains(h, "°F") {
+		t.Errorf("probe heading %q, want °F", h)
+	}
+
+	// the choice is saved with the project: autosave (reload) and link
+	tb.until(t, `(window.edgewiseInternal.good().display || {}).temperature === "degF"`, "the choice in the meant project")
+	want := eval[map[string]any](t, tb, `window.edgewiseInternal.good()`)
+	if err := chromedp.Do(tb.ctx, chromedp.Reload()); err != nil {
+		t.Fatal(err)
+	}
+	tb.waitSolved(t, 1)
+	if got := eval[string](t, tb, `document.getElementById("du-temperature").value`); got != "degF" {
+		t.Errorf("after reload the temperature unit is %q, want degF", got)
+	}
+	if !strings.Contains(eval[string](t, tb, `document.getElementById("res-max").firstChild.textContent`), "°F") {
+		t.Errorf("after reload the results are not in °F")
+	}
+	link := tb.shareLink(t)
+	fresh := newTab(t)
+	fresh.open(t, link)
+	got := eval[map[string]any](t, fresh, `window.edgewise.project()`)
+	if d, _ := got["display"].(map[string]any); d["temperature"] != "degF" || got["width"] != want["width"] {
+		t.Errorf("project from the link %v, want display degF and width %v", got, want["width"])
+	}
+	if !strings.Contains(eval[string](t, fresh, `document.getElementById("res-max").firstChild.textContent`), "°F") {
+		t.Errorf("from the link the results are not in °F")
+	}
+	tb.noErrors(t)
+	fresh.noErrors(t)
+}
