@@ -307,7 +307,9 @@
       if (!input) continue;
       if (getAt(out.project, path) === undefined) continue; // not a field of this edge's form
       if (!formula) out.errors = out.errors.filter((e) => e.path !== path);
-      const r = understand(input.value, units, role, formula);
+      // a field as fill wrote it reads back as the exact SI number (15.7480314961 in is not exactly 0.4 m)
+      const f = filled.get(input);
+      const r = f && f.text === input.value && f.role === role ? { v: f.v, note: "" } : understand(input.value, units, role, formula);
       const note = noteFor(input);
       note.textContent = r.note || "";
       note.hidden = !r.note;
@@ -323,6 +325,9 @@
     return out;
   };
 
+  // filled remembers what fill wrote in each number field: input -> {text, v, role}
+  const filled = new WeakMap();
+
   // toField writes an SI number as the field shows it.
   const toField = (v) => String(Number(v.toPrecision(12)));
 
@@ -337,10 +342,17 @@
       if (formula || !input) continue;
       let v = getAt(p, path);
       if (path === "conductivity" && v && typeof v === "object") v = v.x;
-      if (typeof v === "number") input.value = toField(EW.dv(units, role, v));
+      filled.delete(input);
+      if (typeof v === "number") {
+        input.value = toField(EW.dv(units, role, v));
+        filled.set(input, { text: input.value, v, role });
+      }
     }
     if (!byId("in-ortho").checked && typeof p.conductivity === "number") {
-      for (const id of ["in-kx", "in-ky"]) byId(id).value = byId("in-k").value;
+      for (const id of ["in-kx", "in-ky"]) {
+        byId(id).value = byId("in-k").value;
+        filled.set(byId(id), { text: byId(id).value, v: p.conductivity, role: "conductivity" });
+      }
     }
   };
 
@@ -352,7 +364,7 @@
       "Formulas and parameters are in SI units, as their labels say." }));
   const rows = el("div", { class: "pair display-rows" });
   box.append(rows);
-  byId("inputs").insertBefore(box, byId("edges"));
+  byId("in-physics").closest("fieldset").after(box);
   const selects = {};
   for (const [k, list] of Object.entries(KINDS)) {
     const s = el("select", { id: "du-" + k, "data-kind": k });

@@ -19,7 +19,7 @@
     const len = (v) => EW.num(EW.dv(u, "length", v), 4);
     const gm = Math.hypot(g.ux, g.uy);
     const qx = -S.kx * g.ux, qy = -S.ky * g.uy;
-    const also = P.also ? " (" + EW.num(gm / P.also.scale, 3) + " " + P.also.unit + ")" : "";
+    const also = P.also && P.also.unit !== d.gradient_unit ? " (" + EW.num(gm / P.also.scale, 3) + " " + P.also.unit + ")" : "";
     const parts = [
       ["x, y", len(x) + ", " + len(y) + " " + L],
       [u.value || "value", EW.withUnit(EW.value(g.u, 5, u), d.value_unit)],

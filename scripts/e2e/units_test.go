@@ -160,3 +160,63 @@ func TestUnitsFahrenheitPersist(t *testing.T) {
 	tb.noErrors(t)
 	fresh.noErrors(t)
 }
+
+// The conversion factors and the reading of typed units, against values
+// printed in NIST SP 811 (2008), Appendix B.9 (from memory), and exact
+// identities (212 °F = 100 °C, 1 in = 25.4 mm).
+func TestUnitFactors(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, strings.Replace(unitsPlate, `grid:`, `display: {length: "in", temperature: "degF", heat: "BTU/h"}, grid:`, 1))
+	got := eval[map[string]float64](t, tb, `(() => { const EW = window.edgewiseParts, u = EW.unitsets.heat;
+	  const per = (role) => 1 / EW.conv(u, role).scale; // SI per shown unit
+	  return {k: per("conductivity"), h: per("coefficient"), q: per("flux"), flow: per("flow"), grad: per("gradient"),
+	    t212: EW.dv(u, "value", 100), d: EW.dd(u, "value", 1), len: per("length")}; })()`)
+	for _, c := range []struct {
+		name      string
+		got, want float64
+		rel       float64 // NIST prints 7 digits
+	}{
+		{"Btu_IT/(h·ft·°F) in W/(m·K)", got["k"], 1.730735, 1e-6},
+		{"Btu_IT/(h·ft²·°F) in W/(m²·K)", got["h"], 5.678263, 1e-6},
+		{"Btu_IT/(h·ft²) in W/m²", got["q"], 3.154591, 1e-6},
+		{"Btu_IT/(h·ft) in W/m (0.2930711 W / 0.3048 m)", got["flow"], 0.2930711 / 0.3048, 1e-6},
+		{"°F/in in K/m (exact)", got["grad"], 1 / (1.8 * 0.0254), 1e-12},
+		{"100 °C in °F (exact)", got["t212"], 212, 1e-12},
+		{"a difference of 1 K in °F (exact)", got["d"], 1.8, 1e-12},
+		{"1 in in m (exact)", got["len"], 0.0254, 1e-12},
+	} {
+		if !near(c.got, c.want, c.rel) {
+			t.Errorf("%s: %.9g, want %.9g", c.name, c.got, c.want)
+		}
+	}
+	// what number fields understand, for each physics
+	read := eval[[]any](t, tb, `(() => { const EW = window.edgewiseParts, U = EW.unitsets;
+	  const r = (text, phys, role, formula) => { const x = EW.understand(text, U[phys], role, formula); return x.err ? "error: " + x.err : x.v; };
+	  return [r("200 mm", "heat", "length"), r("1.5 in", "heat", "length"), r("2", "heat", "length"),
+	    r("68 °F", "heat", "value", true), r("293.15 K", "heat", "value", true), r("20 + 5*s", "heat", "value", true),
+	    r("10 W/(m*K)", "heat", "conductivity"), r("4.4*8.854e-12", "electrostatic", "conductivity"),
+	    r("3 m/day", "seepage", "conductivity"), r("0,3", "heat", "length"), r("2 kg", "heat", "length"), r("2*", "heat", "length")]; })()`)
+	// an expression in an SI field is kept as written (the engine works it out)
+	want := []any{0.2, 0.0381, 0.0508, "20", "20", "20 + 5*s", 10.0, "4.4*8.854e-12", 3 / 86400.0,
+		"error: use a point for decimals: 0.3, not 0,3", `error: unknown unit "kg" here (use m, mm, cm, in, ft)`, `error: not a number: "2*"`}
+	for i, w := range want {
+		if i >= len(read) {
+			t.Fatalf("read %v", read)
+		}
+		g := read[i]
+		if wf, ok := w.(float64); ok {
+			if gf, ok := g.(float64); !ok || !near(gf, wf, 1e-12) {
+				t.Errorf("reading %d: %v, want %v", i, g, w)
+			}
+		} else if g != w {
+			t.Errorf("reading %d: %v, want %v", i, g, w)
+		}
+	}
+	// the fields show 15.7480314961 in and 28.8894658271 Btu/(h·ft·°F), and read back as the file's exact numbers
+	if back := eval[map[string]any](t, tb, `window.edgewiseParts.read().project`); back["width"] != 0.4 || back["height"] != 0.2 || back["conductivity"] != 50.0 {
+		t.Errorf("read back %v %v %v, want the loaded 0.4, 0.2 and 50 exactly", back["width"], back["height"], back["conductivity"])
+	}
+	tb.shot(t, "units-panel")
+	tb.noErrors(t)
+}
