@@ -81,8 +81,8 @@ func TestUnitsTypedIntoFields(t *testing.T) {
 	tb.until(t, `window.edgewiseInternal.good().edges.bottom.expr === "90"`, "194 °F read as 90 °C")
 
 	// a unit the field cannot have: one line naming the field, the text kept
-	tb.typeInto(t, "#in-height", "200 kg")
-	tb.until(t, `document.querySelector('[data-err="height"], #err-height') && /unknown unit/.test(document.getElementById("inputs").textContent)`, "the unit error")
+	tb.pasteInto(t, "#in-height", "200 kg")
+	tb.until(t, `[...document.querySelectorAll(".err-msg")].some(e => /unknown unit/.test(e.textContent))`, "the unit error")
 	msg := eval[string](t, tb, `[...document.querySelectorAll(".err-msg")].map(e => e.textContent).join(" | ")`)
 	if !strings.Contains(msg, "Height") || !strings.Contains(msg, `unknown unit "kg"`) {
 		t.Errorf("error %q, want it to name Height and the unit", msg)
@@ -133,6 +133,20 @@ func TestUnitsFahrenheitPersist(t *testing.T) {
 	if h := eval[string](t, tb, `document.getElementById("probe-head-v").textContent`); !strings.Contains(h, "°F") {
 		t.Errorf("probe heading %q, want °F", h)
 	}
+
+	// the report's tables follow the choice and agree with the page
+	if err := chromedp.Do(tb.ctx, chromedp.Click(chromedp.CSS("#ew-report-btn"))); err != nil {
+		t.Fatal(err)
+	}
+	tb.until(t, `!!document.querySelector("#ew-report table")`, "the report")
+	repMax := shownNumber(t, tb, `[...document.querySelectorAll("#ew-report tr")].find(r => r.firstChild.textContent === "maximum").children[1].textContent`)
+	if !near(repMax, 1.8*maxC+32, 1e-5) {
+		t.Errorf("report maximum %g °F, want %g", repMax, 1.8*maxC+32)
+	}
+	if !eval[bool](t, tb, `[...document.querySelectorAll("#ew-report th")].some(h => h.textContent === "temperature [°F]")`) {
+		t.Errorf("the report's extremes are not headed in °F")
+	}
+	eval[bool](t, tb, `(document.getElementById("ew-report-close").click(), true)`)
 
 	// the choice is saved with the project: autosave (reload) and link
 	tb.until(t, `(window.edgewiseInternal.good().display || {}).temperature === "degF"`, "the choice in the meant project")
