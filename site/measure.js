@@ -256,7 +256,9 @@
     }
     const from = c || (formula ? siConv : shown);
     const si = (r.v - from.offset) / from.scale;
-    if (formula) return c ? { v: String(Number(si.toPrecision(15))), note: "= " + EW.num(si, 6) + " " + siConv.unit } : { v: text, note: "" };
+    if (formula && c) return { v: String(Number(si.toPrecision(15))), note: "= " + EW.num(si, 6) + " " + siConv.unit };
+    // a constant in SI, shown in the display unit too (100 °C = 212 °F)
+    if (formula) return { v: text, note: shown.unit !== siConv.unit ? "= " + EW.num(r.v * shown.scale + shown.offset, 6) + " " + shown.unit : "" };
     const isSI = shown.scale === 1 && !shown.offset;
     if (!c && plain) return { v: si, note: isSI ? "" : "= " + EW.num(si, 6) + " " + siConv.unit };
     // an expression in SI units stays text: the engine works it out and
@@ -309,7 +311,7 @@
       if (!formula) out.errors = out.errors.filter((e) => e.path !== path);
       // a field as fill wrote it reads back as the exact SI number (15.7480314961 in is not exactly 0.4 m)
       const f = filled.get(input);
-      const r = f && f.text === input.value && f.role === role ? { v: f.v, note: "" } : understand(input.value, units, role, formula);
+      const r = f && f.text === input.value && f.role === role && (f.physics === units.physics || role === "length") ? { v: f.v, note: "" } : understand(input.value, units, role, formula);
       const note = noteFor(input);
       note.textContent = r.note || "";
       note.hidden = !r.note;
@@ -345,13 +347,13 @@
       filled.delete(input);
       if (typeof v === "number") {
         input.value = toField(EW.dv(units, role, v));
-        filled.set(input, { text: input.value, v, role });
+        filled.set(input, { text: input.value, v, role, physics: units.physics });
       }
     }
     if (!byId("in-ortho").checked && typeof p.conductivity === "number") {
       for (const id of ["in-kx", "in-ky"]) {
         byId(id).value = byId("in-k").value;
-        filled.set(byId(id), { text: byId(id).value, v: p.conductivity, role: "conductivity" });
+        filled.set(byId(id), { text: byId(id).value, v: p.conductivity, role: "conductivity", physics: units.physics });
       }
     }
   };

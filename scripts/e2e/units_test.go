@@ -234,3 +234,27 @@ func TestUnitFactors(t *testing.T) {
 	tb.shot(t, "units-panel")
 	tb.noErrors(t)
 }
+
+// A switch of physics shows the number fields' text under the new
+// physics' units: the project then holds what the fields show, not the
+// numbers filled in for the old physics; lengths stay exact.
+func TestUnitsAcrossPhysicsSwitch(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, strings.Replace(unitsPlate, `grid:`, `display: {length: "in", heat: "BTU/h"}, grid:`, 1))
+	k := eval[string](t, tb, `document.getElementById("in-k").value`)
+	eval[bool](t, tb, `(() => { const s = document.getElementById("in-physics"); s.value = "electrostatic";
+	  s.dispatchEvent(new Event("change", {bubbles: true})); return true; })()`)
+	p := eval[map[string]any](t, tb, `window.edgewiseParts.read().project`)
+	kf, _ := strconv.ParseFloat(k, 64)
+	if p["width"] != 0.4 || p["conductivity"] != kf {
+		t.Errorf("after the switch: width %v (want 0.4), permittivity %v (want the field's %v F/m)", p["width"], p["conductivity"], kf)
+	}
+	if u := eval[string](t, tb, `document.querySelector('[data-unit="cond"]').textContent`); u != "[F/m]" {
+		t.Errorf("permittivity unit %q", u)
+	}
+	if h := eval[bool](t, tb, `document.getElementById("du-heat").closest("label").hidden && !document.getElementById("du-field").closest("label").hidden`); !h {
+		t.Errorf("the panel offers heat's kinds for electrostatics")
+	}
+	tb.noErrors(t)
+}
