@@ -237,7 +237,7 @@
   }
 
   // sigmaPlot draws a surface charge density along an electrode part.
-  function sigmaPlot(e, L) {
+  function sigmaPlot(e, L, ls) {
     const c = el("canvas", { id: "ans-sigma-" + e.part.replace(/\W/g, ""), width: "280", height: "70", role: "img" });
     const ctx = EW.sizeCanvas(c, 280, 70);
     ctx.fillStyle = "#fbfaf6";
@@ -254,7 +254,7 @@
     ctx.beginPath();
     v.forEach((y, i) => (i ? ctx.lineTo(px(s[i]), py(y)) : ctx.moveTo(px(s[i]), py(y))));
     ctx.stroke();
-    c.setAttribute("aria-label", "Surface charge density along " + e.part + " from s = " + n(s[0], 3) + " to " + n(s[s.length - 1], 3) + " " + L +
+    c.setAttribute("aria-label", "Surface charge density along " + e.part + " from s = " + n(s[0] * ls, 3) + " to " + n(s[s.length - 1] * ls, 3) + " " + L +
       ": least " + n(Math.min(...v), 4) + ", greatest " + n(Math.max(...v), 4) + " C/m².");
     return c;
   }
@@ -266,22 +266,32 @@
     const a = r.answers;
     if (!a) return;
     const u = unitsOf(p.physics), tm = termsOf(p.physics);
-    const vu = u.value_unit || "", L = u.length_unit || "m";
+    // in the display units (measure.js): values with their offset, steps
+    // and differences without, lengths, flows, fluxes and conductances
+    const vu = EW.conv(u, "value").unit, L = EW.conv(u, "length").unit;
+    const nv = (v, d) => n(EW.dv(u, "value", v), d), nd = (v, d) => n(EW.dd(u, "value", v), d);
+    const nl = (v, d) => n(EW.dv(u, "length", v), d), nf = (v, d) => n(EW.dd(u, "flow", v), d);
+    const fu = EW.conv(u, "flow").unit;
+    // the conductance per metre converts like the material constant (heat, electrostatics)
+    const cc = p.physics === "seepage" ? { unit: tm.conductance_unit, scale: 1 } : EW.conv(u, "conductivity");
+    const cu = cc.unit === tm.conductance_unit || !cc.unit ? tm.conductance_unit : cc.unit;
+    const ru = cu === tm.conductance_unit ? tm.resistance_unit : cu === "Btu/(h·ft·°F)" ? "h·ft·°F/Btu" : "1/(" + cu + ")";
+    const pl = p.physics === "electrostatic" ? { unit: tm.per_length_unit, scale: 1 } : EW.conv(u, "flux");
     const sec = el("section", { id: "answers", "aria-label": "Answers" }, el("h3", { text: "Answers" }));
 
     const rows = ["top", "bottom", "left", "right"].map((side) => {
       const e = r.edges[side];
-      return [EW.capital(side), n(e.mean), e.per_length === null || e.per_length === undefined ? "∞ infinite" : n(e.per_length)];
+      return [EW.capital(side), nv(e.mean), e.per_length === null || e.per_length === undefined ? "∞ infinite" : n(e.per_length * pl.scale)];
     });
-    sec.append(table("ans-edges", ["Edge", withU("mean " + (u.value || "value"), vu), withU(tm.per_length || "flow per length", tm.per_length_unit)], rows));
+    sec.append(table("ans-edges", ["Edge", withU("mean " + (u.value || "value"), vu), withU(tm.per_length || "flow per length", pl.unit || tm.per_length_unit)], rows));
 
     const dl = el("dl", { class: "kv" });
     sec.append(dl);
     const c = r.conductance;
     if (c) {
-      kvRow(dl, EW.capital(tm.conductance || "conductance"), EW.withUnit(n(c.per_difference), tm.conductance_unit),
-        "per metre of depth, between " + c.high.parts.join(", ") + " at " + n(c.high.value) + " " + vu + " and " + c.low.parts.join(", ") + " at " + n(c.low.value) + " " + vu).id = "ans-conductance";
-      if (tm.resistance) kvRow(dl, EW.capital(tm.resistance), EW.withUnit(n(1 / c.per_difference), tm.resistance_unit), "per metre of depth").id = "ans-resistance";
+      kvRow(dl, EW.capital(tm.conductance || "conductance"), EW.withUnit(n(c.per_difference * cc.scale), cu),
+        "per metre of depth, between " + c.high.parts.join(", ") + " at " + nv(c.high.value) + " " + vu + " and " + c.low.parts.join(", ") + " at " + nv(c.low.value) + " " + vu).id = "ans-conductance";
+      if (tm.resistance) kvRow(dl, EW.capital(tm.resistance), EW.withUnit(n(1 / (c.per_difference * cc.scale)), ru), "per metre of depth").id = "ans-resistance";
       kvRow(dl, "Shape factor Q/(k ΔU)", n(c.shape_factor)).id = "ans-shape";
     } else {
       kvRow(dl, EW.capital(tm.conductance || "conductance"), r.conductance_none || "not defined").id = "ans-conductance";
@@ -290,10 +300,10 @@
     if (net.reason) {
       kvRow(dl, "Flow net", net.reason).id = "ans-net";
     } else if (net.square === false) {
-      kvRow(dl, "Flow net", net.channels + " channels, not square", net.note + "; " + n(net.flow_step, 4) + " " + (u.flow_unit || "") + " of outflow per channel").id = "ans-net";
+      kvRow(dl, "Flow net", net.channels + " channels, not square", net.note + "; " + nf(net.flow_step, 4) + " " + fu + " of outflow per channel").id = "ans-net";
     } else {
       kvRow(dl, "Flow net", net.channels + " channels, " + n(net.drops, 4) + " drops",
-        "channels/drops = " + n(net.ratio, 4) + " = Q/(k ΔU); " + n(net.flow_step, 4) + " " + (u.flow_unit || "") + " per channel, " + n(net.potential_step, 4) + " " + vu + " per drop; cells are squares" +
+        "channels/drops = " + n(net.ratio, 4) + " = Q/(k ΔU); " + nf(net.flow_step, 4) + " " + fu + " per channel, " + nd(net.potential_step, 4) + " " + vu + " per drop; cells are squares" +
         (S.kx !== S.ky ? " in the mapped coordinates y' = y √(kx/ky)" : "")).id = "ans-net";
     }
 
@@ -301,25 +311,25 @@
       const h = a.heat;
       if (h.convection.length) {
         sec.append(el("h3", { text: "Heat lost to the fluid" }),
-          table("ans-heat-loss", ["Part", "heat lost [W/m]", "Biot h L/k", "reading"],
-            h.convection.map((x) => [x.part, n(x.loss), n(x.biot, 3) + " (L = " + n(x.length, 3) + " m)", x.reading])));
+          table("ans-heat-loss", ["Part", "heat lost [" + fu + "]", "Biot h L/k", "reading"],
+            h.convection.map((x) => [x.part, nf(x.loss), n(x.biot, 3) + " (L = " + nl(x.length, 3) + " " + L + ")", x.reading])));
       }
       if (h.surfaces.length) {
         sec.append(el("h3", { text: "Mean surface temperature" }),
-          table("ans-surfaces", ["Part", "kind", withU("mean temperature", vu)], h.surfaces.map((x) => [x.part, x.kind, n(x.mean)])));
+          table("ans-surfaces", ["Part", "kind", withU("mean temperature", vu)], h.surfaces.map((x) => [x.part, x.kind, nv(x.mean)])));
       }
     }
     if (a.electrostatic) {
       const e = a.electrostatic;
       sec.append(el("h3", { text: "Electrodes" }),
-        table("ans-charge", ["Part", withU("potential", vu), "charge [C/m]"], e.electrodes.map((x) => [x.part, n(x.potential), x.charge === null ? "∞ infinite" : n(x.charge)])));
+        table("ans-charge", ["Part", withU("potential", vu), "charge [C/m]"], e.electrodes.map((x) => [x.part, nv(x.potential), x.charge === null ? "∞ infinite" : n(x.charge)])));
       for (const x of e.electrodes) {
-        sec.append(el("figure", { class: "sigma" }, sigmaPlot(x, L),
+        sec.append(el("figure", { class: "sigma" }, sigmaPlot(x, L, EW.conv(u, "length").scale),
           el("figcaption", { text: "Surface charge density along " + x.part + " [C/m²], the displacement flux into the gap" })));
       }
       const pk = el("dl", { class: "kv" });
       kvRow(pk, "Peak field strength", n(e.peak.value / 1e6, 4) + " kV/mm",
-        "at (" + n(e.peak.x, 4) + ", " + n(e.peak.y, 4) + ") " + L + (a.singular.length ? ", at least " + n(a.near, 3) + " " + L + " from where two potentials meet: the ideal field is unbounded there; real edges are rounded and that value is not a design number" : "")).id = "ans-peak";
+        "at (" + nl(e.peak.x, 4) + ", " + nl(e.peak.y, 4) + ") " + L + (a.singular.length ? ", at least " + nl(a.near, 3) + " " + L + " from where two potentials meet: the ideal field is unbounded there; real edges are rounded and that value is not a design number" : "")).id = "ans-peak";
       kvRow(pk, "Against breakdown", n(e.ratio, 3) + " of " + n(e.breakdown / 1e6, 4) + " kV/mm", e.dielectric + " (" + e.breakdown_source + ")").id = "ans-breakdown-ratio";
       sec.append(pk, el("p", { class: "hint", text: "Permittivity ε = εr × ε0, ε0 = 8.8541878128 × 10⁻¹² F/m (CODATA 2018)." }));
     }
@@ -333,8 +343,8 @@
       sec.append(sd);
       if (s.exits.length) {
         sec.append(table("ans-exit", ["Exit part", "exit gradient", "where", "factor of safety against heave"],
-          s.exits.map((x) => [x.part, n(x.gradient, 3), "(" + n(x.x, 4) + ", " + n(x.y, 4) + ") " + L, n(x.factor_of_safety, 3)])));
-        if (a.singular.length) sec.append(el("p", { class: "hint", text: "Exit gradients are taken at least " + n(a.near, 3) + " " + L + " from where two heads meet; the gradient is unbounded there in the ideal model." }));
+          s.exits.map((x) => [x.part, n(x.gradient, 3), "(" + nl(x.x, 4) + ", " + nl(x.y, 4) + ") " + L, n(x.factor_of_safety, 3)])));
+        if (a.singular.length) sec.append(el("p", { class: "hint", text: "Exit gradients are taken at least " + nl(a.near, 3) + " " + L + " from where two heads meet; the gradient is unbounded there in the ideal model." }));
       }
     }
     byId("results").append(sec);

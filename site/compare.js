@@ -73,15 +73,18 @@
     const sc = EW.colour.scale({ min: { value: lo }, max: { value: hi } }, signed ? "diverging" : "sequential");
     EW.colour.paint($("cmp-a"), A, sc);
     EW.colour.paint($("cmp-b"), B, sc);
-    $("cmp-a-cap").textContent = "A: " + (A.project.title || "pinned case") + " (" + EW.num(A.w) + " × " + EW.num(A.h) + ")";
-    $("cmp-b-cap").textContent = "B: the case on show (" + EW.num(B.w) + " × " + EW.num(B.h) + ")";
+    // in the display units (measure.js); the differences without a temperature's offset
+    const U = B.units || {}, L = EW.conv(U, "length"), V = EW.conv(U, "value");
+    const len = (v, p) => EW.num(v * L.scale, p) + " " + L.unit, dif = (v, p) => EW.num(v * V.scale, p) + (V.unit ? " " + V.unit : "");
+    $("cmp-a-cap").textContent = "A: " + (A.project.title || "pinned case") + " (" + len(A.w) + " × " + len(A.h) + ")";
+    $("cmp-b-cap").textContent = "B: the case on show (" + len(B.w) + " × " + len(B.h) + ")";
     const note = $("cmp-note");
     const dfig = $("cmp-diff").closest("figure");
     if (!same(A.w, B.w) || !same(A.h, B.h)) {
       diffMax = null;
       dfig.hidden = true;
-      note.textContent = "No difference map: A is " + EW.num(A.w, 6) + " × " + EW.num(A.h, 6) + " and B is " + EW.num(B.w, 6) + " × " +
-        EW.num(B.h, 6) + "; the fields can be subtracted point by point only on the same rectangle.";
+      note.textContent = "No difference map: A is " + len(A.w, 6) + " × " + len(A.h, 6) + " and B is " + len(B.w, 6) + " × " +
+        len(B.h, 6) + "; the fields can be subtracted point by point only on the same rectangle.";
     } else {
       // the common grid is B's; A is sampled on it when its grid differs
       const n = (B.nx + 1) * (B.ny + 1);
@@ -100,11 +103,11 @@
       dfig.hidden = false;
       const dsc = EW.colour.scale({ min: { value: -(m || 1) }, max: { value: m || 1 } }, "diverging");
       EW.colour.paint($("cmp-diff"), { u: d, nx: B.nx, ny: B.ny }, dsc);
-      $("cmp-diff-cap").textContent = "B − A, from −" + EW.num(m) + " (one end of the map) to +" + EW.num(m) + ", zero in the middle";
+      $("cmp-diff-cap").textContent = "B − A, from −" + dif(m) + " (one end of the map) to +" + dif(m) + ", zero in the middle";
       note.textContent = m === 0 ? "The two fields are the same on the common grid." :
-        "Largest difference " + EW.num(m, 4) + (sameGrid ? "" : " (A sampled on B's grid)") + ".";
+        "Largest difference " + dif(m, 4) + (sameGrid ? "" : " (A sampled on B's grid)") + ".";
     }
-    table(A.result, B.result);
+    table(A.result, B.result, U);
     section.dataset.compared = String(Number(section.dataset.compared || 0) + 1);
   }
 
@@ -115,16 +118,18 @@
     return out;
   }
 
-  function table(ra, rb) {
+  function table(ra, rb, U) {
     const a = new Map(rowsOf(ra)), b = new Map(rowsOf(rb));
     const names = [...new Set([...a.keys(), ...b.keys()])];
-    const v = (x) => (x === null || x === undefined ? "–" : EW.num(x, 6));
+    const role = (n) => (n.endsWith(".flow") ? "flow" : "value");
+    const unit = (n) => { const x = EW.conv(U, role(n)).unit; return x ? " [" + x + "]" : ""; };
+    const v = (x, n, diff) => (x === null || x === undefined ? "–" : EW.num(diff ? EW.dd(U, role(n), x) : EW.dv(U, role(n), x), 6));
     $("cmp-table").replaceChildren(
       el("thead", null, el("tr", null, ...["Output", "A", "B", "B − A"].map((t) => el("th", { scope: "col", text: t })))),
       el("tbody", null, ...names.map((n) => {
         const x = a.get(n), y = b.get(n);
         const d = typeof x === "number" && typeof y === "number" ? y - x : null;
-        return el("tr", { "data-output": n }, el("th", { scope: "row", text: n }), el("td", { text: v(x) }), el("td", { text: v(y) }), el("td", { text: v(d) }));
+        return el("tr", { "data-output": n }, el("th", { scope: "row", text: n + unit(n) }), el("td", { text: v(x, n) }), el("td", { text: v(y, n) }), el("td", { text: v(d, n, true) }));
       })));
   }
 

@@ -161,7 +161,7 @@
     const hit = (a, b) => a.x < b.x + b.w && b.x < a.x + a.w && a.y < b.y + b.h && b.y < a.y + a.h;
     for (let k = 0; k < labels.length; k += 4) {
       const px = X(labels[k]), py = Y(labels[k + 1]);
-      const text = EW.num(levels[labels[k + 3]], digits);
+      const text = EW.num(EW.dv(S.units, "value", levels[labels[k + 3]]), digits);
       const { w, h } = EW.tagSize(ctx, text);
       const r = { x: px - w / 2 - 3, y: py - h / 2 - 3, w: w + 6, h: h + 6 };
       if (r.x < box.x0 + 2 || r.x + r.w > box.x0 + box.w - 2 || r.y < box.y0 + 2 || r.y + r.h > box.y0 + box.h - 2) continue;
@@ -231,16 +231,16 @@
   }
 
   function drawAxes(ctx) {
-    const lu = (S.units && S.units.length_unit) || "m";
+    const { unit: lu, scale: ls } = EW.conv(S.units, "length"); // ticks round in the display unit
     ctx.fillStyle = INK;
     ctx.strokeStyle = INK;
     ctx.lineWidth = 1;
     ctx.font = "11px system-ui, sans-serif";
     ctx.textAlign = "center";
     ctx.textBaseline = "top";
-    const xt = EW.niceTicks(0, S.w, Math.max(2, Math.floor(box.w / 80)));
+    const xt = EW.niceTicks(0, S.w * ls, Math.max(2, Math.floor(box.w / 80)));
     for (const t of xt) {
-      const px = X(t);
+      const px = X(t / ls);
       ctx.beginPath(); ctx.moveTo(px, box.y0 + box.h); ctx.lineTo(px, box.y0 + box.h + 4); ctx.stroke();
       ctx.fillText(EW.num(t, 3), px, box.y0 + box.h + 6);
     }
@@ -264,9 +264,9 @@
     }
     ctx.textAlign = "right";
     ctx.textBaseline = "middle";
-    const yt = EW.niceTicks(0, S.h, Math.max(2, Math.floor(box.h / 50)));
+    const yt = EW.niceTicks(0, S.h * ls, Math.max(2, Math.floor(box.h / 50)));
     for (const t of yt) {
-      const py = Y(t);
+      const py = Y(t / ls);
       ctx.beginPath(); ctx.moveTo(box.x0 - 4, py); ctx.lineTo(box.x0, py); ctx.stroke();
       ctx.fillText(EW.num(t, 3), box.x0 - 6, py);
     }
@@ -279,7 +279,10 @@
   }
 
   function drawLegend() {
-    EW.colour.legend(legend, map, box, horizontal, S.units, opts.iso ? S.levels : null);
+    // the bar in the display unit: its ends, ticks and level lines converted
+    const c = EW.conv(S.units, "value"), to = (v) => v * c.scale + c.offset;
+    const shown = { lo: to(map.lo), hi: to(map.hi), rgb: (t) => map.rgb((t - c.offset) / c.scale) };
+    EW.colour.legend(legend, c.scale === 1 && !c.offset ? map : shown, box, horizontal, EW.shownUnits(S.units), opts.iso && S.levels ? S.levels.map(to) : null);
   }
 
   // drawTop copies the base and adds what follows the pointer: probes, the
@@ -335,14 +338,14 @@
   }
 
   function summarise() {
-    const r = S.result, u = S.units || {};
+    const r = S.result, u = S.units || {}, d = EW.shownUnits(u);
     const q = EW.capital(u.value || "value");
-    const unit = u.value_unit ? " " + u.value_unit : "";
-    const L = u.length_unit || "m";
-    const text = q + " in a " + EW.num(S.w) + " " + L + " × " + EW.num(S.h) + " " + L + " rectangle: from " +
-      EW.value(r.min.value) + unit + " at (" + EW.num(r.min.x, 3) + ", " + EW.num(r.min.y, 3) + ") to " +
-      EW.value(r.max.value) + unit + " at (" + EW.num(r.max.x, 3) + ", " + EW.num(r.max.y, 3) + "), mean " +
-      EW.value(r.mean) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
+    const unit = d.value_unit ? " " + d.value_unit : "";
+    const L = d.length_unit, len = (v, p) => EW.num(EW.dv(u, "length", v), p);
+    const text = q + " in a " + len(S.w) + " " + L + " × " + len(S.h) + " " + L + " rectangle: from " +
+      EW.value(r.min.value, 4, u) + unit + " at (" + len(r.min.x, 3) + ", " + len(r.min.y, 3) + ") to " +
+      EW.value(r.max.value, 4, u) + unit + " at (" + len(r.max.x, 3) + ", " + len(r.max.y, 3) + "), mean " +
+      EW.value(r.mean, 4, u) + unit + ". " + (S.levels ? S.levels.length + " isolines. " : "") +
       "Colours: " + (map.mode === "diverging" ? "two-sided about zero" : "dark for low, light for high") +
       (own(S.result) ? "" : " (chosen here; the SVG, PNG and report use the automatic colours)") + "." +
       (box.scaled ? "" : " Not to scale: the " + (box.w >= box.h ? "height" : "width") + " is drawn " + EW.num(box.stretch, 2) + " × its true size.") +
@@ -365,15 +368,17 @@
   }
 
   function setProfileInputs() {
-    $("pf-x0").value = EW.num(profile.a.x, 4).replace("−", "-");
-    $("pf-y0").value = EW.num(profile.a.y, 4).replace("−", "-");
-    $("pf-x1").value = EW.num(profile.b.x, 4).replace("−", "-");
-    $("pf-y1").value = EW.num(profile.b.y, 4).replace("−", "-");
+    const ls = EW.conv(S && S.units, "length").scale; // the ends in the display length unit
+    $("pf-x0").value = EW.num(profile.a.x * ls, 4).replace("−", "-");
+    $("pf-y0").value = EW.num(profile.a.y * ls, 4).replace("−", "-");
+    $("pf-x1").value = EW.num(profile.b.x * ls, 4).replace("−", "-");
+    $("pf-y1").value = EW.num(profile.b.y * ls, 4).replace("−", "-");
   }
 
   function readProfileInputs() {
     if (drag) return; // a blur while drawing on the picture: the drawing wins
-    const v = ["pf-x0", "pf-y0", "pf-x1", "pf-y1"].map((id) => Number($(id).value.trim()));
+    const ls = EW.conv(S && S.units, "length").scale;
+    const v = ["pf-x0", "pf-y0", "pf-x1", "pf-y1"].map((id) => Number($(id).value.trim()) / ls);
     if (v.some((n) => !Number.isFinite(n)) || !S) return;
     const cx = (t) => Math.min(Math.max(t, 0), S.w), cy = (t) => Math.min(Math.max(t, 0), S.h);
     profile = { a: { x: cx(v[0]), y: cy(v[1]) }, b: { x: cx(v[2]), y: cy(v[3]) } };

@@ -154,8 +154,8 @@
     if (!d || !d.result) return;
     const r = d.result;
     const u = (EW.unitsets || {})[d.project && d.project.physics] || {};
-    const unit = u.value_unit ? " " + u.value_unit : "";
-    const n = (v) => (typeof v === "number" && isFinite(v) ? Number(v.toPrecision(4)).toString() : "—");
+    const unit = EW.conv(u, "value").unit ? " " + EW.conv(u, "value").unit : ""; // display units (measure.js)
+    const n = (v) => (typeof v === "number" && isFinite(v) ? Number(EW.dv(u, "value", v).toPrecision(4)).toString() : "—");
     const parts = [
       "min " + n(r.min.value) + unit,
       "max " + n(r.max.value) + unit,

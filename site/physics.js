@@ -60,9 +60,11 @@
     const P = EW.physicsOf($("in-physics").value);
     const u = P.units || {}, hints = P.hints || {}, kinds = P.kinds || {}, labels = P.labels || {};
     const unit = (x) => (x ? "[" + x + "]" : "");
+    // number fields and results in the display units (measure.js); formulas stay SI
+    const d = EW.shownUnits ? EW.shownUnits(u) : u;
     for (const i of document.querySelectorAll("[data-unit]")) {
       const k = i.dataset.unit;
-      i.textContent = unit(k === "length" ? u.length_unit || "m" : k === "cond" ? u.conductivity_unit : k === "source" ? u.source_unit : "");
+      i.textContent = unit(k === "length" ? d.length_unit || "m" : k === "cond" ? d.conductivity_unit : k === "source" ? d.source_unit : "");
     }
     for (const b of document.querySelectorAll("[data-q]")) b.textContent = EW.capital(u[b.dataset.q] || b.dataset.q);
     $("hint-k").textContent = hints.conductivity || "";
@@ -82,17 +84,17 @@
       $("in-" + side + "-expr-label").textContent = k === "value"
         ? EW.capital(u.value || "value") + " " + unit(u.value_unit)
         : EW.capital(labels.flux_in || (u.flux || "flux") + " in") + " " + unit(u.flux_unit);
-      block.querySelector(".lbl-h").textContent = EW.capital(u.coefficient || "h") + " " + unit(u.coefficient_unit);
+      block.querySelector(".lbl-h").textContent = EW.capital(u.coefficient || "h") + " " + unit(d.coefficient_unit);
       block.querySelector(".lbl-amb").textContent = EW.capital(labels.ambient || "ambient " + (u.value || "value")) + " " + unit(u.value_unit);
     }
-    $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(u.value_unit);
+    $("probe-head-v").textContent = EW.capital(u.value || "value") + " " + unit(d.value_unit);
     // "Temperature gradient magnitude |∇T| [K/m]", the symbol and unit kept on one line
     const g = EW.capital(P.magnitude || u.gradient || "gradient"), bar = g.indexOf("|");
     const sym = document.createElement("span");
     sym.className = "nowrap";
-    sym.textContent = (bar >= 0 ? g.slice(bar) : "") + " " + unit(u.gradient_unit);
+    sym.textContent = (bar >= 0 ? g.slice(bar) : "") + " " + unit(d.gradient_unit);
     $("probe-head-g").replaceChildren(bar >= 0 ? g.slice(0, bar) : g + " ", sym);
-    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " x, y " + unit(u.flux_unit);
+    $("probe-head-q").textContent = EW.capital(u.flux || "flux") + " x, y " + unit(d.flux_unit);
     document.documentElement.dataset.physics = P.id;
     if (EW.parts) EW.parts.relabel(); // the parts of split edges (segments.js)
     checkPlausible();

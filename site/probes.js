@@ -53,13 +53,13 @@
         const g = EW.sample(p.x, p.y);
         v = g.u; gx = g.ux; gy = g.uy; qx = -S.kx * g.ux; qy = -S.ky * g.uy; approx = true;
       }
-      const value = el("td", { class: "num probe-value", "data-value": String(v), text: (approx ? "≈ " : "") + EW.num(v, 6) });
+      const value = el("td", { class: "num probe-value", "data-value": String(v), text: (approx ? "≈ " : "") + EW.num(EW.dv(S.units, "value", v), 6) });
       const button = el("button", {
         type: "button", class: "remove", text: "×", "aria-label": "Remove probe " + p.label, onclick: () => remove(p.label),
       });
       body.append(el("tr", { "data-label": p.label },
         el("th", { scope: "row", text: p.label }),
-        el("td", { text: EW.num(p.x, 4) + ", " + EW.num(p.y, 4) }),
+        el("td", { text: at(S, p) }),
         value,
         ...EW.probeCells(p, S, gx, gy, qx, qy),
         el("td", {}, button)));
@@ -77,11 +77,17 @@
     };
     return el("tr", { "data-label": p.label, class: "outside" },
       el("th", { scope: "row", text: p.label }),
-      el("td", { text: EW.num(p.x, 4) + ", " + EW.num(p.y, 4) }),
+      el("td", { text: at(store.last(), p) }),
       el("td", { colspan: "3", class: "probe-outside" }, "outside the rectangle, left out ",
         el("button", { type: "button", class: "probe-move", text: "Move inside", onclick: move }), " ",
         el("button", { type: "button", class: "probe-drop", text: "Drop", onclick: () => remove(p.label) })),
       el("td", {}));
+  }
+
+  // at writes a probe's place in the display length unit.
+  function at(S, p) {
+    const u = (S && S.units) || {}, f = (v) => EW.num(EW.dv(u, "length", v), 4);
+    return f(p.x) + ", " + f(p.y);
   }
 
   store.on("solved", render);

@@ -16,14 +16,16 @@
     ctx.fillStyle = PAPER;
     ctx.fillRect(0, 0, cssW, cssH);
     if (!S || !profile) return;
-    const { a, b } = profile;
+    // everything in the display units (measure.js): lengths, values
+    const U = S.units || {}, ls = EW.conv(U, "length").scale;
+    const a = { x: profile.a.x * ls, y: profile.a.y * ls }, b = { x: profile.b.x * ls, y: profile.b.y * ls };
     const len = Math.hypot(b.x - a.x, b.y - a.y);
     const N = 200;
     const vs = [];
     let lo = Infinity, hi = -Infinity;
     for (let k = 0; k <= N; k++) {
       const t = k / N;
-      const v = sample(a.x + t * (b.x - a.x), a.y + t * (b.y - a.y)).u;
+      const v = EW.dv(U, "value", sample((a.x + t * (b.x - a.x)) / ls, (a.y + t * (b.y - a.y)) / ls).u);
       vs.push(v);
       if (v < lo) lo = v;
       if (v > hi) hi = v;
@@ -40,7 +42,7 @@
     const pw = cssW - m.l - m.r, ph = cssH - m.t - m.b;
     const px = (d) => m.l + inset + (len > 0 ? d / len : 0) * (pw - 2 * inset);
     const py = (v) => m.t + (1 - (v - lo) / (hi - lo)) * ph;
-    const u = S.units || {};
+    const u = EW.shownUnits(U);
     ctx.strokeStyle = "#d8d3c7";
     ctx.fillStyle = INK;
     ctx.font = "11px system-ui, sans-serif";

@@ -15,15 +15,16 @@
     el.replaceChildren();
     const u = S.units || {};
     const P = EW.physicsOf(S.project.physics);
-    const L = u.length_unit || "m";
+    const d = EW.shownUnits(u), L = d.length_unit;
+    const len = (v) => EW.num(EW.dv(u, "length", v), 4);
     const gm = Math.hypot(g.ux, g.uy);
     const qx = -S.kx * g.ux, qy = -S.ky * g.uy;
-    const also = P.also ? " (" + EW.num(gm / P.also.scale, 3) + " " + P.also.unit + ")" : "";
+    const also = P.also && P.also.unit !== d.gradient_unit ? " (" + EW.num(gm / P.also.scale, 3) + " " + P.also.unit + ")" : "";
     const parts = [
-      ["x, y", EW.num(x, 4) + ", " + EW.num(y, 4) + " " + L],
-      [u.value || "value", EW.withUnit(EW.value(g.u, 5), u.value_unit)],
-      [P.readout || "gradient |∇|", EW.withUnit(EW.num(gm, 4), u.gradient_unit) + also],
-      [u.flux || "flux", EW.withUnit(EW.num(Math.hypot(qx, qy), 4), u.flux_unit) + " " + arrow(qx, qy)],
+      ["x, y", len(x) + ", " + len(y) + " " + L],
+      [u.value || "value", EW.withUnit(EW.value(g.u, 5, u), d.value_unit)],
+      [P.readout || "gradient |∇|", EW.withUnit(EW.num(EW.dd(u, "gradient", gm), 4), d.gradient_unit) + also],
+      [u.flux || "flux", EW.withUnit(EW.num(EW.dd(u, "flux", Math.hypot(qx, qy)), 4), d.flux_unit) + " " + arrow(qx, qy)],
     ];
     for (const [k, v] of parts) {
       const part = document.createElement("span");
@@ -41,10 +42,11 @@
   // normal flux INTO the region there, the convention of the edge flows.
   EW.probeCells = function (p, S, gx, gy, qx, qy) {
     const td = (text, cls) => { const c = document.createElement("td"); c.className = cls; c.textContent = text; return c; };
-    const grad = td(EW.num(Math.hypot(gx, gy), 4), "num");
+    const u = S.units || {};
+    const grad = td(EW.num(EW.dd(u, "gradient", Math.hypot(gx, gy)), 4), "num");
     const q = Math.hypot(qx, qy);
     // a component below 1e-9 of the flux is rounding noise
-    const comp = (v) => (Math.abs(v) <= 1e-9 * q ? "0" : EW.num(v, 4));
+    const comp = (v) => (Math.abs(v) <= 1e-9 * q ? "0" : EW.num(EW.dd(u, "flux", v), 4));
     const flux = td(comp(qx) + ", " + comp(qy), "num flux");
     for (const [side, qin] of normals(p, S, qx, qy)) {
       const n = document.createElement("span");

@@ -151,7 +151,8 @@
       sheetTable(p.sheet),
       el("p", { class: "ew-meta", text: "Date: " + rep.date + " · edgewise " + rep.version + " · physics: " + rep.physics }),
       el("h2", { text: "Inputs" }), table(rep.inputs), table(rep.edges),
-      el("h2", { text: "Picture" }), el("figure", {}, img),
+      el("h2", { text: "Picture" }), el("figure", {}, img, p.display && Object.keys(p.display).length
+        ? el("figcaption", { class: "ew-si-note", text: "The picture's colour bar and axes are in SI units, as in the downloads; the tables are in the display units." }) : null),
       el("h2", { text: "Results" }), table(rep.extremes), table(rep.flows), table(rep.probes), table(rep.accuracy),
       (rep.answers || []).length ? el("h2", { text: "Answers" }) : null, ...(rep.answers || []).map(table),
       rep.profile ? table(rep.profile) : null,

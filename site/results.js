@@ -43,7 +43,7 @@
 
   function flowsTable(S, warnings, box) {
     const r = S.result, u = S.units || {};
-    const fu = u.flow_unit || "";
+    const fu = EW.conv(u, "flow").unit;
     const t = el("table", { class: "flows", id: "res-flows" });
     const add = (name, text, cls) => {
       const tr = el("tr", {}, el("th", { scope: "row", text: name }), el("td", { class: "num" + (cls ? " " + cls : ""), text }));
@@ -57,7 +57,7 @@
       const e = r.edges[side];
       if (e.finite && e.flow !== null) {
         largest = Math.max(largest, Math.abs(e.flow));
-        add(EW.capital(side), EW.flow(e.flow, 5));
+        add(EW.capital(side), EW.flow(e.flow, 5, u));
         if (EW.parts) EW.parts.flowRows(add, side, e, u); // each segment's flow and mean (segments.js)
         continue;
       }
@@ -74,7 +74,7 @@
       }
       if (EW.parts) EW.parts.flowRows(add, side, e, u);
     }
-    if (r.source_total) add("Source", EW.flow(r.source_total, 5));
+    if (r.source_total) add("Source", EW.flow(r.source_total, 5, u));
     let balanceText;
     if (r.balance === null || infinite.length) {
       balanceText = "not defined (an edge flow is infinite)";
@@ -84,7 +84,7 @@
       // the field's range across it would carry
       const kdu = Math.sqrt(S.kx * S.ky) * (r.max.value - r.min.value);
       const scale = largest > 1e-6 * kdu ? largest : kdu;
-      balanceText = EW.flow(r.balance, 3) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
+      balanceText = EW.flow(r.balance, 3, u) + (scale > 0 ? "  (" + EW.num((100 * Math.abs(r.balance)) / scale, 2) + (scale === largest ? " % of the largest flow)" : " % of conductivity × range)") : "");
     }
     add("Balance", balanceText, "balance").id = "res-balance";
     box.append(el("h3", { text: "Flow through the edges" + (fu ? " [" + fu + "]" : "") }),
@@ -96,8 +96,9 @@
     const r = S.result, u = S.units || {};
     const box = byId("results");
     box.replaceChildren();
-    const vu = u.value_unit || "", L = u.length_unit || "m";
-    const at = (e) => "at x = " + EW.num(e.x, 4) + ", y = " + EW.num(e.y, 4) + " " + L;
+    const vu = EW.conv(u, "value").unit, L = EW.conv(u, "length").unit;
+    const len = (v) => EW.num(EW.dv(u, "length", v), 4);
+    const at = (e) => "at x = " + len(e.x) + ", y = " + len(e.y) + " " + L;
     const dl = el("dl", { class: "kv" });
     // A result the engine cannot stand behind (accuracy.converged false)
     // says so first and does not headline its extremes.
@@ -107,7 +108,7 @@
         text: "Not converged: the engine could not meet its tolerance for this project (see the notes from the engine). " +
           "The extremes, derived answers and cautions are withheld and the picture is for orientation only; do not use these numbers." }));
     }
-    const headline = (v) => (unreliable ? "not reliable" : EW.withUnit(EW.value(v, 5), vu));
+    const headline = (v) => (unreliable ? "not reliable" : EW.withUnit(EW.value(v, 5, u), vu));
     kvRow(dl, "Highest " + (u.value || "value"), headline(r.max.value), unreliable ? "" : at(r.max)).id = "res-max";
     kvRow(dl, "Lowest " + (u.value || "value"), headline(r.min.value), unreliable ? "" : at(r.min)).id = "res-min";
     kvRow(dl, "Mean " + (u.value || "value"), headline(r.mean), "over the rectangle").id = "res-mean";
@@ -119,9 +120,10 @@
     box.append(el("h3", { text: "Accuracy" }), da);
     const acc = r.accuracy || {};
     kvRow(da, "Series terms", String(acc.terms));
-    kvRow(da, "Error estimate", EW.withUnit(EW.num(acc.estimate, 2), vu), "largest, away from singular corners");
+    // differences: a kelvin is 1.8 °F, whatever the offset
+    kvRow(da, "Error estimate", EW.withUnit(EW.num(EW.dd(u, "value", acc.estimate), 2), vu), "largest, away from singular corners");
     if (acc.crosscheck !== null && acc.crosscheck !== undefined) {
-      kvRow(da, "Cross-check", EW.withUnit(EW.num(acc.crosscheck, 2), vu), "largest difference from finite differences" + (acc.crosscheck_grid ? " (" + acc.crosscheck_grid + ")" : ""));
+      kvRow(da, "Cross-check", EW.withUnit(EW.num(EW.dd(u, "value", acc.crosscheck), 2), vu), "largest difference from finite differences" + (acc.crosscheck_grid ? " (" + acc.crosscheck_grid + ")" : ""));
     } else {
       kvRow(da, "Cross-check", "skipped", acc.crosscheck_skipped || "");
     }

@@ -460,16 +460,16 @@
   function flowRows(add, side, e, u) {
     const segs = e && Array.isArray(e.segments) ? e.segments : null;
     if (!segs || segs.length < 2) return;
-    const vu = u.value_unit ? " " + u.value_unit : "";
+    const vu = EW.conv ? EW.withUnit("", EW.conv(u, "value").unit) : u.value_unit ? " " + u.value_unit : "";
     segs.forEach((g, i) => {
       const name = "  part " + (i + 1) + " (" + g.kind + ", s " + EW.num(g.from, 3) + "–" + EW.num(g.to, 3) + ")";
       const finite = g.finite !== false && typeof g.flow === "number";
-      const tr = add(name, finite ? EW.flow(g.flow, 5) : "∞ infinite", "seg" + (finite ? "" : " inf"));
+      const tr = add(name, finite ? EW.flow(g.flow, 5, u) : "∞ infinite", "seg" + (finite ? "" : " inf"));
       tr.classList.add("part-row");
       tr.dataset.edge = side;
       tr.dataset.part = String(i);
       tr.dataset.kind = g.kind;
-      if (typeof g.mean === "number") tr.lastChild.append(el("span", { class: "mean", text: "mean " + EW.value(g.mean, 5) + vu }));
+      if (typeof g.mean === "number") tr.lastChild.append(el("span", { class: "mean", text: "mean " + EW.value(g.mean, 5, u) + vu }));
     });
   }
 

@@ -233,6 +233,7 @@
     previewTimer = setTimeout(() => previews(project), 120);
     clearTimeout(editTimer);
     if (errors.length) {
+      gen++; // a solve still running for an older edit must not clear these errors when it ends
       EW.clearErrors();
       for (const e of errors) EW.showError(e.path, 0, e.path + ": " + e.msg);
       failedHere();

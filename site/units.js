@@ -54,16 +54,22 @@
   };
   EW.floors = () => Object.assign({}, floors);
 
-  function toAccuracy(v, p, floor) {
-    if (typeof v !== "number" || !Number.isFinite(v) || !(floor > 0)) return EW.num(v, p);
-    if (Math.abs(v) < floor) return "0";
-    const supported = Math.floor(Math.log10(Math.abs(v) / floor)) + 1;
-    return EW.num(v, Math.max(1, Math.min(p || 4, supported)));
+  // toAccuracy formats v (SI) to the accuracy floor (SI); with c, a
+  // conversion {scale, offset} (measure.js), as shown in the display unit.
+  function toAccuracy(v, p, floor, c) {
+    const scale = c ? Math.abs(c.scale) : 1, offset = c ? c.offset : 0;
+    if (typeof v !== "number" || !Number.isFinite(v) || !(floor > 0)) return EW.num(typeof v === "number" && c ? v * c.scale + offset : v, p);
+    if (Math.abs(v) < floor) v = 0; // noise: 0 in SI (32 °F for 0 °C)
+    const w = v * (c ? c.scale : 1) + offset;
+    if (w === 0) return "0";
+    const supported = Math.floor(Math.log10(Math.abs(w) / (floor * scale))) + 1;
+    return EW.num(w, Math.max(1, Math.min(p || 4, supported)));
   }
   // value formats a field value of the result on screen; flow a flow
-  // through an edge (or the source total, or the balance).
-  EW.value = (v, p) => toAccuracy(v, p, floors.value);
-  EW.flow = (v, p) => toAccuracy(v, p, floors.flow);
+  // through an edge (or the source total, or the balance). With units
+  // (a physics' units object) they are converted to the display units.
+  EW.value = (v, p, units) => toAccuracy(v, p, floors.value, units && EW.conv ? EW.conv(units, "value") : null);
+  EW.flow = (v, p, units) => toAccuracy(v, p, floors.flow, units && EW.conv ? EW.conv(units, "flow") : null);
 
   // withUnit appends a unit when there is one.
   EW.withUnit = (text, unit) => (unit ? text + " " + unit : text);

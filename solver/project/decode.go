@@ -29,6 +29,7 @@ type Project struct {
 	Grid         *GridSize    `json:"grid,omitempty"`
 	Answers      *Asked       `json:"answers,omitempty"` // inputs of the derived answers (answers.go)
 	Sheet        *Sheet       `json:"sheet,omitempty"`   // the calculation sheet's title block (sheet.go)
+	Display      Display      `json:"display,omitempty"` // the page's choice of display units (display.go)
 	// Texts holds the number fields written as text (a formula of the
 	// parameters), keyed by their path ("width", "edges.top.h",
 	// "probes[0].x"); the number field holds its value.
@@ -201,7 +202,7 @@ func (d *decoder) integer(v any, path string, lo, hi int) int {
 
 func (d *decoder) project(v any) *Project {
 	m := d.object(v, "", []string{"schema", "physics", "width", "height", "conductivity", "edges"},
-		"title", "source", "probes", "grid", "parameters", "study", "sheet", "answers")
+		"title", "source", "probes", "grid", "parameters", "study", "sheet", "answers", "display")
 	if m == nil {
 		return nil
 	}
@@ -264,6 +265,9 @@ func (d *decoder) project(v any) *Project {
 	}
 	if a, ok := m["answers"]; ok {
 		p.Answers = d.asked(a)
+	}
+	if dv, ok := m["display"]; ok {
+		p.Display = d.display(dv)
 	}
 	d.inRange(p)
 	return p

@@ -63,5 +63,8 @@ func (p *Project) JSON() []byte {
 		w.Key("answers")
 		p.Answers.write(&w)
 	}
+	if p.Display != nil {
+		p.Display.write(w.Key("display"))
+	}
 	return w.Close('}').Bytes()
 }

@@ -13,7 +13,7 @@ import (
 
 // answerTables lays out the derived answers of a solve (solver.Answers)
 // as report tables, in the trade's own terms and units.
-func answerTables(p *project.Project, out *solver.Output) []Table {
+func answerTables(p *project.Project, out *solver.Output, sh *shown) []Table {
 	r := &out.Result
 	a := r.Answers
 	if a == nil {
@@ -24,25 +24,27 @@ func answerTables(p *project.Project, out *solver.Output) []Table {
 	var list []Table
 	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
 
-	edges := Table{Caption: "Along each edge", Head: []string{"edge", with("mean "+l.Value, l.ValueUnit), with(tm.PerLength, tm.PerLengthUnit)}}
+	perLength := sh.perLength(tm)
+	edges := Table{Caption: "Along each edge", Head: []string{"edge", with("mean "+l.Value, sh.unit("value")), with(tm.PerLength, perLength.Unit)}}
 	for _, side := range problem.Sides {
 		e := r.Edges[side]
 		pl := "infinite"
 		if e.PerLength != nil {
-			pl = num(*e.PerLength)
+			pl = num(*e.PerLength * perLength.Scale)
 		}
-		add(&edges, side.String(), num(e.Mean), pl)
+		add(&edges, side.String(), sh.num("value", e.Mean), pl)
 	}
 	list = append(list, edges)
 
 	c := Table{Caption: "Between two terminals", Head: []string{"", "value"}}
 	if k := a.Conductance; k != nil {
-		add(&c, "high terminal", num(k.High.Value)+unitNote(l.ValueUnit)+" on "+strings.Join(k.High.Parts, ", "))
-		add(&c, "low terminal", num(k.Low.Value)+unitNote(l.ValueUnit)+" on "+strings.Join(k.Low.Parts, ", "))
-		add(&c, with("flow between them", l.FlowUnit), num(k.Flow))
-		add(&c, with(tm.Conductance+" per metre of depth", tm.ConductanceUnit), num(k.PerDifference))
+		cc, inverse := sh.conductance(tm)
+		add(&c, "high terminal", sh.num("value", k.High.Value)+unitNote(sh.unit("value"))+" on "+strings.Join(k.High.Parts, ", "))
+		add(&c, "low terminal", sh.num("value", k.Low.Value)+unitNote(sh.unit("value"))+" on "+strings.Join(k.Low.Parts, ", "))
+		add(&c, with("flow between them", sh.unit("flow")), sh.diff("flow", k.Flow))
+		add(&c, with(tm.Conductance+" per metre of depth", cc.Unit), num(k.PerDifference*cc.Scale))
 		if tm.Resistance != "" {
-			add(&c, with(tm.Resistance+" per metre of depth", tm.ResistanceUnit), num(1/k.PerDifference))
+			add(&c, with(tm.Resistance+" per metre of depth", inverse), num(1/(k.PerDifference*cc.Scale)))
 		}
 		add(&c, "shape factor Q/(k ΔU)", num(k.ShapeFactor))
 	} else {
@@ -57,32 +59,32 @@ func answerTables(p *project.Project, out *solver.Output) []Table {
 		add(&net, "flow net", n.Reason)
 	case n.Traced:
 		add(&net, "flow channels", strconv.Itoa(n.Channels))
-		add(&net, with("outflow per channel", l.FlowUnit), num(n.FlowStep))
+		add(&net, with("outflow per channel", sh.unit("flow")), sh.diff("flow", n.FlowStep))
 		add(&net, "flow net", n.Note)
 	default:
 		add(&net, "flow channels", strconv.Itoa(n.Channels))
 		add(&net, "potential drops (square cells)", num(n.Drops))
 		add(&net, "channels / drops = Q/(k ΔU)", num(n.Ratio))
-		add(&net, with("flow per channel", l.FlowUnit), num(n.FlowStep))
-		add(&net, with(l.Value+" per drop", l.ValueUnit), num(n.PotentialStep))
+		add(&net, with("flow per channel", sh.unit("flow")), sh.diff("flow", n.FlowStep))
+		add(&net, with(l.Value+" per drop", sh.unit("value")), sh.diff("value", n.PotentialStep))
 	}
 	list = append(list, net)
 
 	switch {
 	case a.Heat != nil:
 		h := a.Heat
-		t := Table{Caption: "Heat lost to the fluid on convection edges", Head: []string{"part", "heat lost [W/m]", "Biot number h L/k", "L [m]", "reading"}}
+		t := Table{Caption: "Heat lost to the fluid on convection edges", Head: []string{"part", with("heat lost", sh.unit("flow")), "Biot number h L/k", with("L", sh.unit("length")), "reading"}}
 		for _, cv := range h.Convection {
-			add(&t, cv.Part, num(cv.Loss), num(cv.Biot), num(cv.L), cv.Reading)
+			add(&t, cv.Part, sh.diff("flow", cv.Loss), num(cv.Biot), sh.num("length", cv.L), cv.Reading)
 		}
-		s := Table{Caption: "Mean surface temperature under flux and convection parts", Head: []string{"part", "kind", with("mean temperature", l.ValueUnit)}}
+		s := Table{Caption: "Mean surface temperature under flux and convection parts", Head: []string{"part", "kind", with("mean temperature", sh.unit("value"))}}
 		for _, x := range h.Surfaces {
-			add(&s, x.Part, x.Kind, num(x.Mean))
+			add(&s, x.Part, x.Kind, sh.num("value", x.Mean))
 		}
 		list = append(list, t, s)
 	case a.Electrostatic != nil:
 		e := a.Electrostatic
-		t := Table{Caption: "Electrodes (value parts)", Head: []string{"part", with("potential", l.ValueUnit), "charge [C/m]", "surface charge density, least .. greatest [C/m²]"}}
+		t := Table{Caption: "Electrodes (value parts)", Head: []string{"part", with("potential", sh.unit("value")), "charge [C/m]", "surface charge density, least .. greatest [C/m²]"}}
 		for _, el := range e.Electrodes {
 			q := "infinite"
 			if el.Charge != nil {
@@ -92,12 +94,13 @@ func answerTables(p *project.Project, out *solver.Output) []Table {
 			for _, v := range el.Sigma {
 				lo, hi = min(lo, v), max(hi, v)
 			}
-			add(&t, el.Part, num(el.Potential), q, num(lo)+" .. "+num(hi))
+			add(&t, el.Part, sh.num("value", el.Potential), q, num(lo)+" .. "+num(hi))
 		}
 		b := Table{Caption: "Peak field strength against breakdown", Head: []string{"", "value"}}
-		add(&b, "peak field strength [kV/mm]", num(e.Peak.G/1e6)+" at ("+num(e.Peak.X)+", "+num(e.Peak.Y)+") m")
+		L := " " + sh.unit("length")
+		add(&b, "peak field strength [kV/mm]", num(e.Peak.G/1e6)+" at ("+sh.num("length", e.Peak.X)+", "+sh.num("length", e.Peak.Y)+")"+L)
 		if len(a.Singular) > 0 {
-			add(&b, "taken at least", num(a.Near)+" m from where two prescribed potentials meet (unbounded there in the ideal model)")
+			add(&b, "taken at least", sh.num("length", a.Near)+L+" from where two prescribed potentials meet (unbounded there in the ideal model)")
 		}
 		add(&b, "dielectric assumed", e.Dielectric+" ("+e.Source+")")
 		add(&b, "breakdown strength [kV/mm]", num(e.Breakdown/1e6))
@@ -116,7 +119,7 @@ func answerTables(p *project.Project, out *solver.Output) []Table {
 		}
 		add(&t, "critical hydraulic gradient", num(s.Critical)+": "+s.Rule)
 		for _, x := range s.Exits {
-			add(&t, "exit gradient on "+x.Part, num(x.G)+" at ("+num(x.X)+", "+num(x.Y)+") m; factor of safety against heave "+num(x.FactorOfSafety))
+			add(&t, "exit gradient on "+x.Part, num(x.G)+" at ("+sh.num("length", x.X)+", "+sh.num("length", x.Y)+") "+sh.unit("length")+"; factor of safety against heave "+num(x.FactorOfSafety))
 		}
 		list = append(list, t)
 	}
@@ -132,12 +135,14 @@ const profilePoints = 100
 
 // profileTable is the report's table of a line profile.
 func profileTable(p *project.Project, out *solver.Output, line ProfileLine) Table {
-	l := solver.Units(p.Physics)
-	t := Table{Caption: "Line profile from (" + num(line.X0) + ", " + num(line.Y0) + ") to (" + num(line.X1) + ", " + num(line.Y1) + ") m",
-		Head: []string{with("distance", l.Length), with("x", l.Length), with("y", l.Length), with(l.Value, l.ValueUnit), with(l.Flux+" x", l.FluxUnit), with(l.Flux+" y", l.FluxUnit)}}
+	l, sh := solver.Units(p.Physics), newShown(p)
+	L := func(v float64) string { return sh.num("length", v) }
+	t := Table{Caption: "Line profile from (" + L(line.X0) + ", " + L(line.Y0) + ") to (" + L(line.X1) + ", " + L(line.Y1) + ") " + sh.unit("length"),
+		Head: []string{with("distance", sh.unit("length")), with("x", sh.unit("length")), with("y", sh.unit("length")), with(l.Value, sh.unit("value")),
+			with(l.Flux+" x", sh.unit("flux")), with(l.Flux+" y", sh.unit("flux"))}}
 	for i, q := range out.Profile(line.X0, line.Y0, line.X1, line.Y1, profilePoints) {
 		if i%10 == 0 {
-			t.Rows = append(t.Rows, []string{num(q.D), num(q.X), num(q.Y), num(q.Value), num(q.Qx), num(q.Qy)})
+			t.Rows = append(t.Rows, []string{L(q.D), L(q.X), L(q.Y), sh.num("value", q.Value), sh.diff("flux", q.Qx), sh.diff("flux", q.Qy)})
 		}
 	}
 	return t

@@ -119,6 +119,7 @@ func (r *Report) SetProfile(p *project.Project, out *solver.Output, line Profile
 // Build makes the report of a solved project. date is printed as given.
 func Build(p *project.Project, out *solver.Output, date, version string) *Report {
 	l := solver.Units(p.Physics)
+	sh := newShown(p) // numbers and units as the page shows them (shown.go)
 	r := &out.Result
 	title := p.Title
 	if title == "" {
@@ -137,15 +138,15 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 	rep.Inputs = Table{Caption: "Rectangle, material and source", Head: []string{"input", "value"}}
 	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
 	add(&rep.Inputs, "physics", p.Physics)
-	add(&rep.Inputs, with("width W", l.Length), num(p.Width))
-	add(&rep.Inputs, with("height H", l.Length), num(p.Height))
+	add(&rep.Inputs, with("width W", sh.unit("length")), sh.num("length", p.Width))
+	add(&rep.Inputs, with("height H", sh.unit("length")), sh.num("length", p.Height))
 	if p.Conductivity.X == p.Conductivity.Y {
-		add(&rep.Inputs, with(l.Conductivity, l.CondUnit), num(p.Conductivity.X))
+		add(&rep.Inputs, with(l.Conductivity, sh.unit("conductivity")), sh.num("conductivity", p.Conductivity.X))
 	} else {
-		add(&rep.Inputs, with(l.Conductivity+" along x", l.CondUnit), num(p.Conductivity.X))
-		add(&rep.Inputs, with(l.Conductivity+" along y", l.CondUnit), num(p.Conductivity.Y))
+		add(&rep.Inputs, with(l.Conductivity+" along x", sh.unit("conductivity")), sh.num("conductivity", p.Conductivity.X))
+		add(&rep.Inputs, with(l.Conductivity+" along y", sh.unit("conductivity")), sh.num("conductivity", p.Conductivity.Y))
 	}
-	add(&rep.Inputs, with(l.Source+" (uniform)", l.SourceUnit), num(p.Source))
+	add(&rep.Inputs, with(l.Source+" (uniform)", sh.unit("source")), sh.num("source", p.Source))
 	add(&rep.Inputs, "output grid (intervals)", strconv.Itoa(out.Nx)+" x "+strconv.Itoa(out.Ny))
 
 	rep.Edges = Table{Caption: "Edge conditions (s runs along the edge: bottom and top from the left, left and right from the bottom)",
@@ -153,45 +154,47 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 	for _, side := range problem.Sides {
 		segs := p.Edges[side].Segments
 		for i, s := range segs {
-			c := condition(s, l)
+			c := condition(s, l, sh)
 			if i < len(segs)-1 {
-				c += " up to s = " + num(s.To) + unitNote(l.Length)
+				c += " up to s = " + sh.num("length", s.To) + unitNote(sh.unit("length"))
 			}
 			add(&rep.Edges, side.String(), s.Kind.String(), c)
 		}
 	}
 
 	rep.Extremes = Table{Caption: "Extremes on the output grid and mean",
-		Head: []string{"", with(l.Value, l.ValueUnit), with("x", l.Length), with("y", l.Length)}}
-	add(&rep.Extremes, "minimum", num(r.Min.Value), num(r.Min.X), num(r.Min.Y))
-	add(&rep.Extremes, "maximum", num(r.Max.Value), num(r.Max.X), num(r.Max.Y))
-	add(&rep.Extremes, "mean over the region", num(r.Mean), "", "")
+		Head: []string{"", with(l.Value, sh.unit("value")), with("x", sh.unit("length")), with("y", sh.unit("length"))}}
+	add(&rep.Extremes, "minimum", sh.num("value", r.Min.Value), sh.num("length", r.Min.X), sh.num("length", r.Min.Y))
+	add(&rep.Extremes, "maximum", sh.num("value", r.Max.Value), sh.num("length", r.Max.X), sh.num("length", r.Max.Y))
+	add(&rep.Extremes, "mean over the region", sh.num("value", r.Mean), "", "")
 
 	rep.Flows = Table{Caption: "Flows into the region per metre of depth",
-		Head: []string{"through", with("flow", l.FlowUnit)}}
+		Head: []string{"through", with("flow", sh.unit("flow"))}}
 	for _, side := range problem.Sides {
-		add(&rep.Flows, side.String()+" edge", flow(r.Edges[side]))
+		add(&rep.Flows, side.String()+" edge", flow(r.Edges[side], sh))
 	}
-	add(&rep.Flows, "source in the region", num(r.SourceTotal))
+	add(&rep.Flows, "source in the region", sh.diff("flow", r.SourceTotal))
 	if r.Balance != nil {
-		add(&rep.Flows, "balance (sum, should be 0)", num(*r.Balance))
+		add(&rep.Flows, "balance (sum, should be 0)", sh.diff("flow", *r.Balance))
 	} else {
 		add(&rep.Flows, "balance (sum, should be 0)", "not a number: an edge flow is infinite (a jump in value at a corner)")
 	}
 
 	rep.Probes = Table{Caption: "Probes",
-		Head: []string{"label", with("x", l.Length), with("y", l.Length), with(l.Value, l.ValueUnit),
-			with("gradient x", l.GradientUnit), with("gradient y", l.GradientUnit),
-			with(l.Flux+" x", l.FluxUnit), with(l.Flux+" y", l.FluxUnit)}}
+		Head: []string{"label", with("x", sh.unit("length")), with("y", sh.unit("length")), with(l.Value, sh.unit("value")),
+			with("gradient x", sh.unit("gradient")), with("gradient y", sh.unit("gradient")),
+			with(l.Flux+" x", sh.unit("flux")), with(l.Flux+" y", sh.unit("flux"))}}
 	for _, q := range r.Probes {
-		add(&rep.Probes, q.Label, num(q.X), num(q.Y), num(q.Value), num(q.Gradient[0]), num(q.Gradient[1]), num(q.Flux[0]), num(q.Flux[1]))
+		add(&rep.Probes, q.Label, sh.num("length", q.X), sh.num("length", q.Y), sh.num("value", q.Value), sh.diff("gradient", q.Gradient[0]),
+			sh.diff("gradient", q.Gradient[1]), sh.diff("flux", q.Flux[0]), sh.diff("flux", q.Flux[1]))
 	}
 
 	rep.Accuracy = Table{Caption: "Accuracy and cross-check", Head: []string{"", "value"}}
 	add(&rep.Accuracy, "series terms", strconv.Itoa(r.Accuracy.Terms))
-	add(&rep.Accuracy, with("estimated largest series error", l.ValueUnit), num(r.Accuracy.Estimate))
+	// differences: no offset (1 K is 1.8 °F)
+	add(&rep.Accuracy, with("estimated largest series error", sh.unit("value")), sh.diff("value", r.Accuracy.Estimate))
 	if r.Accuracy.Crosscheck != nil {
-		add(&rep.Accuracy, with("largest difference from the finite-difference cross-check", l.ValueUnit), num(*r.Accuracy.Crosscheck))
+		add(&rep.Accuracy, with("largest difference from the finite-difference cross-check", sh.unit("value")), sh.diff("value", *r.Accuracy.Crosscheck))
 		if r.Accuracy.CrosscheckGrid != "" {
 			add(&rep.Accuracy, "cross-check grids", r.Accuracy.CrosscheckGrid)
 		}
@@ -202,19 +205,20 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 		}
 		add(&rep.Accuracy, "finite-difference cross-check", "skipped: "+reason)
 	}
-	rep.Answers = answerTables(p, out)
+	rep.Answers = answerTables(p, out, sh)
 	return rep
 }
 
-// condition describes one edge condition with units.
-func condition(e project.Segment, l solver.UnitSet) string {
+// condition describes one edge condition with units. Formulas are SI,
+// as written; h is a number and shown in the display unit.
+func condition(e project.Segment, l solver.UnitSet, sh *shown) string {
 	switch e.Kind {
 	case problem.Value:
 		return l.Value + " = " + e.Expr + unitNote(l.ValueUnit)
 	case problem.Flux:
 		return "entering " + l.Flux + " = " + e.Expr + unitNote(l.FluxUnit)
 	case problem.Convection:
-		return l.Coefficient + " h = " + num(e.H) + unitNote(l.CoefUnit) + " to ambient " + e.Ambient + unitNote(l.ValueUnit)
+		return l.Coefficient + " h = " + sh.diff("coefficient", e.H) + unitNote(sh.unit("coefficient")) + " to ambient " + e.Ambient + unitNote(l.ValueUnit)
 	}
 	return e.Kind.String()
 }
@@ -226,11 +230,11 @@ func unitNote(u string) string {
 	return " " + u
 }
 
-func flow(f solver.EdgeFlow) string {
+func flow(f solver.EdgeFlow, sh *shown) string {
 	if !f.Finite || f.Flow == nil {
 		return "infinite (a jump in value at a corner of this edge)"
 	}
-	return num(*f.Flow)
+	return sh.diff("flow", *f.Flow)
 }
 
 // num prints a number with six significant digits.
