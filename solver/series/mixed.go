@@ -19,12 +19,13 @@ import (
 // unknown polynomial v(s) = sum_j a_j T_j(tau), tau mapping the span onto
 // [-1, 1]. Where a value part meets a flux or convection part the field
 // grows like r^(1/2) (a gradient like r^(-1/2)), which no polynomial
-// carries: the singular family of the edge (mixedfamily.go),
-// F_k = Re(c Q(zeta) T_k(zeta)) with Q the product of (zeta - z_i)^(1/2)
-// over the meeting places z_i, carries it analytically. The F_k vanish on
-// the edge's value parts and have no normal derivative on its other
-// parts, so they leave its conditions alone; their traces on the other
-// edges go into those edges' data. The field is
+// carries: the singular family of the edge (mixedfamily.go), the
+// functions F_ij = Re(c_i (zeta - z_i)^(j + 1/2)) of each meeting z_i,
+// carries it analytically. Each vanishes on the value side of its meeting
+// and has no normal derivative on the other side, along the whole line of
+// the edge; what it puts elsewhere (beyond the other meetings, on the
+// other edges) is smooth and goes into the inner problem's data. The
+// field is
 //
 //	u = inner(a, b) + sum_k b_k F_k,
 //
@@ -269,13 +270,16 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 				ts, kappa = c, p.Kx
 			}
 			lm := me.L * ts
-			fam := &family{fr: newFrame(p, side), centre: lm / 2, half: lm / 2, c: 1,
-				n: lv.perMeet*len(me.meets) + 2, kappa: kappa, ts: ts}
+			per := lv.perMeet + 2
+			fam := &family{fr: newFrame(p, side), centre: lm / 2, half: lm / 2,
+				per: per, n: per * len(me.meets), kappa: kappa, ts: ts}
 			for _, s := range me.meets {
 				fam.z = append(fam.z, complex((s*ts-fam.centre)/fam.half, 0))
-			}
-			if me.value[len(me.value)-1] {
-				fam.c = complex(0, 1)
+				c := complex(1, 0) // the value part before the meeting
+				if !me.value[me.partOn(s, -1)] {
+					c = complex(0, -1)
+				}
+				fam.c = append(fam.c, c)
 			}
 			me.fam, me.famOff = fam, ms.n
 			ms.n += fam.n
@@ -448,14 +452,12 @@ func (ms *mixedSolver) inner(x []float64, base bool) *problem.Problem {
 	for _, side := range problem.Sides {
 		side := side
 		e := pr.Edges[side]
-		own := ms.bySide[side]
 		fam := func(s float64) (u, in float64) {
 			if !anyFam {
 				return 0, 0
 			}
 			px, py := pr.Point(side, s)
-			// the edge's own family is zero along its value parts
-			u, ux, uy := ms.famSum(x, px, py, own)
+			u, ux, uy := ms.famSum(x, px, py)
 			return u, entering(pr, side, ux, uy)
 		}
 		data := func(s float64) float64 {
@@ -680,7 +682,7 @@ func (ms *mixedSolver) innerData(side problem.Side, s float64, dir int, x []floa
 		}
 		val := func(t float64) float64 {
 			px, py := pr.Point(side, t)
-			fu, _, _ := ms.famSum(x, px, py, me) // the own family is zero on value parts
+			fu, _, _ := ms.famSum(x, px, py)
 			if base {
 				return f(t) - fu
 			}

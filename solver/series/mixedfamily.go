@@ -38,56 +38,73 @@ func (f *frame) at(x, y float64) (t, d float64) {
 
 // family is the singular family of one mixed edge: with zeta the
 // normalised local coordinate (t - centre)/half + i d/half and z_i the
-// places where a value part meets a flux or convection part,
+// places where a value part meets a flux or convection part, per meeting
+// the Motz-type functions
 //
-//	G_k(zeta) = c Q(zeta) T_k(zeta),   Q = prod_i (zeta - z_i)^(1/2),
+//	G_ij(zeta) = c_i (zeta - z_i)^(j + 1/2),  j = 0 .. per-1,   F_ij = Re G_ij,
 //
-// T_k the Chebyshev polynomials, and F_k = Re G_k. Q is real on the edge
-// beyond the last meeting and changes between real and imaginary at each
-// meeting; c (1 or i) is chosen so that every F_k is zero on the edge's
-// value parts and has zero normal derivative on its other parts. The F_k
+// with c_i = 1 where the value part lies before z_i and -i where it lies
+// after (the branch cut of the square root runs along the edge before
+// z_i, outside the region). F_ij is zero along the whole line of the edge
+// on the value side of z_i and has no normal derivative on its other
+// side, and carries the r^(j + 1/2) behaviour of the meeting. The F_ij
 // are harmonic in the mapped coordinates (so they solve the orthotropic
-// equation), carry the r^(k - 1/2) behaviour of every meeting, and leave
-// the edge's own conditions untouched; their traces elsewhere go into the
-// other edges' data.
+// equation); where they do not meet the edge's conditions (beyond the
+// other meetings) and on the other edges they are smooth, and go into
+// the inner problem's data.
 type family struct {
 	fr           frame
 	centre, half float64
 	z            []complex128
-	c            complex128
+	c            []complex128
+	per          int // members per meeting
 	n            int
 	kappa, ts    float64 // entering flux = -kappa dF/dd; t per unit s
 }
 
-// eval writes F_k and its derivatives along t and d for k < len(f), at
-// local (t, d). At a meeting itself the derivatives are NaN.
+// eval writes F_k and its derivatives along t and d (nil: values only)
+// for k < len(f), at local (t, d). At a meeting itself the derivatives of
+// its first member are NaN.
 func (fm *family) eval(t, d float64, f, ft, fd []float64) {
 	zeta := complex((t-fm.centre)/fm.half, d/fm.half)
-	q, dq := complex(1, 0), complex(0, 0) // Q and Q'/Q
-	for _, z := range fm.z {
+	for i, z := range fm.z {
 		w := zeta - z
-		q *= cmplx.Sqrt(w)
-		dq += 0.5 / w
-	}
-	q *= fm.c
-	tk, tk1 := complex(1, 0), complex(0, 0) // T_k, T_(k-1)
-	dk, dk1 := complex(0, 0), complex(0, 0) // T_k', T_(k-1)'
-	for k := range f {
-		g := q * tk
-		dg := q * (tk*dq + dk)
-		f[k] = real(g)
-		if ft != nil {
-			ft[k], fd[k] = real(dg)/fm.half, -imag(dg)/fm.half
+		sq := fm.c[i] * cmplx.Sqrt(w)
+		p := sq             // c w^(j + 1/2)
+		pm := complex(0, 0) // c w^(j - 1/2), for the derivative
+		if w != 0 {
+			pm = sq / w
 		}
-		if k == 0 {
-			tk, tk1, dk, dk1 = zeta, tk, 1, dk
-			continue
+		for j := 0; j < fm.per; j++ {
+			k := i*fm.per + j
+			if k >= len(f) {
+				return
+			}
+			f[k] = real(p)
+			if ft != nil {
+				var dg complex128
+				switch {
+				case j > 0:
+					dg = complex(float64(j)+0.5, 0) * pm
+				case w != 0:
+					dg = 0.5 * pm
+				default:
+					dg = complex(math.NaN(), math.NaN())
+				}
+				ft[k], fd[k] = real(dg)/fm.half, -imag(dg)/fm.half
+			}
+			if j == 0 {
+				pm = sq
+			} else {
+				pm *= w
+			}
+			p *= w
 		}
-		tk, tk1, dk, dk1 = 2*zeta*tk-tk1, tk, 2*tk+2*zeta*dk-dk1, dk
 	}
 }
 
-// xy evaluates the family at (x, y): F_k and their gradients.
+// xy evaluates the family at (x, y): F_k and their gradients (values
+// only when fx is nil).
 func (fm *family) xy(x, y float64, f, fx, fy []float64) {
 	t, d := fm.fr.at(x, y)
 	if fx == nil {
@@ -107,18 +124,15 @@ func (fm *family) xy(x, y float64, f, fx, fy []float64) {
 // kappa/ts (Im G_k(s2) - Im G_k(s1)).
 func (fm *family) conjugate(t float64, g []float64) {
 	zeta := complex((t-fm.centre)/fm.half, 0)
-	q := fm.c
-	for _, z := range fm.z {
-		q *= cmplx.Sqrt(zeta - z)
-	}
-	tk, tk1 := complex(1, 0), complex(0, 0)
-	for k := range g {
-		g[k] = imag(q * tk)
-		if k == 0 {
-			tk, tk1 = zeta, tk
-			continue
+	for i, z := range fm.z {
+		w := zeta - z
+		p := fm.c[i] * cmplx.Sqrt(w)
+		for j := 0; j < fm.per; j++ {
+			if k := i*fm.per + j; k < len(g) {
+				g[k] = imag(p)
+			}
+			p *= w
 		}
-		tk, tk1 = 2*zeta*tk-tk1, tk
 	}
 }
 
