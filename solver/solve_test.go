@@ -47,8 +47,8 @@ func TestPreviewEdge(t *testing.T) {
 func TestResultJSON(t *testing.T) {
 	f1, f2, cc := 12.5, -3.25e-7, 1.5e-9
 	r := Result{
-		Schema:      ResultSchema,
-		Probes:      []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
+		Schema: ResultSchema,
+		Probes: []ProbeResult{{Label: `a "b" <c>`, X: 0.1, Y: 0.2, Value: 3, Gradient: [2]float64{1, -2}, Flux: [2]float64{-5, 10}}},
 		Edges: EdgeFlows{problem.Bottom: {Flow: &f1, Finite: true, Mean: 2, PerLength: &f2,
 			Segments: []SegmentFlow{{From: 0, To: 0.5, Kind: "value", Flow: &f1, Finite: true, Mean: 2}, {From: 0.5, To: 1, Kind: "flux", Finite: false, Mean: -0.5}}}, problem.Top: {Finite: false, Mean: -1}, problem.Left: {Flow: &f2, Finite: true}, problem.Right: {Flow: &f1, Finite: true}},
 		SourceTotal: 7, Mean: 1.0 / 3, Min: Extreme{-1, 0, 0.5}, Max: Extreme{2, 0.4, 0.2},
