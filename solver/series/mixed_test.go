@@ -70,3 +70,105 @@ func TestMixedTwoStrips(t *testing.T) {
 		t.Logf("warning %s: %s", w.Code, w.Text)
 	}
 }
+
+// solveMixedTest solves pr through FindBreaks and SolveBreaks.
+func solveMixedTest(t *testing.T, pr *problem.Problem) Field {
+	t.Helper()
+	breaks, err := FindBreaks(pr)
+	if err != nil {
+		t.Fatal(err)
+	}
+	f, err := SolveBreaks(pr, breaks, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return f
+}
+
+func insulatedEdge() problem.Edge { return problem.Edge{Kind: problem.Flux, F: konst(0)} }
+
+// The classical mixed-condition singularity benchmark (value 0 on the left
+// half of the bottom of a 2 x 1 rectangle, the right half insulated, 500
+// on the right side, the rest insulated). Its singular coefficients, from
+// Motz (Quart. Appl. Math. 1946), Rosser & Papamichael (1975) and Li,
+// Mathon & Sermer (SIAM J. Numer. Anal. 1987), recalled from memory as in
+// package exact: d0 = 401.162453745, d1 = 87.6559201951. The field along
+// the insulated half is d0 r^(1/2) + d1 r^(3/2) + ...: the engine's
+// coefficients of r^(1/2) and r^(3/2) at the meeting are its family's.
+// The field is also checked against the exact conformal-map solution.
+func TestMixedMotz(t *testing.T) {
+	ex, err := exact.New(2, 1, 1, 1, exact.Part{Side: problem.Bottom, From: 0, To: 1},
+		exact.Part{Side: problem.Right, From: 0, To: 1}, 0, 500)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pr := &problem.Problem{W: 2, H: 1, Kx: 1, Ky: 1}
+	pr.Edges[problem.Bottom] = partsEdge([]float64{1}, []float64{0, 0}, []bool{true, false})
+	pr.Edges[problem.Right] = problem.Edge{Kind: problem.Value, F: konst(500)}
+	pr.Edges[problem.Top], pr.Edges[problem.Left] = insulatedEdge(), insulatedEdge()
+	f := solveMixedTest(t, pr)
+	mf := f.(*mixedField)
+	fm := mf.ms.edges[0].fam
+	// u = x_0 ((s - 1)/half)^(1/2) + x_1 ((s - 1)/half)^(3/2) + smooth
+	d0 := mf.x[mf.ms.edges[0].famOff] / math.Sqrt(fm.half)
+	d1 := mf.x[mf.ms.edges[0].famOff+1] / math.Pow(fm.half, 1.5)
+	t.Logf("d0 %.12g (published 401.162453745), d1 %.12g (87.6559201951), estimate %.3g", d0, d1, f.ErrorEstimate())
+	if math.Abs(d0/401.162453745-1) > 1e-6 {
+		t.Errorf("d0 = %.12g, published 401.162453745", d0)
+	}
+	if math.Abs(d1/87.6559201951-1) > 1e-4 {
+		t.Errorf("d1 = %.12g, published 87.6559201951", d1)
+	}
+	worst, near := 0.0, 0.0
+	for _, xy := range [][2]float64{{0.5, 0.5}, {1.5, 0.2}, {0.2, 0.9}, {1.9, 0.99}, {1, 0.3}} {
+		u, _, _ := f.At(xy[0], xy[1])
+		worst = max(worst, math.Abs(u-ex.Value(xy[0], xy[1])))
+	}
+	// next to the meeting, on both sides and above it
+	for _, xy := range [][2]float64{{1.001, 0}, {0.999, 0.001}, {1, 0.0005}, {1.02, 0}} {
+		u, _, _ := f.At(xy[0], xy[1])
+		near = max(near, math.Abs(u-ex.Value(xy[0], xy[1])))
+	}
+	t.Logf("worst value error %.3g away, %.3g next to the meeting; estimate %.3g", worst, near, f.ErrorEstimate())
+	if max(worst, near) > 1e-6*500 || max(worst, near) > f.ErrorEstimate() {
+		t.Errorf("value errors %.3g away and %.3g near the meeting; estimate %.3g", worst, near, f.ErrorEstimate())
+	}
+	parts := PartsOf(f, pr, problem.Bottom)
+	want := ex.FlowThrough(problem.Bottom, 0, 1)
+	if math.Abs(parts[0].Flow-want) > 1e-6*math.Abs(want) || math.Abs(parts[1].Flow) > 1e-6*math.Abs(want) {
+		t.Errorf("bottom parts flow %.12g and %.12g; exact %.12g and 0", parts[0].Flow, parts[1].Flow, want)
+	}
+	if m, w := parts[1].Mean, ex.MeanAlong(problem.Bottom, 1, 2); math.Abs(m-w) > 1e-6*500 {
+		t.Errorf("mean along the insulated half %.12g, exact %.12g", m, w)
+	}
+}
+
+// Orthotropic strips on two different edges (bottom and left), by the
+// coordinate map of the exact solution (package exact).
+func TestMixedOrthotropicStrips(t *testing.T) {
+	const W, H, kx, ky = 2.0, 1.0, 4.0, 1.0
+	ex, err := exact.New(W, H, kx, ky, exact.Part{Side: problem.Bottom, From: 0.8, To: 1.5},
+		exact.Part{Side: problem.Left, From: 0.3, To: 0.7}, 10, 30)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pr := &problem.Problem{W: W, H: H, Kx: kx, Ky: ky}
+	pr.Edges[problem.Bottom] = partsEdge([]float64{0.8, 1.5}, []float64{0, 10, 0}, []bool{false, true, false})
+	pr.Edges[problem.Left] = partsEdge([]float64{0.3, 0.7}, []float64{0, 30, 0}, []bool{false, true, false})
+	pr.Edges[problem.Top], pr.Edges[problem.Right] = insulatedEdge(), insulatedEdge()
+	f := solveMixedTest(t, pr)
+	worst := 0.0
+	for _, xy := range [][2]float64{{0.5, 0.5}, {1.5, 0.2}, {0.2, 0.9}, {1.9, 0.99}, {0.01, 0.5}, {1.2, 0.001}} {
+		u, _, _ := f.At(xy[0], xy[1])
+		worst = max(worst, math.Abs(u-ex.Value(xy[0], xy[1])))
+	}
+	left := PartsOf(f, pr, problem.Left)
+	want := ex.FlowThrough(problem.Left, 0.3, 0.7)
+	t.Logf("worst value error %.3g (estimate %.3g); left strip flow %.12g, exact %.12g", worst, f.ErrorEstimate(), left[1].Flow, want)
+	if worst > 1e-6*20 || worst > f.ErrorEstimate() {
+		t.Errorf("worst value error %.3g, estimate %.3g", worst, f.ErrorEstimate())
+	}
+	if math.Abs(left[1].Flow-want) > 1e-6*math.Abs(want) {
+		t.Errorf("left strip flow %.12g, exact %.12g", left[1].Flow, want)
+	}
+}
