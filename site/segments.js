@@ -283,7 +283,7 @@
       const one = Object.assign({}, segs[i]);
       delete one.to;
       const edges = Object.assign({}, project.edges, { [side]: one });
-      const m = await EW.engine.call("preview", JSON.stringify(Object.assign({}, project, { edges })), side, n);
+      const m = await EW.engine.call("preview", JSON.stringify(Object.assign({}, project, { edges, probes: [] })), side, n);
       const r = m.value;
       const part = { from: b[i][0], to: b[i][1], kind: one.kind, ok: !!r.ok, s: [], v: [] };
       if (r.ok) {
