@@ -1,9 +1,11 @@
 package series
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 
 	"edgewise/solver/linalg"
 	"edgewise/solver/problem"
@@ -76,7 +78,8 @@ type mixedEdge struct {
 	e      problem.Edge
 	L      float64
 	value  []bool    // part i holds a value
-	meets  []float64 // where a value part meets another kind
+	meets  []float64 // where a value part meets another kind, or a holding step of h (holdSteps)
+	before []bool    // for each meeting: the value (or holding) side is before it
 	fam    *family   // nil without meetings
 	famOff int
 	spans  []span
@@ -161,7 +164,7 @@ func simplify(p *problem.Problem) *problem.Problem {
 			if k == problem.Convection {
 				from, to := e.PartRange(i, L)
 				hc, constant := constantH(part.Hc, from, to)
-				if hc == 0 {
+				if constant && hc == 0 {
 					k = problem.Flux // insulated
 				} else if !constant || (h >= 0 && hc != h) {
 					same = false
@@ -261,8 +264,10 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 		for i := 1; i < len(e.Parts); i++ {
 			if me.value[i] != me.value[i-1] {
 				me.meets = append(me.meets, e.Parts[i-1].To)
+				me.before = append(me.before, me.value[i-1])
 			}
 		}
+		ms.holdSteps(me)
 		if len(me.meets) > 0 {
 			ts := 1.0
 			kappa := math.Sqrt(p.Kx * p.Ky)
@@ -273,10 +278,10 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 			per := lv.perMeet + 2
 			fam := &family{fr: newFrame(p, side), centre: lm / 2, half: lm / 2,
 				per: per, n: per * len(me.meets), kappa: kappa, ts: ts}
-			for _, s := range me.meets {
+			for i, s := range me.meets {
 				fam.z = append(fam.z, complex((s*ts-fam.centre)/fam.half, 0))
-				c := complex(1, 0) // the value part before the meeting
-				if !me.value[me.partOn(s, -1)] {
+				c := complex(1, 0) // the value part (or holding side) before the meeting
+				if !me.before[i] {
 					c = complex(0, -1)
 				}
 				fam.c = append(fam.c, c)
@@ -513,6 +518,89 @@ func (ms *mixedSolver) inner(x []float64, base bool) *problem.Problem {
 		}
 	}
 	return &q
+}
+
+// Holding steps: where the convection coefficient steps, inside a span,
+// from a stretch that nearly holds its ambient (h l / k above holdBiot,
+// l the stretch's length) to one that exchanges little (below 1, or a
+// flux part), the field behaves like it does where a value part meets a
+// flux part, down to the distance k/h: the meeting gets the singular
+// family too, its holding side taken as the value side.
+const holdBiot = 10
+
+// holdSteps adds the holding steps of the spans of me to its meetings.
+func (ms *mixedSolver) holdSteps(me *mixedEdge) {
+	pr := ms.pr
+	kn := pr.Ky
+	if me.side == problem.Left || me.side == problem.Right {
+		kn = pr.Kx
+	}
+	// the places where h or the kind changes inside runs of non-value parts
+	type stretch struct {
+		from, to float64
+		h        float64 // mean h (0 for flux)
+	}
+	var cuts []float64
+	for i := range me.e.Parts {
+		from, to := me.e.PartRange(i, me.L)
+		if me.value[i] {
+			continue
+		}
+		cuts = append(cuts, from)
+		if p := me.e.Parts[i]; p.Kind == problem.Convection {
+			one := *pr
+			one.Edges[me.side] = problem.Edge{Kind: problem.Flux, F: p.Hc}
+			if bs, err := edgeBreaks(&one, me.side); err == nil {
+				for _, b := range bs {
+					if b.Class == FluxBreak && b.S > from && b.S < to {
+						cuts = append(cuts, b.S)
+					}
+				}
+			}
+		}
+		cuts = append(cuts, to)
+	}
+	slices.Sort(cuts)
+	cuts = slices.Compact(cuts)
+	var st []stretch
+	for k := 0; k+1 < len(cuts); k++ {
+		a, b := cuts[k], cuts[k+1]
+		i := me.e.PartAt((a + b) / 2)
+		if me.value[i] {
+			st = append(st, stretch{a, b, -1})
+			continue
+		}
+		h := 0.0
+		if p := me.e.Parts[i]; p.Kind == problem.Convection {
+			for j := 0; j < 16; j++ {
+				h += p.Hc(a+(b-a)*(float64(j)+0.5)/16) / 16
+			}
+		}
+		st = append(st, stretch{a, b, h})
+	}
+	hold := func(x stretch) bool { return x.h >= 0 && x.h*(x.to-x.from)/kn >= holdBiot }
+	weak := func(x stretch) bool { return x.h >= 0 && x.h*(x.to-x.from)/kn < 1 }
+	for k := 0; k+1 < len(st); k++ {
+		a, b := st[k], st[k+1]
+		if a.to != b.from || a.h < 0 || b.h < 0 {
+			continue
+		}
+		if (hold(a) && weak(b)) || (weak(a) && hold(b)) {
+			me.meets = append(me.meets, a.to)
+			me.before = append(me.before, hold(a))
+		}
+	}
+	// keep the meetings in order along the edge
+	idx := make([]int, len(me.meets))
+	for i := range idx {
+		idx[i] = i
+	}
+	slices.SortFunc(idx, func(i, j int) int { return cmp.Compare(me.meets[i], me.meets[j]) })
+	m, bf := make([]float64, len(idx)), make([]bool, len(idx))
+	for k, i := range idx {
+		m[k], bf[k] = me.meets[i], me.before[i]
+	}
+	me.meets, me.before = m, bf
 }
 
 // solveInner solves an inner problem: the user's data with every break

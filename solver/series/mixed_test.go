@@ -172,3 +172,46 @@ func TestMixedOrthotropicStrips(t *testing.T) {
 		t.Errorf("left strip flow %.12g, exact %.12g", left[1].Flow, want)
 	}
 }
+
+// A convection part with a very large h holds its ambient: the two-strip
+// case with the top strip exchanging with h = 1e6 (Biot h l / k = 4e5)
+// gives the strip's flow of the value-strip case (exact, package exact)
+// to the order of k/(h l), both written as a part and as an h that steps
+// along a one-condition convection edge.
+func TestMixedLargeH(t *testing.T) {
+	const W, H, h = 1.0, 0.6, 1e6
+	ex, err := exact.New(W, H, 1, 1, exact.Part{Side: problem.Bottom, From: 0.2, To: 0.5},
+		exact.Part{Side: problem.Top, From: 0.3, To: 0.7}, 0, 1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := ex.FlowThrough(problem.Top, 0.3, 0.7)
+	conv := problem.Part{Kind: problem.Convection, F: konst(1), Hc: konst(h)}
+	asPart := partsEdge([]float64{0.3, 0.7}, []float64{0, 0, 0}, []bool{false, false, false})
+	asPart.Parts[1] = conv
+	asPart.Parts[1].To = 0.7
+	stepH := problem.Edge{Kind: problem.Convection, F: konst(1), Parts: []problem.Part{{Kind: problem.Convection, F: konst(1),
+		Hc: func(s float64) float64 {
+			if s > 0.3 && s < 0.7 {
+				return h
+			}
+			return 0
+		}}}}
+	for _, c := range []struct {
+		name string
+		top  problem.Edge
+	}{{"part", asPart}, {"h step", stepH}} {
+		pr := &problem.Problem{W: W, H: H, Kx: 1, Ky: 1}
+		pr.Edges[problem.Bottom] = partsEdge([]float64{0.2, 0.5}, []float64{0, 0, 0}, []bool{false, true, false})
+		pr.Edges[problem.Top] = c.top
+		pr.Edges[problem.Left], pr.Edges[problem.Right] = insulatedEdge(), insulatedEdge()
+		f := solveMixedTest(t, pr)
+		bottom := PartsOf(f, pr, problem.Bottom)
+		got := -bottom[1].Flow
+		rel := math.Abs(got-want) / want
+		t.Logf("%s: flow %.12g, value strip %.12g, relative %.2g (k/(h l) = %.2g); estimate %.3g", c.name, got, want, rel, 1/(h*0.4), f.ErrorEstimate())
+		if rel > 10/(h*0.4) {
+			t.Errorf("%s: flow %.12g, value strip %.12g (relative %.2g)", c.name, got, want, rel)
+		}
+	}
+}

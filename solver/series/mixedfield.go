@@ -129,8 +129,9 @@ func mixedScale(p *problem.Problem) float64 {
 }
 
 // check estimates the fit's error from the residual r(s) of each span's
-// condition (entering flux less what the condition asks), taken at places
-// between the collocation points: a flux error r along a stretch of
+// condition (entering flux less what the condition asks; on a convection
+// part divided by 1 + h l/k, see below), taken at places between the
+// collocation points: a flux error r along a stretch of
 // boundary moves the field by about its integral over the stretch over
 // pi k times the logarithmic weight of the distance (the half-plane's
 // Green's function); the estimate takes twice the largest |integral of r|
@@ -152,11 +153,22 @@ func (mf *mixedField) check() {
 			at := func(i int) float64 {
 				return sp.from + (sp.to-sp.from)*(1-math.Cos(math.Pi*float64(i)/float64(n)))/2
 			}
+			// on a convection part the residual r = entering + h u - h a of an
+			// error e is about e (k/l + h): weighted by 1/(1 + h l/k) it is a
+			// flux error again (l the span's length)
+			ell := sp.to - sp.from
+			weighted := func(s float64) float64 {
+				r := ms.residual(me, mf.inner, mf.x, s, true)
+				if p := me.e.Parts[me.e.PartAt(s)]; p.Kind == problem.Convection {
+					r /= 1 + p.Hc(s)*ell/kn
+				}
+				return r
+			}
 			prevS := at(1)
-			prevR := ms.residual(me, mf.inner, mf.x, prevS, true)
+			prevR := weighted(prevS)
 			for i := 2; i < n; i++ {
 				s := at(i)
-				r := ms.residual(me, mf.inner, mf.x, s, true)
+				r := weighted(s)
 				if r-r != 0 || prevR-prevR != 0 {
 					worst = math.Inf(1)
 					break
