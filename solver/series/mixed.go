@@ -69,7 +69,7 @@ const (
 	// each unknown's response: its errors enter the fit, which the check
 	// of the final field measures; the final field is solved to Options.Tol
 	mixedResponseTol   = 1e-9
-	mixedResponseTerms = 1024
+	mixedResponseTerms = 512
 )
 
 // mixedEdge is one mixed edge, as the solver sees it.
@@ -222,6 +222,7 @@ func solveMixed(p *problem.Problem, opt Options) (Field, error) {
 		return &mixedField{pr: p, inner: f}, nil
 	}
 	var last *mixedField
+	opt.cache = newProjCache()
 	for level := range mixedLevels {
 		ms := newMixedSolver(q, opt, level)
 		mf, err := ms.solve()
@@ -425,6 +426,15 @@ func (ms *mixedSolver) famSum(x []float64, px, py float64, skip ...*mixedEdge) (
 	var f, fx, fy [64]float64
 	for _, me := range ms.edges {
 		if me.fam == nil || (len(skip) > 0 && skip[0] == me) {
+			continue
+		}
+		if len(skip) == 0 {
+			fm := me.fam
+			t, d := fm.fr.at(px, py)
+			g, gt, gd := fm.sum(t, d, x[me.famOff:me.famOff+fm.n])
+			u += g
+			ux += gt*fm.fr.tx + gd*fm.fr.dx
+			uy += gt*fm.fr.ty + gd*fm.fr.dy
 			continue
 		}
 		n := me.fam.n

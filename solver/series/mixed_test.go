@@ -215,3 +215,32 @@ func TestMixedLargeH(t *testing.T) {
 		}
 	}
 }
+
+// benchMixedProblem: three segments on the top edge (two pools over an
+// impervious floor) and mixed kinds elsewhere (a value edge, a convection
+// edge, a flux edge).
+func benchMixedProblem() *problem.Problem {
+	pr := &problem.Problem{W: 30, H: 10, Kx: 1, Ky: 1}
+	pr.Edges[problem.Top] = partsEdge([]float64{10, 20}, []float64{12, 0, 2}, []bool{true, false, true})
+	pr.Edges[problem.Bottom] = insulatedEdge()
+	pr.Edges[problem.Left] = problem.Edge{Kind: problem.Convection, F: konst(8), Hc: 0.5}
+	pr.Edges[problem.Right] = problem.Edge{Kind: problem.Value, F: func(s float64) float64 { return 2 + 0.1*s }}
+	return pr
+}
+
+// The full solve on a 513 x 513 grid (target: 50 ms natively).
+func BenchmarkMixedSolve513(b *testing.B) {
+	u, ux, uy := make([]float64, 513*513), make([]float64, 513*513), make([]float64, 513*513)
+	for b.Loop() {
+		pr := benchMixedProblem()
+		breaks, err := FindBreaks(pr)
+		if err != nil {
+			b.Fatal(err)
+		}
+		f, err := SolveBreaks(pr, breaks, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		f.Grid(512, 512, u, ux, uy)
+	}
+}

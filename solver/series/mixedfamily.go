@@ -148,3 +148,49 @@ func entering(pr *problem.Problem, e problem.Side, ux, uy float64) float64 {
 	}
 	return pr.Kx * ux
 }
+
+// sum returns sum_k a_k F_k and its derivatives along t and d at local
+// (t, d), for the weights a (one per member): per meeting one square root
+// and two polynomials in w = zeta - z_i by Horner's rule,
+//
+//	G = c sqrt(w) sum_j a_j w^j,   G' = c / sqrt(w) sum_j (j + 1/2) a_j w^j.
+func (fm *family) sum(t, d float64, a []float64) (f, ft, fd float64) {
+	zeta := complex((t-fm.centre)/fm.half, d/fm.half)
+	for i, z := range fm.z {
+		w := zeta - z
+		co := a[i*fm.per : (i+1)*fm.per]
+		var p, q complex128
+		for j := fm.per - 1; j >= 0; j-- {
+			p = p*w + complex(co[j], 0)
+			q = q*w + complex((float64(j)+0.5)*co[j], 0)
+		}
+		sq := fm.c[i] * sqrtC(w)
+		g := sq * p
+		f += real(g)
+		var dg complex128
+		if w != 0 {
+			dg = q * sq / w
+		} else if co[0] != 0 {
+			dg = complex(math.NaN(), math.NaN())
+		}
+		ft += real(dg) / fm.half
+		fd -= imag(dg) / fm.half
+	}
+	return f, ft, fd
+}
+
+// sqrtC is the principal square root, by two real square roots (the
+// branch cut along the negative real axis, with -0 and +0 imaginary
+// parts taken as cmplx.Sqrt takes them).
+func sqrtC(w complex128) complex128 {
+	x, y := real(w), imag(w)
+	if x == 0 && y == 0 {
+		return complex(0, y)
+	}
+	r := math.Hypot(x, y)
+	a := math.Sqrt((r + math.Abs(x)) / 2)
+	if x >= 0 {
+		return complex(a, y/(2*a))
+	}
+	return complex(math.Abs(y)/(2*a), math.Copysign(a, y))
+}

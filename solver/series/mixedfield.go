@@ -13,7 +13,7 @@ import (
 // the levels stop once the estimate is below mixedTol; above
 // mixedUnconverged the result is marked not converged.
 const (
-	mixedTol         = 1e-7
+	mixedTol         = 1e-6
 	mixedUnconverged = 1e-3
 )
 

@@ -23,6 +23,9 @@ type Options struct {
 	// balanced: an all-flux problem balanced by construction (the weak
 	// exchange limit); its imbalance, rounding, is not checked.
 	balanced bool
+	// cache: the projection tables shared by the many solves of one mixed
+	// problem (nil: none).
+	cache *projCache
 }
 
 // ImbalanceError reports an all-flux problem whose inflow and source do
@@ -202,7 +205,7 @@ func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) 
 	for _, e := range problem.Sides {
 		e := e
 		r := func(t float64) float64 { return s.residual(e, t) }
-		s.subs[e] = newSub(m, e, r, s.tolAbs/4, opt.MaxTerms, m.breaks[e])
+		s.subs[e] = newSub(m, e, r, s.tolAbs/4, opt.MaxTerms, m.breaks[e], opt.cache)
 		if m.err != nil {
 			return nil, m.err
 		}

@@ -45,7 +45,7 @@ func biot(m *model, e problem.Side, L float64) float64 {
 
 // newSub builds the sub-problem of edge e for the residual data r, adding
 // terms until the estimated tail is below tol or maxTerms is reached.
-func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, maxTerms int, breaks []float64) *sub {
+func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, maxTerms int, breaks []float64, cache *projCache) *sub {
 	na, nb, opp := neighbours(e)
 	sp := &sub{side: e, L: m.length(e), D: m.length(na)}
 	sp.sine = m.kinds[na] == problem.Value && m.kinds[nb] == problem.Value
@@ -56,7 +56,7 @@ func newSub(m *model, e problem.Side, r func(s float64) float64, tol float64, ma
 			n = maxTerms
 		}
 		sp.b.Grow(n)
-		c = project(sp.b, r, n, c, breaks)
+		c = cache.project(sp.b, r, n, c, breaks)
 		sp.setTerms(m, e, opp, c, n)
 		sp.tail = sp.tailEstimate(n)
 		if sp.tail <= tol || n >= maxTerms {
