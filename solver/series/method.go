@@ -13,7 +13,14 @@ func Method(p *problem.Problem) []string {
 	m := []string{
 		"Separation of variables with superposition: one sub-problem per edge carrying that edge's residual data, the other three edges homogeneous of their own kind.",
 	}
-	md := newModel(p)
+	// a mixed edge is a value edge of the inner problem the series solves
+	inner := *p
+	for _, side := range problem.Sides {
+		if p.Edges[side].Mixed() {
+			inner.Edges[side] = problem.Edge{Kind: problem.Value, F: p.Edges[side].F}
+		}
+	}
+	md := newModel(&inner)
 	seen := map[string]bool{}
 	for _, e := range problem.Sides {
 		a, b, _ := neighbours(e)
@@ -38,6 +45,9 @@ func Method(p *problem.Problem) []string {
 	if p.Kx != p.Ky {
 		m = append(m, "Orthotropic conductivity mapped onto an isotropic problem by the change of variable y' = y sqrt(kx/ky).")
 	}
+	if mixed(p) {
+		m = append(m, MixedMethod...)
+	}
 	if md.allFlx {
 		m = append(m, "All edges prescribe flux: a steady state exists only when inflow and source balance (to 1e-9); the free constant makes the area mean of the field zero.")
 	}
@@ -49,6 +59,16 @@ func Method(p *problem.Problem) []string {
 	return m
 }
 
+// MixedMethod describes, in the words of the report, how edges made of
+// parts (mixed conditions along one edge, or an h that varies along it)
+// are solved (mixed.go has the details).
+var MixedMethod = []string{
+	"Edges made of parts: each is solved as a value edge of an inner problem, its value parts holding their data and each run of flux and convection parts an unknown smooth trace (polynomials joined to the value parts with three continuous derivatives), " +
+		"plus, at every place where a value part meets another kind (or h steps from holding to exchanging little), the singular functions Re(c (zeta - z)^(j+1/2)) that carry the r^(1/2) behaviour there exactly.",
+	"The unknowns are fitted, by a singular value decomposition, to the flux and convection conditions collocated at Chebyshev points of each run (one series solve of the inner problem per unknown, the series being linear in its data); " +
+		"the residual of those conditions between the collocation points gives the part of the error estimate that the fit adds, doubled for safety.",
+}
+
 // BreakMethod describes, in the words of the report, how the breaks inside
 // the edges of p (FindBreaks) are carried; nil when the edge data have none.
 func BreakMethod(p *problem.Problem) []string {
@@ -56,7 +76,7 @@ func BreakMethod(p *problem.Problem) []string {
 	if err != nil {
 		return nil // such a project is refused before it is solved
 	}
-	var value, flux, kink bool
+	var value, flux, kink, meet bool
 	for _, b := range breaks {
 		switch b.Class {
 		case ValueBreak:
@@ -65,6 +85,8 @@ func BreakMethod(p *problem.Problem) []string {
 			flux = true
 		case KinkBreak:
 			kink = true
+		case PartMeet:
+			meet = true
 		}
 	}
 	var m []string
@@ -76,6 +98,9 @@ func BreakMethod(p *problem.Problem) []string {
 	}
 	if kink {
 		m = append(m, "Kinks (jumps of slope) of value, flux or ambient inside an edge, found once by sampling and the meeting of the lines on either side, carried out of the series by the harmonic pieces Im(w log w) (value) and Re(w^2 log w) (flux, ambient), w the local complex coordinate at the kink; integrals of the data split there.")
+	}
+	if meet {
+		m = append(m, "Where a value part meets a flux or convection part the gradient grows like r^-1/2: the field and the flows there are exact in form (the singular functions above); peaks of the gradient are taken away from those points.")
 	}
 	return m
 }
