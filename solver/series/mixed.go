@@ -80,6 +80,7 @@ type mixedEdge struct {
 	value  []bool    // part i holds a value
 	meets  []float64 // where a value part meets another kind, or a holding step of h (holdSteps)
 	before []bool    // for each meeting: the value (or holding) side is before it
+	logs   []bool    // for each meeting: a step of flux or of h inside a span (log functions)
 	fam    *family   // nil without meetings
 	famOff int
 	spans  []span
@@ -266,6 +267,7 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 			if me.value[i] != me.value[i-1] {
 				me.meets = append(me.meets, e.Parts[i-1].To)
 				me.before = append(me.before, me.value[i-1])
+				me.logs = append(me.logs, false)
 			}
 		}
 		ms.holdSteps(me)
@@ -287,6 +289,7 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 				}
 				fam.c = append(fam.c, c)
 			}
+			fam.logs = me.logs
 			me.fam, me.famOff = fam, ms.n
 			ms.n += fam.n
 		}
@@ -538,7 +541,10 @@ func (ms *mixedSolver) inner(x []float64, base bool) *problem.Problem {
 // family too, its holding side taken as the value side.
 const holdBiot = 10
 
-// holdSteps adds the holding steps of the spans of me to its meetings.
+// holdSteps adds the holding steps of the spans of me to its meetings, and
+// every other step inside a span (of kind between flux and convection, of
+// h, of the flux or the ambient) as a meeting of the logarithmic kind
+// (see family).
 func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 	pr := ms.pr
 	kn := pr.Ky
@@ -557,9 +563,15 @@ func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 			continue
 		}
 		cuts = append(cuts, from)
-		if p := me.e.Parts[i]; p.Kind == problem.Convection {
+		p := me.e.Parts[i]
+		// steps of h, and of the flux or ambient, inside the part
+		fs := []func(float64) float64{p.F}
+		if p.Kind == problem.Convection {
+			fs = append(fs, p.Hc)
+		}
+		for _, f := range fs {
 			one := *pr
-			one.Edges[me.side] = problem.Edge{Kind: problem.Flux, F: p.Hc}
+			one.Edges[me.side] = problem.Edge{Kind: problem.Flux, F: f}
 			if bs, err := edgeBreaks(&one, me.side); err == nil {
 				for _, b := range bs {
 					if b.Class == FluxBreak && b.S > from && b.S < to {
@@ -598,7 +610,14 @@ func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 		if (hold(a) && weak(b)) || (weak(a) && hold(b)) {
 			me.meets = append(me.meets, a.to)
 			me.before = append(me.before, hold(a))
+			me.logs = append(me.logs, false)
+			continue
 		}
+		// any other step of kind, h, flux or ambient: the flux into the
+		// region steps there, and the trace goes like t ln|t|
+		me.meets = append(me.meets, a.to)
+		me.before = append(me.before, false)
+		me.logs = append(me.logs, true)
 	}
 	// keep the meetings in order along the edge
 	idx := make([]int, len(me.meets))
@@ -606,11 +625,11 @@ func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 		idx[i] = i
 	}
 	slices.SortFunc(idx, func(i, j int) int { return cmp.Compare(me.meets[i], me.meets[j]) })
-	m, bf := make([]float64, len(idx)), make([]bool, len(idx))
+	m, bf, lg := make([]float64, len(idx)), make([]bool, len(idx)), make([]bool, len(idx))
 	for k, i := range idx {
-		m[k], bf[k] = me.meets[i], me.before[i]
+		m[k], bf[k], lg[k] = me.meets[i], me.before[i], me.logs[i]
 	}
-	me.meets, me.before = m, bf
+	me.meets, me.before, me.logs = m, bf, lg
 }
 
 // solveInner solves an inner problem: the user's data with every break
@@ -630,13 +649,26 @@ func (ms *mixedSolver) solveInner(q *problem.Problem, full bool) (Field, error) 
 	return SolveBreaks(q, cornerBreaks(m, m.dataScale()), opt)
 }
 
-// colloc lists the collocation places of a span: Chebyshev points of the
-// first kind.
-func colloc(sp *span, n int) []float64 {
-	s := make([]float64, n)
-	for i := range s {
-		tau := -math.Cos(math.Pi * (float64(i) + 0.5) / float64(n))
-		s[i] = sp.from + (sp.to-sp.from)*(tau+1)/2
+// places lists about n places of a span, Chebyshev points of the first
+// kind (which stop short of the ends) on each stretch between its
+// meetings (steps inside it included), so that a short part gets its own
+// places: each stretch at least 6, the rest in proportion to length.
+func (me *mixedEdge) places(sp *span, n int) []float64 {
+	cuts := []float64{sp.from}
+	for _, m := range me.meets {
+		if m > sp.from && m < sp.to {
+			cuts = append(cuts, m)
+		}
+	}
+	cuts = append(cuts, sp.to)
+	var s []float64
+	for k := 0; k+1 < len(cuts); k++ {
+		a, b := cuts[k], cuts[k+1]
+		m := max(6, int(math.Round(float64(n)*(b-a)/(sp.to-sp.from))))
+		for i := 0; i < m; i++ {
+			tau := -math.Cos(math.Pi * (float64(i) + 0.5) / float64(m))
+			s = append(s, a+(b-a)*(tau+1)/2)
+		}
 	}
 	return s
 }
@@ -698,7 +730,7 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 		}
 		for k := range me.spans {
 			sp := &me.spans[k]
-			sp.rows = colloc(sp, mixedRowsPer*(sp.m+famShare)+4)
+			sp.rows = me.places(sp, mixedRowsPer*(sp.m+famShare)+4)
 			for _, s := range sp.rows {
 				places = append(places, place{me, s})
 			}
@@ -712,8 +744,13 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 	if err != nil {
 		return nil, err
 	}
+	// rows on a convection part weighted by 1/(1 + h l/k), as in the
+	// estimate (mixedField.check): a residual there is an error of the
+	// field times about k/l + h
+	weight := make([]float64, len(places))
 	for r, pl := range places {
-		b[r] = -ms.residual(pl.me, base, zero, pl.s, true)
+		weight[r] = pl.me.rowWeight(ms.pr, pl.s)
+		b[r] = -weight[r] * ms.residual(pl.me, base, zero, pl.s, true)
 	}
 	unit := make([]float64, n)
 	for i := 0; i < n; i++ {
@@ -723,7 +760,7 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 			return nil, err
 		}
 		for r, pl := range places {
-			a[r*n+i] = ms.residual(pl.me, f, unit, pl.s, false)
+			a[r*n+i] = weight[r] * ms.residual(pl.me, f, unit, pl.s, false)
 		}
 		unit[i] = 0
 	}
@@ -818,6 +855,27 @@ var oneSidedWeights = [3][6]float64{
 	{-137.0 / 60, 5, -5, 10.0 / 3, -5.0 / 4, 1.0 / 5},
 	{15.0 / 4, -77.0 / 6, 107.0 / 6, -13, 61.0 / 12, -5.0 / 6},
 	{-17.0 / 4, 71.0 / 4, -59.0 / 2, 49.0 / 2, -41.0 / 4, 7.0 / 4},
+}
+
+// rowWeight returns the weight of a condition's residual at s: 1 on a flux
+// part, 1/(1 + h l/k) on a convection part (l the length of the span that
+// holds s, k the conductivity across the edge).
+func (me *mixedEdge) rowWeight(pr *problem.Problem, s float64) float64 {
+	p := me.e.Parts[me.e.PartAt(s)]
+	if p.Kind != problem.Convection {
+		return 1
+	}
+	kn := pr.Ky
+	if me.side == problem.Left || me.side == problem.Right {
+		kn = pr.Kx
+	}
+	ell := me.L
+	for _, sp := range me.spans {
+		if s >= sp.from && s <= sp.to {
+			ell = sp.to - sp.from
+		}
+	}
+	return 1 / (1 + p.Hc(s)*ell/kn)
 }
 
 // partOn returns the part holding the side dir of s.

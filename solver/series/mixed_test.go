@@ -348,6 +348,14 @@ func TestMixedManufactured(t *testing.T) {
 		if e > f.ErrorEstimate() || e > 1e-6*(hi-lo) {
 			mf := f.(*mixedField)
 			t.Errorf("case %d%s: error %.3g (%.2g of the range) at (%g, %g), estimate %.3g (fit %.3g)", n, desc, e, e/(hi-lo), ex, ey, f.ErrorEstimate(), mf.fit)
+			for _, me := range mf.ms.edges {
+				t.Logf("  %v meets %v logs %v spans %+v", me.side, me.meets, me.logs, me.spans)
+			}
+			for _, yy := range []float64{0.17, 0.174, 0.175, 0.176, 0.18} {
+				u, _, _ := f.At(W, yy)
+				w, _, _ := exact(W, yy)
+				t.Logf("  y %g: %.3g", yy, u-w)
+			}
 		}
 		for side := range mixedSides {
 			q, fin := f.Flow(side)

@@ -52,12 +52,21 @@ func (f *frame) at(x, y float64) (t, d float64) {
 // equation); where they do not meet the edge's conditions (beyond the
 // other meetings) and on the other edges they are smooth, and go into
 // the inner problem's data.
+//
+// At a step inside a run of flux and convection parts (of the kind, of h,
+// of the flux or the ambient) the entering flux steps and the trace goes
+// like t ln|t|: there the members are
+//
+//	G_ij = (zeta - z_i)^(j + 1) log(zeta - z_i),
+//
+// whose normal derivative steps at z_i (j = 0) or has a kink of order j.
 type family struct {
 	fr           frame
 	centre, half float64
 	z            []complex128
 	c            []complex128
-	per          int // members per meeting
+	logs         []bool // meeting i is a step inside a span: logarithmic members
+	per          int    // members per meeting
 	n            int
 	kappa, ts    float64 // entering flux = -kappa dF/dd; t per unit s
 }
@@ -69,6 +78,10 @@ func (fm *family) eval(t, d float64, f, ft, fd []float64) {
 	zeta := complex((t-fm.centre)/fm.half, d/fm.half)
 	for i, z := range fm.z {
 		w := zeta - z
+		if fm.logs[i] {
+			fm.evalLog(i, w, f, ft, fd)
+			continue
+		}
 		sq := fm.c[i] * cmplx.Sqrt(w)
 		p := sq             // c w^(j + 1/2)
 		pm := complex(0, 0) // c w^(j - 1/2), for the derivative
@@ -103,6 +116,30 @@ func (fm *family) eval(t, d float64, f, ft, fd []float64) {
 	}
 }
 
+// evalLog writes the logarithmic members of meeting i at w = zeta - z_i.
+func (fm *family) evalLog(i int, w complex128, f, ft, fd []float64) {
+	var lw complex128
+	if w != 0 {
+		lw = cmplx.Log(w)
+	}
+	wj := complex(1, 0) // w^j
+	for j := 0; j < fm.per; j++ {
+		k := i*fm.per + j
+		if k >= len(f) {
+			return
+		}
+		f[k] = real(wj * w * lw)
+		if ft != nil {
+			dg := wj * (complex(float64(j+1), 0)*lw + 1)
+			if w == 0 && j == 0 {
+				dg = complex(math.NaN(), math.NaN())
+			}
+			ft[k], fd[k] = real(dg)/fm.half, -imag(dg)/fm.half
+		}
+		wj *= w
+	}
+}
+
 // xy evaluates the family at (x, y): F_k and their gradients (values
 // only when fx is nil).
 func (fm *family) xy(x, y float64, f, fx, fy []float64) {
@@ -126,6 +163,20 @@ func (fm *family) conjugate(t float64, g []float64) {
 	zeta := complex((t-fm.centre)/fm.half, 0)
 	for i, z := range fm.z {
 		w := zeta - z
+		if fm.logs[i] {
+			var lw complex128
+			if w != 0 {
+				lw = cmplx.Log(w)
+			}
+			p := w * lw
+			for j := 0; j < fm.per; j++ {
+				if k := i*fm.per + j; k < len(g) {
+					g[k] = imag(p)
+				}
+				p *= w
+			}
+			continue
+		}
 		p := fm.c[i] * cmplx.Sqrt(w)
 		for j := 0; j < fm.per; j++ {
 			if k := i*fm.per + j; k < len(g) {
@@ -159,6 +210,27 @@ func (fm *family) sum(t, d float64, a []float64) (f, ft, fd float64) {
 	for i, z := range fm.z {
 		w := zeta - z
 		co := a[i*fm.per : (i+1)*fm.per]
+		if fm.logs[i] {
+			// G = w log w P(w), G' = log w Q(w) + P(w), Q = sum (j+1) a_j w^j
+			var p, q complex128
+			for j := fm.per - 1; j >= 0; j-- {
+				p = p*w + complex(co[j], 0)
+				q = q*w + complex(float64(j+1)*co[j], 0)
+			}
+			var lw complex128
+			if w != 0 {
+				lw = cmplx.Log(w)
+			}
+			g := w * lw * p
+			dg := lw*q + p
+			if w == 0 && co[0] != 0 {
+				dg = complex(math.NaN(), math.NaN())
+			}
+			f += real(g)
+			ft += real(dg) / fm.half
+			fd -= imag(dg) / fm.half
+			continue
+		}
 		var p, q complex128
 		for j := fm.per - 1; j >= 0; j-- {
 			p = p*w + complex(co[j], 0)

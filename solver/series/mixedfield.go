@@ -150,27 +150,17 @@ func (mf *mixedField) check() {
 			kn = ms.pr.Kx
 		}
 		for _, sp := range me.spans {
-			n := len(sp.rows) * mixedCheckEach
+			places := me.places(&sp, len(sp.rows)*mixedCheckEach)
 			worst, integral, most := 0.0, 0.0, 0.0
-			// the places between the ends (at a meeting the flux has no value)
-			at := func(i int) float64 {
-				return sp.from + (sp.to-sp.from)*(1-math.Cos(math.Pi*float64(i)/float64(n)))/2
-			}
 			// on a convection part the residual r = entering + h u - h a of an
 			// error e is about e (k/l + h): weighted by 1/(1 + h l/k) it is a
 			// flux error again (l the span's length)
-			ell := sp.to - sp.from
 			weighted := func(s float64) float64 {
-				r := ms.residual(me, mf.inner, mf.x, s, true)
-				if p := me.e.Parts[me.e.PartAt(s)]; p.Kind == problem.Convection {
-					r /= 1 + p.Hc(s)*ell/kn
-				}
-				return r
+				return me.rowWeight(ms.pr, s) * ms.residual(me, mf.inner, mf.x, s, true)
 			}
-			prevS := at(1)
+			prevS := places[0]
 			prevR := weighted(prevS)
-			for i := 2; i < n; i++ {
-				s := at(i)
+			for _, s := range places[1:] {
 				r := weighted(s)
 				if r-r != 0 || prevR-prevR != 0 {
 					worst = math.Inf(1)
