@@ -79,6 +79,14 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 	}
 	r.Accuracy.Crosscheck = &worst
 	r.Accuracy.CrosscheckGrid = fmt.Sprintf("%dx%d and %dx%d intervals, Richardson-extrapolated", nx, ny, 2*nx, 2*ny)
+	for _, b := range breaks {
+		if b.Class == series.PartMeet {
+			// the grid's error there is of first order and spreads: the
+			// difference then measures the grid, not the series
+			r.Accuracy.CrosscheckGrid += "; first order where a value part meets another kind, so the difference mostly measures the grid there"
+			break
+		}
+	}
 }
 
 // cornerBreaks reports, for the corners bottom-left, bottom-right,
