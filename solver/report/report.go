@@ -1,6 +1,7 @@
 package report
 
 import (
+	"fmt"
 	"strconv"
 
 	"edgewise/solver"
@@ -172,6 +173,16 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 		Head: []string{"through", with("flow", sh.unit("flow"))}}
 	for _, side := range problem.Sides {
 		add(&rep.Flows, side.String()+" edge", flow(r.Edges[side], sh))
+		if segs := r.Edges[side].Segments; len(segs) > 1 {
+			for i, g := range segs {
+				f := "infinite (two values meet at its end)"
+				if g.Finite && g.Flow != nil {
+					f = sh.diff("flow", *g.Flow)
+				}
+				add(&rep.Flows, fmt.Sprintf("  %s[%d]: %s from s = %s to %s%s, mean %s %s", side, i, g.Kind,
+					sh.num("length", g.From), sh.num("length", g.To), unitNote(sh.unit("length")), l.Value, sh.num("value", g.Mean)+unitNote(sh.unit("value"))), f)
+			}
+		}
 	}
 	add(&rep.Flows, "source in the region", sh.diff("flow", r.SourceTotal))
 	if r.Balance != nil {
@@ -218,6 +229,9 @@ func condition(e project.Segment, l solver.UnitSet, sh *shown) string {
 	case problem.Flux:
 		return "entering " + l.Flux + " = " + e.Expr + unitNote(l.FluxUnit)
 	case problem.Convection:
+		if e.HExpr != "" { // a formula along the edge, SI as written
+			return l.Coefficient + " h = " + e.HExpr + " (SI) to ambient " + e.Ambient + unitNote(l.ValueUnit)
+		}
 		return l.Coefficient + " h = " + sh.diff("coefficient", e.H) + unitNote(sh.unit("coefficient")) + " to ambient " + e.Ambient + unitNote(l.ValueUnit)
 	}
 	return e.Kind.String()

@@ -307,3 +307,37 @@ func abs(x float64) float64 {
 	}
 	return x
 }
+
+// A report of a project with segments lists each segment's flow and mean
+// under its edge, the flows being the result's, and shows an h formula as
+// written.
+func TestBuildSegments(t *testing.T) {
+	p, out := solved(t, `{"schema":"edgewise/1","physics":"seepage","width":30,"height":10,"conductivity":1e-5,
+	 "edges":{"bottom":{"kind":"flux","expr":"0"},"left":{"kind":"convection","h":"when(y < 5, 0, 1e-6)","ambient":"9"},"right":{"kind":"flux","expr":"0"},
+	 "top":{"segments":[{"to":10,"kind":"value","expr":"12"},{"to":20,"kind":"flux","expr":"0"},{"kind":"value","expr":"2"}]}},"grid":{"nx":30,"ny":10}}`)
+	rep := Build(p, out, "2026-12-02", "revision test")
+	var rows []string
+	for _, r := range rep.Flows.Rows {
+		if strings.HasPrefix(r[0], "  top[") {
+			rows = append(rows, r[0]+" | "+r[1])
+		}
+	}
+	segs := out.Result.Edges[problem.Top].Segments
+	if len(rows) != 3 || len(segs) != 3 {
+		t.Fatalf("segment rows %q for %d segments", rows, len(segs))
+	}
+	for i, g := range segs {
+		if !strings.Contains(rows[i], g.Kind) || !strings.Contains(rows[i], "mean") || !g.Finite {
+			t.Errorf("row %q for segment %+v", rows[i], g)
+		}
+	}
+	left := ""
+	for _, r := range rep.Edges.Rows {
+		if r[0] == "left" {
+			left = r[2]
+		}
+	}
+	if !strings.Contains(left, "when(y < 5, 0, 1e-6)") {
+		t.Errorf("left condition %q: the h formula should be shown as written", left)
+	}
+}
