@@ -5,7 +5,9 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"slices"
+	"sync"
 
 	"edgewise/solver/linalg"
 	"edgewise/solver/problem"
@@ -752,17 +754,35 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 		weight[r] = pl.me.rowWeight(ms.pr, pl.s)
 		b[r] = -weight[r] * ms.residual(pl.me, base, zero, pl.s, true)
 	}
-	unit := make([]float64, n)
+	// one response per unknown, on every processor (each writes its own
+	// column of a)
+	errs := make([]error, n)
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for range max(1, min(runtime.GOMAXPROCS(0), n)) {
+		wg.Go(func() {
+			unit := make([]float64, n)
+			for i := range next {
+				unit[i] = 1
+				f, err := ms.solveInner(ms.inner(unit, false), false)
+				if err != nil {
+					errs[i] = err
+				} else {
+					for r, pl := range places {
+						a[r*n+i] = weight[r] * ms.residual(pl.me, f, unit, pl.s, false)
+					}
+				}
+				unit[i] = 0
+			}
+		})
+	}
 	for i := 0; i < n; i++ {
-		unit[i] = 1
-		f, err := ms.solveInner(ms.inner(unit, false), false)
-		if err != nil {
-			return nil, err
-		}
-		for r, pl := range places {
-			a[r*n+i] = weight[r] * ms.residual(pl.me, f, unit, pl.s, false)
-		}
-		unit[i] = 0
+		next <- i
+	}
+	close(next)
+	wg.Wait()
+	if err := errors.Join(errs...); err != nil {
+		return nil, err
 	}
 	// scale the columns, solve, scale back
 	norm := make([]float64, n)
