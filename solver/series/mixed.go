@@ -634,20 +634,23 @@ func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 	me.meets, me.before, me.logs = m, bf, lg
 }
 
-// solveInner solves an inner problem: the user's data with every break
-// found (full), or one unknown's response, whose data break nowhere inside
-// an edge by construction (see span), to the response tolerance.
-func (ms *mixedSolver) solveInner(q *problem.Problem, full bool) (Field, error) {
-	if full {
+// solveInner solves an inner problem: to Options.Tol (full) or to the
+// responses' tolerance, with every break of its data found (user) or only
+// its corner breaks (an unknown's response, whose data break nowhere
+// inside an edge by construction, see span).
+func (ms *mixedSolver) solveInner(q *problem.Problem, full, user bool) (Field, error) {
+	opt := ms.opt
+	if !full {
+		opt.Tol, opt.MaxTerms = mixedResponseTol, mixedResponseTerms
+	}
+	if user {
 		breaks, err := FindBreaks(q)
 		if err != nil {
 			return nil, err
 		}
-		return SolveBreaks(q, breaks, ms.opt)
+		return SolveBreaks(q, breaks, opt)
 	}
 	m := newModel(q)
-	opt := ms.opt
-	opt.Tol, opt.MaxTerms = mixedResponseTol, mixedResponseTerms
 	return SolveBreaks(q, cornerBreaks(m, m.dataScale()), opt)
 }
 
@@ -742,7 +745,9 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 	a := make([]float64, rows*n)
 	b := make([]float64, rows)
 	zero := make([]float64, n)
-	base, err := ms.solveInner(ms.inner(zero, true), true)
+	// the user's data alone, to the responses' tolerance: like theirs, its
+	// error enters the fit, which the check of the final field measures
+	base, err := ms.solveInner(ms.inner(zero, true), false, true)
 	if err != nil {
 		return nil, err
 	}
@@ -764,7 +769,7 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 			unit := make([]float64, n)
 			for i := range next {
 				unit[i] = 1
-				f, err := ms.solveInner(ms.inner(unit, false), false)
+				f, err := ms.solveInner(ms.inner(unit, false), false, false)
 				if err != nil {
 					errs[i] = err
 				} else {
@@ -804,7 +809,7 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 			return nil, errors.New("series: the fit of the mixed edges failed (not a finite number)")
 		}
 	}
-	final, err := ms.solveInner(ms.inner(x, true), true)
+	final, err := ms.solveInner(ms.inner(x, true), true, true)
 	if err != nil {
 		return nil, err
 	}
