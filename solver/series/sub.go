@@ -255,6 +255,7 @@ func (sp *sub) tailEstimate(n int) float64 {
 	p = math.Max(1.5, math.Min(p, 8))
 	r := math.Pow(2, 1-p)
 	diff := 0.0
+	var row []float64
 	const np = 128
 	for j := 0; j <= np; j++ {
 		s := sp.L * (1 - math.Cos(math.Pi*float64(j)/np)) / 2
@@ -269,9 +270,10 @@ func (sp *sub) tailEstimate(n int) float64 {
 				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
 			}
 		} else {
+			row = resize(row, n-n/2)
+			sp.b.Row(s, n/2, n, row, nil)
 			for i := n / 2; i < n; i++ {
-				x, _ := sp.b.X(i, s)
-				sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * x
+				sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * row[i-n/2]
 			}
 		}
 		diff = math.Max(diff, math.Abs(sum))
@@ -288,8 +290,14 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 		t = 0
 	}
 	cut := sp.rowTerms(t, 0)
+	var xb, dxb [128]float64
+	xs, dxs := xb[:], dxb[:]
+	if cut > len(xs) {
+		xs, dxs = make([]float64, cut), make([]float64, cut)
+	}
+	sp.b.Row(s, 0, cut, xs, dxs)
 	for i := 0; i < cut; i++ {
-		x, dx := sp.b.X(i, s)
+		x, dx := xs[i], dxs[i]
 		if sp.zero && i == 0 {
 			y := sp.A[0] + sp.B[0]*t
 			u += x * y

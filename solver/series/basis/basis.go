@@ -152,3 +152,38 @@ func (b *Basis) X(n int, s float64) (x, dx float64) {
 	sn, cs := math.Sincos(b.Lambda[n]*s + b.Phi[n])
 	return sn, b.Lambda[n] * cs
 }
+
+// Row writes X_i(s) to x[i-lo] and, when dx is not nil, X_i'(s) to
+// dx[i-lo], for lo <= i < hi, rotating from term to term: by pi s/L, and
+// for a basis whose terms are not evenly spaced also by the small angle
+// (lambda_i - lambda_(i-1) - pi/L) s + phi_i - phi_(i-1), whose sine and
+// cosine come from their Taylor series below 0.02 (to rounding; a larger
+// step takes the term afresh by math.Sincos). Exact to about (hi - lo)
+// 1e-16 relative, as X itself is to 1e-16.
+func (b *Basis) Row(s float64, lo, hi int, x, dx []float64) {
+	if hi <= lo {
+		return
+	}
+	sn, cs := math.Sincos(b.Lambda[lo]*s + b.Phi[lo])
+	rs, rc := math.Sincos(math.Pi * s / b.L)
+	const s3, s5, c2, c4, c6 = 1.0 / 6, 1.0 / 20, 0.5, 1.0 / 12, 1.0 / 30
+	for i := lo; i < hi; i++ {
+		if i > lo {
+			if b.Uniform {
+				sn, cs = sn*rc+cs*rs, cs*rc-sn*rs
+			} else if t := (b.Lambda[i]-b.Lambda[i-1]-math.Pi/b.L)*s + b.Phi[i] - b.Phi[i-1]; math.Abs(t) < 0.02 {
+				a, c := sn*rc+cs*rs, cs*rc-sn*rs
+				t2 := t * t
+				es := t * (1 - t2*s3*(1-t2*s5))
+				ec := 1 - t2*c2*(1-t2*c4*(1-t2*c6))
+				sn, cs = a*ec+c*es, c*ec-a*es
+			} else {
+				sn, cs = math.Sincos(b.Lambda[i]*s + b.Phi[i])
+			}
+		}
+		x[i-lo] = sn
+		if dx != nil {
+			dx[i-lo] = b.Lambda[i] * cs
+		}
+	}
+}

@@ -130,3 +130,21 @@ func TestOrthogonality(t *testing.T) {
 		}
 	}
 }
+
+// Row agrees with X term by term (to 4e-12 of the term's size over 4000
+// terms) for even and uneven bases, Biot numbers from 1e-3 to 1e4.
+func TestRowAgreesWithX(t *testing.T) {
+	for _, bi := range [][2]float64{{0, 0}, {math.Inf(1), 0}, {1e-3, 0}, {2, 5}, {1e4, math.Inf(1)}, {300, 300}} {
+		b := New(2, bi[0], bi[1], 4096)
+		x, dx := make([]float64, 4000), make([]float64, 4000)
+		for _, s := range []float64{0, 0.3, 1.1, 1.999, 2} {
+			b.Row(s, 50, 4050, x, dx)
+			for i := 50; i < 4050; i++ {
+				want, wantD := b.X(i, s)
+				if math.Abs(x[i-50]-want) > 4e-12 || math.Abs(dx[i-50]-wantD) > 4e-12*b.Lambda[i] {
+					t.Fatalf("Biot %v, s %g, term %d: Row %.15g %.15g, X %.15g %.15g", bi, s, i, x[i-50], dx[i-50], want, wantD)
+				}
+			}
+		}
+	}
+}
