@@ -232,10 +232,16 @@
     for (const q of (EW.params ? EW.params.list() : [])) if (q.name && /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(q.value)) params[q.name] = Number(q.value);
     const r = evaluate(t, params);
     const shown = EW.conv(units, role);
+    const isSI = shown.scale === 1 && !shown.offset;
     if (r.err || !Number.isFinite(r.v)) {
       // not arithmetic this page reads (a function, a name): the engine
       // reads it as a formula in SI units and reports its errors
       if (formula) return { v: text, note: "" };
+      // the engine's formulas are SI: in another display unit the text
+      // would be misread, so only what this page reads is accepted there
+      if (/[A-Za-z_]/.test(t) && !isSI) {
+        return { err: "shown in " + shown.unit + ", this field reads numbers, units, + - * / ^, ( ), sqrt, pi, e and parameters (" + (r.err || "not finite") + " at col " + (r.col || 1) + ")" };
+      }
       if (/[A-Za-z_]/.test(t)) return { v: t, note: "a formula in SI units (" + siConv.unit + "), worked out by the engine" };
       return { err: "not a number: " + JSON.stringify(t) };
     }
@@ -252,14 +258,14 @@
     if (r.names.length) {
       // a formula of parameters stays text, in SI units
       if (c && norm(c.unit) !== norm(siConv.unit)) return { err: "a formula of parameters is in SI units (" + siConv.unit + "): write it without a unit" };
-      return { v: c ? t.slice(0, t.length - r.rest.length).trim() : t, note: "= " + EW.num(r.v, 6) + " " + siConv.unit + " (parameters are in SI units)" };
+      const not = shown.unit !== siConv.unit ? ", not " + shown.unit : "";
+      return { v: c ? t.slice(0, t.length - r.rest.length).trim() : t, note: "= " + EW.num(r.v, 6) + " " + siConv.unit + ": a formula of parameters is in SI units (" + siConv.unit + not + ")" };
     }
     const from = c || (formula ? siConv : shown);
     const si = (r.v - from.offset) / from.scale;
     if (formula && c) return { v: String(Number(si.toPrecision(15))), note: "= " + EW.num(si, 6) + " " + siConv.unit };
     // a constant in SI, shown in the display unit too (100 °C = 212 °F)
     if (formula) return { v: text, note: shown.unit !== siConv.unit ? "= " + EW.num(r.v * shown.scale + shown.offset, 6) + " " + shown.unit : "" };
-    const isSI = shown.scale === 1 && !shown.offset;
     if (!c && plain) return { v: si, note: isSI ? "" : "= " + EW.num(si, 6) + " " + siConv.unit };
     // an expression in SI units stays text: the engine works it out and
     // the file keeps it as written
