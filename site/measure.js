@@ -296,12 +296,13 @@
     o[ks[ks.length - 1]] = v;
   }
 
+  // noteFor returns the line under a field that says what it understood.
   function noteFor(input) {
-    const at = input.closest("label") || input;
-    let n = at.nextElementSibling && at.nextElementSibling.matches("output.understood") ? at.nextElementSibling : null;
+    let n = input.nextElementSibling && input.nextElementSibling.matches("output.understood") ? input.nextElementSibling : null;
     if (!n) {
       n = el("output", { class: "understood", for: input.id, "aria-live": "polite" });
-      at.after(n);
+      n.hidden = true;
+      input.after(n);
     }
     return n;
   }

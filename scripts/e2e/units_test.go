@@ -62,9 +62,10 @@ func TestUnitsTypedIntoFields(t *testing.T) {
 	if got := eval[string](t, tb, `document.getElementById("in-width").value`); got != "200 mm" {
 		t.Errorf("the field holds %q, want the text as typed", got)
 	}
-	if note := eval[string](t, tb, `document.querySelector("#in-width").closest("label").nextElementSibling.textContent`); note != "= 0.2 m" {
+	if note := eval[string](t, tb, `document.querySelector("#in-width").nextElementSibling.textContent`); note != "= 0.2 m" {
 		t.Errorf("understood %q, want \"= 0.2 m\"", note)
 	}
+	tb.shot(t, "units-typed")
 	// inches (exact: 0.0254 m) and an expression of constants
 	n = tb.solved(t)
 	tb.typeInto(t, "#in-width", "10 in")
