@@ -227,7 +227,8 @@
     const siConv = { unit: (units && units[role + "_unit"]) || (role === "length" ? "m" : ""), scale: 1, offset: 0 };
     if (formula && !/\d/.test(t)) return { v: text, note: "" };
     if (t === "") return { err: "a value is required" };
-    if (/^[+-]?\d+,\d+$/.test(t)) return { err: "use a point for decimals: " + t.replace(",", ".") + ", not " + t };
+    const comma = /^([+-]?\d+),(\d+)(\s*[^\d,].*)?$/.exec(t);
+    if (comma && !formula) return { err: "use a point for decimals: " + comma[1] + "." + comma[2] + (comma[3] || "") + ", not " + t };
     const params = {};
     for (const q of (EW.params ? EW.params.list() : [])) if (q.name && /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(q.value)) params[q.name] = Number(q.value);
     const r = evaluate(t, params);

@@ -212,12 +212,12 @@ func TestUnitFactors(t *testing.T) {
 	    r("68 °F", "heat", "value", true), r("293.15 K", "heat", "value", true), r("20 + 5*s", "heat", "value", true),
 	    r("10 W/(m*K)", "heat", "conductivity"), r("4.4*8.854e-12", "electrostatic", "conductivity"),
 	    r("3 m/day", "seepage", "conductivity"), r("0,3", "heat", "length"), r("2 kg", "heat", "length"), r("2*", "heat", "length"),
-	    r("exp(1)", "heat", "length").slice(0, 60), r("sqrt(2)*100 mm", "heat", "length")]; })()`)
+	    r("exp(1)", "heat", "length").slice(0, 60), r("0,3 mm", "heat", "length"), r("sqrt(2)*100 mm", "heat", "length")]; })()`)
 	// an expression in an SI field is kept as written (the engine works it out)
 	want := []any{0.2, 0.0381, 0.0508, "20", "20", "20 + 5*s", 10.0, "4.4*8.854e-12", 3 / 86400.0,
 		"error: use a point for decimals: 0.3, not 0,3", `error: unknown unit "kg" here (use m, mm, cm, in, ft)`, `error: not a number: "2*"`,
 		// a function the page does not read would be the engine's, in SI: refused while lengths are in inches
-		"error: shown in in, this field reads numbers, units, + - * /", math.Sqrt(2) * 0.1}
+		"error: shown in in, this field reads numbers, units, + - * /", "error: use a point for decimals: 0.3 mm, not 0,3 mm", math.Sqrt(2) * 0.1}
 	for i, w := range want {
 		if i >= len(read) {
 			t.Fatalf("read %v", read)
