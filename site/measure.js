@@ -118,7 +118,7 @@
   };
   EW.display = function () {
     const out = {};
-    for (const k of Object.keys(KINDS)) if (choice[k] && choice[k] !== KINDS[k][0][0]) out[k] = choice[k];
+    for (const k of Object.keys(KINDS)) if (choice[k]) out[k] = choice[k]; // an SI choice stays as chosen
     return out;
   };
   function setChoice(d) {
@@ -335,7 +335,7 @@
     return out;
   };
 
-  // filled remembers what fill wrote in each number field: input -> {text, v, role}
+  // filled remembers what fill wrote in each number field: input -> {text, v, role, physics}
   const filled = new WeakMap();
 
   // toField writes an SI number as the field shows it.
@@ -382,9 +382,8 @@
     // before the form's own input handler: the fields are shown again in
     // the new unit first, then the edit is taken as usual
     s.addEventListener("input", () => {
-      const p = read ? EW.read().project : null;
+      const p = EW.read().project; // in the old units
       choice[k] = s.value;
-      if (!p) return;
       const d = EW.display();
       if (Object.keys(d).length) p.display = d; else delete p.display;
       EW.fill(p);
