@@ -92,19 +92,26 @@
     }
     if (phys === "electrostatic") {
       const k = { value: "potential", gradient: "field", conductivity: "permittivity" }[role];
-      if (!k) return SAME(si);
+      if (!k || !choice[k]) return SAME(si); // not chosen: the physics table's own SI unit
       const x = unitOf(k);
       return make(x[1], x[2]);
     }
     if (phys === "seepage") {
       const k = { value: "head", conductivity: "darcy", flux: "darcy", flow: "discharge", source: "rate", coefficient: "rate" }[role];
-      if (!k) return SAME(si);
+      if (!k || !choice[k]) return SAME(si);
       const x = unitOf(k);
       return make(x[1], x[2]);
     }
     // generic: only lengths have a unit; a gradient is per length
     if (role === "gradient" && L[0] !== "m") return make("per " + L[1], 1 / L[2]);
     return SAME(si);
+  };
+  // convWith is conv under another choice d (the browser tests compare the
+  // page's table with the report's, solver/report/shown.go).
+  EW.convWith = function (units, role, d) {
+    const keep = choice;
+    choice = Object.assign({}, d);
+    try { return EW.conv(units, role); } finally { choice = keep; }
   };
   EW.dv = (units, role, v) => { const c = EW.conv(units, role); return typeof v === "number" ? v * c.scale + c.offset : v; };
   EW.dd = (units, role, v) => (typeof v === "number" ? v * EW.conv(units, role).scale : v);

@@ -1,10 +1,14 @@
 package e2e
 
 import (
+	"encoding/json"
 	"math"
 	"strconv"
 	"strings"
 	"testing"
+
+	"edgewise/solver/project"
+	"edgewise/solver/report"
 
 	"github.com/chromedp/chromedp"
 )
@@ -260,5 +264,36 @@ func TestUnitsAcrossPhysicsSwitch(t *testing.T) {
 	if h := eval[bool](t, tb, `document.getElementById("du-heat").closest("label").hidden && !document.getElementById("du-field").closest("label").hidden`); !h {
 		t.Errorf("the panel offers heat's kinds for electrostatics")
 	}
+	tb.noErrors(t)
+}
+
+// The page's table of display units (site/measure.js) and the report's
+// (solver/report/shown.go) agree for every physics, kind, unit and role.
+func TestUnitTablesAgree(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	roles := []string{"value", "gradient", "conductivity", "flux", "flow", "source", "coefficient", "length"}
+	n := 0
+	for _, phys := range []string{"heat", "electrostatic", "seepage", "generic"} {
+		for _, k := range project.DisplayKinds {
+			for _, name := range k.Units {
+				d := project.Display{k.Kind: name}
+				if k.Kind == "temperature" {
+					d["heat"] = "BTU/h" // the Btu units with each temperature choice
+				}
+				dj, _ := json.Marshal(d)
+				for _, role := range roles {
+					got := eval[map[string]any](t, tb, `window.edgewiseParts.convWith(window.edgewiseParts.unitsets[`+strconv.Quote(phys)+`], `+
+						strconv.Quote(role)+`, `+string(dj)+`)`)
+					unit, scale, offset := report.Shown(phys, d, role)
+					if got["unit"] != unit || !near(got["scale"].(float64), scale, 1e-15) || got["offset"].(float64) != offset {
+						t.Errorf("%s %s %v: page %v, report %q %g %g", phys, role, d, got, unit, scale, offset)
+					}
+					n++
+				}
+			}
+		}
+	}
+	t.Logf("%d conversions compared", n)
 	tb.noErrors(t)
 }
