@@ -92,19 +92,26 @@
     }
     if (phys === "electrostatic") {
       const k = { value: "potential", gradient: "field", conductivity: "permittivity" }[role];
-      if (!k) return SAME(si);
+      if (!k || !choice[k]) return SAME(si); // not chosen: the physics table's own SI unit
       const x = unitOf(k);
       return make(x[1], x[2]);
     }
     if (phys === "seepage") {
       const k = { value: "head", conductivity: "darcy", flux: "darcy", flow: "discharge", source: "rate", coefficient: "rate" }[role];
-      if (!k) return SAME(si);
+      if (!k || !choice[k]) return SAME(si);
       const x = unitOf(k);
       return make(x[1], x[2]);
     }
     // generic: only lengths have a unit; a gradient is per length
     if (role === "gradient" && L[0] !== "m") return make("per " + L[1], 1 / L[2]);
     return SAME(si);
+  };
+  // convWith is conv under another choice d (the browser tests compare the
+  // page's table with the report's, solver/report/shown.go).
+  EW.convWith = function (units, role, d) {
+    const keep = choice;
+    choice = Object.assign({}, d);
+    try { return EW.conv(units, role); } finally { choice = keep; }
   };
   EW.dv = (units, role, v) => { const c = EW.conv(units, role); return typeof v === "number" ? v * c.scale + c.offset : v; };
   EW.dd = (units, role, v) => (typeof v === "number" ? v * EW.conv(units, role).scale : v);
@@ -118,7 +125,7 @@
   };
   EW.display = function () {
     const out = {};
-    for (const k of Object.keys(KINDS)) if (choice[k] && choice[k] !== KINDS[k][0][0]) out[k] = choice[k];
+    for (const k of Object.keys(KINDS)) if (choice[k]) out[k] = choice[k]; // an SI choice stays as chosen
     return out;
   };
   function setChoice(d) {
@@ -227,15 +234,22 @@
     const siConv = { unit: (units && units[role + "_unit"]) || (role === "length" ? "m" : ""), scale: 1, offset: 0 };
     if (formula && !/\d/.test(t)) return { v: text, note: "" };
     if (t === "") return { err: "a value is required" };
-    if (/^[+-]?\d+,\d+$/.test(t)) return { err: "use a point for decimals: " + t.replace(",", ".") + ", not " + t };
+    const comma = /^([+-]?\d+),(\d+)(\s*[^\d,].*)?$/.exec(t);
+    if (comma && !formula) return { err: "use a point for decimals: " + comma[1] + "." + comma[2] + (comma[3] || "") + ", not " + t };
     const params = {};
     for (const q of (EW.params ? EW.params.list() : [])) if (q.name && /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(q.value)) params[q.name] = Number(q.value);
     const r = evaluate(t, params);
     const shown = EW.conv(units, role);
+    const isSI = shown.scale === 1 && !shown.offset;
     if (r.err || !Number.isFinite(r.v)) {
       // not arithmetic this page reads (a function, a name): the engine
       // reads it as a formula in SI units and reports its errors
       if (formula) return { v: text, note: "" };
+      // the engine's formulas are SI: in another display unit the text
+      // would be misread, so only what this page reads is accepted there
+      if (/[A-Za-z_]/.test(t) && !isSI) {
+        return { err: "shown in " + shown.unit + ", this field reads numbers, units, + - * / ^, ( ), sqrt, pi, e and parameters (" + (r.err || "not finite") + " at col " + (r.col || 1) + ")" };
+      }
       if (/[A-Za-z_]/.test(t)) return { v: t, note: "a formula in SI units (" + siConv.unit + "), worked out by the engine" };
       return { err: "not a number: " + JSON.stringify(t) };
     }
@@ -252,14 +266,14 @@
     if (r.names.length) {
       // a formula of parameters stays text, in SI units
       if (c && norm(c.unit) !== norm(siConv.unit)) return { err: "a formula of parameters is in SI units (" + siConv.unit + "): write it without a unit" };
-      return { v: c ? t.slice(0, t.length - r.rest.length).trim() : t, note: "= " + EW.num(r.v, 6) + " " + siConv.unit + " (parameters are in SI units)" };
+      const not = shown.unit !== siConv.unit ? ", not " + shown.unit : "";
+      return { v: c ? t.slice(0, t.length - r.rest.length).trim() : t, note: "= " + EW.num(r.v, 6) + " " + siConv.unit + ": a formula of parameters is in SI units (" + siConv.unit + not + ")" };
     }
     const from = c || (formula ? siConv : shown);
     const si = (r.v - from.offset) / from.scale;
     if (formula && c) return { v: String(Number(si.toPrecision(15))), note: "= " + EW.num(si, 6) + " " + siConv.unit };
     // a constant in SI, shown in the display unit too (100 °C = 212 °F)
     if (formula) return { v: text, note: shown.unit !== siConv.unit ? "= " + EW.num(r.v * shown.scale + shown.offset, 6) + " " + shown.unit : "" };
-    const isSI = shown.scale === 1 && !shown.offset;
     if (!c && plain) return { v: si, note: isSI ? "" : "= " + EW.num(si, 6) + " " + siConv.unit };
     // an expression in SI units stays text: the engine works it out and
     // the file keeps it as written
@@ -290,12 +304,13 @@
     o[ks[ks.length - 1]] = v;
   }
 
+  // noteFor returns the line under a field that says what it understood.
   function noteFor(input) {
-    const at = input.closest("label") || input;
-    let n = at.nextElementSibling && at.nextElementSibling.matches("output.understood") ? at.nextElementSibling : null;
+    let n = input.nextElementSibling && input.nextElementSibling.matches("output.understood") ? input.nextElementSibling : null;
     if (!n) {
       n = el("output", { class: "understood", for: input.id, "aria-live": "polite" });
-      at.after(n);
+      n.hidden = true;
+      input.after(n);
     }
     return n;
   }
@@ -327,7 +342,7 @@
     return out;
   };
 
-  // filled remembers what fill wrote in each number field: input -> {text, v, role}
+  // filled remembers what fill wrote in each number field: input -> {text, v, role, physics}
   const filled = new WeakMap();
 
   // toField writes an SI number as the field shows it.
@@ -374,9 +389,8 @@
     // before the form's own input handler: the fields are shown again in
     // the new unit first, then the edit is taken as usual
     s.addEventListener("input", () => {
-      const p = read ? EW.read().project : null;
+      const p = EW.read().project; // in the old units
       choice[k] = s.value;
-      if (!p) return;
       const d = EW.display();
       if (Object.keys(d).length) p.display = d; else delete p.display;
       EW.fill(p);

@@ -173,3 +173,13 @@ func (s *shown) perLength(tm physics.Terms) conv {
 	}
 	return c
 }
+
+// Shown returns how the report shows a quantity of a physics under a
+// display choice: shown = SI*scale + offset, in unit. role is one of value,
+// gradient, conductivity, flux, flow, source, coefficient, length. The
+// browser tests compare it with the page's table (site/measure.js).
+func Shown(physicsID string, d project.Display, role string) (unit string, scale, offset float64) {
+	s := newShown(&project.Project{Physics: physicsID, Display: d})
+	c := s.conv(role)
+	return c.Unit, c.Scale, c.Offset
+}
