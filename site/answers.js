@@ -43,7 +43,8 @@
       el("div", { class: "pair" },
         num("ans-gs", "specific gravity of solids Gs", "specific_gravity"),
         num("ans-e", "void ratio e", "void_ratio")),
-      el("p", { class: "hint", text: "Critical hydraulic gradient: (γsat − γw)/γw when γsat is given (γw 9.81 kN/m³ unless given), else (Gs − 1)/(1 + e) when both are given, else about 1 (common practice)." })),
+      num("ans-datum", "elevation datum: height y where z = 0 [m]", "datum"),
+      el("p", { class: "hint", text: "Critical hydraulic gradient: (γsat − γw)/γw when γsat is given (γw 9.81 kN/m³ unless given), else (Gs − 1)/(1 + e) when both are given, else about 1 (common practice). Uplift under an impervious base (a no-flow part of the top edge): pore pressure u = γw (h − z), the heads measured from the datum (by default the bottom edge)." })),
     el("p", { class: "err", id: "err-answers", "data-err": "answers" }));
   const form = byId("inputs");
   form.insertBefore(box, byId("err-other"));
@@ -100,6 +101,7 @@
       put("water_unit_weight", "ans-gw");
       put("specific_gravity", "ans-gs");
       put("void_ratio", "ans-e");
+      put("datum", "ans-datum");
     }
     return a;
   }
@@ -113,6 +115,7 @@
     set("ans-gw", a.water_unit_weight);
     set("ans-gs", a.specific_gravity);
     set("ans-e", a.void_ratio);
+    set("ans-datum", a.datum);
     fillDielectrics("electrostatic");
     if (!a.dielectric) dielectric.selectedIndex = 0; // the engine's default: the first, dry air
     else if ([...dielectric.options].some((o) => o.value === a.dielectric)) dielectric.value = a.dielectric;
@@ -259,6 +262,33 @@
     return c;
   }
 
+  // pressurePlot draws the pore pressure along an impervious base.
+  function pressurePlot(up, L, ls) {
+    const c = el("canvas", { id: "ans-pressure-" + up.part.replace(/\W/g, ""), width: "280", height: "70", role: "img" });
+    const ctx = EW.sizeCanvas(c, 280, 70);
+    ctx.fillStyle = "#fbfaf6";
+    ctx.fillRect(0, 0, 280, 70);
+    const s = up.s || [], v = up.pressure || [];
+    let lo = Math.min(0, ...v), hi = Math.max(0, ...v);
+    if (!(hi > lo)) hi = lo + 1;
+    const px = (x) => 4 + ((x - s[0]) / ((s[s.length - 1] - s[0]) || 1)) * 272;
+    const py = (y) => 62 - ((y - lo) / (hi - lo)) * 56;
+    ctx.strokeStyle = "#d8d3c7";
+    ctx.beginPath(); ctx.moveTo(4, py(0)); ctx.lineTo(276, py(0)); ctx.stroke();
+    ctx.fillStyle = "rgba(46, 94, 110, 0.25)";
+    ctx.beginPath(); ctx.moveTo(px(s[0]), py(0));
+    v.forEach((y, i) => ctx.lineTo(px(s[i]), py(y)));
+    ctx.lineTo(px(s[s.length - 1]), py(0)); ctx.closePath(); ctx.fill();
+    ctx.strokeStyle = "#2e5e6e";
+    ctx.lineWidth = 1.6;
+    ctx.beginPath();
+    v.forEach((y, i) => (i ? ctx.lineTo(px(s[i]), py(y)) : ctx.moveTo(px(s[i]), py(y))));
+    ctx.stroke();
+    c.setAttribute("aria-label", "Pore pressure under " + up.part + " from x = " + n(s[0] * ls, 3) + " to " + n(s[s.length - 1] * ls, 3) + " " + L +
+      ": " + n(v[0], 4) + " kPa at its start, " + n(v[v.length - 1], 4) + " kPa at its end, least " + n(Math.min(...v), 4) + ", greatest " + n(Math.max(...v), 4) + " kPa.");
+    return c;
+  }
+
   function render(S) {
     const r = S.result, p = S.project;
     const old = byId("answers");
@@ -345,6 +375,13 @@
         sec.append(table("ans-exit", ["Exit part", "exit gradient", "where", "factor of safety against heave"],
           s.exits.map((x) => [x.part, n(x.gradient, 3), "(" + nl(x.x, 4) + ", " + nl(x.y, 4) + ") " + L, n(x.factor_of_safety, 3)])));
         if (a.singular.length) sec.append(el("p", { class: "hint", text: "Exit gradients are taken at least " + nl(a.near, 3) + " " + L + " from where two heads meet; the gradient is unbounded there in the ideal model." }));
+      }
+      for (const up of s.uplift || []) {
+        const ud = el("dl", { class: "kv", id: "ans-uplift-" + up.part.replace(/\W/g, "") });
+        kvRow(ud, "Uplift under " + up.part, n(up.force, 4) + " kN/m", "per metre of depth, " + (up.force >= 0 ? "upward" : "downward (the pressure is below atmospheric)"));
+        if (up.line !== null) kvRow(ud, "acting at", "x = " + nl(up.line, 4) + " " + L, "the line of action of the resultant");
+        kvRow(ud, "mean head under it", nl(up.mean_head, 4) + " m", "base elevation z = " + n(up.elevation, 4) + " m, γw = " + n(s.water_unit_weight, 4) + " kN/m³, datum y = " + n(s.datum, 4) + " m");
+        sec.append(ud, pressurePlot(up, L, EW.dv(u, "length", 1)));
       }
     }
     byId("results").append(sec);

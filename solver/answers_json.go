@@ -100,6 +100,21 @@ func (a *Answers) writeJSON(w *jsonlite.Writer) {
 			w.Open('{').Key("part").Str(x.Part).Key("gradient").Num(x.G).Key("x").Num(x.X).Key("y").Num(x.Y).
 				Key("factor_of_safety").Num(x.FactorOfSafety).Close('}')
 		}
+		w.Close(']')
+		w.Key("water_unit_weight").Num(s.WaterWeight).Key("datum").Num(s.Datum).Key("uplift").Open('[')
+		for _, u := range s.Uplift {
+			w.Open('{').Key("part").Str(u.Part).Key("from").Num(u.From).Key("to").Num(u.To).Key("elevation").Num(u.Elevation).
+				Key("mean_head").Num(u.MeanHead).Key("force").Num(u.Force).Key("line").Num(u.Line)
+			w.Key("s").Open('[')
+			for _, v := range u.S {
+				w.Num(v)
+			}
+			w.Close(']').Key("pressure").Open('[')
+			for _, v := range u.Pressure {
+				w.Num(v)
+			}
+			w.Close(']').Close('}')
+		}
 		w.Close(']').Close('}')
 	}
 	w.Close('}')

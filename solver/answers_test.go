@@ -429,3 +429,31 @@ func TestFlowNetTooManyDrops(t *testing.T) {
 		t.Errorf("one channel: %+v", n)
 	}
 }
+
+// Uplift under a symmetric impervious base between two pools: by symmetry
+// the head along the base is the mean of the two heads plus a part odd
+// about its centre, so the uplift force is exactly γw ((h1 + h2)/2 − z)
+// times its length, and the pressure falls from the upstream end (the
+// resultant acts upstream of the centre).
+func TestUpliftSymmetricBase(t *testing.T) {
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"seepage","width":40,"height":12,"conductivity":2e-5,
+	 "edges":{"bottom":{"kind":"flux","expr":"0"},"left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"},
+	 "top":{"segments":[{"to":15,"kind":"value","expr":"9"},{"to":25,"kind":"flux","expr":"0"},{"kind":"value","expr":"2"}]}},
+	 "answers":{"datum":12,"water_unit_weight":9.81}}`, Options{NoCrossCheck: true})
+	s := out.Result.Answers.Seepage
+	if s == nil || len(s.Uplift) != 1 {
+		t.Fatalf("seepage answers %+v", s)
+	}
+	u := s.Uplift[0]
+	want := 9.81 * ((9+2)/2.0 - 0) * 10
+	if math.Abs(u.Force-want) > 1e-8*want || u.Elevation != 0 || u.Part != "top[1]" {
+		t.Errorf("uplift %+v, force want %.12g", u, want)
+	}
+	if !(u.Line > 15 && u.Line < 20) {
+		t.Errorf("line of action %g, want upstream of the centre 20", u.Line)
+	}
+	if len(u.Pressure) != upliftPoints || !(u.Pressure[0] > u.Pressure[upliftPoints-1]) {
+		t.Errorf("pressure profile %v", u.Pressure)
+	}
+	t.Logf("uplift %.10g kN/m (exact %.10g), line of action x = %.6g m", u.Force, want, u.Line)
+}

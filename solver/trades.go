@@ -3,6 +3,7 @@ package solver
 import (
 	"math"
 
+	"edgewise/solver/gauss"
 	"edgewise/solver/physics"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
@@ -189,6 +190,61 @@ type SeepageAnswers struct {
 	// Recharge is the source over the whole section, m³/s per metre of
 	// depth (0 for none).
 	Recharge float64
+	// Uplift lists the water pressure under each impervious base (an
+	// insulated part of the top edge), with the unit weight of water and
+	// the datum it was computed with.
+	Uplift      []Uplift
+	WaterWeight float64 // kN/m³
+	Datum       float64 // m: the height y where z = 0
+}
+
+// Uplift is the water pressure on an impervious base: the pore pressure
+// u = γw (h − z) along it, z its elevation, and the resultant per metre of
+// depth (the uplift force, kN/m, upward when positive) and the place x
+// along the base where it acts (NaN when the resultant is zero).
+type Uplift struct {
+	Part      string
+	From, To  float64
+	Elevation float64 // z of the base, m
+	MeanHead  float64 // the mean head along it, m
+	Force     float64 // kN per metre of depth
+	Line      float64 // x of the resultant, m
+	// S and Pressure are the pressure profile (kPa) at upliftPoints
+	// places along the base.
+	S, Pressure []float64
+}
+
+// upliftPoints is the number of places of an uplift profile.
+const upliftPoints = 41
+
+// uplift computes the uplift under part q of the top edge: the mean head
+// is the part's mean from the engine (exact in form at the base's ends,
+// where the head goes like a square root); the moment of the pressure by
+// Gauss-Legendre in theta, s = a + (b - a)(1 - cos theta)/2, which leaves
+// that square root smooth.
+func uplift(pr *problem.Problem, f field, q part, gw, datum float64) Uplift {
+	z := pr.H - datum
+	u := Uplift{Part: q.name(), From: q.from, To: q.to, Elevation: z, MeanHead: q.seg.Mean}
+	L := q.to - q.from
+	u.Force = gw * (q.seg.Mean - z) * L
+	xs, ws := make([]float64, 64), make([]float64, 64)
+	gauss.Legendre(xs, ws, 0, math.Pi)
+	moment := 0.0
+	for i, th := range xs {
+		s := q.from + L*(1-math.Cos(th))/2
+		h, _, _ := f.At(s, pr.H)
+		moment += ws[i] * L / 2 * math.Sin(th) * gw * (h - z) * s
+	}
+	u.Line = math.NaN()
+	if math.Abs(u.Force) > 1e-12*gw*L*max(math.Abs(z), math.Abs(q.seg.Mean), 1) {
+		u.Line = moment / u.Force
+	}
+	for i := 0; i < upliftPoints; i++ {
+		s := q.from + L*float64(i)/(upliftPoints-1)
+		h, _, _ := f.At(s, pr.H)
+		u.S, u.Pressure = append(u.S, s), append(u.Pressure, gw*(h-z))
+	}
+	return u
 }
 
 // ExitGradient is the largest hydraulic gradient where water leaves
@@ -221,6 +277,12 @@ func seepageAnswers(pr *problem.Problem, out *Output, a *Answers, asked project.
 	gw := asked.WaterUnitWeight
 	if gw == 0 {
 		gw = WaterUnitWeight
+	}
+	s.WaterWeight, s.Datum = gw, asked.Datum
+	for _, q := range partsOf(pr, r, problem.Top) {
+		if q.kind == problem.Flux && insulated(pr, q) && q.seg != nil {
+			s.Uplift = append(s.Uplift, uplift(pr, out.field, q, gw, asked.Datum))
+		}
 	}
 	switch {
 	case asked.SaturatedUnitWeight > 0:

@@ -25,13 +25,18 @@ type Asked struct {
 	// (Gs - 1)/(1 + e) when both are given and γsat is not.
 	SpecificGravity float64
 	VoidRatio       float64
+	// Datum is the height y (m, in the section's coordinates) where the
+	// elevation z is zero, for the uplift under an impervious base: the
+	// pore pressure is γw (h − z), z = y − Datum, the heads being measured
+	// from the same datum. 0 (the default) puts it at the bottom edge.
+	Datum float64
 }
 
 // MaxChannels is the largest number of flow channels a project may ask for.
 const MaxChannels = 100
 
 var askedKeys = []string{"channels", "dielectric", "breakdown_strength", "saturated_unit_weight",
-	"water_unit_weight", "specific_gravity", "void_ratio"}
+	"water_unit_weight", "specific_gravity", "void_ratio", "datum"}
 
 func (d *decoder) asked(v any) *Asked {
 	m := d.object(v, "answers", nil, askedKeys...)
@@ -55,6 +60,9 @@ func (d *decoder) asked(v any) *Asked {
 	pos("water_unit_weight", &a.WaterUnitWeight)
 	pos("specific_gravity", &a.SpecificGravity)
 	pos("void_ratio", &a.VoidRatio)
+	if x, ok := m["datum"]; ok {
+		a.Datum = d.number(x, "answers.datum")
+	}
 	if d.err == nil && a.SaturatedUnitWeight > 0 {
 		gw := a.WaterUnitWeight
 		if gw == 0 {
@@ -86,6 +94,9 @@ func (a *Asked) write(w *jsonlite.Writer) {
 		if f.v > 0 {
 			w.Key(f.k).Num(f.v)
 		}
+	}
+	if a.Datum != 0 {
+		w.Key("datum").Num(a.Datum)
 	}
 	w.Close('}')
 }

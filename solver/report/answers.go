@@ -2,6 +2,7 @@ package report
 
 import (
 	"bytes"
+	"math"
 	"strconv"
 	"strings"
 
@@ -122,6 +123,22 @@ func answerTables(p *project.Project, out *solver.Output, sh *shown) []Table {
 			add(&t, "exit gradient on "+x.Part, num(x.G)+" at ("+sh.num("length", x.X)+", "+sh.num("length", x.Y)+") "+sh.unit("length")+"; factor of safety against heave "+num(x.FactorOfSafety))
 		}
 		list = append(list, t)
+		for _, u := range s.Uplift {
+			ut := Table{Caption: "Uplift under the impervious base " + u.Part + ": pore pressure u = γw (h − z), γw = " + num(s.WaterWeight) +
+				" kN/m³, heads and elevations from the datum y = " + num(s.Datum) + " m", Head: []string{"", "value"}}
+			add(&ut, "uplift force per metre [kN/m]", num(u.Force))
+			line := "none (the resultant is zero)"
+			if !math.IsNaN(u.Line) {
+				line = "x = " + num(u.Line) + " m"
+			}
+			add(&ut, "line of action", line)
+			add(&ut, "mean head under the base [m]", num(u.MeanHead))
+			add(&ut, "base elevation z [m]", num(u.Elevation))
+			for i := 0; i < len(u.S); i += 10 {
+				add(&ut, "pressure at x = "+num(u.S[i])+" m [kPa]", num(u.Pressure[i]))
+			}
+			list = append(list, ut)
+		}
 	}
 	return list
 }
