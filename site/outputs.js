@@ -194,6 +194,7 @@
       el("span", { class: "ew-label", text: "Results" }),
       button("ew-dl-field", "Field CSV", () => download("field-csv"), "Every grid point: x, y, value, gradient and flux"),
       button("ew-dl-probes", "Probes CSV", () => download("probes-csv"), "Value, gradient and flux at the probes"),
+      button("ew-dl-edges", "Edges CSV", () => download("edges-csv"), "Each edge's parts: where they run, their kind, flow and mean"),
       button("ew-dl-svg", "SVG picture", () => download("svg", { pixel_width: 800 }), "Vector isolines and legend"),
       button("ew-dl-png", "PNG picture", () => downloadPNG(Number(pngWidth.value)), "A raster picture at the chosen width"), pngWidth,
       button("ew-report-btn", "Report…", EW.report.open, "A printable report: print it or save it as PDF")),

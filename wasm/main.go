@@ -8,7 +8,7 @@
 //	edgewise_colours(n number) -> {ok, sequential, diverging: Uint8Array(3n), names}
 //	edgewise_preview(projectJSON string, side string, n number) -> {ok, s, v: Float64Array}
 //	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
-//	    kind: "field-csv" | "probes-csv" | "svg"; options (all optional):
+//	    kind: "field-csv" | "probes-csv" | "edges-csv" | "svg"; options (all optional):
 //	    {"nx": n, "ny": n, "pixel_width": px, "levels": n}
 //	edgewise_report(projectJSON, optionsJSON) -> {ok, report: "<report JSON>", svg}
 //	    options: {"date": "text printed as the report's date", "pixel_width": px}

@@ -64,6 +64,7 @@ func TestExportKinds(t *testing.T) {
 	for _, c := range []struct{ kind, prefix, mime string }{
 		{"field-csv", "x [m],y [m],value u,grad_x", "text/csv"},
 		{"probes-csv", "label,x [m]", "text/csv"},
+		{"edges-csv", "edge,part,kind,from [m]", "text/csv"},
 		{"svg", "<?xml", "image/svg+xml"},
 	} {
 		r, err := exportText(c.kind, square, callOptions{Nx: 4, Ny: 4})

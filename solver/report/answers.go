@@ -167,6 +167,26 @@ func profileTable(p *project.Project, out *solver.Output, line ProfileLine) Tabl
 
 // profileCSV writes a line profile as CSV: distance, x, y, value,
 // gradient and flux, with units in the header.
+// edgesCSV writes every edge's parts, SI: the edge, the part's index, kind,
+// where it starts and ends along the edge, the flow into the region
+// through it (empty when infinite), whether it is finite, and the mean
+// field value along it.
+func edgesCSV(b *bytes.Buffer, p *project.Project, out *solver.Output) {
+	l := solver.Units(p.Physics)
+	head := []string{"edge", "part", "kind", with("from", l.Length), with("to", l.Length), with("flow", l.FlowUnit), "finite", with("mean "+l.Value, l.ValueUnit)}
+	b.WriteString(strings.Join(head, ",") + "\r\n")
+	f := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+	for _, side := range problem.Sides {
+		for i, g := range out.Result.Edges[side].Segments {
+			flow := ""
+			if g.Finite && g.Flow != nil {
+				flow = f(*g.Flow)
+			}
+			b.WriteString(strings.Join([]string{side.String(), strconv.Itoa(i), g.Kind, f(g.From), f(g.To), flow, strconv.FormatBool(g.Finite), f(g.Mean)}, ",") + "\r\n")
+		}
+	}
+}
+
 func profileCSV(b *bytes.Buffer, p *project.Project, out *solver.Output, line ProfileLine) {
 	l := solver.Units(p.Physics)
 	head := []string{with("distance", l.Length), with("x", l.Length), with("y", l.Length), with(l.Value, l.ValueUnit),

@@ -18,6 +18,9 @@ import (
 const (
 	FieldCSV  = "field-csv"
 	ProbesCSV = "probes-csv"
+	// EdgesCSV lists every edge's parts (one for a one-condition edge):
+	// where each runs, its kind, the flow into the region and its mean.
+	EdgesCSV = "edges-csv"
 	Picture   = "svg"
 	// ProfileCSV is the line profile PictureOptions.Profile asks for.
 	ProfileCSV = "profile-csv"
@@ -84,6 +87,9 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 			return nil, err
 		}
 		d.Name, d.MIME = FileName(p.Title, "picture", "svg"), "image/svg+xml"
+	case EdgesCSV:
+		edgesCSV(&b, p, out)
+		d.Name, d.MIME = FileName(p.Title, "edges", "csv"), "text/csv;charset=utf-8"
 	case ProfileCSV:
 		if opt.Profile == nil {
 			return nil, fmt.Errorf("report: a profile download needs the line (option profile)")
@@ -91,7 +97,7 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 		profileCSV(&b, p, out, *opt.Profile)
 		d.Name, d.MIME = FileName(p.Title, "profile", "csv"), "text/csv;charset=utf-8"
 	default:
-		return nil, fmt.Errorf("report: unknown download %q (use %s, %s, %s or %s)", kind, FieldCSV, ProbesCSV, Picture, ProfileCSV)
+		return nil, fmt.Errorf("report: unknown download %q (use %s, %s, %s, %s or %s)", kind, FieldCSV, ProbesCSV, EdgesCSV, Picture, ProfileCSV)
 	}
 	d.Data = b.Bytes()
 	return d, nil

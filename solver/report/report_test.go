@@ -341,3 +341,34 @@ func TestBuildSegments(t *testing.T) {
 		t.Errorf("left condition %q: the h formula should be shown as written", left)
 	}
 }
+
+// The edges CSV lists every edge's parts with the result's flows and means.
+func TestEdgesCSV(t *testing.T) {
+	p, out := solved(t, `{"schema":"edgewise/1","physics":"seepage","width":30,"height":10,"conductivity":1e-5,
+	 "edges":{"bottom":{"kind":"flux","expr":"0"},"left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"},
+	 "top":{"segments":[{"to":10,"kind":"value","expr":"12"},{"to":20,"kind":"flux","expr":"0"},{"kind":"value","expr":"2"}]}},"grid":{"nx":30,"ny":10}}`)
+	d, err := Make(EdgesCSV, p, out, PictureOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(bytes.NewReader(d.Data)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) != 1+3+3 || rows[0][0] != "edge" || d.Name != "edges.csv" && !strings.HasSuffix(d.Name, "edges.csv") {
+		t.Fatalf("%s: %q", d.Name, rows)
+	}
+	var top [][]string
+	for _, r := range rows[1:] {
+		if r[0] == "top" {
+			top = append(top, r)
+		}
+	}
+	segs := out.Result.Edges[problem.Top].Segments
+	for i, r := range top {
+		flow, err := strconv.ParseFloat(r[5], 64)
+		if err != nil || flow != *segs[i].Flow || r[2] != segs[i].Kind || r[6] != "true" {
+			t.Errorf("row %q, segment %+v", r, segs[i])
+		}
+	}
+}
