@@ -10,6 +10,10 @@
 //	           side in proportion (default: the project's grid, else 200)
 //	-csv FILE  also write the field on that grid as CSV (x, y, value,
 //	           gradient and flux, with units in the header)
+//	-profile FILE -line X0,Y0,X1,Y1
+//	           also write the field along the line as CSV (101 places:
+//	           distance, x, y, value, gradient and flux; the page's
+//	           line-profile download)
 //
 // PROJECT.json may be "-" for standard input; either is read only up to
 // the size limit of a project file (1 MiB). On bad input it exits with
@@ -36,6 +40,7 @@ import (
 	"edgewise/solver/export"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
+	"edgewise/solver/report"
 )
 
 func main() {
@@ -55,11 +60,13 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	var gridText string // checked below, so that a bad value gives one line, not the usage
 	fs.StringVar(&gridText, "grid", "", "output grid: `N` intervals along the longer side")
 	csvPath := fs.String("csv", "", "write the field on the output grid as CSV to `FILE`")
+	profilePath := fs.String("profile", "", "write the field along the -line as CSV to `FILE`")
+	lineText := fs.String("line", "", "the profile's line: `X0,Y0,X1,Y1`")
 	studyPath := fs.String("study", "", "run the study in `STUDY.json` on the project and print CSV")
 	shard := fs.String("shard", "", "with -study: run only the rows whose index modulo N is I (`I/N`)")
 	jobs := fs.Int("j", 0, "with -study: solve `N` rows at once (0: one per core)")
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "usage: solve [-grid N] [-csv FILE] PROJECT.json\n       solve -study STUDY.json [-shard I/N] [-j N] [-grid N] PROJECT.json")
+		fmt.Fprintln(stderr, "usage: solve [-grid N] [-csv FILE] [-profile FILE -line X0,Y0,X1,Y1] PROJECT.json\n       solve -study STUDY.json [-shard I/N] [-j N] [-grid N] PROJECT.json")
 		fs.PrintDefaults()
 	}
 	if err := fs.Parse(args); err != nil {
@@ -91,6 +98,11 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	if *studyPath != "" || *shard != "" || *jobs != 0 {
 		return runStudy(*studyPath, *shard, *jobs, p, opt, stdout, stderr)
 	}
+	line, err := lineFlag(*profilePath, *lineText, p)
+	if err != nil {
+		fmt.Fprintln(stderr, project.Shorten(err.Error()))
+		return 1
+	}
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
 	if err != nil {
@@ -103,11 +115,57 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 			return 1
 		}
 	}
+	if line != nil {
+		d, err := report.Make(report.ProfileCSV, p, out, report.PictureOptions{Profile: line})
+		if err == nil {
+			err = os.WriteFile(*profilePath, d.Data, 0o644)
+		}
+		if err != nil {
+			fmt.Fprintln(stderr, project.Shorten(err.Error()))
+			return 1
+		}
+	}
 	if _, err := stdout.Write(append(out.Result.JSON(), '\n')); err != nil {
 		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
 	return 0
+}
+
+// lineFlag reads -profile and -line: both or neither; the line is four
+// numbers X0,Y0,X1,Y1 inside the rectangle, its ends apart.
+func lineFlag(path, text string, p *project.Project) (*report.ProfileLine, error) {
+	switch {
+	case path == "" && text == "":
+		return nil, nil
+	case path == "":
+		return nil, errors.New("-line: give -profile FILE too (where to write the profile)")
+	case text == "":
+		return nil, errors.New("-profile: give -line X0,Y0,X1,Y1 too (the profile's line)")
+	}
+	parts := strings.Split(text, ",")
+	if len(parts) != 4 {
+		return nil, fmt.Errorf("-line: four numbers X0,Y0,X1,Y1 separated by commas, got %d", len(parts))
+	}
+	var v [4]float64
+	for i, t := range parts {
+		x, err := strconv.ParseFloat(strings.TrimSpace(t), 64)
+		if err != nil || x-x != 0 {
+			return nil, fmt.Errorf("-line: %q is not a number", strings.TrimSpace(t))
+		}
+		lim := p.Width
+		if i%2 == 1 {
+			lim = p.Height
+		}
+		if x < 0 || x > lim {
+			return nil, fmt.Errorf("-line: %g is outside the rectangle (0 to %g)", x, lim)
+		}
+		v[i] = x
+	}
+	if v[0] == v[2] && v[1] == v[3] {
+		return nil, errors.New("-line: the two ends are the same point")
+	}
+	return &report.ProfileLine{X0: v[0], Y0: v[1], X1: v[2], Y1: v[3]}, nil
 }
 
 // gridFlag reads the -grid value: empty or 0 for the project's own grid,

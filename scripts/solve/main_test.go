@@ -5,8 +5,10 @@ import (
 	"encoding/csv"
 	"encoding/json"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -78,6 +80,10 @@ func TestSolveBadInput(t *testing.T) {
 		{"grid not a number", square, []string{"-grid", "ten"}, `-grid: must be a whole number from 2 to 1024, got "ten"`},
 		{"grid long text", square, []string{"-grid", strings.Repeat("x", 5000)},
 			`-grid: must be a whole number from 2 to 1024, got "` + strings.Repeat("x", 32) + `..."`},
+		{"line without profile", square, []string{"-line", "0,0,1,1"}, "-line: give -profile FILE too (where to write the profile)"},
+		{"profile without line", square, []string{"-profile", "x.csv"}, "-profile: give -line X0,Y0,X1,Y1 too (the profile's line)"},
+		{"line outside", square, []string{"-profile", "x.csv", "-line", "0,0,2,1"}, "-line: 2 is outside the rectangle (0 to 1)"},
+		{"line three numbers", square, []string{"-profile", "x.csv", "-line", "0,0,1"}, "-line: four numbers X0,Y0,X1,Y1 separated by commas, got 3"},
 		// fixed bug: a 5000-digit width was echoed back in full
 		{"long number", strings.Replace(square, `"width":1`, `"width":1`+strings.Repeat("7", 5000), 1), nil,
 			"width: 17777777...(5001 digits) is not a finite number"},
@@ -183,5 +189,34 @@ func BenchmarkRefuseHugeInput(b *testing.B) {
 		if st := run([]string{"-"}, in, io.Discard, io.Discard); st != 1 {
 			b.Fatalf("exit %d", st)
 		}
+	}
+}
+
+// -profile writes the page's line-profile CSV: along the vertical centre
+// line of the square with the top at 1 and the other edges at 0, the value
+// at the centre is 1/4 (exact by symmetry and superposition).
+func TestSolveProfile(t *testing.T) {
+	dir := t.TempDir()
+	proj := filepath.Join(dir, "p.json")
+	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(dir, "profile.csv")
+	var out, errb bytes.Buffer
+	if st := run([]string{"-profile", path, "-line", "0.5,0,0.5,1", proj}, nil, &out, &errb); st != 0 {
+		t.Fatalf("exit %d, stderr %q", st, errb.String())
+	}
+	data, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(bytes.NewReader(data)).ReadAll()
+	if err != nil || len(rows) != 102 || !strings.HasPrefix(rows[0][0], "distance") {
+		t.Fatalf("profile CSV %v rows, %v", len(rows), err)
+	}
+	mid := rows[51]
+	v, err := strconv.ParseFloat(mid[3], 64)
+	if err != nil || math.Abs(v-0.25) > 1e-8 {
+		t.Errorf("value at the centre %q, want 0.25", mid)
 	}
 }
