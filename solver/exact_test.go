@@ -162,3 +162,51 @@ func TestSolveSegmentsTwoStrips(t *testing.T) {
 	}
 	t.Logf("conductance %.12g (exact %.12g), estimate %.3g, converged %v", c.PerDifference, ex.Conductance(), est, r.Accuracy.Converged)
 }
+
+// The exit gradient along the downstream pool of a section with two pools
+// and an impervious floor between them (heads 9 and 2, the rest
+// impervious) against the exact conformal-map field (package exact): it
+// grows without bound at the floor's toe like r^-1/2, so it is compared at
+// stated distances from the toe (0.1 to 5 m), to 1e-6 relative.
+func TestExitGradientAgainstConformalMap(t *testing.T) {
+	const W, H, k = 40.0, 12.0, 2e-5
+	ex, err := exact.New(W, H, k, k, exact.Part{Side: problem.Top, From: 0, To: 15},
+		exact.Part{Side: problem.Top, From: 25, To: 40}, 9, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	ds := []float64{0.1, 0.5, 1, 2, 5}
+	probes := ""
+	for i, d := range ds {
+		if i > 0 {
+			probes += ","
+		}
+		probes += fmt.Sprintf(`{"x": %g, "y": 12}`, 25+d)
+	}
+	p, err := project.Decode([]byte(`{"schema": "edgewise/1", "physics": "seepage", "width": 40, "height": 12, "conductivity": 2e-5,
+		"edges": {"bottom": {"kind": "flux", "expr": "0"}, "left": {"kind": "flux", "expr": "0"}, "right": {"kind": "flux", "expr": "0"},
+		"top": {"segments": [{"to": 15, "kind": "value", "expr": "9"}, {"to": 25, "kind": "flux", "expr": "0"}, {"kind": "value", "expr": "2"}]}},
+		"probes": [` + probes + `]}`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s Solver
+	out, err := s.Solve(p, Options{Nx: 40, Ny: 12, NoCrossCheck: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, q := range out.Result.Probes {
+		g := math.Hypot(q.Gradient[0], q.Gradient[1])
+		want := math.Abs(ex.Inflow(problem.Top, 25+ds[i])) / k // leaving through a held part: all normal
+		t.Logf("%g m from the toe: exit gradient %.10g, exact %.10g", ds[i], g, want)
+		if math.Abs(g-want) > 1e-6*want {
+			t.Errorf("%g m from the toe: exit gradient %.10g, exact %.10g", ds[i], g, want)
+		}
+	}
+	// the discharge per metre of head difference against the exact
+	// conductance (exact.Conductance includes the conductivity)
+	c := out.Result.Answers.Conductance
+	if c == nil || math.Abs(c.PerDifference-ex.Conductance()) > 1e-6*ex.Conductance() {
+		t.Errorf("conductance %+v, exact %.10g", c, ex.Conductance())
+	}
+}
