@@ -163,3 +163,40 @@ func TestAnswersSeepage(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// Seepage with segments: two pools (heads 9 and 2 m from the ground
+// surface, the datum typed on the page at y = 12 m) over an impervious
+// floor midway between them. By symmetry the uplift is exactly
+// γw ((9 + 2)/2 − 0) × 10 m = 539.55 kN/m, acting upstream of the floor's
+// centre; the pressure plot is drawn; the edges CSV lists the parts.
+func TestAnswersUplift(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	d := tb.catchDownloads(t)
+	tb.loadProject(t, `{"schema":"edgewise/1","title":"weir","physics":"seepage","width":40,"height":12,"conductivity":2e-5,
+	  "edges":{"bottom":{"kind":"flux","expr":"0"},"left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"},
+	  "top":{"segments":[{"to":15,"kind":"value","expr":"9"},{"to":25,"kind":"flux","expr":"0"},{"kind":"value","expr":"2"}]}}}`)
+	n := tb.solved(t)
+	tb.pasteInto(t, "#ans-datum", "12")
+	tb.waitSolved(t, n+1)
+	got := text(t, tb, "#ans-uplift-top1")
+	if !strings.Contains(got, "539.5") || !strings.Contains(got, "kN/m") || !strings.Contains(got, "upward") {
+		t.Errorf("uplift shows %q, want 539.55 kN/m upward", got)
+	}
+	x := eval[float64](t, tb, `window.edgewiseInternal.last().result.answers.seepage.uplift[0].line`)
+	if !(x > 15 && x < 20) {
+		t.Errorf("line of action x = %g, want upstream of the centre 20", x)
+	}
+	if label := eval[string](t, tb, `document.getElementById("ans-pressure-top1").getAttribute("aria-label")`); !strings.Contains(label, "Pore pressure under top[1]") {
+		t.Errorf("pressure plot label %q", label)
+	}
+	name, data := d.click(t, tb, "#ew-dl-edges")
+	rows, err := csv.NewReader(bytes.NewReader(data)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if name != "weir-edges.csv" || len(rows) != 1+1+1+3+1 || rows[0][0] != "edge" {
+		t.Fatalf("%s: %q", name, rows)
+	}
+	tb.noErrors(t)
+}
