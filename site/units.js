@@ -34,7 +34,8 @@
   // ---- numbers of a result, to the accuracy of the solve ----
   // A solve is accurate to about accuracy.estimate in the field (the
   // engine's estimate of its largest error). A field value smaller than
-  // that, or a flow smaller than the same share of the largest flow, is
+  // that, or a flow smaller than the same share of the largest flow (of an
+  // edge or of a part of one), is
   // rounding noise: it shows as 0, and other numbers show only the digits
   // the accuracy supports (at most the digits asked for).
   let floors = { value: 0, flow: 0 };
@@ -47,7 +48,11 @@
     // below 1e-12 of the field's size, float64 arithmetic itself is noise
     const value = Math.max(est, 1e-12 * scale);
     let big = Math.abs(r.source_total || 0);
-    for (const e of Object.values(r.edges || {})) if (e && e.finite && typeof e.flow === "number") big = Math.max(big, Math.abs(e.flow));
+    for (const e of Object.values(r.edges || {})) {
+      if (e && e.finite && typeof e.flow === "number") big = Math.max(big, Math.abs(e.flow));
+      // an edge made of parts may carry flow in and out and none in sum
+      for (const g of (e && e.segments) || []) if (g.finite && typeof g.flow === "number") big = Math.max(big, Math.abs(g.flow));
+    }
     const range = Math.abs(hi - lo);
     const rel = Math.max(range > 0 ? est / range : 0, 1e-12);
     floors = { value, flow: rel * big };
