@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"path/filepath"
 	"sort"
+	"strconv"
 	"testing"
 	"time"
 
@@ -19,9 +20,28 @@ import (
 func BenchmarkEditToPicture(b *testing.B) {
 	tb := newTab(b)
 	tb.open(b, siteURL)
+	editBench(b, tb, "in-right-expr", "demo right edge")
+}
+
+// BenchmarkEditToPictureSegments is BenchmarkEditToPicture on an edge made
+// of parts: the seepage section with two pools over a floor (the three
+// parts of its top edge solved by the mixed fit), one-key edits to the
+// upstream pool's head.
+func BenchmarkEditToPictureSegments(b *testing.B) {
+	tb := newTab(b)
+	tb.open(b, siteURL)
+	tb.loadProject(b, `{"schema":"edgewise/1","title":"weir","physics":"seepage","width":40,"height":12,"conductivity":2e-5,
+	  "edges":{"bottom":{"kind":"flux","expr":"0"},"left":{"kind":"flux","expr":"0"},"right":{"kind":"flux","expr":"0"},
+	  "top":{"segments":[{"to":15,"kind":"value","expr":"9"},{"to":25,"kind":"flux","expr":"0"},{"kind":"value","expr":"2"}]}}}`)
+	editBench(b, tb, "part-top-0-expr", "upstream pool's head")
+}
+
+// editBench types b.N one-key edits into the input with the given id and
+// reports the median and largest time from the key to the redrawn picture.
+func editBench(b *testing.B, tb *tab, id, what string) {
 	eval[bool](b, tb, `(() => {
 	  window.benchTimes = []; window.benchEngine = []; window.benchT0 = 0;
-	  const inp = document.getElementById("in-right-expr");
+	  const inp = document.getElementById(`+strconv.Quote(id)+`);
 	  inp.addEventListener("keydown", () => { window.benchT0 = performance.now(); }, true);
 	  document.addEventListener("edgewise:solved", () => {
 	    if (!window.benchT0) return;
@@ -29,14 +49,14 @@ func BenchmarkEditToPicture(b *testing.B) {
 	    window.benchT0 = 0;
 	  });
 	  return true; })()`)
-	base := eval[string](b, tb, `document.getElementById("in-right-expr").value`)
-	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID("in-right-expr"))); err != nil {
+	base := eval[string](b, tb, `document.getElementById(`+strconv.Quote(id)+`).value`)
+	if err := chromedp.Do(tb.ctx, chromedp.Focus(chromedp.ID(id))); err != nil {
 		b.Fatal(err)
 	}
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		// one key replaces the last character: a single edit, e.g. 25 -> 21 -> 22
-		eval[bool](b, tb, `(() => { const e = document.getElementById("in-right-expr");
+		eval[bool](b, tb, `(() => { const e = document.getElementById(`+strconv.Quote(id)+`);
 		  e.setSelectionRange(e.value.length - 1, e.value.length); return true; })()`)
 		key := fmt.Sprint(1 + i%9)
 		if err := chromedp.Do(tb.ctx, chromedp.KeyEvent(key)); err != nil {
@@ -57,7 +77,7 @@ func BenchmarkEditToPicture(b *testing.B) {
 	b.ReportMetric(median, "ms/edit-median")
 	b.ReportMetric(times[len(times)-1], "ms/edit-max")
 	status := eval[string](b, tb, `document.getElementById("status").textContent`)
-	b.Logf("demo right edge %q, %d edits: median %.1f ms, min %.1f, max %.1f; last: %s", base, len(times), median, times[0], times[len(times)-1], status)
+	b.Logf("%s %q, %d edits: median %.1f ms, min %.1f, max %.1f; last: %s", what, base, len(times), median, times[0], times[len(times)-1], status)
 }
 
 // BenchmarkFirstPicture opens the offline file (dist/edgewise.html, the

@@ -112,7 +112,7 @@ func (tb *tab) until(t *testing.T, cond, what string) {
 
 // loadProject loads a project (JavaScript object text) and waits for the
 // solve.
-func (tb *tab) loadProject(t *testing.T, js string) map[string]any {
+func (tb *tab) loadProject(t testing.TB, js string) map[string]any {
 	t.Helper()
 	n := eval[int](t, tb, `Number(document.documentElement.dataset.solved || 0)`)
 	eval[map[string]any](t, tb, `window.edgewise.load(`+js+`)`)
