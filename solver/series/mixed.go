@@ -468,6 +468,9 @@ func (ms *mixedSolver) inner(x []float64, base bool) *problem.Problem {
 	}
 	pr := ms.pr
 	q := *pr
+	if !base {
+		q.Source = 0 // an unknown's response is linear in it: no source
+	}
 	var conds [4][][]float64 // each span's condition values, set below
 	for _, side := range problem.Sides {
 		side := side
