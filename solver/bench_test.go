@@ -2,6 +2,7 @@ package solver
 
 import (
 	"fmt"
+	"os"
 	"testing"
 
 	"edgewise/solver/project"
@@ -36,6 +37,26 @@ func BenchmarkSolve(b *testing.B) {
 					}
 				}
 			})
+		}
+	}
+}
+
+// BenchmarkSolveSegments is the page's whole solve of the two-pool
+// section (an edge of three parts), default grid, with the cross-check:
+// each edit of a data value reuses the fit's responses.
+func BenchmarkSolveSegments(b *testing.B) {
+	data, err := os.ReadFile("physics/examples/seepage-two-pools.json")
+	if err != nil {
+		b.Fatal(err)
+	}
+	p, err := project.Decode(data)
+	if err != nil {
+		b.Fatal(err)
+	}
+	var s Solver
+	for b.Loop() {
+		if _, err := s.Solve(p, Options{}); err != nil {
+			b.Fatal(err)
 		}
 	}
 }

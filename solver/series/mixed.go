@@ -7,6 +7,7 @@ import (
 	"math"
 	"runtime"
 	"slices"
+	"strconv"
 	"sync"
 
 	"edgewise/solver/linalg"
@@ -637,6 +638,83 @@ func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 	me.meets, me.before, me.logs = m, bf, lg
 }
 
+// responseCache keeps the response matrix of the last mixed solve, keyed
+// by everything it depends on (mixedSolver.fingerprint): the geometry,
+// the conductivity, every edge's kind and convection coefficient, the
+// parts' places and kinds, the meetings and the fit's level, and h at the
+// collocation places; not the edge data, which the responses do not see.
+type responseCache struct {
+	mu  sync.Mutex
+	key string
+	a   []float64
+}
+
+var responses responseCache
+
+func (c *responseCache) get(key string) []float64 {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if c.key == key && c.a != nil {
+		return c.a
+	}
+	return nil
+}
+
+func (c *responseCache) put(key string, a []float64) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	c.key, c.a = key, append([]float64(nil), a...)
+}
+
+// fingerprint returns the key of the responses (see responseCache); place
+// gives the collocation places and weight their rows' weights.
+func (ms *mixedSolver) fingerprint(weight []float64, place func(i int) (*mixedEdge, float64)) string {
+	var b []byte
+	num := func(v float64) { b = strconv.AppendUint(append(b, ' '), math.Float64bits(v), 36) }
+	pr := ms.pr
+	num(pr.W)
+	num(pr.H)
+	num(pr.Kx)
+	num(pr.Ky)
+	num(float64(ms.n))
+	for _, side := range problem.Sides {
+		e := pr.Edges[side]
+		b = append(b, '|')
+		if me := ms.bySide[side]; me != nil {
+			for i, p := range e.Parts {
+				num(float64(p.Kind))
+				if i < len(e.Parts)-1 {
+					num(p.To)
+				}
+			}
+			for i, m := range me.meets {
+				num(m)
+				b = strconv.AppendBool(b, me.before[i])
+				b = strconv.AppendBool(b, me.logs[i])
+			}
+			for _, sp := range me.spans {
+				num(sp.from)
+				num(sp.to)
+				num(float64(sp.m))
+			}
+			continue
+		}
+		num(float64(e.Kind))
+		num(e.Hc)
+	}
+	b = append(b, '|')
+	for i, w := range weight {
+		me, s := place(i)
+		num(float64(me.side))
+		num(s)
+		num(w)
+		if p := me.e.Parts[me.e.PartAt(s)]; p.Kind == problem.Convection {
+			num(p.Hc(s))
+		}
+	}
+	return string(b)
+}
+
 // solveInner solves an inner problem: to Options.Tol (full) or to the
 // responses' tolerance, with every break of its data found (user) or only
 // its corner breaks (an unknown's response, whose data break nowhere
@@ -762,6 +840,13 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 		weight[r] = pl.me.rowWeight(ms.pr, pl.s)
 		b[r] = -weight[r] * ms.residual(pl.me, base, zero, pl.s, true)
 	}
+	// the responses of the last mixed solve with the same structure (an
+	// edit of data values on the page changes none of them)
+	key := ms.fingerprint(weight, func(i int) (*mixedEdge, float64) { return places[i].me, places[i].s })
+	if cached := responses.get(key); cached != nil {
+		copy(a, cached)
+		return ms.finish(a, b, rows)
+	}
 	// one response per unknown, on every processor (each writes its own
 	// column of a)
 	errs := make([]error, n)
@@ -792,6 +877,15 @@ func (ms *mixedSolver) solve() (*mixedField, error) {
 	if err := errors.Join(errs...); err != nil {
 		return nil, err
 	}
+	responses.put(key, a)
+	return ms.finish(a, b, rows)
+}
+
+// finish solves the fit from the responses a (rows x n) and the user's
+// residuals b, and solves the final field.
+func (ms *mixedSolver) finish(a, b []float64, rows int) (*mixedField, error) {
+	n := ms.n
+	a = append([]float64(nil), a...) // the cache keeps its own
 	// scale the columns, solve, scale back
 	norm := make([]float64, n)
 	for i := 0; i < n; i++ {

@@ -376,3 +376,63 @@ func TestMixedManufactured(t *testing.T) {
 	}
 	t.Logf("worst error %.3g of the range over %d cases", worst, cases)
 }
+
+// The responses kept from the last mixed solve serve an edit of the data
+// values alone, and give the same field as a solve from scratch; a change
+// of structure (a part's end) does not reuse them.
+func TestMixedResponsesKept(t *testing.T) {
+	build := func(h1, to float64) *problem.Problem {
+		pr := benchMixedProblem()
+		pr.Edges[problem.Top] = partsEdge([]float64{to, 20}, []float64{h1, 0, 2}, []bool{true, false, true})
+		return pr
+	}
+	at := func(f Field) [3]float64 {
+		var v [3]float64
+		for i, xy := range [][2]float64{{5, 5}, {15, 9.9}, {29, 1}} {
+			v[i], _, _ = f.At(xy[0], xy[1])
+		}
+		return v
+	}
+	responses.put("", nil)
+	solveMixedTest(t, build(12, 10)) // fills the cache
+	kept := at(solveMixedTest(t, build(15, 10)))
+	if responses.get(responses.key) == nil {
+		t.Fatal("no responses kept")
+	}
+	key := responses.key
+	responses.put("", nil)
+	fresh := at(solveMixedTest(t, build(15, 10)))
+	if responses.key != key {
+		t.Errorf("the same structure gave another key")
+	}
+	for i := range kept {
+		if math.Abs(kept[i]-fresh[i]) > 1e-12*15 {
+			t.Errorf("point %d: %.15g with kept responses, %.15g from scratch", i, kept[i], fresh[i])
+		}
+	}
+	solveMixedTest(t, build(15, 11))
+	if responses.key == key {
+		t.Errorf("a part that ends elsewhere kept the key")
+	}
+}
+
+// The family's area integral, exact by its second antiderivative, agrees
+// with graded quadrature on the manufactured-style arrangements: square-root
+// members (meetings on the bottom and the left, orthotropic) and
+// logarithmic ones (steps inside a run of flux and convection parts).
+func TestFamilyArea(t *testing.T) {
+	pr := &problem.Problem{W: 2, H: 1, Kx: 4, Ky: 1}
+	pr.Edges[problem.Bottom] = partsEdge([]float64{0.8, 1.5}, []float64{0, 10, 0}, []bool{false, true, false})
+	pr.Edges[problem.Left] = partsEdge([]float64{0.3, 0.7}, []float64{0, 30, 0}, []bool{false, true, false})
+	right := problem.Edge{Kind: problem.Flux, F: konst(0), Parts: []problem.Part{
+		{To: 0.4, Kind: problem.Flux, F: konst(1)},
+		{Kind: problem.Convection, F: konst(3), Hc: konst(2)}}}
+	pr.Edges[problem.Right] = right
+	pr.Edges[problem.Top] = insulatedEdge()
+	mf := solveMixedTest(t, pr).(*mixedField)
+	exact, quad := mf.familyArea(), mf.familyAreaByQuadrature()
+	t.Logf("family area %.15g exact, %.15g by quadrature", exact, quad)
+	if math.Abs(exact-quad) > 1e-9*max(1, math.Abs(quad)) {
+		t.Errorf("family area %.15g exact, %.15g by quadrature", exact, quad)
+	}
+}

@@ -266,3 +266,50 @@ func sqrtC(w complex128) complex128 {
 	}
 	return complex(math.Abs(y)/(2*a), math.Copysign(a, y))
 }
+
+// area returns the integral over the region of sum_k a_k F_k, exactly: in
+// the frame (t along the edge, d across, dx dy = dt dd / c, c the
+// orthotropic stretch) the region is [0, Lm] x [0, depth], zeta runs over
+// [-1, 1] x [0, depth/half], and with Q'' = G
+//
+//	int int Re G dxi deta = Im(Q(1 + i e) - Q(-1 + i e) - Q(1) + Q(-1)),  e = depth/half,
+//
+// since Re G = d/deta Im P (P' = G) and Im P integrates along xi to Im Q;
+// the corners on the edge itself are taken from above the branch cuts.
+// For G = c w^(j+1/2): Q = c w^(j+5/2) / ((j + 3/2)(j + 5/2)); for
+// G = w^(j+1) log w: Q = w^(j+3) (log w / ((j+2)(j+3)) - 1/((j+2)(j+3)^2) - 1/((j+2)^2 (j+3))).
+func (fm *family) area(a []float64, depth, stretch float64) float64 {
+	e := depth / fm.half
+	corners := [4]complex128{complex(1, e), complex(-1, e), complex(1, 0), complex(-1, 0)}
+	sign := [4]float64{1, -1, -1, 1}
+	total := 0.0
+	for i, z := range fm.z {
+		for k, zeta := range corners {
+			w := zeta - z
+			var q complex128
+			for j := 0; j < fm.per; j++ {
+				co := a[i*fm.per+j]
+				if co == 0 {
+					continue
+				}
+				fj := float64(j)
+				if fm.logs[i] {
+					if w == 0 {
+						continue
+					}
+					lw := cmplx.Log(w)
+					q += complex(co, 0) * cmplx.Pow(w, complex(fj+3, 0)) *
+						(lw/complex((fj+2)*(fj+3), 0) - complex(1/((fj+2)*(fj+3)*(fj+3))+1/((fj+2)*(fj+2)*(fj+3)), 0))
+					continue
+				}
+				wp := cmplx.Sqrt(w) * w * w // w^(5/2)
+				for m := 0; m < j; m++ {
+					wp *= w
+				}
+				q += complex(co/((fj+1.5)*(fj+2.5)), 0) * fm.c[i] * wp
+			}
+			total += sign[k] * imag(q)
+		}
+	}
+	return total * fm.half * fm.half / stretch
+}

@@ -92,6 +92,9 @@ type mixedField struct {
 	warnings []problem.Warning
 	once     sync.Once
 	mean     float64
+	// each mixed edge's parts, computed once (parts)
+	partsMu   sync.Mutex
+	partsDone [4][]PartResult
 }
 
 // mixedScale is the data scale of a problem with mixed edges: the range of
@@ -241,8 +244,17 @@ func (mf *mixedField) famFlow(e problem.Side, a, b float64) float64 {
 	return q
 }
 
-// parts returns the parts of mixed edge e.
+// parts returns the parts of mixed edge e (computed once).
 func (mf *mixedField) parts(e problem.Side) []PartResult {
+	mf.partsMu.Lock()
+	defer mf.partsMu.Unlock()
+	if mf.partsDone[e] == nil {
+		mf.partsDone[e] = mf.computeParts(e)
+	}
+	return slices.Clone(mf.partsDone[e])
+}
+
+func (mf *mixedField) computeParts(e problem.Side) []PartResult {
 	pr := mf.pr
 	ed := pr.Edges[e]
 	L := pr.Length(e)
@@ -348,37 +360,75 @@ func (mf *mixedField) Flow(e problem.Side) (float64, bool) {
 	return q + mf.famFlow(e, 0, mf.pr.Length(e)), true
 }
 
-// Mean returns the area mean of the field.
+// Mean returns the area mean of the field: the inner problem's, plus the
+// family's, exact (family.area).
 func (mf *mixedField) Mean() float64 {
 	mf.once.Do(func() {
 		mf.mean = mf.inner.Mean()
-		if mf.ms == nil {
-			return
+		if mf.ms != nil {
+			mf.mean += mf.familyArea() / (mf.pr.W * mf.pr.H)
 		}
-		pr := mf.pr
-		inner := func(x float64) float64 {
-			return gradedGauss(func(y float64) float64 {
-				u, _, _ := mf.ms.famSum(mf.x, x, y)
-				return u
-			}, 0, pr.H, 12, gl8x, gl8w)
-		}
-		cuts := []float64{0}
-		for _, me := range mf.ms.edges {
-			if me.side == problem.Bottom || me.side == problem.Top {
-				cuts = append(cuts, me.meets...)
-			}
-		}
-		cuts = append(cuts, pr.W)
-		slices.Sort(cuts)
-		sum := 0.0
-		for k := 0; k+1 < len(cuts); k++ {
-			if cuts[k+1] > cuts[k] {
-				sum += gradedGauss(inner, cuts[k], cuts[k+1], 12, gl8x, gl8w)
-			}
-		}
-		mf.mean += sum / (pr.W * pr.H)
 	})
 	return mf.mean
+}
+
+// familyArea returns the integral of the family over the region.
+func (mf *mixedField) familyArea() float64 {
+	pr := mf.pr
+	c := math.Sqrt(pr.Kx / pr.Ky)
+	sum := 0.0
+	for _, me := range mf.ms.edges {
+		if me.fam == nil {
+			continue
+		}
+		depth := c * pr.H // d = c y (bottom, top) or x (left, right)
+		if me.side == problem.Left || me.side == problem.Right {
+			depth = pr.W
+		}
+		sum += me.fam.area(mf.x[me.famOff:me.famOff+me.fam.n], depth, c)
+	}
+	return sum
+}
+
+// familyAreaByQuadrature is familyArea by graded Gauss-Legendre rules in
+// both directions (for the tests).
+func (mf *mixedField) familyAreaByQuadrature() float64 {
+	pr := mf.pr
+	ycuts := []float64{0}
+	for _, me := range mf.ms.edges {
+		if me.side == problem.Left || me.side == problem.Right {
+			ycuts = append(ycuts, me.meets...)
+		}
+	}
+	ycuts = append(ycuts, pr.H)
+	slices.Sort(ycuts)
+	inner := func(x float64) float64 {
+		sum := 0.0
+		for k := 0; k+1 < len(ycuts); k++ {
+			if ycuts[k+1] > ycuts[k] {
+				sum += gradedGauss(func(y float64) float64 {
+					u, _, _ := mf.ms.famSum(mf.x, x, y)
+					return u
+				}, ycuts[k], ycuts[k+1], 20, gl16x, gl16w)
+			}
+		}
+		return sum
+	}
+	cuts := []float64{0}
+	for _, me := range mf.ms.edges {
+		if me.side == problem.Bottom || me.side == problem.Top {
+			cuts = append(cuts, me.meets...)
+		}
+	}
+	cuts = append(cuts, pr.W)
+	slices.Sort(cuts)
+	sum := 0.0
+	for k := 0; k+1 < len(cuts); k++ {
+		if cuts[k+1] > cuts[k] {
+			sum += gradedGauss(inner, cuts[k], cuts[k+1], 20, gl16x, gl16w)
+		}
+	}
+	return sum
 }
 
 func (mf *mixedField) Terms() int { return mf.inner.Terms() }
