@@ -778,6 +778,12 @@ func (ms *mixedSolver) residual(me *mixedEdge, inner Field, x []float64, s float
 		}
 	}
 	part := me.e.Parts[i]
+	if part.Kind == problem.Flux {
+		if base {
+			return in - part.F(s)
+		}
+		return in
+	}
 	// the trace of u: the span's inner data plus the family
 	u := fu
 	for k := range me.spans {
@@ -786,12 +792,6 @@ func (ms *mixedSolver) residual(me *mixedEdge, inner Field, x []float64, s float
 			v, _ := sp.spanV(x, ms.condValues(sp, x, base), s)
 			u += v
 		}
-	}
-	if part.Kind == problem.Flux {
-		if base {
-			return in - part.F(s)
-		}
-		return in
 	}
 	h := part.Hc(s)
 	if base {

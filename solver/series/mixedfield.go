@@ -284,12 +284,17 @@ func (mf *mixedField) computeParts(e problem.Side) []PartResult {
 			}
 		}
 		pts = append(pts, b)
+		in := func(s float64) float64 {
+			x, y := pr.Point(e, s)
+			_, ix, iy := mf.inner.At(x, y)
+			return entering(pr, e, ix, iy)
+		}
 		for k := 0; k+1 < len(pts); k++ {
-			r.Flow += gradedGauss(func(s float64) float64 {
-				x, y := pr.Point(e, s)
-				_, ix, iy := mf.inner.At(x, y)
-				return entering(pr, e, ix, iy)
-			}, pts[k], pts[k+1], 40, gl16x, gl16w)
+			if mf.smoothBetween(e, pts[k], pts[k+1]) {
+				r.Flow += panelGauss(in, pts[k], pts[k+1])
+				continue
+			}
+			r.Flow += gradedGauss(in, pts[k], pts[k+1], 40, gl16x, gl16w)
 		}
 		if mf.ms != nil {
 			r.Flow += mf.famFlow(e, a, b)
@@ -297,6 +302,33 @@ func (mf *mixedField) computeParts(e problem.Side) []PartResult {
 		out[i] = r
 	}
 	return out
+}
+
+// smoothBetween reports whether the inner problem's flux is smooth over
+// [a, b] of mixed edge e up to its ends: both ends are meetings of the
+// edge, where the inner data are smooth to the third derivative by
+// construction (a corner, or a break of the user's data, may put a
+// logarithm into the flux there, which gradedGauss resolves).
+func (mf *mixedField) smoothBetween(e problem.Side, a, b float64) bool {
+	if mf.ms == nil || mf.ms.bySide[e] == nil {
+		return false
+	}
+	me := mf.ms.bySide[e]
+	meet := func(s float64) bool { return slices.Contains(me.meets, s) }
+	return meet(a) && meet(b)
+}
+
+// panelGauss integrates a smooth f over [a, b] by 16-point Gauss-Legendre
+// rules on four panels.
+func panelGauss(f func(float64) float64, a, b float64) float64 {
+	sum := 0.0
+	for p := 0; p < 4; p++ {
+		lo, hi := a+(b-a)*float64(p)/4, a+(b-a)*float64(p+1)/4
+		for i, x := range gl16x {
+			sum += gl16w[i] * (hi - lo) / 2 * f(lo+(hi-lo)*(x+1)/2)
+		}
+	}
+	return sum
 }
 
 // partFinite reports whether part i of edge e has a finite flow: not when
