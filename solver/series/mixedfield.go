@@ -227,11 +227,18 @@ func (mf *mixedField) Grid(nx, ny int, u, ux, uy []float64) {
 // quadrature.
 func (mf *mixedField) famFlow(e problem.Side, a, b float64) float64 {
 	ms := mf.ms
-	q := gradedGauss(func(s float64) float64 {
-		x, y := ms.pr.Point(e, s)
-		_, fx, fy := ms.famSum(mf.x, x, y, ms.bySide[e])
-		return entering(ms.pr, e, fx, fy)
-	}, a, b, 40, gl16x, gl16w)
+	q := 0.0
+	others := false // families of other edges, smooth here but steep near a corner
+	for _, me := range ms.edges {
+		others = others || (me.fam != nil && me.side != e)
+	}
+	if others {
+		q = gradedGauss(func(s float64) float64 {
+			x, y := ms.pr.Point(e, s)
+			_, fx, fy := ms.famSum(mf.x, x, y, ms.bySide[e])
+			return entering(ms.pr, e, fx, fy)
+		}, a, b, 40, gl16x, gl16w)
+	}
 	if me := ms.bySide[e]; me != nil && me.fam != nil {
 		fm := me.fam
 		var g1, g2 [64]float64
@@ -290,11 +297,9 @@ func (mf *mixedField) computeParts(e problem.Side) []PartResult {
 			return entering(pr, e, ix, iy)
 		}
 		for k := 0; k+1 < len(pts); k++ {
-			if mf.smoothBetween(e, pts[k], pts[k+1]) {
-				r.Flow += panelGauss(in, pts[k], pts[k+1])
-				continue
-			}
-			r.Flow += gradedGauss(in, pts[k], pts[k+1], 40, gl16x, gl16w)
+			// graded only towards an end where the flux may have a
+			// logarithm: a corner or a break of the user's data
+			r.Flow += gradedTowards(in, pts[k], pts[k+1], !mf.isMeet(e, pts[k]), !mf.isMeet(e, pts[k+1]))
 		}
 		if mf.ms != nil {
 			r.Flow += mf.famFlow(e, a, b)
@@ -304,28 +309,40 @@ func (mf *mixedField) computeParts(e problem.Side) []PartResult {
 	return out
 }
 
-// smoothBetween reports whether the inner problem's flux is smooth over
-// [a, b] of mixed edge e up to its ends: both ends are meetings of the
-// edge, where the inner data are smooth to the third derivative by
-// construction (a corner, or a break of the user's data, may put a
-// logarithm into the flux there, which gradedGauss resolves).
-func (mf *mixedField) smoothBetween(e problem.Side, a, b float64) bool {
-	if mf.ms == nil || mf.ms.bySide[e] == nil {
-		return false
-	}
-	me := mf.ms.bySide[e]
-	meet := func(s float64) bool { return slices.Contains(me.meets, s) }
-	return meet(a) && meet(b)
+// isMeet reports whether s is a meeting of mixed edge e, where the inner
+// data are smooth to the third derivative by construction (a corner, or a
+// break of the user's data, may put a logarithm into the flux instead).
+func (mf *mixedField) isMeet(e problem.Side, s float64) bool {
+	return mf.ms != nil && mf.ms.bySide[e] != nil && slices.Contains(mf.ms.bySide[e].meets, s)
 }
 
-// panelGauss integrates a smooth f over [a, b] by 16-point Gauss-Legendre
-// rules on four panels.
-func panelGauss(f func(float64) float64, a, b float64) float64 {
+// gradedTowards integrates f over [a, b] by 16-point Gauss-Legendre rules
+// on panels halving towards the flagged ends down to (b - a) 2^-40 (for an
+// integrable logarithm there), and on four even panels when neither is
+// flagged (a smooth integrand).
+func gradedTowards(f func(float64) float64, a, b float64, atA, atB bool) float64 {
+	const depth = 40
+	L := b - a
+	pts := []float64{a}
+	if atA {
+		for k := depth; k >= 3; k-- {
+			pts = append(pts, a+math.Ldexp(L, -k))
+		}
+	}
+	for p := 1; p < 4; p++ {
+		pts = append(pts, a+L*float64(p)/4)
+	}
+	if atB {
+		for k := 3; k <= depth; k++ {
+			pts = append(pts, b-math.Ldexp(L, -k))
+		}
+	}
+	pts = append(pts, b)
 	sum := 0.0
-	for p := 0; p < 4; p++ {
-		lo, hi := a+(b-a)*float64(p)/4, a+(b-a)*float64(p+1)/4
-		for i, x := range gl16x {
-			sum += gl16w[i] * (hi - lo) / 2 * f(lo+(hi-lo)*(x+1)/2)
+	for i := 0; i+1 < len(pts); i++ {
+		m, r := (pts[i]+pts[i+1])/2, (pts[i+1]-pts[i])/2
+		for q := range gl16x {
+			sum += gl16w[q] * r * f(m+r*gl16x[q])
 		}
 	}
 	return sum
