@@ -239,54 +239,48 @@
     return t;
   }
 
-  // sigmaPlot draws a surface charge density along an electrode part.
-  function sigmaPlot(e, L, ls) {
-    const c = el("canvas", { id: "ans-sigma-" + e.part.replace(/\W/g, ""), width: "280", height: "70", role: "img" });
+  // linePlot draws values v along places s on a small canvas with a zero
+  // line: stroke colour, and fill (or null) for the area under the curve.
+  function linePlot(id, s, v, stroke, fill, label) {
+    const c = el("canvas", { id, width: "280", height: "70", role: "img" });
     const ctx = EW.sizeCanvas(c, 280, 70);
     ctx.fillStyle = "#fbfaf6";
     ctx.fillRect(0, 0, 280, 70);
-    const s = e.s || [], v = e.sigma || [];
     let lo = Math.min(0, ...v), hi = Math.max(0, ...v);
     if (!(hi > lo)) hi = lo + 1;
     const px = (x) => 4 + ((x - s[0]) / ((s[s.length - 1] - s[0]) || 1)) * 272;
     const py = (y) => 62 - ((y - lo) / (hi - lo)) * 56;
     ctx.strokeStyle = "#d8d3c7";
     ctx.beginPath(); ctx.moveTo(4, py(0)); ctx.lineTo(276, py(0)); ctx.stroke();
-    ctx.strokeStyle = "#7a1f4d";
+    if (fill) {
+      ctx.fillStyle = fill;
+      ctx.beginPath(); ctx.moveTo(px(s[0]), py(0));
+      v.forEach((y, i) => ctx.lineTo(px(s[i]), py(y)));
+      ctx.lineTo(px(s[s.length - 1]), py(0)); ctx.closePath(); ctx.fill();
+    }
+    ctx.strokeStyle = stroke;
     ctx.lineWidth = 1.6;
     ctx.beginPath();
     v.forEach((y, i) => (i ? ctx.lineTo(px(s[i]), py(y)) : ctx.moveTo(px(s[i]), py(y))));
     ctx.stroke();
-    c.setAttribute("aria-label", "Surface charge density along " + e.part + " from s = " + n(s[0] * ls, 3) + " to " + n(s[s.length - 1] * ls, 3) + " " + L +
-      ": least " + n(Math.min(...v), 4) + ", greatest " + n(Math.max(...v), 4) + " C/m².");
+    c.setAttribute("aria-label", label);
     return c;
+  }
+
+  // sigmaPlot draws a surface charge density along an electrode part.
+  function sigmaPlot(e, L, ls) {
+    const s = e.s || [], v = e.sigma || [];
+    return linePlot("ans-sigma-" + e.part.replace(/\W/g, ""), s, v, "#7a1f4d", null,
+      "Surface charge density along " + e.part + " from s = " + n(s[0] * ls, 3) + " to " + n(s[s.length - 1] * ls, 3) + " " + L +
+      ": least " + n(Math.min(...v), 4) + ", greatest " + n(Math.max(...v), 4) + " C/m².");
   }
 
   // pressurePlot draws the pore pressure along an impervious base.
   function pressurePlot(up, L, ls) {
-    const c = el("canvas", { id: "ans-pressure-" + up.part.replace(/\W/g, ""), width: "280", height: "70", role: "img" });
-    const ctx = EW.sizeCanvas(c, 280, 70);
-    ctx.fillStyle = "#fbfaf6";
-    ctx.fillRect(0, 0, 280, 70);
     const s = up.s || [], v = up.pressure || [];
-    let lo = Math.min(0, ...v), hi = Math.max(0, ...v);
-    if (!(hi > lo)) hi = lo + 1;
-    const px = (x) => 4 + ((x - s[0]) / ((s[s.length - 1] - s[0]) || 1)) * 272;
-    const py = (y) => 62 - ((y - lo) / (hi - lo)) * 56;
-    ctx.strokeStyle = "#d8d3c7";
-    ctx.beginPath(); ctx.moveTo(4, py(0)); ctx.lineTo(276, py(0)); ctx.stroke();
-    ctx.fillStyle = "rgba(46, 94, 110, 0.25)";
-    ctx.beginPath(); ctx.moveTo(px(s[0]), py(0));
-    v.forEach((y, i) => ctx.lineTo(px(s[i]), py(y)));
-    ctx.lineTo(px(s[s.length - 1]), py(0)); ctx.closePath(); ctx.fill();
-    ctx.strokeStyle = "#2e5e6e";
-    ctx.lineWidth = 1.6;
-    ctx.beginPath();
-    v.forEach((y, i) => (i ? ctx.lineTo(px(s[i]), py(y)) : ctx.moveTo(px(s[i]), py(y))));
-    ctx.stroke();
-    c.setAttribute("aria-label", "Pore pressure under " + up.part + " from x = " + n(s[0] * ls, 3) + " to " + n(s[s.length - 1] * ls, 3) + " " + L +
+    return linePlot("ans-pressure-" + up.part.replace(/\W/g, ""), s, v, "#2e5e6e", "rgba(46, 94, 110, 0.25)",
+      "Pore pressure under " + up.part + " from x = " + n(s[0] * ls, 3) + " to " + n(s[s.length - 1] * ls, 3) + " " + L +
       ": " + n(v[0], 4) + " kPa at its start, " + n(v[v.length - 1], 4) + " kPa at its end, least " + n(Math.min(...v), 4) + ", greatest " + n(Math.max(...v), 4) + " kPa.");
-    return c;
   }
 
   function render(S) {
