@@ -61,7 +61,7 @@
         el("th", { scope: "row", text: p.label }),
         el("td", { text: at(S, p) }),
         value,
-        ...EW.probeCells(p, S, gx, gy, qx, qy),
+        ...EW.probeCells(p, S, gx, gy, qx, qy, hit && hit.gradient_none),
         el("td", {}, button)));
     }
   }

@@ -40,9 +40,17 @@
   // the probes table: the size of the gradient, as the column heading
   // says; the flux as its components x, y; and for a probe on an edge the
   // normal flux INTO the region there, the convention of the edge flows.
-  EW.probeCells = function (p, S, gx, gy, qx, qy) {
+  EW.probeCells = function (p, S, gx, gy, qx, qy, why) {
     const td = (text, cls) => { const c = document.createElement("td"); c.className = cls; c.textContent = text; return c; };
     const u = S.units || {};
+    if (typeof gx !== "number" || typeof gy !== "number" || !Number.isFinite(gx) || !Number.isFinite(gy)) {
+      // no value there (null in the result): say so, and why, never a number
+      const g = td("unbounded", "num unbounded");
+      g.title = why || "the gradient has no value at this point";
+      const f = td("–", "num flux");
+      f.append(Object.assign(document.createElement("span"), { className: "why", textContent: why || "" }));
+      return [g, f];
+    }
     const grad = td(EW.num(EW.dd(u, "gradient", Math.hypot(gx, gy)), 4), "num");
     const q = Math.hypot(qx, qy);
     // a component below 1e-9 of the flux is rounding noise

@@ -52,6 +52,9 @@ type ProbeResult struct {
 	Value    float64    `json:"value"`
 	Gradient [2]float64 `json:"gradient"`
 	Flux     [2]float64 `json:"flux"`
+	// Unbounded says, when the gradient has no value at the probe (null),
+	// why: the probe sits where the boundary data jump or change kind.
+	Unbounded string `json:"gradient_none,omitempty"`
 }
 
 // EdgeFlows holds the flow through each edge, indexed by problem.Side; the
@@ -117,6 +120,9 @@ func (r *Result) JSON() []byte {
 		w.Open('{').Key("label").Str(q.Label).Key("x").Num(q.X).Key("y").Num(q.Y).Key("value").Num(q.Value)
 		w.Key("gradient").Open('[').Num(q.Gradient[0]).Num(q.Gradient[1]).Close(']')
 		w.Key("flux").Open('[').Num(q.Flux[0]).Num(q.Flux[1]).Close(']')
+		if q.Unbounded != "" {
+			w.Key("gradient_none").Str(q.Unbounded)
+		}
 		w.Close('}')
 	}
 	w.Close(']')

@@ -90,6 +90,11 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	out := &Output{W: pr.W, H: pr.H, Nx: nx, Ny: ny, U: s.u, Ux: s.ux, Uy: s.uy, field: f, kx: pr.Kx, ky: pr.Ky}
 	settleCorners(pr, out, breaks)
 	out.Result = report(p, pr, f, out)
+	for i, q := range out.Result.Probes {
+		if q.Gradient[0]-q.Gradient[0] != 0 || q.Gradient[1]-q.Gradient[1] != 0 {
+			out.Result.Probes[i].Unbounded = unboundedAt(pr, breaks, q.X, q.Y)
+		}
+	}
 	checkConverged(pr, &out.Result)
 	if out.Result.Accuracy.Converged {
 		out.Result.Answers = answers(p, pr, f, out, breaks)
@@ -238,4 +243,36 @@ func extremes(pr *problem.Problem, f field, out *Output) (lo, hi Extreme) {
 		return e
 	}
 	return at(ilo, -1), at(ihi, 1)
+}
+
+// unboundedAt says why the gradient has no value at (x, y): which break of
+// the boundary data is there.
+func unboundedAt(pr *problem.Problem, breaks []series.Break, x, y float64) string {
+	corners := [4][2]float64{{0, 0}, {pr.W, 0}, {pr.W, pr.H}, {0, pr.H}}
+	near := func(a, b [2]float64) bool {
+		return math.Abs(a[0]-b[0]) <= 1e-9*pr.W && math.Abs(a[1]-b[1]) <= 1e-9*pr.H
+	}
+	at := [2]float64{x, y}
+	for _, b := range breaks {
+		switch b.Class {
+		case series.CornerBreak:
+			if near(at, corners[b.Corner]) {
+				return "unbounded: two prescribed values that differ meet at this corner (the gradient grows like 1/r); move the probe off it"
+			}
+		case series.ValueBreak, series.PartMeet:
+			bx, by := pr.Point(b.Side, b.S)
+			if near(at, [2]float64{bx, by}) {
+				if b.Class == series.PartMeet {
+					return "unbounded: a held part of the edge meets another kind here (the gradient grows like r^-1/2); move the probe off it"
+				}
+				return "unbounded: the prescribed value jumps here (the gradient grows like 1/r); move the probe off it"
+			}
+		}
+	}
+	for _, c := range corners {
+		if near(at, c) {
+			return "unbounded: the data of the two edges disagree at this corner (the gradient grows like log r); move the probe off it"
+		}
+	}
+	return "unbounded here: the boundary data jump or change kind at this point; move the probe off it"
 }

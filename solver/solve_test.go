@@ -137,3 +137,28 @@ func mustSolve(t *testing.T, text string, opt Options) (*project.Project, *Outpu
 	}
 	return p, out
 }
+
+// A probe where the gradient is unbounded says why, in one line: at a
+// corner where two prescribed values differ, and where a held part meets
+// an insulated one; a probe where it is finite says nothing.
+func TestProbeGradientNoneSaysWhy(t *testing.T) {
+	p, err := project.Decode([]byte(`{"schema":"edgewise/1","physics":"heat","width":2,"height":1,"conductivity":1,
+	 "edges":{"bottom":{"segments":[{"to":1,"kind":"value","expr":"0"},{"kind":"flux","expr":"0"}]},"right":{"kind":"value","expr":"500"},
+	 "top":{"kind":"flux","expr":"0"},"left":{"kind":"value","expr":"100"}},
+	 "probes":[{"x":0,"y":0},{"x":1,"y":0},{"x":1,"y":0.5}]}`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var s Solver
+	out, err := s.Solve(p, Options{Nx: 20, Ny: 10, NoCrossCheck: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	pr := out.Result.Probes
+	if !strings.Contains(pr[0].Unbounded, "corner") || !strings.Contains(pr[1].Unbounded, "r^-1/2") || pr[2].Unbounded != "" {
+		t.Errorf("reasons %q, %q, %q", pr[0].Unbounded, pr[1].Unbounded, pr[2].Unbounded)
+	}
+	if !strings.Contains(string(out.Result.JSON()), `"gradient_none":"unbounded: a held part`) {
+		t.Errorf("the JSON lacks the reason: %s", out.Result.JSON())
+	}
+}

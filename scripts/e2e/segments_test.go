@@ -249,3 +249,25 @@ func TestSegmentExamplesOffered(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// A probe where the gradient has no value (where a held part meets an
+// insulated one) shows "unbounded" and why, never a number; a probe beside
+// it shows its gradient.
+func TestProbeUnboundedSaysWhy(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, `{"schema":"edgewise/1","title":"meet","physics":"heat","width":2,"height":1,"conductivity":1,
+	  "edges":{"bottom":{"segments":[{"to":1,"kind":"value","expr":"0"},{"kind":"flux","expr":"0"}]},"right":{"kind":"value","expr":"500"},
+	  "top":{"kind":"flux","expr":"0"},"left":{"kind":"flux","expr":"0"}},
+	  "probes":[{"x":1,"y":0,"label":"M"},{"x":1,"y":0.5,"label":"A"}]}`)
+	row := func(label string) string {
+		return eval[string](t, tb, `(document.querySelector('#probes tr[data-label="`+label+`"]') || {}).textContent || ""`)
+	}
+	if got := row("M"); !strings.Contains(got, "unbounded") || !strings.Contains(got, "r^-1/2") {
+		t.Errorf("probe at the meeting shows %q, want unbounded and why", got)
+	}
+	if got := row("A"); strings.Contains(got, "unbounded") {
+		t.Errorf("probe above the meeting shows %q, want its gradient", got)
+	}
+	tb.noErrors(t)
+}
