@@ -59,13 +59,13 @@ func TestMixedTwoStrips(t *testing.T) {
 		worst = max(worst, math.Abs(u-ex.Value(xy[0], xy[1])))
 	}
 	t.Logf("worst value error %.3g, estimate %.3g, terms %d", worst, f.ErrorEstimate(), f.Terms())
-	if worst > 1e-5 || worst > f.ErrorEstimate() {
+	if worst > 1e-6 || worst > f.ErrorEstimate() {
 		t.Errorf("worst value error %.3g (estimate %.3g)", worst, f.ErrorEstimate())
 	}
 	parts := PartsOf(f, pr, problem.Top)
 	want := ex.FlowThrough(problem.Top, 0.3, 0.7)
 	t.Logf("top strip flow %.12g, exact %.12g, conductance %.12g", parts[1].Flow, want, ex.Conductance())
-	if math.Abs(parts[1].Flow-want) > 1e-5*math.Abs(want) {
+	if math.Abs(parts[1].Flow-want) > 1e-6*math.Abs(want) {
 		t.Errorf("top strip flow %.12g, exact %.12g", parts[1].Flow, want)
 	}
 	for _, w := range f.Warnings() {
