@@ -69,6 +69,8 @@ const (
 	mixedRowsPer   = 3     // collocation points per unknown of a span
 	mixedRcond     = 1e-10 // singular values treated as zero, relative
 	mixedCheckEach = 4     // check places per collocation interval
+	// a level beyond the first is tried only up to this many unknowns
+	mixedMaxUnknowns = 200
 	// each unknown's response: its errors enter the fit, which the check
 	// of the final field measures; the final field is solved to Options.Tol
 	mixedResponseTol   = 1e-9
@@ -229,6 +231,9 @@ func solveMixed(p *problem.Problem, opt Options) (Field, error) {
 	opt.cache = newProjCache()
 	for level := range mixedLevels {
 		ms := newMixedSolver(q, opt, level)
+		if level > 0 && ms.n > mixedMaxUnknowns {
+			break // many meetings: the first level's answer stands, with its estimate
+		}
 		mf, err := ms.solve()
 		if err != nil {
 			return nil, err
@@ -256,6 +261,19 @@ func solveMixed(p *problem.Problem, opt Options) (Field, error) {
 func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 	ms := &mixedSolver{pr: p, opt: opt}
 	lv := mixedLevels[level]
+	// many meetings (up to 63 on an edge of 64 segments): fewer functions
+	// each, so that the fit stays a few hundred unknowns
+	meets := 0
+	for _, e := range p.Edges {
+		for i := 1; i < len(e.Parts); i++ {
+			if (e.Parts[i].Kind == problem.Value) != (e.Parts[i-1].Kind == problem.Value) {
+				meets++
+			}
+		}
+	}
+	if meets > 6 {
+		lv.poly, lv.perMeet = 6, 1
+	}
 	c := math.Sqrt(p.Kx / p.Ky)
 	for _, side := range problem.Sides {
 		e := p.Edges[side]
@@ -408,8 +426,8 @@ func (sp *span) spanV(x, d []float64, s float64) (v, dv float64) {
 		v += d[c] * pv
 		dv += d[c] * pd
 	}
-	var t, dt [64]float64
-	cheb(tau, t[:sp.m], dt[:sp.m])
+	t, dt := make([]float64, sp.m), make([]float64, sp.m)
+	cheb(tau, t, dt)
 	b := math.Pow(1+tau, float64(sp.pl)) * math.Pow(1-tau, float64(sp.ph))
 	db := 0.0
 	if sp.pl > 0 {
@@ -429,28 +447,16 @@ func (sp *span) spanV(x, d []float64, s float64) (v, dv float64) {
 // famSum evaluates, at (x, y), the family members of every mixed edge but
 // skip, weighted by x, and returns their sum and its gradient.
 func (ms *mixedSolver) famSum(x []float64, px, py float64, skip ...*mixedEdge) (u, ux, uy float64) {
-	var f, fx, fy [64]float64
 	for _, me := range ms.edges {
 		if me.fam == nil || (len(skip) > 0 && skip[0] == me) {
 			continue
 		}
-		if len(skip) == 0 {
-			fm := me.fam
-			t, d := fm.fr.at(px, py)
-			g, gt, gd := fm.sum(t, d, x[me.famOff:me.famOff+fm.n])
-			u += g
-			ux += gt*fm.fr.tx + gd*fm.fr.dx
-			uy += gt*fm.fr.ty + gd*fm.fr.dy
-			continue
-		}
-		n := me.fam.n
-		me.fam.xy(px, py, f[:n], fx[:n], fy[:n])
-		for k := 0; k < n; k++ {
-			w := x[me.famOff+k]
-			if w != 0 {
-				u, ux, uy = u+w*f[k], ux+w*fx[k], uy+w*fy[k]
-			}
-		}
+		fm := me.fam
+		t, d := fm.fr.at(px, py)
+		g, gt, gd := fm.sum(t, d, x[me.famOff:me.famOff+fm.n])
+		u += g
+		ux += gt*fm.fr.tx + gd*fm.fr.dx
+		uy += gt*fm.fr.ty + gd*fm.fr.dy
 	}
 	return u, ux, uy
 }

@@ -241,9 +241,9 @@ func (mf *mixedField) famFlow(e problem.Side, a, b float64) float64 {
 	}
 	if me := ms.bySide[e]; me != nil && me.fam != nil {
 		fm := me.fam
-		var g1, g2 [64]float64
-		fm.conjugate(a*fm.ts, g1[:fm.n])
-		fm.conjugate(b*fm.ts, g2[:fm.n])
+		g1, g2 := make([]float64, fm.n), make([]float64, fm.n)
+		fm.conjugate(a*fm.ts, g1)
+		fm.conjugate(b*fm.ts, g2)
 		for k := 0; k < fm.n; k++ {
 			q += mf.x[me.famOff+k] * fm.kappa / fm.ts * (g2[k] - g1[k])
 		}
