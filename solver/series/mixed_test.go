@@ -449,3 +449,35 @@ func TestFamilyArea(t *testing.T) {
 		t.Errorf("family area %.15g exact, %.15g by quadrature", exact, quad)
 	}
 }
+
+// An edge of 24 parts (23 meetings, more than 64 singular functions): the
+// solve stays a few hundred unknowns, panics nowhere, and the parts'
+// flows add up to the edge's and balance the other edges.
+func TestMixedManyParts(t *testing.T) {
+	pr := &problem.Problem{W: 30, H: 10, Kx: 1, Ky: 1}
+	var ends, values []float64
+	var isValue []bool
+	for i := 0; i < 24; i++ {
+		if i < 23 {
+			ends = append(ends, 30*float64(i+1)/24)
+		}
+		values = append(values, 10-0.3*float64(i))
+		isValue = append(isValue, i%2 == 0)
+	}
+	pr.Edges[problem.Top] = partsEdge(ends, values, isValue)
+	pr.Edges[problem.Bottom], pr.Edges[problem.Left], pr.Edges[problem.Right] = insulatedEdge(), insulatedEdge(), insulatedEdge()
+	f := solveMixedTest(t, pr)
+	if mf := f.(*mixedField); mf.ms.n > 3*mixedMaxUnknowns {
+		t.Errorf("%d unknowns", mf.ms.n)
+	}
+	sum, in := 0.0, 0.0
+	for _, p := range PartsOf(f, pr, problem.Top) {
+		sum += p.Flow
+		in += max(p.Flow, 0)
+	}
+	q, _ := f.Flow(problem.Top)
+	if math.Abs(sum-q) > 1e-9*in || math.Abs(q) > 1e-6*in {
+		t.Errorf("parts sum to %g, the edge's flow %g (inflow %g): the section must balance", sum, q, in)
+	}
+	t.Logf("24 parts: inflow %.6g, net %.3g, estimate %.3g", in, q, f.ErrorEstimate())
+}
