@@ -141,19 +141,6 @@ func partMean(pr *problem.Problem, f field, q part) float64 {
 	return sum / (q.to - q.from)
 }
 
-// entering returns the flux entering the region at (x, y) on edge side.
-func entering(pr *problem.Problem, side problem.Side, ux, uy float64) float64 {
-	switch side {
-	case problem.Bottom:
-		return -pr.Ky * uy
-	case problem.Top:
-		return pr.Ky * uy
-	case problem.Left:
-		return -pr.Kx * ux
-	}
-	return pr.Kx * ux
-}
-
 // uniform reports whether a value part holds one value, and which.
 func uniform(pr *problem.Problem, q part) (float64, bool) {
 	const n = 64

@@ -6,6 +6,7 @@ import (
 
 	"edgewise/solver/contour"
 	"edgewise/solver/problem"
+	"edgewise/solver/series"
 )
 
 // The flow net: flow lines drawn so that each channel between two
@@ -140,7 +141,7 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, l
 	psi = make([]float64, (nx+1)*(ny+1))
 	nodes, sides := boundaryWalk(nx, ny)
 	leaving := func(k int, side problem.Side) float64 {
-		q := -entering(pr, side, out.Ux[k], out.Uy[k])
+		q := -series.Entering(pr, side, out.Ux[k], out.Uy[k])
 		if q-q != 0 { // a corner node with no gradient of its own: the edge's flow corrects the sum
 			return 0
 		}

@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"edgewise/solver/problem"
+	"edgewise/solver/series"
 )
 
 // With a source no flow function exists: the flow grows along its path.
@@ -22,7 +23,7 @@ func (o *Output) traceFlowLines(pr *problem.Problem, channels int, outflow float
 	hx, hy := o.W/float64(nx), o.H/float64(ny)
 	nodes, sides := boundaryWalk(nx, ny)
 	leaving := func(k int, side problem.Side) float64 {
-		q := -entering(pr, side, o.Ux[k], o.Uy[k])
+		q := -series.Entering(pr, side, o.Ux[k], o.Uy[k])
 		if q-q != 0 { // a corner node with no gradient of its own
 			return 0
 		}

@@ -7,6 +7,7 @@ import (
 	"edgewise/solver/physics"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
+	"edgewise/solver/series"
 )
 
 // HeatAnswers are the answers of a heat problem.
@@ -157,7 +158,7 @@ func electroAnswers(pr *problem.Problem, f field, out *Output, a *Answers, asked
 				s := q.from + (q.to-q.from)*(float64(i)+0.5)/profilePoints
 				x, y := pr.Point(side, s)
 				_, ux, uy := f.At(x, y)
-				el.S, el.Sigma = append(el.S, s), append(el.Sigma, entering(pr, side, ux, uy))
+				el.S, el.Sigma = append(el.S, s), append(el.Sigma, series.Entering(pr, side, ux, uy))
 			}
 			e.Electrodes = append(e.Electrodes, el)
 		}

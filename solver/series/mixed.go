@@ -488,7 +488,7 @@ func (ms *mixedSolver) inner(x []float64, base bool) *problem.Problem {
 			}
 			px, py := pr.Point(side, s)
 			u, ux, uy := ms.famSum(x, px, py)
-			return u, entering(pr, side, ux, uy)
+			return u, Entering(pr, side, ux, uy)
 		}
 		data := func(s float64) float64 {
 			if base {
@@ -774,7 +774,7 @@ func (ms *mixedSolver) residual(me *mixedEdge, inner Field, x []float64, s float
 	px, py := pr.Point(me.side, s)
 	_, ix, iy := inner.At(px, py)
 	fu, fx, fy := ms.famSum(x, px, py)
-	in := entering(pr, me.side, ix+fx, iy+fy)
+	in := Entering(pr, me.side, ix+fx, iy+fy)
 	i := me.e.PartAt(s)
 	if me.value[i] { // at a span's end: the span's part
 		if i > 0 && !me.value[i-1] {

@@ -298,7 +298,7 @@ func TestMixedManufactured(t *testing.T) {
 			return func(s float64) float64 {
 				x, y := pr.Point(side, s)
 				u, ux, uy := exact(x, y)
-				in := entering(pr, side, ux, uy)
+				in := Entering(pr, side, ux, uy)
 				switch kind {
 				case problem.Value:
 					return u

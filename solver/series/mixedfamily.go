@@ -187,8 +187,9 @@ func (fm *family) conjugate(t float64, g []float64) {
 	}
 }
 
-// entering turns a gradient into the flux entering through edge e.
-func entering(pr *problem.Problem, e problem.Side, ux, uy float64) float64 {
+// Entering turns a gradient into the flux entering the region through edge
+// e (see package problem for the convention).
+func Entering(pr *problem.Problem, e problem.Side, ux, uy float64) float64 {
 	switch e {
 	case problem.Bottom:
 		return -pr.Ky * uy

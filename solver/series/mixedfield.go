@@ -236,7 +236,7 @@ func (mf *mixedField) famFlow(e problem.Side, a, b float64) float64 {
 		q = gradedGauss(func(s float64) float64 {
 			x, y := ms.pr.Point(e, s)
 			_, fx, fy := ms.famSum(mf.x, x, y, ms.bySide[e])
-			return entering(ms.pr, e, fx, fy)
+			return Entering(ms.pr, e, fx, fy)
 		}, a, b, 40, gl16x, gl16w)
 	}
 	if me := ms.bySide[e]; me != nil && me.fam != nil {
@@ -294,7 +294,7 @@ func (mf *mixedField) computeParts(e problem.Side) []PartResult {
 		in := func(s float64) float64 {
 			x, y := pr.Point(e, s)
 			_, ix, iy := mf.inner.At(x, y)
-			return entering(pr, e, ix, iy)
+			return Entering(pr, e, ix, iy)
 		}
 		for k := 0; k+1 < len(pts); k++ {
 			// graded only towards an end where the flux may have a

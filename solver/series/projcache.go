@@ -4,7 +4,6 @@ import (
 	"math"
 	"sync"
 
-	"edgewise/solver/gauss"
 	"edgewise/solver/series/basis"
 )
 
@@ -48,21 +47,7 @@ func (c *projCache) project(b *basis.Basis, r func(s float64) float64, n int, ds
 	c.mu.Unlock()
 	if tab == nil {
 		tab = &projTab{}
-		q := n + 32
-		xs, ws := make([]float64, q), make([]float64, q)
-		lo := 0.0
-		for k := 0; k <= len(breaks); k++ {
-			hi := b.L
-			if k < len(breaks) {
-				hi = breaks[k]
-			}
-			if hi <= lo {
-				continue
-			}
-			gauss.Legendre(xs, ws, lo, hi)
-			lo = hi
-			tab.xs, tab.ws = append(tab.xs, xs...), append(tab.ws, ws...)
-		}
+		tab.xs, tab.ws = projectionRule(b.L, n, breaks)
 		tab.x = make([]float64, len(tab.xs)*n)
 		for j, s := range tab.xs {
 			row := tab.x[j*n : (j+1)*n]

@@ -170,46 +170,30 @@ func resize(s []float64, n int) []float64 {
 // project returns the first n generalised Fourier coefficients of r in
 // basis b by Gauss-Legendre quadrature with n+32 nodes.
 func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64, breaks []float64) []float64 {
-	q := n + 32
-	xs := make([]float64, q)
-	ws := make([]float64, q)
 	dst = resize(dst, n)
 	for i := range dst {
 		dst[i] = 0
 	}
+	xs, ws := projectionRule(b.L, n, breaks)
 	// the nodes and weighted data of a basis whose terms are not evenly
 	// spaced, gathered for robinProject
 	var nodes, wrs []float64
-	// one Gauss-Legendre rule per stretch between the flux breaks, so that
-	// a break costs the rule no accuracy
-	lo := 0.0
-	for k := 0; k <= len(breaks); k++ {
-		hi := b.L
-		if k < len(breaks) {
-			hi = breaks[k]
-		}
-		if hi <= lo {
+	for j, s := range xs {
+		wr := ws[j] * r(s)
+		if wr == 0 {
 			continue
 		}
-		gauss.Legendre(xs, ws, lo, hi)
-		lo = hi
-		for j, s := range xs {
-			wr := ws[j] * r(s)
-			if wr == 0 {
-				continue
+		if b.Uniform {
+			// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
+			sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
+			ds, dc := math.Sincos(math.Pi * s / b.L)
+			for i := 0; i < n; i++ {
+				dst[i] += wr * sn
+				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
 			}
-			if b.Uniform {
-				// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
-				sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
-				ds, dc := math.Sincos(math.Pi * s / b.L)
-				for i := 0; i < n; i++ {
-					dst[i] += wr * sn
-					sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
-				}
-				continue
-			}
-			nodes, wrs = append(nodes, s), append(wrs, wr)
+			continue
 		}
+		nodes, wrs = append(nodes, s), append(wrs, wr)
 	}
 	if len(nodes) > 0 {
 		robinProject(b, nodes, wrs, dst[:n])
@@ -218,6 +202,28 @@ func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64, br
 		dst[i] /= b.Norm[i]
 	}
 	return dst
+}
+
+// projectionRule returns the nodes and weights of the projection of n
+// terms over [0, L]: one Gauss-Legendre rule of n+32 nodes per stretch
+// between the flux breaks, so that a break costs the rule no accuracy.
+func projectionRule(L float64, n int, breaks []float64) (xs, ws []float64) {
+	q := n + 32
+	x, w := make([]float64, q), make([]float64, q)
+	lo := 0.0
+	for k := 0; k <= len(breaks); k++ {
+		hi := L
+		if k < len(breaks) {
+			hi = breaks[k]
+		}
+		if hi <= lo {
+			continue
+		}
+		gauss.Legendre(x, w, lo, hi)
+		lo = hi
+		xs, ws = append(xs, x...), append(ws, w...)
+	}
+	return xs, ws
 }
 
 // tailEstimate estimates the largest error of u left by truncating after
