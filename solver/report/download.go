@@ -21,7 +21,7 @@ const (
 	// EdgesCSV lists every edge's parts (one for a one-condition edge):
 	// where each runs, its kind, the flow into the region and its mean.
 	EdgesCSV = "edges-csv"
-	Picture   = "svg"
+	Picture  = "svg"
 	// ProfileCSV is the line profile PictureOptions.Profile asks for.
 	ProfileCSV = "profile-csv"
 )

@@ -271,7 +271,7 @@ func sqrtC(w complex128) complex128 {
 // area returns the integral over the region of sum_k a_k F_k, exactly: in
 // the frame (t along the edge, d across, dx dy = dt dd / c, c the
 // orthotropic stretch) the region is [0, Lm] x [0, depth], zeta runs over
-// [-1, 1] x [0, depth/half], and with Q'' = G
+// [-1, 1] x [0, depth/half], and with Q” = G
 //
 //	int int Re G dxi deta = Im(Q(1 + i e) - Q(-1 + i e) - Q(1) + Q(-1)),  e = depth/half,
 //
