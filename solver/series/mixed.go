@@ -620,9 +620,11 @@ func (ms *mixedSolver) holdSteps(me *mixedEdge) {
 			continue
 		}
 		if (hold(a) && weak(b)) || (weak(a) && hold(b)) {
-			me.meets = append(me.meets, a.to)
-			me.before = append(me.before, hold(a))
-			me.logs = append(me.logs, false)
+			// like a value part meeting a flux part beyond the distance k/h,
+			// a step of flux within it: both families
+			me.meets = append(me.meets, a.to, a.to)
+			me.before = append(me.before, hold(a), false)
+			me.logs = append(me.logs, false, true)
 			continue
 		}
 		// any other step of kind, h, flux or ambient: the flux into the
@@ -756,6 +758,9 @@ func (me *mixedEdge) places(sp *span, n int) []float64 {
 	var s []float64
 	for k := 0; k+1 < len(cuts); k++ {
 		a, b := cuts[k], cuts[k+1]
+		if b <= a {
+			continue // two kinds of functions at one meeting
+		}
 		m := max(6, int(math.Round(float64(n)*(b-a)/(sp.to-sp.from))))
 		for i := 0; i < m; i++ {
 			tau := -math.Cos(math.Pi * (float64(i) + 0.5) / float64(m))
