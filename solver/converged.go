@@ -74,13 +74,22 @@ func boundingData(pr *problem.Problem, x, y float64) (float64, bool) {
 	return 0, false
 }
 
-// checkConverged sets r.Accuracy.Converged: false, with a warning, when
+// checkConverged sets r.Accuracy.Converged: false when the engine has
+// already warned that it did not converge, and false with a warning when
 // the field's extremes leave the range the maximum principle allows (by
 // more than twice the estimate, or 1e-9 of the range for rounding) or a
 // series stopped at its term limit with an estimate above
 // unconvergedEstimate of the field's range.
 func checkConverged(pr *problem.Problem, r *Result) {
 	r.Accuracy.Converged = true
+	for _, w := range r.Warnings {
+		if w.Code == problem.NotConverged {
+			// the engine says so itself (the fit of mixed edges missed
+			// its tolerance by far): its own warning says why
+			r.Accuracy.Converged = false
+			return
+		}
+	}
 	est := r.Accuracy.Estimate
 	if lo, hi, ok := dataRange(pr); ok {
 		// an extreme on a bounding edge may sit on a peak of its data
