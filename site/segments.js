@@ -115,7 +115,7 @@
           title: "Remove " + name.toLowerCase() + (i > 0 ? "; part " + i + " takes over its stretch" : "; part 2 takes over its stretch"), onclick: () => removePart(side, i) })),
       el("div", { class: "pair" },
         last ? el("p", { class: "part-end", id: id(side, i, "end") })
-          : el("label", { class: "row" }, el("span", {}, name + " ends at s ", el("i", { class: "u", "data-unit": "length" })), to),
+          : el("label", { class: "row" }, el("span", {}, name + " ends at s ", el("i", { class: "u", "data-si": "length" })), to),
         el("label", { class: "row" }, el("span", { text: name + " condition" }), kind)),
       el("div", { class: "f-expr" }, el("label", { class: "row" }, el("span", { class: "lbl-expr" }), expr)),
       el("div", { class: "f-conv pair" },
@@ -161,7 +161,9 @@
           : (labels.flux_in || (u.flux || "flux") + " in").toLowerCase() + unit(u.flux_unit));
         r.querySelector(".lbl-h").textContent = name + (u.coefficient || "h") + unit(u.coefficient_unit);
         r.querySelector(".lbl-amb").textContent = name + (labels.ambient || "ambient " + (u.value || "value")).toLowerCase() + unit(u.value_unit);
-        for (const i2 of r.querySelectorAll("[data-unit=length]")) i2.textContent = "[" + (u.length_unit || "m") + "]";
+        // the parts' numbers are read in SI whatever the display units (the
+        // page's relabel of [data-unit] must not reach them)
+        for (const i2 of r.querySelectorAll("[data-si=length]")) i2.textContent = "[" + (u.length_unit || "m") + "]";
       });
       froms(side);
     }

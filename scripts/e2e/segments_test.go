@@ -271,3 +271,25 @@ func TestProbeUnboundedSaysWhy(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// With lengths shown in mm, a part's end is still read and labelled in
+// metres (the parts' numbers are SI): the label says [m] and the file
+// keeps the number typed.
+func TestSegmentsUnderDisplayUnits(t *testing.T) {
+	tb := newTab(t)
+	tb.open(t, siteURL)
+	tb.loadProject(t, pools)
+	tb.splitTopByTyping(t)
+	tb.waitFor(t, `(() => { const p = window.edgewiseInternal.last(); return p && JSON.stringify(p.project.edges.top) === `+jsString(wantTopJSON)+`; })()`, "the solve of the split edge")
+	tb.chooseUnit(t, "length", "mm")
+	label := eval[string](t, tb, `document.querySelector("#parts-top > .part i.u").textContent`)
+	if label != "[m]" {
+		t.Errorf("a part's end is labelled %q, want [m] (it is read in metres)", label)
+	}
+	top := topEdge(t, tb).(map[string]any)
+	segs, _ := top["segments"].([]any)
+	if len(segs) != 3 || segs[0].(map[string]any)["to"] != 10.0 {
+		t.Errorf("top edge %v, want the first part to end at 10 (m), as typed", top)
+	}
+	tb.noErrors(t)
+}
