@@ -29,25 +29,15 @@ type PartResult struct {
 	Mean     float64 // average field value along the part
 }
 
-// PartsOf returns the parts of edge e of the solved problem pr: for a
-// mixed edge one entry per part, otherwise one for the whole edge (its
-// flow from f.Flow, its mean by quadrature of the field along it).
+// PartsOf returns the parts of the mixed edge e of the solved problem pr,
+// one entry per part (nil for an edge that is not mixed: its flow and mean
+// are the whole edge's).
 func PartsOf(f Field, pr *problem.Problem, e problem.Side) []PartResult {
-	if mf, ok := f.(*mixedField); ok && pr.Edges[e].Mixed() {
-		return mf.parts(e)
+	mf, ok := f.(*mixedField)
+	if !ok || !pr.Edges[e].Mixed() {
+		return nil
 	}
-	L := pr.Length(e)
-	q, fin := f.Flow(e)
-	mean := stretchMean(func(s float64) float64 {
-		x, y := pr.Point(e, s)
-		u, _, _ := f.At(x, y)
-		return u
-	}, 0, L, pr.Edges[e].Breaks)
-	kind := pr.Edges[e].Kind
-	if pr.Edges[e].Mixed() {
-		kind = pr.Edges[e].Parts[0].Kind
-	}
-	return []PartResult{{From: 0, To: L, Kind: kind, Flow: q, Finite: fin, Mean: mean}}
+	return mf.parts(e)
 }
 
 // stretchMean returns the mean of f over [a, b], split at the cuts inside,
