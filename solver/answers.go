@@ -100,13 +100,7 @@ func (q part) constH() (float64, bool) {
 	if q.hc == nil {
 		return 0, false
 	}
-	v := q.hc(q.from)
-	for i := 1; i <= 64; i++ {
-		if q.hc(q.from+(q.to-q.from)*float64(i)/64) != v {
-			return 0, false
-		}
-	}
-	return v, true
+	return series.ConstantH(q.hc, q.from, q.to)
 }
 
 // edgeRule returns Gauss-Legendre nodes and weights over [lo, hi] in

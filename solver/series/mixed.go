@@ -169,7 +169,7 @@ func simplify(p *problem.Problem) *problem.Problem {
 			k := part.Kind
 			if k == problem.Convection {
 				from, to := e.PartRange(i, L)
-				hc, constant := constantH(part.Hc, from, to)
+				hc, constant := ConstantH(part.Hc, from, to)
 				if constant && hc == 0 {
 					k = problem.Flux // insulated
 				} else if !constant || (h >= 0 && hc != h) {
@@ -199,8 +199,9 @@ func simplify(p *problem.Problem) *problem.Problem {
 	return &q
 }
 
-// constantH samples h over [from, to] and reports whether it is one number.
-func constantH(h func(float64) float64, from, to float64) (float64, bool) {
+// ConstantH samples h at 65 places over [from, to] and reports whether it
+// is one number, and which.
+func ConstantH(h func(float64) float64, from, to float64) (float64, bool) {
 	v := h(from)
 	for i := 1; i <= 64; i++ {
 		if h(from+(to-from)*float64(i)/64) != v {
