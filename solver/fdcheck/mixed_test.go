@@ -69,6 +69,18 @@ func mixedEdge(p *problem.Problem, e problem.Side, f field, specs []spec) {
 // of each edge of p (a 40-point Gauss-Legendre rule on each part of a
 // smooth field: exact to round-off).
 func exactPartFlows(p *problem.Problem, f field) [4][]float64 {
+	return perPart(p, func(e problem.Side, x, y, _ float64) float64 { return enteringFlux(p, f, e, x, y) })
+}
+
+// exactPartMeans returns the mean of field f along each part of each edge
+// of p (a 40-point Gauss-Legendre rule on each part of a smooth field).
+func exactPartMeans(p *problem.Problem, f field) [4][]float64 {
+	return perPart(p, func(_ problem.Side, x, y, length float64) float64 { return f.u(x, y) / length })
+}
+
+// perPart integrates g(edge, x, y, part length) along each part of each
+// edge of p by a 40-point Gauss-Legendre rule.
+func perPart(p *problem.Problem, g func(e problem.Side, x, y, length float64) float64) [4][]float64 {
 	var out [4][]float64
 	var xs, ws [40]float64
 	for _, e := range problem.Sides {
@@ -82,29 +94,7 @@ func exactPartFlows(p *problem.Problem, f field) [4][]float64 {
 			gauss.Legendre(xs[:], ws[:], from, to)
 			for k, s := range xs {
 				x, y := p.Point(e, s)
-				out[e][i] += ws[k] * enteringFlux(p, f, e, x, y)
-			}
-		}
-	}
-	return out
-}
-
-// exactPartMeans returns the mean of field f along each part of each edge
-// of p (a 40-point Gauss-Legendre rule on each part of a smooth field).
-func exactPartMeans(p *problem.Problem, f field) [4][]float64 {
-	var out [4][]float64
-	var xs, ws [40]float64
-	for _, e := range problem.Sides {
-		n := max(len(p.Edges[e].Parts), 1)
-		out[e] = make([]float64, n)
-		for i := range n {
-			from, to := 0.0, p.Length(e)
-			if p.Edges[e].Mixed() {
-				from, to = p.Edges[e].PartRange(i, to)
-			}
-			gauss.Legendre(xs[:], ws[:], from, to)
-			for k, s := range xs {
-				out[e][i] += ws[k] * f.u(p.Point(e, s)) / (to - from)
+				out[e][i] += ws[k] * g(e, x, y, to-from)
 			}
 		}
 	}
