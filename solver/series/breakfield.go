@@ -194,9 +194,15 @@ func gradedGauss(f func(s float64) float64, a, b float64, depth int, x, w []floa
 		breaks = append(breaks, b-math.Ldexp(L, -k))
 	}
 	breaks = append(breaks, b)
+	return onPanels(f, breaks, x, w)
+}
+
+// onPanels integrates f with the rule (x, w) on [-1, 1] mapped onto each
+// panel between consecutive points.
+func onPanels(f func(s float64) float64, pts, x, w []float64) float64 {
 	sum := 0.0
-	for i := 0; i+1 < len(breaks); i++ {
-		m, r := (breaks[i]+breaks[i+1])/2, (breaks[i+1]-breaks[i])/2
+	for i := 0; i+1 < len(pts); i++ {
+		m, r := (pts[i]+pts[i+1])/2, (pts[i+1]-pts[i])/2
 		for q := range x {
 			sum += w[q] * r * f(m+r*x[q])
 		}

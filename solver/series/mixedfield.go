@@ -328,14 +328,7 @@ func gradedTowards(f func(float64) float64, a, b float64, atA, atB bool) float64
 		}
 	}
 	pts = append(pts, b)
-	sum := 0.0
-	for i := 0; i+1 < len(pts); i++ {
-		m, r := (pts[i]+pts[i+1])/2, (pts[i+1]-pts[i])/2
-		for q := range gl16x {
-			sum += gl16w[q] * r * f(m+r*gl16x[q])
-		}
-	}
-	return sum
+	return onPanels(f, pts, gl16x, gl16w)
 }
 
 // partFinite reports whether part i of edge e has a finite flow: not when
