@@ -168,15 +168,7 @@ func (a *breakPiece) entering(e problem.Side, x, y float64) float64 {
 		return 0
 	}
 	_, px, py := a.at(x, y)
-	switch e {
-	case problem.Bottom:
-		return -a.ky * py
-	case problem.Top:
-		return a.ky * py
-	case problem.Left:
-		return -a.kx * px
-	}
-	return a.kx * px
+	return Entering(&problem.Problem{Kx: a.kx, Ky: a.ky}, e, px, py)
 }
 
 // gradedGauss integrates f over [a, b] with Gauss-Legendre rules on panels
