@@ -305,7 +305,10 @@
 
     const rows = ["top", "bottom", "left", "right"].map((side) => {
       const e = r.edges[side];
-      return [EW.capital(side), nv(e.mean), e.per_length === null || e.per_length === undefined ? "∞ infinite" : n(e.per_length * pl.scale)];
+      const L = side === "top" || side === "bottom" ? p.width : p.height;
+      // a net flow below the accuracy (a pool at each end of one edge) is noise: 0
+      const noise = Math.abs((e.per_length || 0) * L) < EW.floors().flow;
+      return [EW.capital(side), nv(e.mean), e.per_length === null || e.per_length === undefined ? "∞ infinite" : noise ? "0" : n(e.per_length * pl.scale)];
     });
     sec.append(table("ans-edges", ["Edge", withU("mean " + (u.value || "value"), vu), withU(tm.per_length || "flow per length", pl.unit || tm.per_length_unit)], rows));
 

@@ -455,5 +455,10 @@ func TestUpliftSymmetricBase(t *testing.T) {
 	if len(u.Pressure) != upliftPoints || !(u.Pressure[0] > u.Pressure[upliftPoints-1]) {
 		t.Errorf("pressure profile %v", u.Pressure)
 	}
+	// the discharge enters through the upstream pool and leaves through the
+	// other, on one edge: it is the pool's flow, the conductance times 7 m
+	if c := out.Result.Answers.Conductance; c == nil || math.Abs(s.Discharge-7*c.PerDifference) > 1e-9*s.Discharge || s.Discharge <= 0 {
+		t.Errorf("discharge %g, want the conductance %+v times 7 m of head", s.Discharge, c)
+	}
 	t.Logf("uplift %.10g kN/m (exact %.10g), line of action x = %.6g m", u.Force, want, u.Line)
 }

@@ -264,9 +264,19 @@ const WaterUnitWeight = 9.81
 func seepageAnswers(pr *problem.Problem, out *Output, a *Answers, asked project.Asked) *SeepageAnswers {
 	r := &out.Result
 	s := &SeepageAnswers{Recharge: r.SourceTotal}
+	// what enters: part by part (an edge with a pool at each end carries
+	// the discharge in at one and out at the other, and none in sum)
 	for _, e := range r.Edges {
-		if e.Finite {
-			s.Discharge += max(*e.Flow, 0)
+		if len(e.Segments) == 0 {
+			if e.Finite {
+				s.Discharge += max(*e.Flow, 0)
+			}
+			continue
+		}
+		for _, g := range e.Segments {
+			if g.Finite {
+				s.Discharge += max(*g.Flow, 0)
+			}
 		}
 	}
 	s.Discharge += max(r.SourceTotal, 0)

@@ -183,6 +183,14 @@ func TestAnswersUplift(t *testing.T) {
 	if !strings.Contains(got, "539.5") || !strings.Contains(got, "kN/m") || !strings.Contains(got, "upward") {
 		t.Errorf("uplift shows %q, want 539.55 kN/m upward", got)
 	}
+	// the discharge enters at one pool and leaves at the other, both on the
+	// top edge: 8.1e-5 m³/s per metre, not the edge's net flow (0)
+	if got := text(t, tb, "#ans-discharge"); !strings.Contains(got, "8.101×10⁻⁵ m³/s") {
+		t.Errorf("discharge shows %q, want 8.101×10⁻⁵ m³/s", got)
+	}
+	if got := eval[string](t, tb, `document.querySelector("#ans-edges tbody tr").lastChild.textContent`); got != "0" {
+		t.Errorf("the top edge's mean flux shows %q, want 0 (its net flow is rounding noise)", got)
+	}
 	x := eval[float64](t, tb, `window.edgewiseInternal.last().result.answers.seepage.uplift[0].line`)
 	if !(x > 15 && x < 20) {
 		t.Errorf("line of action x = %g, want upstream of the centre 20", x)
