@@ -460,5 +460,12 @@ func TestUpliftSymmetricBase(t *testing.T) {
 	if c := out.Result.Answers.Conductance; c == nil || math.Abs(s.Discharge-7*c.PerDifference) > 1e-9*s.Discharge || s.Discharge <= 0 {
 		t.Errorf("discharge %g, want the conductance %+v times 7 m of head", s.Discharge, c)
 	}
+	// the flow net carries the same discharge: its channels-to-drops ratio
+	// is the shape factor (where the flux grows like r^-1/2 beside the
+	// floor, the flow function takes the parts' flows, not grid sums)
+	if fn, c := out.Result.Answers.FlowNet, out.Result.Answers.Conductance; c == nil || math.Abs(fn.Flow-s.Discharge) > 1e-6*s.Discharge ||
+		math.Abs(fn.Ratio-c.ShapeFactor) > 1e-6*c.ShapeFactor {
+		t.Errorf("flow net carries %g with ratio %g; the discharge is %g and the shape factor %+v", fn.Flow, fn.Ratio, s.Discharge, c)
+	}
 	t.Logf("uplift %.10g kN/m (exact %.10g), line of action x = %.6g m", u.Force, want, u.Line)
 }

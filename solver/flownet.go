@@ -1,8 +1,10 @@
 package solver
 
 import (
+	"cmp"
 	"fmt"
 	"math"
+	"slices"
 
 	"edgewise/solver/contour"
 	"edgewise/solver/problem"
@@ -167,9 +169,9 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, l
 			acc = append(acc, sum)
 			q0 = q1
 		}
-		miss := -*r.Edges[side].Flow - sum
+		corr := edgeCorrection(pr, r, side, acc, func(u int) float64 { return nodeS(side, nodes[t+u], nx, hx, hy) })
 		for u := t; u < end; u++ {
-			val := start + acc[u-t] + miss*float64(u-t+1)/float64(end-t)
+			val := start + acc[u-t] + corr(u-t)
 			if u < len(nodes)-1 { // the last node is (0, 0): psi stays 0 there (the closure is the balance)
 				psi[nodes[u]] = val
 				lo, hi = min(lo, val), max(hi, val)
@@ -196,6 +198,71 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, l
 }
 
 // nodeS is the place along side of grid node k.
+// edgeCorrection returns what to add to the trapezoid sums acc of the flow
+// leaving along one side (acc[u] up to its u-th node from the corner the
+// walk starts at; node u at s(u) along the edge) so that psi takes the
+// series' flows exactly: at the side's end the edge's flow, and, for an
+// edge made of parts, at every place where two parts meet the flow of the
+// parts before it (where a value part meets another kind the flux grows
+// like r^-1/2 and the trapezoid sum misses part of it). Between those
+// places the correction is linear in the distance along the side.
+func edgeCorrection(pr *problem.Problem, r *Result, side problem.Side, acc []float64, s func(u int) float64) func(u int) float64 {
+	L := pr.Length(side)
+	back := side == problem.Top || side == problem.Left // the walk runs towards s = 0
+	dist := func(x float64) float64 {
+		if back {
+			return L - x
+		}
+		return x
+	}
+	// the trapezoid sum at distance d, linear between the nodes
+	sumAt := func(d float64) float64 {
+		prevD, prevA := 0.0, 0.0
+		for u := range acc {
+			du := dist(s(u))
+			if d <= du {
+				if du == prevD {
+					return acc[u]
+				}
+				return prevA + (acc[u]-prevA)*(d-prevD)/(du-prevD)
+			}
+			prevD, prevA = du, acc[u]
+		}
+		return prevA
+	}
+	knotD, knotC := []float64{0}, []float64{0}
+	if segs := r.Edges[side].Segments; len(segs) > 1 {
+		type cut struct{ d, exact float64 }
+		var cuts []cut
+		for i := 0; i+1 < len(segs); i++ {
+			at, left := segs[i].To, 0.0 // the flow leaving through the parts the walk has passed
+			for _, g := range segs {
+				if (!back && g.To <= at) || (back && g.From >= at) {
+					left -= *g.Flow
+				}
+			}
+			cuts = append(cuts, cut{dist(at), left})
+		}
+		slices.SortFunc(cuts, func(a, b cut) int { return cmp.Compare(a.d, b.d) })
+		for _, c := range cuts {
+			knotD, knotC = append(knotD, c.d), append(knotC, c.exact-sumAt(c.d))
+		}
+	}
+	knotD, knotC = append(knotD, L), append(knotC, -*r.Edges[side].Flow-acc[len(acc)-1])
+	return func(u int) float64 {
+		d := dist(s(u))
+		for k := 1; k < len(knotD); k++ {
+			if d <= knotD[k] {
+				if knotD[k] == knotD[k-1] {
+					return knotC[k]
+				}
+				return knotC[k-1] + (knotC[k]-knotC[k-1])*(d-knotD[k-1])/(knotD[k]-knotD[k-1])
+			}
+		}
+		return knotC[len(knotC)-1]
+	}
+}
+
 func nodeS(side problem.Side, k, nx int, hx, hy float64) float64 {
 	i, j := k%(nx+1), k/(nx+1)
 	if side == problem.Bottom || side == problem.Top {
