@@ -469,3 +469,21 @@ func TestUpliftSymmetricBase(t *testing.T) {
 	}
 	t.Logf("uplift %.10g kN/m (exact %.10g), line of action x = %.6g m", u.Force, want, u.Line)
 }
+
+// Where an electrode part meets the insulation the field is unbounded while
+// every flow is finite: the breakdown caution says its peak is taken away
+// from there and that the ideal value there is not a design number.
+func TestCautionAtElectrodeEdge(t *testing.T) {
+	_, out := mustSolve(t, `{"schema":"edgewise/1","physics":"electrostatic","width":0.03,"height":0.01,"conductivity":2.66e-11,
+	 "edges":{"top":{"kind":"flux","expr":"0"},"left":{"kind":"flux","expr":"0"},"right":{"kind":"value","expr":"0"},
+	 "bottom":{"segments":[{"to":0.004,"kind":"flux","expr":"0"},{"to":0.012,"kind":"value","expr":"1500"},{"kind":"flux","expr":"0"}]}}}`, Options{NoCrossCheck: true})
+	for _, e := range out.Result.Edges {
+		if !e.Finite {
+			t.Fatalf("an infinite flow: %+v", out.Result.Edges)
+		}
+	}
+	all := strings.Join(out.Result.Cautions, "\n")
+	if !strings.Contains(all, "electrode's edge meets the insulation") || !strings.Contains(all, "not a design number") {
+		t.Errorf("cautions %q", out.Result.Cautions)
+	}
+}

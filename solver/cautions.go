@@ -59,6 +59,9 @@ func (f *solvedField) Dielectric() (name, source string, strength, peak, x, y, n
 }
 
 func (f *solvedField) Singular() bool {
+	if a := f.r.Answers; a != nil && len(a.Singular) > 0 {
+		return true // also where a held part meets another kind: finite flows, unbounded gradient
+	}
 	for _, e := range f.r.Edges {
 		if !e.Finite {
 			return true

@@ -34,7 +34,8 @@ type Field interface {
 	// each with the largest size of the gradient where it leaves.
 	Exits() []Exit
 	// Singular reports whether the gradient is unbounded somewhere (a
-	// jump of prescribed value at a corner or inside an edge).
+	// jump of prescribed value at a corner or inside an edge, or a held
+	// part meeting another kind).
 	Singular() bool
 	// Dielectric is the insulating material the breakdown caution
 	// assumes, where its breakdown strength comes from, that strength
@@ -80,7 +81,7 @@ func electrostaticCautions(p *Physics, f Field) []string {
 	kvmm, bd := peak/1e6, strength/1e6
 	at := fmt.Sprintf("Peak field strength %.3g kV/mm at (%.4g, %.4g) m", kvmm, x, y)
 	if f.Singular() {
-		at += fmt.Sprintf(" (at least %.3g m from where two prescribed potentials meet)", near)
+		at += fmt.Sprintf(" (at least %.3g m from where two prescribed potentials meet or an electrode's edge meets the insulation)", near)
 	}
 	against := fmt.Sprintf("about %.3g kV/mm, the breakdown strength of %s (%s)", bd, name, source)
 	var msg string
@@ -94,8 +95,8 @@ func electrostaticCautions(p *Physics, f Field) []string {
 	}
 	list := []string{msg}
 	if f.Singular() {
-		list = append(list, "The field strength is unbounded where two prescribed potentials meet (a sharp electrode edge "+
-			"or corner); the ideal value there is not a design number. Real edges are rounded: the peak above is taken "+
+		list = append(list, "The field strength is unbounded where two prescribed potentials meet or an electrode's edge "+
+			"meets the insulation (a sharp electrode edge or corner); the ideal value there is not a design number. Real edges are rounded: the peak above is taken "+
 			"at a stated distance from those points.")
 	}
 	return list

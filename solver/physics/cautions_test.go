@@ -40,8 +40,8 @@ func TestCautions(t *testing.T) {
 		{"electrostatic low", Electrostatic, field{peak: 0.5e6}, []string{"0.5 kV/mm at (0.1, 0.2) m, against about 3 kV/mm"}},
 		{"electrostatic a third", Electrostatic, field{peak: 1e6}, []string{"more than a third of about 3 kV/mm"}},
 		{"electrostatic breakdown", Electrostatic, field{peak: 3e6, singular: true},
-			[]string{"(at least 0.004 m from where two prescribed potentials meet) exceeds about 3 kV/mm, the breakdown strength of dry air",
-				"unbounded where two prescribed potentials meet (a sharp electrode edge or corner); the ideal value there is not a design number"}},
+			[]string{"(at least 0.004 m from where two prescribed potentials meet or an electrode's edge meets the insulation) exceeds about 3 kV/mm, the breakdown strength of dry air",
+				"unbounded where two prescribed potentials meet or an electrode's edge meets the insulation (a sharp electrode edge or corner); the ideal value there is not a design number"}},
 		// the caution names the dielectric it assumes, and no longer says
 		// that a gap in another material breaks down like air
 		{"electrostatic named dielectric", Electrostatic, field{peak: 8e6, dielectric: "FR-4", strength: 20e6},
