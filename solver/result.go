@@ -99,11 +99,22 @@ type Accuracy struct {
 	Terms    int     `json:"terms"`
 	Estimate float64 `json:"estimate"` // estimated largest error of the series, away from singular corners
 	// Crosscheck is the largest difference between the series and the
-	// finite-difference cross-check (Richardson-extrapolated) at the
+	// independent solution of the cross-check (see crossCheck) at the
 	// cross-check nodes away from singular corners; null when skipped.
-	Crosscheck       *float64 `json:"crosscheck"`
-	CrosscheckGrid   string   `json:"crosscheck_grid,omitempty"`
-	CrosscheckReason string   `json:"crosscheck_skipped,omitempty"`
+	Crosscheck *float64 `json:"crosscheck"`
+	// CrosscheckResolution is how far the independent solution resolves
+	// the problem itself: the largest difference between its two
+	// resolutions (spectral) or between its two grids (finite differences); null
+	// when skipped.
+	CrosscheckResolution *float64 `json:"crosscheck_resolution"`
+	// CrosscheckVerdict says what the check shows: VerdictConfirms,
+	// VerdictLimited or VerdictDiffers; empty when skipped.
+	CrosscheckVerdict string `json:"crosscheck_verdict,omitempty"`
+	// CrosscheckLimit says, when the verdict is VerdictLimited, what
+	// keeps the independent solution from resolving the problem better.
+	CrosscheckLimit  string `json:"crosscheck_limit,omitempty"`
+	CrosscheckGrid   string `json:"crosscheck_grid,omitempty"`
+	CrosscheckReason string `json:"crosscheck_skipped,omitempty"`
 	// Converged is false when the result failed the maximum-principle
 	// check or the series stopped far from its tolerance (see
 	// checkConverged); a warning with code not-converged says why.
@@ -154,6 +165,14 @@ func (r *Result) JSON() []byte {
 	a := r.Accuracy
 	w.Key("accuracy").Open('{').Key("terms").Int(a.Terms).Key("estimate").Num(a.Estimate).Key("crosscheck")
 	numOrNull(&w, a.Crosscheck)
+	w.Key("crosscheck_resolution")
+	numOrNull(&w, a.CrosscheckResolution)
+	if a.CrosscheckVerdict != "" {
+		w.Key("crosscheck_verdict").Str(a.CrosscheckVerdict)
+	}
+	if a.CrosscheckLimit != "" {
+		w.Key("crosscheck_limit").Str(a.CrosscheckLimit)
+	}
 	if a.CrosscheckGrid != "" {
 		w.Key("crosscheck_grid").Str(a.CrosscheckGrid)
 	}

@@ -95,6 +95,11 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 			out.Result.Probes[i].Unbounded = unboundedAt(pr, breaks, q.X, q.Y)
 		}
 	}
+	if !opt.NoCrossCheck {
+		// before checkConverged: an independent solution that differs
+		// by more than both accuracies makes the result not converged
+		crossCheck(pr, f, &out.Result, breaks)
+	}
 	checkConverged(pr, &out.Result)
 	if out.Result.Accuracy.Converged {
 		out.Result.Answers = answers(p, pr, f, out, breaks)
@@ -105,9 +110,6 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 		out.Result.Cautions = []string{CautionsWithheld, physics.Deferral}
 	}
 	out.Result.chooseColour()
-	if !opt.NoCrossCheck {
-		crossCheck(pr, f, &out.Result, breaks)
-	}
 	for _, v := range out.U {
 		if v-v != 0 {
 			return nil, project.Errorf("", "the solution is not finite; please report this project")

@@ -3,6 +3,7 @@ package linalg
 import (
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -96,6 +97,59 @@ func TestMinNormAgainstGonum(t *testing.T) {
 			// about 1e3; 1e-9 leaves room for both algorithms' round-off
 			if d := math.Abs(x[j] - want.AtVec(j)); d > 1e-9*math.Max(1, math.Abs(want.AtVec(j))) {
 				t.Errorf("%dx%d rank %d: x[%d] = %.15g, gonum %.15g", rows, cols, rank, j, x[j], want.AtVec(j))
+			}
+		}
+	}
+}
+
+// SymEigen rebuilds seeded random symmetric matrices (Q diag Q^T), keeps
+// Q orthogonal, and finds the eigenvalues gonum's mat.EigenSym finds.
+func TestSymEigenAgainstGonum(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	for _, n := range []int{1, 2, 3, 7, 20, 47} {
+		a := make([]float64, n*n)
+		for i := 0; i < n; i++ {
+			for j := i; j < n; j++ {
+				v := rng.NormFloat64()
+				if i == j {
+					v *= float64(n) // a wide spread of eigenvalues
+				}
+				a[i*n+j], a[j*n+i] = v, v
+			}
+		}
+		vals, q := SymEigen(a, n)
+		// tolerance: Jacobi is accurate to a few roundings of the norm
+		// (at most about 50 n here)
+		tol := 1e-13 * float64(n) * float64(n)
+		for i := 0; i < n; i++ {
+			for j := 0; j < n; j++ {
+				rebuilt, dot := 0.0, 0.0
+				for k := 0; k < n; k++ {
+					rebuilt += q[i*n+k] * vals[k] * q[j*n+k]
+					dot += q[k*n+i] * q[k*n+j]
+				}
+				if d := math.Abs(rebuilt - a[i*n+j]); d > tol {
+					t.Fatalf("n=%d: Q diag Q^T differs from a at %d,%d by %g", n, i, j, d)
+				}
+				want := 0.0
+				if i == j {
+					want = 1
+				}
+				if d := math.Abs(dot - want); d > 1e-13*float64(n) {
+					t.Fatalf("n=%d: Q^T Q differs from I at %d,%d by %g", n, i, j, d)
+				}
+			}
+		}
+		var es mat.EigenSym
+		if !es.Factorize(mat.NewSymDense(n, append([]float64(nil), a...)), false) {
+			t.Fatal("gonum EigenSym failed")
+		}
+		want := es.Values(nil)
+		got := append([]float64(nil), vals...)
+		slices.Sort(got)
+		for i := range want {
+			if d := math.Abs(got[i] - want[i]); d > tol {
+				t.Errorf("n=%d eigenvalue %d: %g, gonum %g", n, i, got[i], want[i])
 			}
 		}
 	}
