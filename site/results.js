@@ -117,13 +117,19 @@
     flowsTable(S, warnings, box);
 
     const da = el("dl", { class: "kv" });
-    box.append(el("h3", { text: "Accuracy" }), da);
     const acc = r.accuracy || {};
-    kvRow(da, "Series terms", String(acc.terms));
     // differences: a kelvin is 1.8 °F, whatever the offset
-    kvRow(da, "Error estimate", EW.withUnit(EW.num(EW.dd(u, "value", acc.estimate), 2), vu), "largest, away from singular corners");
+    const diff = (v) => (v === null || v === undefined ? "–" : EW.withUnit(EW.num(EW.dd(u, "value", v), 2), vu));
+    // the engine's one statement, its numbers written in the page's units
+    const statement = (acc.statement || "").replace(/\{(estimate|difference|resolution)\}/g, (_, k) =>
+      diff({ estimate: acc.estimate, difference: acc.crosscheck, resolution: acc.crosscheck_resolution }[k]));
+    box.append(el("h3", { text: "Accuracy" }),
+      el("p", { id: "res-accuracy", class: "accuracy " + (acc.crosscheck_verdict || "unchecked"), text: statement }), da);
+    kvRow(da, "Series terms", String(acc.terms));
+    kvRow(da, "Error estimate", diff(acc.estimate), "largest, away from singular points: rely on this");
     if (acc.crosscheck !== null && acc.crosscheck !== undefined) {
-      kvRow(da, "Cross-check", EW.withUnit(EW.num(EW.dd(u, "value", acc.crosscheck), 2), vu), "largest difference from finite differences" + (acc.crosscheck_grid ? " (" + acc.crosscheck_grid + ")" : ""));
+      kvRow(da, "Cross-check", diff(acc.crosscheck), "largest difference from an independent solution (" + (acc.crosscheck_grid || "") + ")");
+      kvRow(da, "Check resolves to", diff(acc.crosscheck_resolution), "how far the independent solution resolves this problem itself");
     } else {
       kvRow(da, "Cross-check", "skipped", acc.crosscheck_skipped || "");
     }

@@ -74,6 +74,7 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 	}
 	r.Accuracy.Crosscheck = &best.diff
 	r.Accuracy.CrosscheckResolution = &best.resolution
+	r.Accuracy.CrosscheckMethod = best.name
 	r.Accuracy.CrosscheckGrid = best.method
 	r.Accuracy.CrosscheckVerdict = verdict(best.diff, best.resolution, est)
 	switch r.Accuracy.CrosscheckVerdict {
@@ -100,9 +101,16 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 // from the series, how far it resolves the problem itself, and its name.
 type check struct {
 	diff, resolution float64
+	name             string // CheckSpectral or CheckFiniteDifferences
 	method           string
 	limit            string // what limits the resolution (see Accuracy.CrosscheckLimit)
 }
+
+// The independent solutions (Accuracy.CrosscheckMethod).
+const (
+	CheckSpectral          = "spectral"
+	CheckFiniteDifferences = "finite-differences"
+)
 
 // Verdicts of the cross-check (Accuracy.CrosscheckVerdict).
 const (
@@ -198,6 +206,7 @@ func spectralCheck(pq *problem.Problem, nx, ny int, sum []float64, keep []bool, 
 	return check{
 		diff:       largest(sum, fine, keep),
 		resolution: res,
+		name:       CheckSpectral,
 		method:     fmt.Sprintf("spectral Galerkin on %d x %d Gauss-Lobatto nodes", sx+1, sy+1),
 		limit:      spectralLimit(pq, breaks, x, y),
 	}, nil
@@ -225,6 +234,7 @@ func fdCheck(pq *problem.Problem, nx, ny int, sum []float64, keep []bool) (check
 		// meetings), three times it where it is of second; the
 		// extrapolation's is smaller, by how much the grids cannot tell
 		resolution: indicator,
+		name:       CheckFiniteDifferences,
 		method:     fmt.Sprintf("finite differences on %dx%d and %dx%d intervals, Richardson-extrapolated", nx, ny, 2*nx, 2*ny),
 		limit:      "its grids (second order where the field is smooth, first order next to steps, corners whose conditions disagree and part meetings)",
 	}, nil
@@ -274,4 +284,33 @@ func cornerBreaks(breaks []series.Break) [4]bool {
 		}
 	}
 	return out
+}
+
+// statement is the one accuracy statement of a result (Accuracy.Statement),
+// as the page and the report show it: what the numbers are good to, which figure to rely
+// on, and what the independent check shows. The numbers are left as the
+// markers {estimate}, {difference} and {resolution}, for each reader to
+// write in its own units.
+func (a *Accuracy) statement() string {
+	s := "The numbers are good to {estimate}: the series' own error estimate, the figure to rely on " +
+		"(the largest error of the field's values away from singular points)."
+	name := "finite differences"
+	if a.CrosscheckMethod == CheckSpectral {
+		name = "a spectral Galerkin method"
+	}
+	switch {
+	case a.Crosscheck == nil && a.CrosscheckReason != "":
+		return s + " No independent check was made: " + a.CrosscheckReason + "."
+	case a.Crosscheck == nil:
+		return s + " No independent check was run for this solve."
+	case a.CrosscheckVerdict == VerdictConfirms:
+		return s + " An independent solution by " + name + " agrees to within {difference}, which confirms it."
+	case a.CrosscheckVerdict == VerdictLimited:
+		return s + " An independent solution by " + name + " agrees to within {difference}, but resolves this problem only to about " +
+			"{resolution}, limited by " + a.CrosscheckLimit + "; it cannot confirm the estimate more closely than that."
+	case a.CrosscheckVerdict == VerdictDiffers:
+		return s + " An independent solution by " + name + " differs by {difference}, more than its own resolution ({resolution}) " +
+			"and the estimate explain: these numbers are not reliable."
+	}
+	return s
 }

@@ -112,9 +112,17 @@ type Accuracy struct {
 	CrosscheckVerdict string `json:"crosscheck_verdict,omitempty"`
 	// CrosscheckLimit says, when the verdict is VerdictLimited, what
 	// keeps the independent solution from resolving the problem better.
-	CrosscheckLimit  string `json:"crosscheck_limit,omitempty"`
+	CrosscheckLimit string `json:"crosscheck_limit,omitempty"`
+	// CrosscheckMethod names the independent solution: CheckSpectral or
+	// CheckFiniteDifferences; CrosscheckGrid describes it and its grids.
+	CrosscheckMethod string `json:"crosscheck_method,omitempty"`
 	CrosscheckGrid   string `json:"crosscheck_grid,omitempty"`
 	CrosscheckReason string `json:"crosscheck_skipped,omitempty"`
+	// Statement is the one accuracy statement: what the numbers are good
+	// to, which figure to rely on, and what the cross-check shows, with
+	// the markers {estimate}, {difference} and {resolution} where the
+	// numbers go, for each reader to write in its own units.
+	Statement string `json:"statement"`
 	// Converged is false when the result failed the maximum-principle
 	// check or the series stopped far from its tolerance (see
 	// checkConverged); a warning with code not-converged says why.
@@ -173,12 +181,16 @@ func (r *Result) JSON() []byte {
 	if a.CrosscheckLimit != "" {
 		w.Key("crosscheck_limit").Str(a.CrosscheckLimit)
 	}
+	if a.CrosscheckMethod != "" {
+		w.Key("crosscheck_method").Str(a.CrosscheckMethod)
+	}
 	if a.CrosscheckGrid != "" {
 		w.Key("crosscheck_grid").Str(a.CrosscheckGrid)
 	}
 	if a.CrosscheckReason != "" {
 		w.Key("crosscheck_skipped").Str(a.CrosscheckReason)
 	}
+	w.Key("statement").Str(a.Statement)
 	w.Key("converged").Bool(a.Converged)
 	w.Close('}')
 	strs := func(k string, list []string) {

@@ -101,6 +101,7 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 		crossCheck(pr, f, &out.Result, breaks)
 	}
 	checkConverged(pr, &out.Result)
+	out.Result.Accuracy.Statement = out.Result.Accuracy.statement()
 	if out.Result.Accuracy.Converged {
 		out.Result.Answers = answers(p, pr, f, out, breaks)
 		out.Result.Cautions = cautions(p, pr, out, &out.Result)

@@ -135,6 +135,10 @@ func TestUnitsFahrenheitPersist(t *testing.T) {
 	if err != nil || !strings.Contains(estText, "°F") || !near(shownEst, 1.8*est, 0.05) {
 		t.Errorf("error estimate %q, want 9/5 × %g = %g °F", estText, est, 1.8*est)
 	}
+	// so is every number of the accuracy statement
+	if st := eval[string](t, tb, `document.getElementById("res-accuracy").textContent`); !strings.Contains(st, "good to "+strings.Fields(estText)[0]+" °F") {
+		t.Errorf("accuracy statement %q, want the estimate %q °F in it", st, strings.Fields(estText)[0])
+	}
 	if h := eval[string](t, tb, `document.getElementById("probe-head-v").textContent`); !strings.Contains(h, "°F") {
 		t.Errorf("probe heading %q, want °F", h)
 	}

@@ -6,6 +6,7 @@ import (
 	"edgewise/solver/fdcheck"
 	"edgewise/solver/project"
 	"edgewise/solver/series"
+	"edgewise/solver/spectral"
 )
 
 // Methods lists the published methods behind a solve of p, in the words of
@@ -18,10 +19,13 @@ func Methods(p *project.Project, r *solver.Result) []string {
 		return []string{"Methods not listed: " + err.Error()}
 	}
 	m := append(series.Method(pr), series.BreakMethod(pr)...)
-	if r.Accuracy.Crosscheck != nil {
+	switch {
+	case r.Accuracy.Crosscheck == nil:
+		m = append(m, "Independent cross-check: not run for this solve.")
+	case r.Accuracy.CrosscheckMethod == solver.CheckSpectral:
+		m = append(m, spectral.Method)
+	default:
 		m = append(m, fdcheck.Method)
-	} else {
-		m = append(m, "Finite-difference cross-check (two grids, Richardson extrapolation): not run for this solve.")
 	}
 	return append(m, contour.Method)
 }

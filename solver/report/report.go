@@ -3,6 +3,7 @@ package report
 import (
 	"fmt"
 	"strconv"
+	"strings"
 
 	"edgewise/solver"
 	"edgewise/solver/csp"
@@ -204,20 +205,37 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 	add(&rep.Accuracy, "series terms", strconv.Itoa(r.Accuracy.Terms))
 	// differences: no offset (1 K is 1.8 °F)
 	add(&rep.Accuracy, with("estimated largest series error", sh.unit("value")), sh.diff("value", r.Accuracy.Estimate))
-	if r.Accuracy.Crosscheck != nil {
-		add(&rep.Accuracy, with("largest difference from the finite-difference cross-check", sh.unit("value")), sh.diff("value", *r.Accuracy.Crosscheck))
-		if r.Accuracy.CrosscheckGrid != "" {
-			add(&rep.Accuracy, "cross-check grids", r.Accuracy.CrosscheckGrid)
+	if a := r.Accuracy; a.Crosscheck != nil {
+		add(&rep.Accuracy, with("largest difference from the independent cross-check", sh.unit("value")), sh.diff("value", *a.Crosscheck))
+		if a.CrosscheckResolution != nil {
+			add(&rep.Accuracy, with("how far the cross-check resolves the problem itself", sh.unit("value")), sh.diff("value", *a.CrosscheckResolution))
+		}
+		if a.CrosscheckGrid != "" {
+			add(&rep.Accuracy, "cross-check method", a.CrosscheckGrid)
 		}
 	} else {
-		reason := r.Accuracy.CrosscheckReason
+		reason := a.CrosscheckReason
 		if reason == "" {
 			reason = "not run"
 		}
-		add(&rep.Accuracy, "finite-difference cross-check", "skipped: "+reason)
+		add(&rep.Accuracy, "independent cross-check", "skipped: "+reason)
 	}
+	add(&rep.Accuracy, "what the numbers are good to", accuracyStatement(&r.Accuracy, sh))
 	rep.Answers = answerTables(p, out, sh)
 	return rep
+}
+
+// accuracyStatement is the result's accuracy statement with its numbers
+// written in the report's units.
+func accuracyStatement(a *solver.Accuracy, sh *shown) string {
+	num := func(v *float64) string {
+		if v == nil {
+			return "-"
+		}
+		return sh.diff("value", *v) + unitNote(sh.unit("value"))
+	}
+	return strings.NewReplacer("{estimate}", num(&a.Estimate), "{difference}", num(a.Crosscheck),
+		"{resolution}", num(a.CrosscheckResolution)).Replace(a.Statement)
 }
 
 // condition describes one edge condition with units. Formulas are SI,
