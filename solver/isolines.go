@@ -15,12 +15,21 @@ type Isolines struct {
 	Labels []float64
 }
 
-// Isolines computes about n round levels between the field's extremes and
-// the isolines at each. Labels go on lines longer than a tenth of the
-// shorter side.
-func (o *Output) Isolines(n int) *Isolines {
+// Isolines computes about n levels between the field's extremes, round in
+// the unit the values are shown in (shown = SI*scale + offset; 1 and 0 for
+// SI), and the isolines at each; Levels stay SI. Labels go on lines
+// longer than a tenth of the shorter side.
+func (o *Output) Isolines(n int, scale, offset float64) *Isolines {
 	w, h := o.W, o.H
-	iso := &Isolines{Levels: contour.Levels(o.Result.Min.Value, o.Result.Max.Value, n)}
+	lo, hi := o.Result.Min.Value*scale+offset, o.Result.Max.Value*scale+offset
+	if scale < 0 {
+		lo, hi = hi, lo
+	}
+	levels := contour.Levels(lo, hi, n)
+	for k, l := range levels {
+		levels[k] = (l - offset) / scale
+	}
+	iso := &Isolines{Levels: levels}
 	minLen := 0.1 * min(w, h)
 	for k, level := range iso.Levels {
 		start := len(iso.Segs)

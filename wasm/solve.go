@@ -9,6 +9,7 @@ import (
 	"edgewise/solver"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
+	"edgewise/solver/report"
 
 	"github.com/hack-pad/safejs"
 )
@@ -58,7 +59,9 @@ func solveText(text string, opt solver.Options, levels int) (map[string]any, err
 	reply := map[string]any{"ok": true, "result": string(out.Result.JSON()), "nx": out.Nx, "ny": out.Ny, "w": out.W, "h": out.H}
 	arrays := map[string][]float64{"u": out.U, "ux": out.Ux, "uy": out.Uy}
 	if levels > 0 {
-		iso := out.Isolines(levels)
+		// round levels in the unit the page shows values in
+		_, scale, offset := report.Shown(p.Physics, p.Display, "value")
+		iso := out.Isolines(levels, scale, offset)
 		ends := make([]float64, len(iso.Ends))
 		for k, e := range iso.Ends {
 			ends[k] = float64(e)
