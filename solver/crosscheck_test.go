@@ -98,47 +98,6 @@ func TestCrossCheckSkipsPartMeetings(t *testing.T) {
 	t.Logf("difference %.4g with the meeting point left out, %.4g with it", got, all)
 }
 
-// smoothField is a manufactured field, smooth up to the edges:
-// -S x^2/(2 Kx) + exp(a x) cos(b y) + 0.3 x y + 1.5 with Kx a^2 = Ky b^2,
-// so that Kx u_xx + Ky u_yy = -S.
-type smoothField struct{ kx, ky, src, a float64 }
-
-func (e smoothField) b() float64 { return e.a * math.Sqrt(e.kx/e.ky) }
-
-func (e smoothField) u(x, y float64) float64 {
-	return -e.src/(2*e.kx)*x*x + math.Exp(e.a*x)*math.Cos(e.b()*y) + 0.3*x*y + 1.5
-}
-
-func (e smoothField) grad(x, y float64) (float64, float64) {
-	ex := math.Exp(e.a * x)
-	return -e.src/e.kx*x + e.a*ex*math.Cos(e.b()*y) + 0.3*y, -e.b()*ex*math.Sin(e.b()*y) + 0.3*x
-}
-
-// problem gives each edge the field's data of the given kind (convection
-// edges with coefficient hc and the ambient that makes the field exact).
-func (e smoothField) problem(w, h float64, kinds [4]problem.Kind, hc float64) *problem.Problem {
-	pr := &problem.Problem{W: w, H: h, Kx: e.kx, Ky: e.ky, Source: e.src}
-	for _, side := range problem.Sides {
-		entering := func(s float64) float64 {
-			x, y := pr.Point(side, s)
-			gx, gy := e.grad(x, y)
-			return [4]float64{-e.ky * gy, e.kx * gx, e.ky * gy, -e.kx * gx}[side]
-		}
-		ed := problem.Edge{Kind: kinds[side]}
-		switch kinds[side] {
-		case problem.Value:
-			ed.F = func(s float64) float64 { return e.u(pr.Point(side, s)) }
-		case problem.Flux:
-			ed.F = entering
-		case problem.Convection:
-			ed.Hc = hc
-			ed.F = func(s float64) float64 { return e.u(pr.Point(side, s)) + entering(s)/hc }
-		}
-		pr.Edges[side] = ed
-	}
-	return pr
-}
-
 // On smooth data the cross-check confirms the series' estimate: over all
 // 81 combinations of edge kinds, on a square and on a 3:1 orthotropic
 // plate with a source, its difference from the series lies within
@@ -154,18 +113,18 @@ func TestCrossCheckConfirmsOnSmoothData(t *testing.T) {
 	worstOver := 0.0
 	for _, geo := range []struct {
 		w, h float64
-		e    smoothField
+		e    exact.Smooth
 		hc   float64
 	}{
-		{1, 1, smoothField{kx: 1, ky: 1, src: 0, a: 1.2}, 3},
-		{3, 1, smoothField{kx: 2, ky: 0.5, src: 4, a: 0.5}, 0.7},
+		{1, 1, exact.Smooth{Kx: 1, Ky: 1, Src: 0, A: 1.2}, 3},
+		{3, 1, exact.Smooth{Kx: 2, Ky: 0.5, Src: 4, A: 0.5}, 0.7},
 	} {
 		for c := 0; c < 81; c++ {
 			var kinds [4]problem.Kind
 			for i, v := 0, c; i < 4; i, v = i+1, v/3 {
 				kinds[i] = problem.Kind(v % 3)
 			}
-			pr := geo.e.problem(geo.w, geo.h, kinds, geo.hc)
+			pr := geo.e.Problem(geo.w, geo.h, kinds, geo.hc)
 			f, err := solveSeries(pr)
 			if err != nil {
 				t.Fatalf("%v: %v", kinds, err)
@@ -185,7 +144,7 @@ func TestCrossCheckConfirmsOnSmoothData(t *testing.T) {
 			keep := compared(pr, nx, ny, breaks)
 			shift := 0.0
 			if kinds == [4]problem.Kind{problem.Flux, problem.Flux, problem.Flux, problem.Flux} {
-				shift = smoothMean(geo.e, pr)
+				shift = geo.e.Mean(pr.W, pr.H)
 			}
 			trueErr := 0.0
 			for j := 0; j <= ny; j++ {
@@ -195,7 +154,7 @@ func TestCrossCheckConfirmsOnSmoothData(t *testing.T) {
 					}
 					x, y := pr.W*float64(i)/float64(nx), pr.H*float64(j)/float64(ny)
 					u, _, _ := f.At(x, y)
-					trueErr = max(trueErr, math.Abs(u-(geo.e.u(x, y)-shift)))
+					trueErr = max(trueErr, math.Abs(u-(geo.e.U(x, y)-shift)))
 				}
 			}
 			est := f.ErrorEstimate()
@@ -225,28 +184,6 @@ func TestCrossCheckConfirmsOnSmoothData(t *testing.T) {
 	}
 }
 
-// smoothMean is the mean of the field over the rectangle (Simpson, 400
-// intervals a side: about 1e-11 of the field for these).
-func smoothMean(e smoothField, pr *problem.Problem) float64 {
-	const n = 400
-	wt := func(i int) float64 {
-		switch {
-		case i == 0 || i == n:
-			return 1
-		case i%2 == 1:
-			return 4
-		}
-		return 2
-	}
-	s := 0.0
-	for j := 0; j <= n; j++ {
-		for i := 0; i <= n; i++ {
-			s += wt(i) * wt(j) * e.u(pr.W*float64(i)/n, pr.H*float64(j)/n)
-		}
-	}
-	return s / (9 * n * n)
-}
-
 // The cross-check's cost next to the series solve it checks: a smooth
 // problem (spectral only) and one with corners whose conditions disagree
 // (spectral, then finite differences).
@@ -256,7 +193,7 @@ func BenchmarkCrossCheck(b *testing.B) {
 		name string
 		pr   *problem.Problem
 	}{
-		{"smooth", smoothField{kx: 1, ky: 1, src: 1, a: 1}.problem(2, 1, kinds, 3)},
+		{"smooth", exact.Smooth{Kx: 1, Ky: 1, Src: 1, A: 1}.Problem(2, 1, kinds, 3)},
 		{"corners", sweepProblem(kinds)},
 	} {
 		f, err := solveSeries(c.pr)

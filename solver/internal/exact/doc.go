@@ -7,7 +7,8 @@
 // an edge (FlowThrough, from the stream function, no quadrature), the
 // mean field along a stretch (MeanAlong, by quadrature) and the
 // conductance between the parts, to about 1e-12 or better away from the
-// parts' ends.
+// parts' ends. It also holds Smooth, a manufactured field smooth up to the
+// corners, with the problem of any edge kinds that carries it.
 //
 // # Method
 //
