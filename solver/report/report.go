@@ -234,8 +234,9 @@ func accuracyStatement(a *solver.Accuracy, sh *shown) string {
 		}
 		return sh.diff("value", *v) + unitNote(sh.unit("value"))
 	}
-	return strings.NewReplacer("{estimate}", num(&a.Estimate), "{difference}", num(a.Crosscheck),
-		"{resolution}", num(a.CrosscheckResolution)).Replace(a.Statement)
+	s := strings.ReplaceAll(a.Statement, "{estimate}", num(&a.Estimate))
+	s = strings.ReplaceAll(s, "{difference}", num(a.Crosscheck))
+	return strings.ReplaceAll(s, "{resolution}", num(a.CrosscheckResolution))
 }
 
 // condition describes one edge condition with units. Formulas are SI,
