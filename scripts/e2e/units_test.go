@@ -175,7 +175,8 @@ func TestUnitsFahrenheitPersist(t *testing.T) {
 	fresh.open(t, link)
 	got := eval[map[string]any](t, fresh, `window.edgewise.project()`)
 	if d, _ := got["display"].(map[string]any); d["temperature"] != "degF" || got["width"] != want["width"] {
-		t.Errorf("project from the link %v, want display degF and width %v", got, want["width"])
+		t.Errorf("project from the link %v, want display degF and width %v (the page's notice: %q, link error %q)", got, want["width"],
+			eval[string](t, fresh, `(document.getElementById("ew-notice") || {}).textContent || ""`), eval[string](t, fresh, `document.documentElement.dataset.linkError || ""`))
 	}
 	if !strings.Contains(eval[string](t, fresh, `document.getElementById("res-max").firstChild.textContent`), "°F") {
 		t.Errorf("from the link the results are not in °F")
