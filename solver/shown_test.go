@@ -2,6 +2,7 @@ package solver
 
 import (
 	"math"
+	"slices"
 	"testing"
 )
 
@@ -40,3 +41,26 @@ func TestIsolineLevelsRoundInShownUnit(t *testing.T) {
 }
 
 func near(a, b float64) bool { return math.Abs(a-b) <= 1e-9*max(1, math.Abs(b)) }
+
+// The extremes are those of the field, not of the grid: with a source
+// between two edges held at 0 and the others insulated the field is
+// S x (W - x) / (2 K), largest at mid-width, which falls between the
+// nodes of an odd grid; the largest value found is within the estimate
+// of S W^2 / (8 K), at x = W/2 within a thousandth of a grid cell.
+func TestExtremesBetweenNodes(t *testing.T) {
+	_, out := mustSolve(t, `{"schema": "edgewise/1", "physics": "heat", "width": 0.3, "height": 0.1, "conductivity": 20, "source": 4e5,
+		"edges": {"bottom": {"kind": "flux", "expr": "0"}, "top": {"kind": "flux", "expr": "0"},
+		"left": {"kind": "value", "expr": "0"}, "right": {"kind": "value", "expr": "0"}}}`, Options{Nx: 7, Ny: 3, NoCrossCheck: true})
+	r := out.Result
+	want := 4e5 * 0.3 * 0.3 / (8 * 20)
+	if d := math.Abs(r.Max.Value - want); d > r.Accuracy.Estimate+1e-12*want {
+		t.Errorf("largest value %.15g at x = %.6g, want %.15g (error %.3g, estimate %.3g)", r.Max.Value, r.Max.X, want, d, r.Accuracy.Estimate)
+	}
+	if d := math.Abs(r.Max.X - 0.15); d > 1e-3*0.3/7 {
+		t.Errorf("largest value at x = %.9g, want 0.15", r.Max.X)
+	}
+	// the best grid node is a seventh of the width off: 1/49 of the peak below it
+	if grid := slices.Max(out.U); !(want-grid > 0.01*want) {
+		t.Fatalf("the grid's largest node %g is not below the peak %g: the test no longer tests the search", grid, want)
+	}
+}
