@@ -299,6 +299,37 @@ type failWriter struct{}
 
 func (failWriter) Write([]byte) (int, error) { return 0, errors.New("disk full") }
 
+// failAfter fails every write after the first n.
+type failAfter struct{ n, writes int }
+
+func (w *failAfter) Write(p []byte) (int, error) {
+	if w.writes++; w.writes > w.n {
+		return 0, errors.New("disk full")
+	}
+	return len(p), nil
+}
+
+// A write that fails part way through a field of many bands, formatted
+// in parallel, ends the writing with that error (and the workers: the
+// next call finds no band left over) after no further write.
+func TestFieldCSVWriteFailsMidway(t *testing.T) {
+	f := benchField(300)
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
+	for _, n := range []int{0, 1, 3} {
+		w := &failAfter{n: n}
+		if err := FieldCSV(w, f); err == nil || err.Error() != "disk full" {
+			t.Fatalf("after %d writes: error %v, want disk full", n, err)
+		}
+		if w.writes != n+1 {
+			t.Errorf("after the failed write %d: %d writes in all, want none more", n+1, w.writes)
+		}
+	}
+	var b bytes.Buffer
+	if err := FieldCSV(&b, f); err != nil || b.Len() == 0 {
+		t.Fatalf("after failures: %v, %d bytes", err, b.Len())
+	}
+}
+
 func TestWriteErrorsReturned(t *testing.T) {
 	if err := FieldCSV(failWriter{}, demoField()); err == nil {
 		t.Error("FieldCSV: write error lost")

@@ -119,11 +119,12 @@ const bandBytes = 256 << 10
 // failed write.
 //
 // The text is made in bands of whole grid rows, each band appended into
-// one reused buffer and written with one Write call (w needs no buffering
+// a reused buffer and written with one Write call (w needs no buffering
 // of its own). The x column repeats on every grid row and y is the same
 // along one, so each is formatted once. Where more than one processor is
 // available (natively; WebAssembly has one) the bands are formatted in
-// parallel and written in order: the output is the same byte for byte.
+// parallel while the finished ones are written, in order: the output is
+// the same byte for byte.
 func FieldCSV(w io.Writer, f *Field) error {
 	if err := f.check(); err != nil {
 		return err
@@ -132,38 +133,82 @@ func FieldCSV(w io.Writer, f *Field) error {
 	if _, err := w.Write(appendHeader(nil, f.header(f.Ux != nil))); err != nil {
 		return err
 	}
-	workers := min(runtime.GOMAXPROCS(0), 8, (f.Ny+1+cw.rows-1)/cw.rows)
-	bufs := make([][]byte, workers)
-	for k := range bufs {
-		bufs[k] = make([]byte, 0, cw.size)
-	}
-	for j := 0; j <= f.Ny; j += workers * cw.rows {
-		// one round: worker k formats band k of the round
-		var wg sync.WaitGroup
-		for k := 1; k < workers; k++ {
-			lo := j + k*cw.rows
-			if lo > f.Ny {
-				bufs[k] = bufs[k][:0]
-				continue
-			}
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				bufs[k] = cw.band(bufs[k][:0], lo, min(lo+cw.rows, f.Ny+1))
-			}()
-		}
-		bufs[0] = cw.band(bufs[0][:0], j, min(j+cw.rows, f.Ny+1))
-		wg.Wait()
-		for _, b := range bufs {
-			if len(b) == 0 {
-				continue
-			}
+	bands := (f.Ny + cw.rows) / cw.rows
+	workers := min(runtime.GOMAXPROCS(0), 8, bands)
+	if workers == 1 {
+		b := make([]byte, 0, cw.size)
+		for j := 0; j <= f.Ny; j += cw.rows {
+			b = cw.band(b[:0], j, min(j+cw.rows, f.Ny+1))
 			if _, err := w.Write(b); err != nil {
 				return err
 			}
 		}
+		return nil
 	}
-	return nil
+	return cw.parallel(w, bands, workers)
+}
+
+// parallel formats the bands on workers goroutines and writes them in
+// order as they are done. At most 2*workers bands are in hand at once,
+// so that the memory stays bounded however slow w is.
+func (cw *fieldWriter) parallel(w io.Writer, bands, workers int) error {
+	type job struct {
+		band int
+		buf  []byte
+		done chan struct{}
+	}
+	inHand := 2 * workers
+	jobs := make(chan *job, inHand)  // to the workers
+	order := make(chan *job, inHand) // to the writer, in band order
+	free := make(chan []byte, inHand)
+	for range inHand {
+		free <- make([]byte, 0, cw.size)
+	}
+	stop := make(chan struct{}) // closed when the writer gives up
+	go func() {
+		defer close(jobs)
+		defer close(order)
+		for k := range bands {
+			select {
+			case <-stop:
+				return
+			default:
+			}
+			var buf []byte
+			select {
+			case buf = <-free:
+			case <-stop:
+				return
+			}
+			jb := &job{band: k, buf: buf, done: make(chan struct{})}
+			jobs <- jb
+			order <- jb
+		}
+	}()
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for jb := range jobs {
+				lo := jb.band * cw.rows
+				jb.buf = cw.band(jb.buf[:0], lo, min(lo+cw.rows, cw.f.Ny+1))
+				close(jb.done)
+			}
+		}()
+	}
+	var err error
+	for jb := range order {
+		<-jb.done
+		if err == nil {
+			if _, err = w.Write(jb.buf); err != nil {
+				close(stop)
+			}
+		}
+		free <- jb.buf
+	}
+	wg.Wait()
+	return err
 }
 
 // fieldWriter formats the rows of one field.
