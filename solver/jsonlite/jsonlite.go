@@ -333,6 +333,7 @@ type Writer struct {
 // Bytes returns the text written so far.
 func (w *Writer) Bytes() []byte { return w.b }
 
+//go:noinline
 func (w *Writer) sep() {
 	if w.key {
 		w.key = false
@@ -347,6 +348,7 @@ func (w *Writer) sep() {
 }
 
 // Open starts an object ('{') or an array ('[').
+//go:noinline
 func (w *Writer) Open(c byte) *Writer {
 	w.sep()
 	w.b = append(w.b, c)
@@ -355,6 +357,7 @@ func (w *Writer) Open(c byte) *Writer {
 }
 
 // Close ends the innermost object ('}') or array (']').
+//go:noinline
 func (w *Writer) Close(c byte) *Writer {
 	w.b = append(w.b, c)
 	w.first = w.first[:len(w.first)-1]
@@ -362,6 +365,7 @@ func (w *Writer) Close(c byte) *Writer {
 }
 
 // Key writes an object key; the next value belongs to it.
+//go:noinline
 func (w *Writer) Key(k string) *Writer {
 	w.sep()
 	w.b = appendString(w.b, k)
@@ -372,6 +376,7 @@ func (w *Writer) Key(k string) *Writer {
 
 // Num writes a number in the shortest form that reads back exactly; NaN
 // and infinities, which JSON cannot hold, are written as null.
+//go:noinline
 func (w *Writer) Num(v float64) *Writer {
 	w.sep()
 	if math.IsNaN(v) || math.IsInf(v, 0) {
@@ -386,6 +391,7 @@ func (w *Writer) Num(v float64) *Writer {
 }
 
 // Int writes an integer.
+//go:noinline
 func (w *Writer) Int(v int) *Writer {
 	w.sep()
 	w.b = strconv.AppendInt(w.b, int64(v), 10)
@@ -393,6 +399,7 @@ func (w *Writer) Int(v int) *Writer {
 }
 
 // Str writes a string.
+//go:noinline
 func (w *Writer) Str(s string) *Writer {
 	w.sep()
 	w.b = appendString(w.b, s)
@@ -400,6 +407,7 @@ func (w *Writer) Str(s string) *Writer {
 }
 
 // Bool writes true or false.
+//go:noinline
 func (w *Writer) Bool(v bool) *Writer {
 	w.sep()
 	w.b = strconv.AppendBool(w.b, v)
@@ -407,6 +415,7 @@ func (w *Writer) Bool(v bool) *Writer {
 }
 
 // Null writes null.
+//go:noinline
 func (w *Writer) Null() *Writer {
 	w.sep()
 	w.b = append(w.b, "null"...)
