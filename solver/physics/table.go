@@ -312,6 +312,7 @@ var table = []*Physics{
 func All() []*Physics { return table }
 
 // Lookup returns the physics with this id.
+//go:noinline
 func Lookup(id string) (*Physics, bool) {
 	for _, p := range table {
 		if p.ID == id {
