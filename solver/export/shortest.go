@@ -91,20 +91,27 @@ func shortest(u uint64) (s uint64, k int) {
 			return trimZeros(sp, k+1)
 		}
 	}
+	// From s >= 10 on, s or s+1 ends in a zero only when it is outside
+	// the interval (a multiple of ten inside it was taken above, the
+	// interval being too short for two), so what is returned has no
+	// trailing zero; below, 9 may round up to 10.
 	uIn := lower <= 4*s
 	wIn := 4*s+4 <= upper
 	if uIn != wIn {
 		if wIn {
 			s++
 		}
-		return trimZeros(s, k)
+	} else {
+		// both neighbours (or, never, neither): the nearer, the even on a tie
+		mid := 4*s + 2
+		if vb > mid || vb == mid && s&1 != 0 {
+			s++
+		}
 	}
-	// both neighbours (or, never, neither): the nearer, the even on a tie
-	mid := 4*s + 2
-	if vb > mid || vb == mid && s&1 != 0 {
-		s++
+	if s == 10 {
+		return 1, k + 1
 	}
-	return trimZeros(s, k)
+	return s, k
 }
 
 // roundToOdd returns floor(g cp / 2^128), its lowest bit set when the
@@ -173,8 +180,8 @@ func eightDigits(n uint32) uint64 {
 }
 
 // putDigits writes the nd decimal digits of s (< 10^17) at the start of d
-// from left to right in words of eight; d needs 8 bytes of room after
-// them, which it may overwrite.
+// from left to right, the last sixteen at most in words of eight; d needs
+// 8 bytes of room after them, which it may overwrite.
 func putDigits(d []byte, s uint64, nd int) {
 	var mid, lo uint32
 	switch {
@@ -185,9 +192,16 @@ func putDigits(d []byte, s uint64, nd int) {
 		lo = uint32(s % 1e8)
 		s /= 1e8
 	}
-	// the leading digits, left-aligned: their word's leading zeros dropped
+	// the leading digits, left-aligned
 	m := (nd-1)%8 + 1
-	binary.LittleEndian.PutUint64(d, eightDigits(uint32(s))>>(8*(8-m)))
+	switch {
+	case m == 1:
+		d[0] = byte('0' + s)
+	case m == 2:
+		d[0], d[1] = digitPairs[2*s], digitPairs[2*s+1]
+	default: // their word with its leading zeros dropped
+		binary.LittleEndian.PutUint64(d, eightDigits(uint32(s))>>(8*(8-m)))
+	}
 	if nd > 16 {
 		binary.LittleEndian.PutUint64(d[m:], eightDigits(mid))
 		m += 8
