@@ -216,7 +216,12 @@ func putDigits(d []byte, s uint64, nd int) {
 // are written straight into b, one place to the right, and the digits
 // before the point then moved left by one to make room for it.
 func appendDecimal(b []byte, s uint64, k int) []byte {
-	nd := numDigits(s)
+	nd := 16 // most: a normal number's 16 or 17 digits
+	if s >= 1e16 {
+		nd = 17
+	} else if s < 1e15 {
+		nd = numDigits(s)
+	}
 	dp := nd + k              // the decimal point after dp digits
 	b = slices.Grow(b, nd+16) // 8 for putDigits, and "0.0000" or "e+308" at most
 	n := len(b)
