@@ -109,6 +109,26 @@ func appendNum(b []byte, x float64) []byte {
 	return appendShortest(b, x)
 }
 
+// appendNegated appends the text of -x given the text t of x as appendNum
+// wrote it: the sign changed, 0 and NaN kept. Negation is exact, and the
+// shortest form of -x is that of x with a minus sign, so a unit
+// conductivity's flux column costs a copy instead of a formatting. t must
+// not overlap the bytes appended (b has the room: FieldCSV grows it per
+// node).
+func appendNegated(b, t []byte) []byte {
+	switch {
+	case t[0] == '-' && t[1] == 'I': // -Inf
+		return append(b, "+Inf"...)
+	case t[0] == '-':
+		return append(b, t[1:]...)
+	case t[0] == '+': // +Inf
+		return append(append(b, '-'), t[1:]...)
+	case len(t) == 1 && t[0] == '0', t[0] == 'N': // 0, NaN
+		return append(b, t...)
+	}
+	return append(append(b, '-'), t...)
+}
+
 // bandBytes is about how much text one band of rows is formatted into
 // before it is written: large enough that writes are few, small enough to
 // stay in cache.
@@ -223,10 +243,22 @@ func (cw *fieldWriter) band(b []byte, lo, hi int) []byte {
 			b = slices.Grow(b, nodeRoom)
 			b = y.put(cw.xs[i].put(b))
 			b = append(appendNum(b, u), ',')
+			gx := len(b)
 			b = append(appendNum(b, ux[i]), ',')
+			gy := len(b)
 			b = append(appendNum(b, uy[i]), ',')
-			b = append(appendNum(b, -f.Kx*ux[i]), ',')
-			b = append(appendNum(b, -f.Ky*uy[i]), '\r', '\n')
+			end := len(b)
+			if f.Kx == 1 { // the flux is the gradient negated, exactly
+				b = append(appendNegated(b, b[gx:gy-1]), ',')
+			} else {
+				b = append(appendNum(b, -f.Kx*ux[i]), ',')
+			}
+			if f.Ky == 1 {
+				b = appendNegated(b, b[gy:end-1])
+			} else {
+				b = appendNum(b, -f.Ky*uy[i])
+			}
+			b = append(b, '\r', '\n')
 		}
 	}
 	return b
