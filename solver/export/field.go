@@ -109,6 +109,14 @@ func appendNum(b []byte, x float64) []byte {
 	return appendShortest(b, x)
 }
 
+// appendFlux appends the flux -k g, given t, the text of g.
+func appendFlux(b []byte, k, g float64, t []byte) []byte {
+	if k == 1 { // the flux is the gradient negated, exactly
+		return appendNegated(b, t)
+	}
+	return appendNum(b, -k*g)
+}
+
 // appendNegated appends the text of -x given the text t of x as appendNum
 // wrote it: the sign changed, 0 and NaN kept. Negation is exact, and the
 // shortest form of -x is that of x with a minus sign, so a unit
@@ -248,17 +256,8 @@ func (cw *fieldWriter) band(b []byte, lo, hi int) []byte {
 			gy := len(b)
 			b = append(appendNum(b, uy[i]), ',')
 			end := len(b)
-			if f.Kx == 1 { // the flux is the gradient negated, exactly
-				b = append(appendNegated(b, b[gx:gy-1]), ',')
-			} else {
-				b = append(appendNum(b, -f.Kx*ux[i]), ',')
-			}
-			if f.Ky == 1 {
-				b = appendNegated(b, b[gy:end-1])
-			} else {
-				b = appendNum(b, -f.Ky*uy[i])
-			}
-			b = append(b, '\r', '\n')
+			b = append(appendFlux(b, f.Kx, ux[i], b[gx:gy-1]), ',')
+			b = append(appendFlux(b, f.Ky, uy[i], b[gy:end-1]), '\r', '\n')
 		}
 	}
 	return b
