@@ -14,6 +14,8 @@
 //	           also write the field along the line as CSV (101 places:
 //	           distance, x, y, value, gradient and flux; the page's
 //	           line-profile download)
+//	-cpuprofile FILE
+//	           write a processor profile of the run (go tool pprof)
 //
 // PROJECT.json may be "-" for standard input; either is read only up to
 // the size limit of a project file (1 MiB). On bad input it exits with
