@@ -12,7 +12,7 @@ GOJSEXEC  := $(GOROOT)/lib/wasm/go_js_wasm_exec
 RELEASE   ?= $(shell git describe --tags --always --dirty 2>/dev/null || echo unknown)
 NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
 
-.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist sizes size-baseline bench bench-browser fuzz clean
+.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist sizes size-baseline size-parts bench bench-browser fuzz clean
 
 all: build
 
@@ -130,6 +130,11 @@ size-baseline:
 	@{ echo "# make dist fails when an artefact grows more than 5% over its size here (bytes)"; \
 	  for f in $(SIZE_FILES); do echo "$${f%%=*} $$(stat -c %s $${f#*=})"; done; } > $(SIZE_BASELINE)
 	@cat $(SIZE_BASELINE)
+
+## size-parts: what app.wasm is made of, part by part (a build that keeps the function names)
+size-parts:
+	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-w' -o $${TMPDIR:-/tmp}/edgewise-parts.wasm ./wasm
+	$(GO) run ./scripts/wasmsize -funcs 20 $${TMPDIR:-/tmp}/edgewise-parts.wasm
 
 ## bench: the Go benchmarks
 bench:

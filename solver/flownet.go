@@ -1,10 +1,9 @@
 package solver
 
 import (
-	"cmp"
 	"fmt"
 	"math"
-	"slices"
+	"sort"
 
 	"edgewise/solver/contour"
 	"edgewise/solver/problem"
@@ -243,7 +242,9 @@ func edgeCorrection(pr *problem.Problem, r *Result, side problem.Side, acc []flo
 			}
 			cuts = append(cuts, cut{dist(at), left})
 		}
-		slices.SortFunc(cuts, func(a, b cut) int { return cmp.Compare(a.d, b.d) })
+		// sort.Slice, not slices.SortFunc: a generic sort of its own for
+		// this type made the engine 16 KB larger
+		sort.Slice(cuts, func(a, b int) bool { return cuts[a].d < cuts[b].d })
 		for _, c := range cuts {
 			knotD, knotC = append(knotD, c.d), append(knotC, c.exact-sumAt(c.d))
 		}

@@ -14,6 +14,8 @@
 //	           also write the field along the line as CSV (101 places:
 //	           distance, x, y, value, gradient and flux; the page's
 //	           line-profile download)
+//	-cpuprofile FILE
+//	           write a processor profile of the run (go tool pprof)
 //
 // PROJECT.json may be "-" for standard input; either is read only up to
 // the size limit of a project file (1 MiB). On bad input it exits with
@@ -33,6 +35,7 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"runtime/pprof"
 	"strconv"
 	"strings"
 
@@ -65,6 +68,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	studyPath := fs.String("study", "", "run the study in `STUDY.json` on the project and print CSV")
 	shard := fs.String("shard", "", "with -study: run only the rows whose index modulo N is I (`I/N`)")
 	jobs := fs.Int("j", 0, "with -study: solve `N` rows at once (0: one per core)")
+	cpuProfile := fs.String("cpuprofile", "", "write a processor profile of the run to `FILE` (for go tool pprof)")
 	fs.Usage = func() {
 		fmt.Fprintln(stderr, "usage: solve [-grid N] [-csv FILE] [-profile FILE -line X0,Y0,X1,Y1] PROJECT.json\n       solve -study STUDY.json [-shard I/N] [-j N] [-grid N] PROJECT.json")
 		fs.PrintDefaults()
@@ -75,6 +79,14 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 	if fs.NArg() != 1 {
 		fs.Usage()
 		return 1
+	}
+	if *cpuProfile != "" {
+		stop, err := startProfile(*cpuProfile)
+		if err != nil {
+			fmt.Fprintln(stderr, project.Shorten(err.Error()))
+			return 1
+		}
+		defer stop()
 	}
 	grid, err := gridFlag(gridText)
 	if err != nil {
@@ -213,6 +225,20 @@ func readProject(name string, stdin io.Reader) ([]byte, error) {
 		return nil, fmt.Errorf("project file is larger than %d bytes", project.MaxFileBytes)
 	}
 	return data, nil
+}
+
+// startProfile starts a processor profile into the named file; the
+// returned function stops it and closes the file.
+func startProfile(path string) (stop func(), err error) {
+	f, err := os.Create(path)
+	if err != nil {
+		return nil, fmt.Errorf("-cpuprofile: %v", err)
+	}
+	if err := pprof.StartCPUProfile(f); err != nil {
+		f.Close()
+		return nil, fmt.Errorf("-cpuprofile: %v", err)
+	}
+	return func() { pprof.StopCPUProfile(); f.Close() }, nil
 }
 
 func writeCSV(path string, p *project.Project, out *solver.Output) error {

@@ -220,3 +220,31 @@ func TestSolveProfile(t *testing.T) {
 		t.Errorf("value at the centre %q, want 0.25", mid)
 	}
 }
+
+// -cpuprofile writes a profile (a gzipped protocol buffer) beside the
+// usual result; a path that cannot be created is one line naming the flag.
+func TestCPUProfile(t *testing.T) {
+	dir := t.TempDir()
+	proj := filepath.Join(dir, "p.json")
+	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	prof := filepath.Join(dir, "cpu.prof")
+	var out, errb bytes.Buffer
+	if st := run([]string{"-cpuprofile", prof, "-grid", "8", proj}, nil, &out, &errb); st != 0 {
+		t.Fatalf("exit %d, stderr %q", st, errb.String())
+	}
+	data, err := os.ReadFile(prof)
+	if err != nil || len(data) < 2 || data[0] != 0x1f || data[1] != 0x8b {
+		t.Fatalf("profile: %d bytes, %v", len(data), err)
+	}
+	if !strings.Contains(out.String(), `"schema":"edgewise-result/1"`) {
+		t.Errorf("no result with -cpuprofile: %q", out.String())
+	}
+	out.Reset()
+	errb.Reset()
+	if st := run([]string{"-cpuprofile", filepath.Join(dir, "no", "such", "dir", "x"), proj}, nil, &out, &errb); st != 1 ||
+		!strings.HasPrefix(errb.String(), "-cpuprofile: ") || strings.Count(errb.String(), "\n") != 1 {
+		t.Errorf("bad path: exit %d, stderr %q", st, errb.String())
+	}
+}

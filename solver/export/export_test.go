@@ -299,6 +299,71 @@ type failWriter struct{}
 
 func (failWriter) Write([]byte) (int, error) { return 0, errors.New("disk full") }
 
+// With a unit conductivity the flux columns are the gradient's text
+// negated (no formatting); they are what formatting -grad gives, for
+// every kind of value: signs, zeros of both signs, NaN, infinities,
+// subnormals, the %e and %f layouts.
+func TestFieldCSVUnitConductivity(t *testing.T) {
+	special := []float64{0, math.Copysign(0, -1), math.NaN(), math.Inf(1), math.Inf(-1), 5e-324, -5e-324,
+		1e21, -1e-7, 0.5, -0.5, 123456, -1234567, 1, -1}
+	for _, k := range [][2]float64{{1, 1}, {1, 2.5}, {2.5, 1}} {
+		f := benchField(40)
+		f.Kx, f.Ky = k[0], k[1]
+		for i, v := range special {
+			f.Ux[3*i], f.Uy[3*i+1] = v, -v
+		}
+		var b bytes.Buffer
+		if err := FieldCSV(&b, f); err != nil {
+			t.Fatal(err)
+		}
+		recs, err := csv.NewReader(&b).ReadAll()
+		if err != nil {
+			t.Fatal(err)
+		}
+		text := func(x float64) string { return string(appendNum(nil, x)) }
+		for r, rec := range recs[1:] {
+			want := []string{text(-f.Kx * f.Ux[r]), text(-f.Ky * f.Uy[r])}
+			if rec[5] != want[0] || rec[6] != want[1] {
+				t.Fatalf("K %v, node %d (grad %q %q): flux %q %q, want %q %q", k, r, rec[3], rec[4], rec[5], rec[6], want[0], want[1])
+			}
+		}
+	}
+	if s := string(appendNum(nil, math.Inf(1))); s != "+Inf" {
+		t.Fatalf("+Inf is written %q: appendNegated expects +Inf", s)
+	}
+}
+
+// failAfter fails every write after the first n.
+type failAfter struct{ n, writes int }
+
+func (w *failAfter) Write(p []byte) (int, error) {
+	if w.writes++; w.writes > w.n {
+		return 0, errors.New("disk full")
+	}
+	return len(p), nil
+}
+
+// A write that fails part way through a field of many bands, formatted
+// in parallel, ends the writing with that error (and the workers: the
+// next call finds no band left over) after no further write.
+func TestFieldCSVWriteFailsMidway(t *testing.T) {
+	f := benchField(300)
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
+	for _, n := range []int{0, 1, 3} {
+		w := &failAfter{n: n}
+		if err := FieldCSV(w, f); err == nil || err.Error() != "disk full" {
+			t.Fatalf("after %d writes: error %v, want disk full", n, err)
+		}
+		if w.writes != n+1 {
+			t.Errorf("after the failed write %d: %d writes in all, want none more", n+1, w.writes)
+		}
+	}
+	var b bytes.Buffer
+	if err := FieldCSV(&b, f); err != nil || b.Len() == 0 {
+		t.Fatalf("after failures: %v, %d bytes", err, b.Len())
+	}
+}
+
 func TestWriteErrorsReturned(t *testing.T) {
 	if err := FieldCSV(failWriter{}, demoField()); err == nil {
 		t.Error("FieldCSV: write error lost")
@@ -506,21 +571,46 @@ func BenchmarkSVG(b *testing.B) {
 }
 
 // BenchmarkFieldCSV writes an (n+1) x (n+1) node field with gradients, the
-// file the runner's -csv and the page's field download make.
+// file the runner's -csv and the page's field download make, to a writer
+// that only counts (so that the figure is the formatting, not the growth
+// of a buffer or the disk). It reports the wall time and the processor
+// time a number; run it with -cpu 1,2 for one processor and two.
+//
+// "512,k=1" is the same field with a unit conductivity, whose flux columns
+// are copied from the gradient's text.
 func BenchmarkFieldCSV(b *testing.B) {
-	for _, n := range []int{64, 256, 512, 1024} {
-		f := benchField(n)
-		b.Run(fmt.Sprint(n), func(b *testing.B) {
-			var buf bytes.Buffer
+	for _, c := range []struct {
+		n    int
+		unit bool
+	}{{64, false}, {256, false}, {512, false}, {512, true}, {1024, false}} {
+		n, f, name := c.n, benchField(c.n), fmt.Sprint(c.n)
+		if c.unit {
+			f.Kx, f.Ky, name = 1, 1, name+",k=1"
+		}
+		b.Run(name, func(b *testing.B) {
+			var w countWriter
+			numbers := float64(5 * (n + 1) * (n + 1))
+			cpu := processorTime()
 			for b.Loop() {
-				buf.Reset()
-				if err := FieldCSV(&buf, f); err != nil {
+				w = 0
+				if err := FieldCSV(&w, f); err != nil {
 					b.Fatal(err)
 				}
 			}
-			b.SetBytes(int64(buf.Len()))
+			cpu = processorTime() - cpu
+			b.SetBytes(int64(w))
+			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/(float64(b.N)*numbers), "ns/number")
+			b.ReportMetric(float64(cpu.Nanoseconds())/(float64(b.N)*numbers), "cpu-ns/number")
 		})
 	}
+}
+
+// countWriter counts the bytes written to it.
+type countWriter int
+
+func (c *countWriter) Write(p []byte) (int, error) {
+	*c += countWriter(len(p))
+	return len(p), nil
 }
 
 // benchField is an invented smooth field on 0.4 m x 0.15 m with its exact

@@ -5,8 +5,7 @@ import (
 	"io"
 	"math"
 	"runtime"
-	"strconv"
-	"sync"
+	"slices"
 )
 
 // Units names what the numbers in an export mean.
@@ -101,12 +100,41 @@ func appendHeader(b []byte, cols []string) []byte {
 }
 
 // appendNum appends one number in the shortest form that reads back
-// exactly; a zero is written 0, never -0, and a missing value NaN.
+// exactly, as strconv's 'g' with precision -1 writes it (appendShortest,
+// twice as fast); a zero is written 0, never -0, and a missing value NaN.
 func appendNum(b []byte, x float64) []byte {
 	if x == 0 {
 		return append(b, '0')
 	}
-	return strconv.AppendFloat(b, x, 'g', -1, 64)
+	return appendShortest(b, x)
+}
+
+// appendFlux appends the flux -k g, given t, the text of g.
+func appendFlux(b []byte, k, g float64, t []byte) []byte {
+	if k == 1 { // the flux is the gradient negated, exactly
+		return appendNegated(b, t)
+	}
+	return appendNum(b, -k*g)
+}
+
+// appendNegated appends the text of -x given the text t of x as appendNum
+// wrote it: the sign changed, 0 and NaN kept. Negation is exact, and the
+// shortest form of -x is that of x with a minus sign, so a unit
+// conductivity's flux column costs a copy instead of a formatting. t must
+// not overlap the bytes appended (b has the room: FieldCSV grows it per
+// node).
+func appendNegated(b, t []byte) []byte {
+	switch {
+	case t[0] == '-' && t[1] == 'I': // -Inf
+		return append(b, "+Inf"...)
+	case t[0] == '-':
+		return append(b, t[1:]...)
+	case t[0] == '+': // +Inf
+		return append(append(b, '-'), t[1:]...)
+	case len(t) == 1 && t[0] == '0', t[0] == 'N': // 0, NaN
+		return append(b, t...)
+	}
+	return append(append(b, '-'), t...)
 }
 
 // bandBytes is about how much text one band of rows is formatted into
@@ -119,11 +147,12 @@ const bandBytes = 256 << 10
 // failed write.
 //
 // The text is made in bands of whole grid rows, each band appended into
-// one reused buffer and written with one Write call (w needs no buffering
+// a reused buffer and written with one Write call (w needs no buffering
 // of its own). The x column repeats on every grid row and y is the same
 // along one, so each is formatted once. Where more than one processor is
 // available (natively; WebAssembly has one) the bands are formatted in
-// parallel and written in order: the output is the same byte for byte.
+// parallel while the finished ones are written, in order: the output is
+// the same byte for byte.
 func FieldCSV(w io.Writer, f *Field) error {
 	if err := f.check(); err != nil {
 		return err
@@ -132,35 +161,20 @@ func FieldCSV(w io.Writer, f *Field) error {
 	if _, err := w.Write(appendHeader(nil, f.header(f.Ux != nil))); err != nil {
 		return err
 	}
-	workers := min(runtime.GOMAXPROCS(0), 8, (f.Ny+1+cw.rows-1)/cw.rows)
-	bufs := make([][]byte, workers)
-	for k := range bufs {
-		bufs[k] = make([]byte, 0, cw.size)
+	bands := (f.Ny + cw.rows) / cw.rows
+	if workers := min(runtime.GOMAXPROCS(0), 8, bands); workers > 1 {
+		return cw.parallel(w, bands, workers)
 	}
-	for j := 0; j <= f.Ny; j += workers * cw.rows {
-		// one round: worker k formats band k of the round
-		var wg sync.WaitGroup
-		for k := 1; k < workers; k++ {
-			lo := j + k*cw.rows
-			if lo > f.Ny {
-				bufs[k] = bufs[k][:0]
-				continue
-			}
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				bufs[k] = cw.band(bufs[k][:0], lo, min(lo+cw.rows, f.Ny+1))
-			}()
-		}
-		bufs[0] = cw.band(bufs[0][:0], j, min(j+cw.rows, f.Ny+1))
-		wg.Wait()
-		for _, b := range bufs {
-			if len(b) == 0 {
-				continue
-			}
-			if _, err := w.Write(b); err != nil {
-				return err
-			}
+	return cw.serial(w)
+}
+
+// serial formats and writes the bands one after another in one buffer.
+func (cw *fieldWriter) serial(w io.Writer) error {
+	b := make([]byte, 0, cw.size)
+	for j := 0; j <= cw.f.Ny; j += cw.rows {
+		b = cw.band(b[:0], j, min(j+cw.rows, cw.f.Ny+1))
+		if _, err := w.Write(b); err != nil {
+			return err
 		}
 	}
 	return nil
@@ -169,38 +183,64 @@ func FieldCSV(w io.Writer, f *Field) error {
 // fieldWriter formats the rows of one field.
 type fieldWriter struct {
 	f    *Field
-	xs   []byte // the x column's texts, each followed by a comma
-	xoff []int  // xs[xoff[i]:xoff[i+1]] is node i's
+	xs   []cell // the x column's texts, each followed by a comma
 	rows int    // grid rows per band
 	size int    // bytes a band can take
 }
 
+// A cell holds a number's text and a comma (at most 25 bytes) in its
+// first len bytes. Copied whole, it moves with a few word stores instead
+// of a call to copy the bytes (the x and y columns are a fifth of the
+// file).
+type cell struct {
+	text [31]byte
+	len  uint8
+}
+
+func newCell(x float64) cell {
+	var c cell
+	c.len = uint8(copy(c.text[:], append(appendNum(c.text[:0], x), ',')))
+	return c
+}
+
+// put writes c at the end of b, which needs 31 bytes of room.
+func (c *cell) put(b []byte) []byte {
+	n := len(b)
+	*(*[31]byte)(b[n : n+31]) = c.text
+	return b[:n+int(c.len)]
+}
+
 func newFieldWriter(f *Field) *fieldWriter {
-	cw := &fieldWriter{f: f, xoff: make([]int, f.Nx+2)}
-	for i := 0; i <= f.Nx; i++ {
-		cw.xs = append(appendNum(cw.xs, f.x(i)), ',')
-		cw.xoff[i+1] = len(cw.xs)
+	cw := &fieldWriter{f: f, xs: make([]cell, f.Nx+1)}
+	xlen := 0
+	for i := range cw.xs {
+		cw.xs[i] = newCell(f.x(i))
+		xlen += int(cw.xs[i].len)
 	}
-	perNode := len(cw.xs)/(f.Nx+1) + 3*24 // x, then up to 24 bytes a number
+	perNode := xlen/(f.Nx+1) + 3*24 // x, then up to 24 bytes a number
 	if f.Ux != nil {
 		perNode += 4 * 24
 	}
 	cw.rows = max(1, bandBytes/(perNode*(f.Nx+1)))
-	cw.size = cw.rows * perNode * (f.Nx + 1)
+	cw.size = cw.rows*perNode*(f.Nx+1) + nodeRoom
 	return cw
 }
+
+// nodeRoom is the room one node's line can take: x and y as whole cells,
+// five numbers of at most 24 bytes with their separators, and the slack
+// of appendShortest.
+const nodeRoom = 2*31 + 5*25 + 1 + 16
 
 // band appends grid rows lo to hi-1 to b.
 func (cw *fieldWriter) band(b []byte, lo, hi int) []byte {
 	f := cw.f
-	var y []byte
 	for j := lo; j < hi; j++ {
-		y = append(appendNum(y[:0], f.y(j)), ',')
+		y := newCell(f.y(j))
 		row := f.U[j*(f.Nx+1) : (j+1)*(f.Nx+1)]
 		if f.Ux == nil {
 			for i, u := range row {
-				b = append(b, cw.xs[cw.xoff[i]:cw.xoff[i+1]]...)
-				b = append(b, y...)
+				b = slices.Grow(b, nodeRoom)
+				b = y.put(cw.xs[i].put(b))
 				b = append(appendNum(b, u), '\r', '\n')
 			}
 			continue
@@ -208,13 +248,16 @@ func (cw *fieldWriter) band(b []byte, lo, hi int) []byte {
 		ux := f.Ux[j*(f.Nx+1) : (j+1)*(f.Nx+1)]
 		uy := f.Uy[j*(f.Nx+1) : (j+1)*(f.Nx+1)]
 		for i, u := range row {
-			b = append(b, cw.xs[cw.xoff[i]:cw.xoff[i+1]]...)
-			b = append(b, y...)
+			b = slices.Grow(b, nodeRoom)
+			b = y.put(cw.xs[i].put(b))
 			b = append(appendNum(b, u), ',')
+			gx := len(b)
 			b = append(appendNum(b, ux[i]), ',')
+			gy := len(b)
 			b = append(appendNum(b, uy[i]), ',')
-			b = append(appendNum(b, -f.Kx*ux[i]), ',')
-			b = append(appendNum(b, -f.Ky*uy[i]), '\r', '\n')
+			end := len(b)
+			b = append(appendFlux(b, f.Kx, ux[i], b[gx:gy-1]), ',')
+			b = append(appendFlux(b, f.Ky, uy[i], b[gy:end-1]), '\r', '\n')
 		}
 	}
 	return b

@@ -20,6 +20,8 @@ func (e *Error) Error() string { return fmt.Sprintf("col %d: %s", e.Col, e.Msg) 
 type bailout struct{ err *Error }
 
 // failAt stops compilation with an error at byte offset off (0-based).
+//
+//go:noinline
 func failAt(off int, format string, args ...any) {
 	panic(bailout{&Error{Col: off + 1, Msg: fmt.Sprintf(format, args...)}})
 }

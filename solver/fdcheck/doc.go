@@ -35,9 +35,10 @@
 //
 // Written this way the matrix is symmetric and positive (semi)definite; it is
 // stored as a band matrix (numbering the nodes along the shorter side, so the
-// bandwidth is min(Nx, Ny) + 1) and solved by gonum's band Cholesky (the
-// lapack64 Pbtrf/Pbtrs pair that mat.BandCholesky wraps, without its
-// condition estimate, which costs more than the solve). The cost is about (Nx+1)(Ny+1) (min(Nx,Ny)+1)^2
+// bandwidth is min(Nx, Ny) + 1) and solved by a band Cholesky
+// factorization (linalg.CholeskyBand, tested against gonum's lapack64
+// Pbtrf/Pbtrs; no condition estimate, which would cost more than the
+// solve). The cost is about (Nx+1)(Ny+1) (min(Nx,Ny)+1)^2
 // operations; grids up to about 64 x 64 intervals are cheap, larger ones are
 // not meant for this package.
 //

@@ -4,10 +4,7 @@ import (
 	"fmt"
 	"math"
 
-	"gonum.org/v1/gonum/blas"
-	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/lapack/lapack64"
-
+	"edgewise/solver/linalg"
 	"edgewise/solver/problem"
 )
 
@@ -401,20 +398,17 @@ func (s *system) checkBalance() error {
 	return nil
 }
 
-// solve factorizes the system and solves it into s.u.
-//
-// It calls the band Cholesky routines under mat.BandCholesky (lapack64
-// Pbtrf and Pbtrs) directly: BandCholesky.Factorize also estimates the
-// condition number, which took most of the time of a whole solve. The
-// system is an M-matrix by construction, so a failed factorization or a
-// non-finite result means data far outside any physical range.
+// solve factorizes the system and solves it into s.u, by the band
+// Cholesky of linalg (the same factor as LAPACK's Pbtrf/Pbtrs, checked
+// against gonum's in linalg's tests; gonum's BLAS and LAPACK are no longer
+// linked into the engine for it). The system is an M-matrix by
+// construction, so a failed factorization or a non-finite result means
+// data far outside any physical range.
 func (s *system) solve() error {
-	a := blas64.SymmetricBand{Uplo: blas.Upper, N: s.n, K: s.k, Stride: s.k + 1, Data: s.band}
-	t, ok := lapack64.Pbtrf(a)
-	if !ok {
+	if !linalg.CholeskyBand(s.band, s.n, s.k) {
 		return fmt.Errorf("fdcheck: the %d x %d grid system is not positive definite", s.nx, s.ny)
 	}
-	lapack64.Pbtrs(t, blas64.General{Rows: s.n, Cols: 1, Stride: 1, Data: s.rhs})
+	linalg.SolveBand(s.band, s.n, s.k, s.rhs)
 	for _, v := range s.rhs {
 		if v-v != 0 {
 			return fmt.Errorf("fdcheck: the %d x %d grid system gave a non-finite result (data out of range)", s.nx, s.ny)

@@ -23,7 +23,7 @@ func answerTables(p *project.Project, out *solver.Output, sh *shown) []Table {
 	l := solver.Units(p.Physics)
 	tm := physics.Get(p.Physics).Terms
 	var list []Table
-	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
+	add := addRow
 
 	perLength := sh.perLength(tm)
 	edges := Table{Caption: "Along each edge", Head: []string{"edge", with("mean "+l.Value, sh.unit("value")), with(tm.PerLength, perLength.Unit)}}

@@ -138,7 +138,7 @@ func Build(p *project.Project, out *solver.Output, date, version string) *Report
 	}
 
 	rep.Inputs = Table{Caption: "Rectangle, material and source", Head: []string{"input", "value"}}
-	add := func(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }
+	add := addRow
 	add(&rep.Inputs, "physics", p.Physics)
 	add(&rep.Inputs, with("width W", sh.unit("length")), sh.num("length", p.Width))
 	add(&rep.Inputs, with("height H", sh.unit("length")), sh.num("length", p.Height))

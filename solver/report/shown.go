@@ -140,7 +140,9 @@ func (s *shown) num(role string, v float64) string {
 	return num(v*c.Scale + c.Offset)
 }
 func (s *shown) diff(role string, v float64) string { return num(v * s.conv(role).Scale) }
-func (s *shown) unit(role string) string            { return s.conv(role).Unit }
+
+//go:noinline
+func (s *shown) unit(role string) string { return s.conv(role).Unit }
 
 // conductance returns how a conductance per metre is shown (it converts
 // like the material constant for heat and electrostatics; seepage keeps

@@ -11,9 +11,17 @@ func exportUnits(u solver.UnitSet) export.Units {
 }
 
 // with writes "name [unit]", or the bare name when there is no unit.
+//
+//go:noinline
 func with(name, unit string) string {
 	if unit == "" {
 		return name
 	}
 	return name + " [" + unit + "]"
 }
+
+// addRow appends a row to the table. It is kept out of line: inlined at
+// its many calls it made the engine's WebAssembly larger.
+//
+//go:noinline
+func addRow(t *Table, cells ...string) { t.Rows = append(t.Rows, cells) }

@@ -78,6 +78,7 @@ type decoder struct {
 	err *project.Error
 }
 
+//go:noinline
 func (d *decoder) fail(path, format string, args ...any) {
 	if d.err == nil {
 		d.err = project.Errorf(path, format, args...)
