@@ -3,9 +3,10 @@
 // pivoting and a minimum-norm least-squares solve by a one-sided Jacobi
 // singular value decomposition (Hestenes' method); for the spectral
 // cross-check, the eigenvalues and eigenvectors of a symmetric matrix by
-// the cyclic Jacobi method.
+// the cyclic Jacobi method; for the finite-difference cross-check, a band
+// Cholesky factorisation and solve (band.go).
 //
-// The systems are tiny (tens of rows and columns). gonum's mat package
+// The dense systems are tiny (tens of rows and columns). gonum's mat package
 // solves them just as well, but linking it brings most of gonum's LAPACK
 // into the WebAssembly engine (about 0.5 MB); these few dozen lines do not.
 // The tests check the routines against gonum's mat on seeded random
