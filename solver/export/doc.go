@@ -9,7 +9,9 @@
 // written in the shortest representation that reads back exactly, byte for
 // byte as strconv's 'g' with precision -1 writes them (by a formatter of
 // this package, shortest.go, twice as fast; the tests compare the two); a
-// missing value is written NaN, a zero 0 (never -0).
+// zero is written 0 (never -0), a missing value of the field NaN, and a
+// number a probe has not (its gradient where that is unbounded) an empty
+// cell.
 //
 // Text cells (labels, the header) are guarded against formula injection
 // (common practice): the text is cut at every comma, semicolon, tab and
@@ -30,8 +32,9 @@
 //
 // Probes CSV: one row per probe, columns
 //
-//	label, x [L], y [L], <quantity> [U], grad_x [U/L], grad_y [U/L], flux_x [F], flux_y [F]
+//	label, x [L], y [L], <quantity> [U], grad_x [U/L], grad_y [U/L], flux_x [F], flux_y [F], note
 //
+// where note says why a cell is empty (or is empty itself).
 // SVG: a standalone SVG 1.1/2 document in the SVG namespace only (no other
 // URL, no script, no external reference). The rectangle is drawn to scale
 // (PixelW pixels wide, at most twice that tall), the field as an embedded

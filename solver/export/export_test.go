@@ -263,7 +263,8 @@ func TestProbesCSV(t *testing.T) {
 	for k, h := range hostile {
 		ps = append(ps, Probe{Label: h.in, X: 0.1 * float64(k), Y: 0.05, Value: 20 + float64(k), Gx: 1e-7, Gy: -3, Qx: -2e-7, Qy: 1.5})
 	}
-	ps[0].Value = math.NaN()
+	ps[0].Gx, ps[0].Gy, ps[0].Qx, ps[0].Qy = math.NaN(), math.NaN(), math.NaN(), math.NaN()
+	ps[0].Note = "unbounded: move the probe off the corner"
 	u := Units{Quantity: "temperature", Unit: "K", FluxUnit: "W/m2", LengthUnit: "m"}
 	var b bytes.Buffer
 	if err := ProbesCSV(&b, ps, u); err != nil {
@@ -274,7 +275,7 @@ func TestProbesCSV(t *testing.T) {
 	if err != nil {
 		t.Fatalf("re-read: %v", err)
 	}
-	want := "label|x [m]|y [m]|temperature [K]|grad_x [K/m]|grad_y [K/m]|flux_x [W/m2]|flux_y [W/m2]"
+	want := "label|x [m]|y [m]|temperature [K]|grad_x [K/m]|grad_y [K/m]|flux_x [W/m2]|flux_y [W/m2]|note"
 	if got := strings.Join(recs[0], "|"); got != want {
 		t.Errorf("header %q, want %q", got, want)
 	}
@@ -290,8 +291,12 @@ func TestProbesCSV(t *testing.T) {
 			t.Errorf("probe %d: x %q, want %v", k, rec[1], ps[k].X)
 		}
 	}
-	if recs[1][3] != "NaN" {
-		t.Errorf("missing value written %q, want NaN", recs[1][3])
+	// a gradient the probe has not: empty cells, and the note says why
+	if got := strings.Join(recs[1][4:], "|"); got != "||||"+ps[0].Note {
+		t.Errorf("unbounded gradient written %q, want empty cells and the note", got)
+	}
+	if recs[2][8] != "" || recs[2][4] == "" {
+		t.Errorf("probe with a gradient: %q", recs[2])
 	}
 }
 

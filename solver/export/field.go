@@ -270,18 +270,24 @@ type Probe struct {
 	Value  float64
 	Gx, Gy float64 // gradient
 	Qx, Qy float64 // flux
+	Note   string  // why a number is missing (the gradient is unbounded there), or ""
 }
 
-// ProbesCSV writes the probes as CSV, one row per probe, labels guarded
-// and quoted (see the package comment). It returns an error only for a
-// failed write.
+// ProbesCSV writes the probes as CSV, one row per probe, labels and notes
+// guarded and quoted (see the package comment); a number the probe has
+// not (NaN) is an empty cell, and the note says why. It returns an error
+// only for a failed write.
 func ProbesCSV(w io.Writer, ps []Probe, u Units) error {
-	b := appendHeader(nil, append([]string{"label"}, u.header(true)...))
+	b := appendHeader(nil, append(append([]string{"label"}, u.header(true)...), "note"))
 	for _, p := range ps {
 		b = appendText(b, p.Label)
 		for _, v := range []float64{p.X, p.Y, p.Value, p.Gx, p.Gy, p.Qx, p.Qy} {
-			b = appendNum(append(b, ','), v)
+			b = append(b, ',')
+			if v == v {
+				b = appendNum(b, v)
+			}
 		}
+		b = appendText(append(b, ','), p.Note)
 		b = append(b, '\r', '\n')
 	}
 	_, err := w.Write(b)

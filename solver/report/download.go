@@ -57,7 +57,7 @@ func Make(kind string, p *project.Project, out *solver.Output, opt PictureOption
 		ps := make([]export.Probe, len(out.Result.Probes))
 		for i, q := range out.Result.Probes {
 			ps[i] = export.Probe{Label: q.Label, X: q.X, Y: q.Y, Value: q.Value,
-				Gx: q.Gradient[0], Gy: q.Gradient[1], Qx: q.Flux[0], Qy: q.Flux[1]}
+				Gx: q.Gradient[0], Gy: q.Gradient[1], Qx: q.Flux[0], Qy: q.Flux[1], Note: q.Unbounded}
 		}
 		if err := export.ProbesCSV(&b, ps, exportUnits(l)); err != nil {
 			return nil, err
