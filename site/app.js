@@ -55,6 +55,7 @@
       const p = (EW.firstGuess && (await EW.firstGuess())) || (await demo());
       if (p && !store.project()) {
         EW.fill(p);
+        performance.mark("ew:form");
         root.dataset.formAt = performance.now().toFixed(1);
       }
     } catch (e) { /* the boot below says what went wrong */ }
@@ -63,6 +64,7 @@
   // Boot after the other scripts have run: the engine starts at once, the
   // form is filled meanwhile.
   setTimeout(async () => {
+    performance.mark("ew:boot");
     const colours = engine.call("colours", 256);
     colours.catch(() => {});
     await firstForm();

@@ -2,13 +2,17 @@
 // functions for the page, so the page never freezes.
 //
 // Messages in:
-//   {type: "init", wasm: ArrayBuffer | null}   (null: fetch app.wasm next to this file)
+//   {type: "init", module?, text?}             the engine: a compiled WebAssembly.Module, or the
+//                                              single file's engine text (scripts/bundle), or
+//                                              neither: fetch app.wasm next to this file
 //   {type: "call", id, fn, args, hold}         runs the engine function edgewise_<fn>(...args);
 //                                              with hold set, not before a "release" (a test hook
 //                                              that makes "a solve in flight" last as long as a test needs)
 //   {type: "release"}                          lets every held call run
 // Messages out:
-//   {type: "ready"} | {type: "fatal", error}
+//   {type: "ready", at, module} | {type: "fatal", error}
+//                                              at: when the start's steps ended (ms since the epoch);
+//                                              module: the compiled engine, for the next worker
 //   {type: "reply", id, value, ms}             value as the engine returned it
 // Typed arrays at the top level of a returned object are transferred to the
 // page, not copied.
@@ -19,26 +23,48 @@ if (typeof Go === "undefined") {
 }
 
 let ready = null;
+const at = {}; // when the start's steps ended, in ms since the epoch (the page marks them)
+const now = () => performance.timeOrigin + performance.now();
 let held = []; // resolvers of the calls waiting for a release
 
-async function start(bytes) {
-  const go = new Go();
-  let module;
-  if (bytes) {
-    module = await WebAssembly.instantiate(bytes, go.importObject);
-  } else {
-    const url = new URL("app.wasm", self.location.href);
+// compile returns the engine as a WebAssembly.Module, from what "init"
+// brought: the module itself (a restart), the single file's text (base 85
+// of gzip, decoded as a stream by edgewiseEngineStream, which the bundler
+// puts before this file: base-85 decoding, gunzip and compiling overlap),
+// or else app.wasm next to this file.
+async function compile(msg) {
+  if (msg.module) return msg.module;
+  if (typeof msg.text === "string") {
+    const wasm = () => self.edgewiseEngineStream(msg.text).pipeThrough(new DecompressionStream("gzip"));
     try {
-      module = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+      return await WebAssembly.compileStreaming(new Response(wasm(), { headers: { "Content-Type": "application/wasm" } }));
     } catch (e) {
-      // a server that does not send application/wasm: fall back to bytes
-      const resp = await fetch(url);
-      if (!resp.ok) throw new Error("could not load the engine (" + resp.status + ")");
-      module = await WebAssembly.instantiate(await resp.arrayBuffer(), go.importObject);
+      // a browser without streaming compilation: the whole bytes
+      return WebAssembly.compile(await new Response(wasm()).arrayBuffer());
     }
   }
-  go.run(module.instance); // registers the edgewise_* functions, then waits forever
+  const url = new URL("app.wasm", self.location.href);
+  try {
+    return await WebAssembly.compileStreaming(fetch(url));
+  } catch (e) {
+    // a server that does not send application/wasm: fall back to bytes
+    const resp = await fetch(url);
+    if (!resp.ok) throw new Error("could not load the engine (" + resp.status + ")");
+    return WebAssembly.compile(await resp.arrayBuffer());
+  }
+}
+
+// start compiles and starts the engine; it resolves with the module.
+async function start(msg) {
+  at.init = now();
+  const go = new Go();
+  const module = await compile(msg);
+  at.compiled = now();
+  const instance = await WebAssembly.instantiate(module, go.importObject);
+  go.run(instance); // registers the edgewise_* functions, then waits forever
   if (typeof self.edgewise_solve !== "function") throw new Error("the engine did not start");
+  at.started = now();
+  return module;
 }
 
 function transferables(value) {
@@ -55,10 +81,15 @@ function transferables(value) {
 self.onmessage = async (ev) => {
   const msg = ev.data;
   if (msg.type === "init") {
-    ready = start(msg.wasm);
+    ready = start(msg);
     try {
-      await ready;
-      self.postMessage({ type: "ready" });
+      const module = await ready;
+      // the page keeps the compiled engine for the next worker (a restart)
+      try {
+        self.postMessage({ type: "ready", at, module });
+      } catch (e) {
+        self.postMessage({ type: "ready", at });
+      }
     } catch (e) {
       self.postMessage({ type: "fatal", error: String((e && e.message) || e) });
     }

@@ -26,30 +26,52 @@ func encode85(data []byte) string {
 	return string(out)
 }
 
-// decode85JS is the page's decoder for encode85 (the inverse: a final
+// decode85JS is the worker's decoder for encode85 (the inverse: a final
 // group of m < 5 digits is padded with the largest digit and gives m-1
-// bytes). It defines edgewiseEngineBytes(), which the page calls to get the
-// engine: the decoded text is gzip, undone with DecompressionStream.
+// bytes). It defines edgewiseEngineStream(text), a stream of the decoded
+// bytes that decodes a slice of the text each time its reader asks for
+// more, so that gunzip and compiling run on each slice while the next is
+// decoded (site/worker.js).
 const decode85JS = `"use strict";
-window.edgewiseEngineBytes = async function () {
+self.edgewiseEngineStream = function (text) {
   const A = "` + alphabet85 + `";
   const val = new Int8Array(128).fill(-1);
   for (let i = 0; i < 85; i++) val[A.charCodeAt(i)] = i;
-  const s = document.getElementById("ew-wasm").textContent.trim();
+  const s = text.trim();
   const n = s.length, full = Math.floor(n / 5), rest = n % 5;
-  if (rest === 1) throw new Error("the embedded engine is damaged");
-  const out = new Uint8Array(full * 4 + (rest ? rest - 1 : 0));
-  let o = 0;
-  for (let i = 0; i < n; i += 5) {
+  const damaged = () => new Error("the embedded engine is damaged");
+  const group = (i, m) => { // the value of the 5 digits at i, of which m are there
     let v = 0;
     for (let j = 0; j < 5; j++) {
-      const c = i + j < n ? val[s.charCodeAt(i + j)] : 84;
-      if (c < 0) throw new Error("the embedded engine is damaged");
+      const c = j < m ? val[s.charCodeAt(i + j)] : 84;
+      if (!(c >= 0)) throw damaged();
       v = v * 85 + c;
     }
-    for (let j = 0; j < 4 && o < out.length; j++) out[o++] = (v >>> (24 - 8 * j)) & 255;
-  }
-  const stream = new Blob([out]).stream().pipeThrough(new DecompressionStream("gzip"));
-  return new Response(stream).arrayBuffer();
+    return v;
+  };
+  const SLICE = 16384; // groups of 5 digits decoded at a time (64 KiB)
+  let g = 0; // the next group
+  return new ReadableStream({
+    pull(ctl) {
+      if (rest === 1) throw damaged();
+      const end = Math.min(full, g + SLICE);
+      const tail = end === full && rest ? rest - 1 : 0;
+      const out = new Uint8Array((end - g) * 4 + tail);
+      let o = 0;
+      for (; g < end; g++) {
+        const v = group(5 * g, 5);
+        out[o++] = v >>> 24;
+        out[o++] = (v >>> 16) & 255;
+        out[o++] = (v >>> 8) & 255;
+        out[o++] = v & 255;
+      }
+      if (tail) {
+        const v = group(5 * full, rest);
+        for (let j = 0; j < tail; j++) out[o++] = (v >>> (24 - 8 * j)) & 255;
+      }
+      if (out.length) ctl.enqueue(out);
+      if (g === full) ctl.close();
+    },
+  });
 };
 `

@@ -11,13 +11,15 @@
 //
 //   - every <link rel="stylesheet" href="X"> becomes an inline <style>, and
 //     every <script src="X"></script> an inline <script>;
-//   - the worker's source (wasm_exec.js then worker.js) sits in
-//     <script type="text/plain" id="ew-worker">, and the page starts the
-//     worker from a Blob URL made from it;
-//   - the engine sits gzip-compressed and base-85-encoded (base85.go) in
-//     <script type="application/octet-stream" id="ew-wasm">; an inline
-//     decoder defines edgewiseEngineBytes(), which the page calls, and which
-//     undoes the gzip with DecompressionStream("gzip");
+//   - right after the policy, before anything else: the worker's source
+//     (wasm_exec.js, the base-85 decoder, worker.js) in
+//     <script type="text/plain" id="ew-worker">; the engine,
+//     gzip-compressed and base-85-encoded (base85.go), in
+//     <script type="application/octet-stream" id="ew-wasm">; and a script
+//     (startJS) that starts the worker from a Blob URL made from its source
+//     and sends it the engine's text, which the worker decodes, gunzips
+//     and compiles as one stream while the browser reads the rest of the
+//     page (site/engine.js takes the worker over);
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks",
 //     the physics table (physics.json) in one with id="ew-physics";
@@ -147,21 +149,32 @@ func Bundle(dir string) ([]byte, error) {
 		return nil, err
 	}
 
+	// the engine first, right after the policy, which must come before any
+	// script: the worker starts while the browser reads the rest
+	var early strings.Builder
+	early.WriteString("\n" + `<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+decode85JS+"\n"+workerJS) + "</script>\n")
+	early.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
+	early.WriteString("<script>" + startJS + "</script>")
+	scriptHashes = append(scriptHashes, hash(startJS))
+	loc := cspRE.FindStringIndex(html)
+	html = html[:loc[1]] + early.String() + html[loc[1]:]
+
 	var extra strings.Builder
-	extra.WriteString(`<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+workerJS) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(demo) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(checks) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-physics">` + escapeScript(physicsTable) + "</script>\n")
-	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
-	extra.WriteString("<script>" + decode85JS + "</script>\n")
-	scriptHashes = append(scriptHashes, hash(decode85JS))
 	i := strings.LastIndex(html, "</body>")
 	if i < 0 {
 		return nil, fmt.Errorf("index.html has no </body>")
 	}
 	// the data blocks come before the page's own scripts, which read them
-	j := strings.Index(html, "<script>")
-	if j < 0 || j > i {
+	j := strings.Index(html[loc[1]+early.Len():], "<script>")
+	if j < 0 {
+		j = i
+	} else {
+		j += loc[1] + early.Len()
+	}
+	if j > i {
 		j = i
 	}
 	html = html[:j] + extra.String() + html[j:]
@@ -171,6 +184,26 @@ func Bundle(dir string) ([]byte, error) {
 }
 
 // escapeScript keeps inline text from closing its <script> element early.
+// startJS is the page's first script: it starts the engine's worker from
+// the worker's source and sends it the engine's text at once, before the
+// browser has read the rest of the page, and leaves the worker, with the
+// messages it sent meanwhile, to site/engine.js (edgewiseEarlyWorker).
+const startJS = `"use strict";
+(function () {
+  try {
+    const src = document.getElementById("ew-worker").textContent;
+    const worker = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
+    const early = { worker, heard: [] };
+    worker.onmessage = worker.onerror = (ev) => { early.heard.push(ev); };
+    worker.postMessage({ type: "init", text: document.getElementById("ew-wasm").textContent });
+    window.edgewiseEarlyWorker = early;
+    performance.mark("ew:worker-spawned");
+  } catch (e) {
+    // site/engine.js starts a worker of its own and says what fails
+  }
+})();
+`
+
 func escapeScript(s string) string {
 	s = strings.ReplaceAll(s, "</script", `<\/script`)
 	return strings.ReplaceAll(s, "<!--", `<\!--`)
