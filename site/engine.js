@@ -117,21 +117,25 @@
     for (const p of waiting) p.reject(err);
   }
 
+  // call sends the call to the current worker at once, even while its
+  // engine is still starting: the worker runs it as soon as the engine is
+  // up, with no round trip through the page. A start that fails rejects
+  // the call with its reason.
   function call(fn, ...args) {
     const id = nextId++;
     return new Promise((resolve, reject) => {
       pending.set(id, { resolve, reject });
-      (starting || start()).then((w) => {
-        if (!pending.has(id)) return; // settled meanwhile: the worker was restarted
-        const hold = holdNext.calls > 0 && holdNext.fn === fn;
-        if (hold) {
-          holdNext.calls--;
-          heldIds.add(id);
-        }
-        w.postMessage({ type: "call", id, fn, args, hold });
-      }, (e) => {
+      const ready = starting || start();
+      ready.catch((e) => {
         if (pending.delete(id)) reject(e);
       });
+      if (!current || !pending.has(id)) return; // no worker: the start failed
+      const hold = holdNext.calls > 0 && holdNext.fn === fn;
+      if (hold) {
+        holdNext.calls--;
+        heldIds.add(id);
+      }
+      current.postMessage({ type: "call", id, fn, args, hold });
     });
   }
 

@@ -22,9 +22,14 @@ if (typeof Go === "undefined") {
   importScripts("wasm_exec.js");
 }
 
-let ready = null;
+// ready settles with the engine's start; a call that comes before "init"
+// waits for it too
+let began;
+const ready = new Promise((resolve) => { began = resolve; });
+ready.catch(() => {}); // the calls and "init" each say what failed
 const at = {}; // when the start's steps ended, in ms since the epoch (the page marks them)
 const now = () => performance.timeOrigin + performance.now();
+at.loaded = now();
 let held = []; // resolvers of the calls waiting for a release
 
 // compile returns the engine as a WebAssembly.Module, from what "init"
@@ -81,9 +86,10 @@ function transferables(value) {
 self.onmessage = async (ev) => {
   const msg = ev.data;
   if (msg.type === "init") {
-    ready = start(msg);
+    const starting = start(msg);
+    began(starting);
     try {
-      const module = await ready;
+      const module = await starting;
       // the page keeps the compiled engine for the next worker (a restart)
       try {
         self.postMessage({ type: "ready", at, module });

@@ -13,13 +13,13 @@
 //     every <script src="X"></script> an inline <script>;
 //   - right after the policy, before anything else: the worker's source
 //     (wasm_exec.js, the base-85 decoder, worker.js) in
-//     <script type="text/plain" id="ew-worker">; the engine,
+//     <script type="text/plain" id="ew-worker">; a script (startJS) that
+//     starts the worker from a Blob URL made from that source; the engine,
 //     gzip-compressed and base-85-encoded (base85.go), in
 //     <script type="application/octet-stream" id="ew-wasm">; and a script
-//     (startJS) that starts the worker from a Blob URL made from its source
-//     and sends it the engine's text, which the worker decodes, gunzips
-//     and compiles as one stream while the browser reads the rest of the
-//     page (site/engine.js takes the worker over);
+//     (sendJS) that sends the engine's text to the worker, which decodes,
+//     gunzips and compiles it as one stream while the browser reads the
+//     rest of the page (site/engine.js takes the worker over);
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks",
 //     the physics table (physics.json) in one with id="ew-physics";
@@ -150,12 +150,14 @@ func Bundle(dir string) ([]byte, error) {
 	}
 
 	// the engine first, right after the policy, which must come before any
-	// script: the worker starts while the browser reads the rest
+	// script: the worker starts before the browser reads the engine's
+	// text, and gets the text as soon as it is read
 	var early strings.Builder
 	early.WriteString("\n" + `<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+decode85JS+"\n"+workerJS) + "</script>\n")
+	early.WriteString("<script>" + startJS + "</script>\n")
 	early.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
-	early.WriteString("<script>" + startJS + "</script>")
-	scriptHashes = append(scriptHashes, hash(startJS))
+	early.WriteString("<script>" + sendJS + "</script>")
+	scriptHashes = append(scriptHashes, hash(startJS), hash(sendJS))
 	loc := cspRE.FindStringIndex(html)
 	html = html[:loc[1]] + early.String() + html[loc[1]:]
 
@@ -185,9 +187,10 @@ func Bundle(dir string) ([]byte, error) {
 
 // escapeScript keeps inline text from closing its <script> element early.
 // startJS is the page's first script: it starts the engine's worker from
-// the worker's source and sends it the engine's text at once, before the
-// browser has read the rest of the page, and leaves the worker, with the
-// messages it sent meanwhile, to site/engine.js (edgewiseEarlyWorker).
+// the worker's source before the browser reads the engine's text (a new
+// worker takes a while to start), and sendJS, right after that text, sends
+// it to the worker. site/engine.js takes the worker over, with the
+// messages it sent meanwhile (edgewiseEarlyWorker).
 const startJS = `"use strict";
 (function () {
   try {
@@ -195,13 +198,19 @@ const startJS = `"use strict";
     const worker = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
     const early = { worker, heard: [] };
     worker.onmessage = worker.onerror = (ev) => { early.heard.push(ev); };
-    worker.postMessage({ type: "init", text: document.getElementById("ew-wasm").textContent });
     window.edgewiseEarlyWorker = early;
     performance.mark("ew:worker-spawned");
   } catch (e) {
     // site/engine.js starts a worker of its own and says what fails
   }
 })();
+`
+
+const sendJS = `"use strict";
+if (window.edgewiseEarlyWorker) {
+  window.edgewiseEarlyWorker.worker.postMessage({ type: "init", text: document.getElementById("ew-wasm").textContent });
+  performance.mark("ew:engine-sent");
+}
 `
 
 func escapeScript(s string) string {

@@ -50,9 +50,25 @@ func TestBundle(t *testing.T) {
 	if strings.Contains(html, `src="`) || strings.Contains(html, `href="style.css"`) {
 		t.Errorf("an outside script or stylesheet is left")
 	}
-	// the only </script> sequences are the real closing tags: 7 blocks
-	if n := strings.Count(html, "</script"); n != 7 {
-		t.Errorf("%d </script sequences, want 7 (app, worker, demo, checks, physics, engine and its decoder)", n)
+	// the only </script> sequences are the real closing tags: 8 blocks
+	if n := strings.Count(html, "</script"); n != 8 {
+		t.Errorf("%d </script sequences, want 8 (app, worker, demo, checks, physics, engine, and the scripts that start the worker and send it the engine)", n)
+	}
+	// the worker starts before anything but the policy: the worker's
+	// source, the script that starts it, the engine, the script that sends
+	// it, then the page's own head and body
+	order := []string{`http-equiv="Content-Security-Policy"`, `id="ew-worker">`, "new Worker(", `id="ew-wasm">`, `type: "init"`, "<style>", "<body>", `id="ew-demo"`, "const s = "}
+	at := 0
+	for i, s := range order {
+		j := strings.Index(html[at:], s)
+		if j < 0 {
+			t.Errorf("%q is not after %q in the page", s, order[max(i-1, 0)])
+			break
+		}
+		at += j + len(s)
+	}
+	if !strings.Contains(html, "self.edgewiseEngineStream = function") {
+		t.Errorf("the worker's source has no base-85 decoder")
 	}
 	// every executable inline script and style is allowed by its hash in
 	// the policy (CSP Level 3, hash-source), and nothing else is
