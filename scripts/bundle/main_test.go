@@ -67,7 +67,7 @@ func TestBundle(t *testing.T) {
 		}
 		at += j + len(s)
 	}
-	if !strings.Contains(html, "self.edgewiseEngineStream = function") {
+	if !strings.Contains(html, "self.edgewiseEngineBytes = function") {
 		t.Errorf("the worker's source has no base-85 decoder")
 	}
 	// every executable inline script and style is allowed by its hash in
