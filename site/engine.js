@@ -8,6 +8,11 @@
 // {message, cancelled: true} when the worker it waits on (running or still
 // starting) is restarted, or with the reason the engine failed to start.
 //
+// The single file starts its first worker itself, before the page is read
+// (scripts/bundle); this file takes it over. The first worker sends back
+// the compiled engine, from which every restarted worker starts (no second
+// decoding or compiling).
+//
 // Test hook: hold({fn, calls}) makes the next calls of fn wait in the
 // worker, unanswered, until release() (see worker.js), so that a test can
 // have "a solve in flight" however fast the engine is.
