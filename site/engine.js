@@ -69,11 +69,11 @@
       const onmessage = (ev) => {
         const m = ev.data;
         if (m.type === "ready") {
-          if (m.module) engineModule = m.module;
           marks(m.at);
           performance.mark("ew:engine-ready");
           resolve(w);
-        } else if (m.type === "fatal") reject(new Error("the engine failed to start: " + m.error));
+        } else if (m.type === "module") engineModule = m.module;
+        else if (m.type === "fatal") reject(new Error("the engine failed to start: " + m.error));
         else if (m.type === "reply") settle(m);
         else if (m.type === "progress" && EW.engine.onProgress) EW.engine.onProgress(m); // a seek's steps (study.js)
       };

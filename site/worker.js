@@ -10,9 +10,9 @@
 //                                              that makes "a solve in flight" last as long as a test needs)
 //   {type: "release"}                          lets every held call run
 // Messages out:
-//   {type: "ready", at, module} | {type: "fatal", error}
-//                                              at: when the start's steps ended (ms since the epoch);
-//                                              module: the compiled engine, for the next worker
+//   {type: "ready", at} | {type: "fatal", error}
+//                                              at: when the start's steps ended (ms since the epoch)
+//   {type: "module", module}                   after "ready": the compiled engine, for the next worker
 //   {type: "reply", id, value, ms}             value as the engine returned it
 // Typed arrays at the top level of a returned object are transferred to the
 // page, not copied.
@@ -105,12 +105,13 @@ self.onmessage = async (ev) => {
     began(starting);
     try {
       const module = await starting;
-      // the page keeps the compiled engine for the next worker (a restart)
+      self.postMessage({ type: "ready", at });
+      // the page keeps the compiled engine for the next worker (a restart);
+      // in a message of its own, so that a browser that cannot pass it on
+      // loses only that
       try {
-        self.postMessage({ type: "ready", at, module });
-      } catch (e) {
-        self.postMessage({ type: "ready", at });
-      }
+        self.postMessage({ type: "module", module });
+      } catch (e) { /* the next worker compiles again */ }
     } catch (e) {
       self.postMessage({ type: "fatal", error: String((e && e.message) || e) });
     }
