@@ -113,3 +113,31 @@ const texts = JSON.parse(require("fs").readFileSync(0, "utf8"));
 		}
 	}
 }
+
+// asciiJS keeps the meaning of a script: strings, templates, regular
+// expressions and JSON read the same (run by Node).
+func TestASCIIJSKeepsMeaning(t *testing.T) {
+	node, err := exec.LookPath("node")
+	if err != nil {
+		t.Skip("node is not installed")
+	}
+	src := "// a comment with ° and …\n" +
+		"const a = [\"20 °C\", '±0.5 µm', `${1} × 10⁻³`, \"😀 \u2028 end\", /[°µ]+/.exec(\"x°µy\")[0], /😀/u.test(\"a😀\"), JSON.parse('{\"u\": \"W/m²\"}').u];\n" +
+		"console.log(JSON.stringify(a));"
+	run := func(js string) string {
+		out, err := exec.Command(node, "-e", js).Output()
+		if err != nil {
+			t.Fatalf("node: %v on %q", err, js)
+		}
+		return string(out)
+	}
+	esc := asciiJS(src)
+	for i := 0; i < len(esc); i++ {
+		if esc[i] >= 0x80 {
+			t.Fatalf("asciiJS left a byte outside ASCII: %q", esc)
+		}
+	}
+	if a, b := run(src), run(esc); a != b || !strings.Contains(a, "°C") {
+		t.Errorf("the script says %s escaped, %s as written", b, a)
+	}
+}

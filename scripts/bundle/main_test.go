@@ -28,15 +28,15 @@ var site = map[string]string{
 	"index.html": `<!doctype html><html><head>
 <meta http-equiv="Content-Security-Policy" content="default-src 'self'">
 <link rel="stylesheet" href="style.css">
-</head><body><p>hi</p>
+</head><body><p>hi, Größe</p>
 <script src="app.js"></script>
 </body></html>`,
-	"style.css":    "p { color: red }",
-	"app.js":       `const s = "</script><!-- tricky";`,
+	"style.css":    `p { color: red } p::after { content: "…" }`,
+	"app.js":       `const s = "</script><!-- tricky", t = "20 °C";`,
 	"worker.js":    "self.onmessage = () => {};",
 	"wasm_exec.js": "class Go {}",
 	"app.wasm":     "\x00asm\x01\x00\x00\x00 some engine bytes",
-	"demo.json":    `{"title": "</script>"}`,
+	"demo.json":    `{"title": "</script> W/m²"}`,
 	"checks.json":  `{"cases": []}`,
 	"physics.json": `{"physics": [{"id": "</script>"}]}`,
 }
@@ -100,6 +100,17 @@ func TestBundle(t *testing.T) {
 	}
 	if !strings.Contains(html, `<script type="application/json" id="ew-physics">{"physics": [{"id": "<\/script>"}]}</script>`) {
 		t.Errorf("the physics table is not inlined as data")
+	}
+	// ASCII only, every other character escaped in its own language
+	for i := 0; i < len(html); i++ {
+		if html[i] >= 0x80 {
+			t.Fatalf("a byte outside ASCII at %d: %.40q", i, html[i:])
+		}
+	}
+	for _, want := range []string{`hi, Gr&#xF6;&#xDF;e`, `content: "\002026"`, `t = "20 \u00b0C"`, `W/m\u00b2"}`} {
+		if !strings.Contains(html, want) {
+			t.Errorf("the page has no %s", want)
+		}
 	}
 	if !strings.Contains(html, `id="ew-worker">class Go {}`) {
 		t.Errorf("worker source does not start with wasm_exec.js")
