@@ -141,12 +141,16 @@
   }
 
   // checkLater runs the cross-check of a solve whose picture came without
-  // it ({text, n} of its request: the same project and grid, so the same
-  // numbers) and puts its accuracy into the solve. Until then the solve is
-  // marked checkPending, and the results say the cross-check is pending;
-  // when it cannot run, they say that and why. It resolves when the solve
-  // has its cross-check or the reason it has none.
-  function checkLater(solve, req) {
+  // it ({text, n} of its request: the same project and grid) and puts its
+  // outcome into the solve. Until then the solve is marked checkPending,
+  // and the results say the cross-check is pending; when it cannot run,
+  // they say that and why. The full solve's result replaces the first
+  // one: when only its accuracy differs (the cross-check's figures), the
+  // results are written again; when more differs (a check that finds the
+  // numbers unreliable withholds answers and cautions), the full solve is
+  // shown in its place, if it is still on screen. The solve's checked
+  // promise resolves with the result as it then stands.
+  function checkLater(solve, req, project) {
     solve.checkPending = true;
     const done = (reason) => {
       solve.checkPending = false;
@@ -155,14 +159,32 @@
         performance.mark("ew:first-check");
         root.dataset.firstCheckAt = performance.now().toFixed(1);
       }
-      if (store.last() === solve && EW.results) EW.results.render(solve); // else it is not on screen
+      return solve.result;
     };
-    return engine.call("solve", req.text, req.n, 0, 0, false).then((m) => {
+    const but = (r) => JSON.stringify(Object.assign({}, r, { accuracy: null }));
+    return engine.call("solve", req.text, req.n, 0, LEVELS, false).then((m) => {
       const r = m.value;
-      if (!r || !r.ok) return done("the cross-check did not run: " + ((r && r.error) || "no answer"));
-      solve.result.accuracy = JSON.parse(r.result).accuracy; // the rest of the result is the same
+      if (!r || !r.ok) {
+        done("the cross-check did not run: " + ((r && r.error) || "no answer"));
+        if (store.last() === solve && EW.results) EW.results.render(solve);
+        return solve.result;
+      }
+      const full = JSON.parse(r.result);
+      if (but(full) === but(solve.result)) {
+        solve.result.accuracy = full.accuracy;
+        done("");
+        if (store.last() === solve && EW.results) EW.results.render(solve); // else it is not on screen
+        return solve.result;
+      }
+      solve.result = full;
       done("");
-    }, (e) => done("the cross-check did not run: " + e.message));
+      if (store.last() === solve) return apply(project, r, m.ms, performance.now(), null);
+      return solve.result;
+    }, (e) => {
+      done("the cross-check did not run: " + e.message);
+      if (store.last() === solve && EW.results) EW.results.render(solve);
+      return solve.result;
+    });
   }
 
   // stop cancels the solve in flight and any waiting one; the last good
@@ -203,7 +225,7 @@
       kx: typeof k === "object" ? k.x : k, ky: typeof k === "object" ? k.y : k,
     };
     const text = JSON.stringify(project);
-    solve.checked = check ? checkLater(solve, check) : Promise.resolve();
+    solve.checked = check ? checkLater(solve, check, project) : Promise.resolve(result);
     lastSolve = { text, solve };
     store.solved(solve);
     if (text === meantText) store.meant(solve);
@@ -429,10 +451,9 @@
     store.edited(obj);
     previews(obj);
     meantText = JSON.stringify(obj);
-    const result = apply(obj, out.reply, out.ms, t0, out.check);
+    apply(obj, out.reply, out.ms, t0, out.check);
     // the caller gets the result with its cross-check
-    await store.last().checked;
-    return result;
+    return store.last().checked;
   }
 
   EW.solving = {

@@ -2,6 +2,7 @@ package e2e
 
 import (
 	"math"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -89,4 +90,45 @@ func TestWorkerRestartReusesEngine(t *testing.T) {
 		}
 		tb.noErrors(t)
 	})
+}
+
+// alterFullCheck makes the first full solve with its cross-check (the
+// second solve of a page, which follows the first picture) answer with
+// other cautions, as a check that finds the numbers unreliable does (it
+// withholds them): the page must then show that full solve, not keep the
+// first picture's result with only the accuracy replaced.
+const alterFullCheck = `(() => {
+  try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}
+  const W = window.Worker;
+  let solves = 0;
+  window.Worker = class extends W {
+    set onmessage(fn) {
+      super.onmessage = (ev) => {
+        const m = ev.data;
+        if (m && m.type === "reply" && m.value && m.value.ok && typeof m.value.result === "string" && ++solves === 2) {
+          const r = JSON.parse(m.value.result);
+          r.cautions = ["altered by the test"];
+          const value = Object.assign({}, m.value, { result: JSON.stringify(r) });
+          return fn({ data: Object.assign({}, m, { value }) });
+        }
+        return fn(ev);
+      };
+    }
+  };
+})()`
+
+// When the full solve differs from the first picture's in more than the
+// cross-check, the page shows the full solve.
+func TestFullCheckReplacesFirstPicture(t *testing.T) {
+	tb := newTab(t)
+	tb.beforeScripts(t, alterFullCheck)
+	tb.open(t, "file://"+filepath.Join(root, "dist", "edgewise.html"))
+	tb.waitFor(t, `document.documentElement.dataset.firstCheckAt !== undefined`, "the first picture's cross-check")
+	tb.waitFor(t, `document.getElementById("cautions").textContent.includes("altered by the test")`, "the full solve's cautions on screen")
+	got := eval[[]any](t, tb, `[window.edgewiseInternal.last().result.cautions[0], window.edgewiseInternal.last().checkPending === true,
+	  window.edgewiseInternal.last().result.accuracy.crosscheck, document.getElementById("res-check").textContent]`)
+	if got[0] != "altered by the test" || got[1] != false || got[2] == nil || strings.Contains(got[3].(string), "pending") {
+		t.Errorf("after a full solve that differs: cautions %v, pending %v, cross-check %v, row %q", got[0], got[1], got[2], got[3])
+	}
+	tb.noErrors(t)
 }
