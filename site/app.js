@@ -55,17 +55,32 @@
       const p = (EW.firstGuess && (await EW.firstGuess())) || (await demo());
       if (p && !store.project()) {
         EW.fill(p);
+        performance.mark("ew:form");
         root.dataset.formAt = performance.now().toFixed(1);
       }
     } catch (e) { /* the boot below says what went wrong */ }
   }
 
+  // warmFonts has the canvas find the picture's fonts while the engine
+  // starts: in a new browser process the first text drawn waits for them,
+  // and so would the first picture.
+  function warmFonts() {
+    const ctx = document.createElement("canvas").getContext("2d");
+    if (!ctx) return;
+    for (const font of ["600 11px system-ui, sans-serif", "11px system-ui, sans-serif", "10.5px system-ui, sans-serif", "10px system-ui, sans-serif"]) {
+      ctx.font = font;
+      ctx.fillText("0123456789.,−×⁰¹²³ T1 W/m²", 0, 12);
+    }
+  }
+
   // Boot after the other scripts have run: the engine starts at once, the
   // form is filled meanwhile.
   setTimeout(async () => {
+    performance.mark("ew:boot");
     const colours = engine.call("colours", 256);
     colours.catch(() => {});
     await firstForm();
+    warmFonts();
     try {
       const [, c] = await Promise.all([EW.loadPhysics(), colours]);
       EW.colours = c.value;

@@ -8,6 +8,11 @@
 // {message, cancelled: true} when the worker it waits on (running or still
 // starting) is restarted, or with the reason the engine failed to start.
 //
+// The single file starts its first worker itself, before the page is read
+// (scripts/bundle); this file takes it over. The first worker sends back
+// the compiled engine, from which every restarted worker starts (no second
+// decoding or compiling).
+//
 // Test hook: hold({fn, calls}) makes the next calls of fn wait in the
 // worker, unanswered, until release() (see worker.js), so that a test can
 // have "a solve in flight" however fast the engine is.
@@ -17,58 +22,84 @@
 
   let starting = null; // Promise<Worker> of the current worker
   let current = null; // the current Worker, for terminate and release
-  let wasmBytes = null; // the single file's engine, decoded once
+  let engineModule = null; // the compiled engine from the first worker: later ones start from it
   let nextId = 1;
   let restarts = 0;
   const pending = new Map(); // id -> {resolve, reject}
   const holdNext = { fn: "solve", calls: 0 };
   const heldIds = new Set();
 
-  // the single file keeps the worker's source and the engine inside the page
-  const bundled = () => document.getElementById("ew-wasm") !== null;
-
-  async function engineBytes() {
-    // decoded by the decoder the bundler puts beside it (scripts/bundle)
-    if (!wasmBytes) wasmBytes = await window.edgewiseEngineBytes();
-    return wasmBytes.slice(0);
+  // spawn makes a worker and sends it the engine. The single file has
+  // started its first worker already, while the page was read (startJS in
+  // scripts/bundle): that one is taken over with what it said meanwhile.
+  // Later workers get the compiled engine when the first one sent it, else
+  // the single file's engine text, else they fetch it (served page).
+  function spawn() {
+    const early = window.edgewiseEarlyWorker;
+    if (early && !early.taken) {
+      early.taken = true;
+      return { w: early.worker, heard: early.heard };
+    }
+    const text = document.getElementById("ew-wasm"); // the single file
+    let w;
+    if (text) {
+      const src = document.getElementById("ew-worker").textContent;
+      w = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
+    } else {
+      w = new Worker("worker.js");
+    }
+    if (engineModule) w.postMessage({ type: "init", module: engineModule });
+    else w.postMessage(text ? { type: "init", text: text.textContent } : { type: "init" });
+    return { w, heard: [] };
   }
 
   // start makes a worker current and resolves with it once its engine is
   // ready.
   function start() {
-    let w;
+    performance.mark("ew:engine-start");
     const ready = new Promise((resolve, reject) => {
-      (async () => {
-        let bytes = null;
-        if (bundled()) {
-          const src = document.getElementById("ew-worker").textContent;
-          w = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
-          current = w;
-          bytes = await engineBytes();
-        } else {
-          w = new Worker("worker.js");
-          current = w;
-        }
-        w.onmessage = (ev) => {
-          const m = ev.data;
-          if (m.type === "ready") resolve(w);
-          else if (m.type === "fatal") reject(new Error("the engine failed to start: " + m.error));
-          else if (m.type === "reply") settle(m);
-          else if (m.type === "progress" && EW.engine.onProgress) EW.engine.onProgress(m); // a seek's steps (study.js)
-        };
-        w.onerror = (e) => {
-          const err = new Error("the engine stopped: " + ((e && e.message) || "unknown error"));
-          reject(err);
-          if (w === current) failAll(err); // a crash after the start: nothing will answer
-        };
-        if (w === current) w.postMessage({ type: "init", wasm: bytes }, bytes ? [bytes] : []);
-      })().catch((e) => reject(new Error("the engine failed to start: " + ((e && e.message) || e))));
+      let w, heard;
+      try {
+        ({ w, heard } = spawn());
+      } catch (e) {
+        reject(new Error("the engine failed to start: " + ((e && e.message) || e)));
+        return;
+      }
+      current = w;
+      const onmessage = (ev) => {
+        const m = ev.data;
+        if (m.type === "ready") {
+          marks(m.at);
+          performance.mark("ew:engine-ready");
+          resolve(w);
+        } else if (m.type === "module") engineModule = m.module;
+        else if (m.type === "fatal") reject(new Error("the engine failed to start: " + m.error));
+        else if (m.type === "reply") settle(m);
+        else if (m.type === "progress" && EW.engine.onProgress) EW.engine.onProgress(m); // a seek's steps (study.js)
+      };
+      const onerror = (e) => {
+        const err = new Error("the engine stopped: " + ((e && e.message) || "unknown error"));
+        reject(err);
+        if (w === current) failAll(err); // a crash after the start: nothing will answer
+      };
+      w.onmessage = onmessage;
+      w.onerror = onerror;
+      for (const ev of heard) (ev.type === "error" ? onerror : onmessage)(ev);
     });
     ready.catch(() => {
       if (starting === ready) starting = null; // the next call tries again
     });
     starting = ready;
     return ready;
+  }
+
+  // marks puts the worker's own times (ms since the epoch) on the page's
+  // timeline as performance marks "ew:worker-<name>" (the benchmark reads them).
+  function marks(at) {
+    for (const [name, t] of Object.entries(at || {})) {
+      const startTime = t - performance.timeOrigin;
+      if (startTime >= 0) performance.mark("ew:worker-" + name, { startTime });
+    }
   }
 
   function settle(m) {
@@ -91,21 +122,25 @@
     for (const p of waiting) p.reject(err);
   }
 
+  // call sends the call to the current worker at once, even while its
+  // engine is still starting: the worker runs it as soon as the engine is
+  // up, with no round trip through the page. A start that fails rejects
+  // the call with its reason.
   function call(fn, ...args) {
     const id = nextId++;
     return new Promise((resolve, reject) => {
       pending.set(id, { resolve, reject });
-      (starting || start()).then((w) => {
-        if (!pending.has(id)) return; // settled meanwhile: the worker was restarted
-        const hold = holdNext.calls > 0 && holdNext.fn === fn;
-        if (hold) {
-          holdNext.calls--;
-          heldIds.add(id);
-        }
-        w.postMessage({ type: "call", id, fn, args, hold });
-      }, (e) => {
+      const ready = starting || start();
+      ready.catch((e) => {
         if (pending.delete(id)) reject(e);
       });
+      if (!current || !pending.has(id)) return; // no worker: the start failed
+      const hold = holdNext.calls > 0 && holdNext.fn === fn;
+      if (hold) {
+        holdNext.calls--;
+        heldIds.add(id);
+      }
+      current.postMessage({ type: "call", id, fn, args, hold });
     });
   }
 

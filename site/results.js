@@ -18,6 +18,10 @@
     "step-jump": "the prescribed value jumps inside this edge",
   };
 
+  // the engine's last sentence of the accuracy statement for a solve run
+  // without its check (solver/crosscheck.go, noCheck)
+  const NO_CHECK = " No independent check was run for this solve.";
+
   function warningsOf(r) {
     return (Array.isArray(r.warnings) ? r.warnings : []).map((w) =>
       typeof w === "string"
@@ -120,19 +124,31 @@
     const acc = r.accuracy || {};
     // differences: a kelvin is 1.8 °F, whatever the offset
     const diff = (v) => (v === null || v === undefined ? "–" : EW.withUnit(EW.num(EW.dd(u, "value", v), 2), vu));
-    // the engine's one statement, its numbers written in the page's units
-    const statement = (acc.statement || "").replace(/\{(estimate|difference|resolution)\}/g, (_, k) =>
+    // the engine's one statement, its numbers written in the page's units;
+    // while the first picture's check runs (solving.js), its last sentence
+    // (the engine's for a solve without the check) says so instead
+    let said = acc.statement || "";
+    if (S.checkPending) said = said.replace(NO_CHECK, " An independent check is running; what it shows follows here.");
+    else if (S.checkFailed) said = said.replace(NO_CHECK, " The independent check was not done: " + S.checkFailed + ".");
+    const statement = said.replace(/\{(estimate|difference|resolution)\}/g, (_, k) =>
       diff({ estimate: acc.estimate, difference: acc.crosscheck, resolution: acc.crosscheck_resolution }[k]));
     box.append(el("h3", { text: "Accuracy" }),
-      el("p", { id: "res-accuracy", class: "accuracy " + (acc.crosscheck_verdict || "unchecked"), text: statement }), da);
+      el("p", { id: "res-accuracy", class: "accuracy " + (S.checkPending ? "pending" : acc.crosscheck_verdict || "unchecked"), text: statement }), da);
     kvRow(da, "Series terms", String(acc.terms));
     kvRow(da, "Error estimate", diff(acc.estimate), "largest, away from singular points: rely on this");
-    if (acc.crosscheck !== null && acc.crosscheck !== undefined) {
-      kvRow(da, "Cross-check", diff(acc.crosscheck), "largest difference from an independent solution (" + (acc.crosscheck_grid || "") + ")");
+    let check;
+    if (S.checkPending) {
+      // the first picture comes before its cross-check (solving.js)
+      check = kvRow(da, "Cross-check", "pending", "the independent check is running; its difference shows here when it is done");
+    } else if (S.checkFailed) {
+      check = kvRow(da, "Cross-check", "not done", S.checkFailed);
+    } else if (acc.crosscheck !== null && acc.crosscheck !== undefined) {
+      check = kvRow(da, "Cross-check", diff(acc.crosscheck), "largest difference from an independent solution (" + (acc.crosscheck_grid || "") + ")");
       kvRow(da, "Check resolves to", diff(acc.crosscheck_resolution), "how far the independent solution resolves this problem itself");
     } else {
-      kvRow(da, "Cross-check", "skipped", acc.crosscheck_skipped || "");
+      check = kvRow(da, "Cross-check", "skipped", acc.crosscheck_skipped || "");
     }
+    check.id = "res-check";
     kvRow(da, "Output grid", r.grid.nx + " × " + r.grid.ny + " intervals");
     if (warnings.length) {
       const ul = el("ul", { class: "warnings" });
@@ -147,6 +163,10 @@
     const list = r.cautions || [];
     list.forEach((c, i) => ul.append(el("li", { class: i === list.length - 1 ? "deferral" : null, text: c })));
   }
+
+  // render(S) writes the panel again (the cross-check that follows the
+  // first picture)
+  EW.results = { render: (S) => render(S) };
 
   EW.store.on("solved", () => {
     const S = EW.store.last();

@@ -107,14 +107,27 @@
     byId("btn-stop").hidden = true;
   }
 
+  // The first solve of the page runs in an engine that has just started,
+  // whose code the browser is still compiling, and is several times slower
+  // than the next: it asks for the picture without the cross-check, which
+  // follows in a second call (checkLater). Every later solve carries its
+  // cross-check.
+  let pictureFirst = true;
+
   function run(job) {
     running = { job, started: performance.now() };
     showBusy(true);
     // the engine chooses the grid: the detail choice gives the intervals
     // along the longer side (0: the project's grid or the engine's default)
     const n = Number(byId("opt-detail").value) || 0;
-    engine.call("solve", job.text, n, 0, LEVELS).then(
-      (m) => job.resolve({ reply: m.value, ms: m.ms, newest: job.gen === gen }),
+    const quick = pictureFirst;
+    pictureFirst = false;
+    if (quick) performance.mark("ew:solve-asked");
+    engine.call("solve", job.text, n, 0, LEVELS, quick).then(
+      (m) => {
+        if (quick) performance.mark("ew:solve-answered", { detail: m.ms });
+        job.resolve({ reply: m.value, ms: m.ms, newest: job.gen === gen, check: quick ? { text: job.text, n } : null });
+      },
       (e) => job.reject(e)
     ).finally(() => {
       if (running && running.job === job) running = null;
@@ -124,6 +137,53 @@
         queued = null;
         run(q);
       }
+    });
+  }
+
+  // checkLater runs the cross-check of a solve whose picture came without
+  // it ({text, n} of its request: the same project and grid) and puts its
+  // outcome into the solve. Until then the solve is marked checkPending,
+  // and the results say the cross-check is pending; when it cannot run,
+  // they say that and why. The full solve's result replaces the first
+  // one: when only its accuracy differs (the cross-check's figures), the
+  // results are written again; when more differs (a check that finds the
+  // numbers unreliable withholds answers and cautions), the full solve is
+  // shown in its place, if it is still on screen. The solve's checked
+  // promise resolves with the result as it then stands.
+  function checkLater(solve, req, project) {
+    solve.checkPending = true;
+    const done = (reason) => {
+      solve.checkPending = false;
+      if (reason) solve.checkFailed = reason;
+      if (!root.dataset.firstCheckAt) {
+        performance.mark("ew:first-check");
+        root.dataset.firstCheckAt = performance.now().toFixed(1);
+      }
+      return solve.result;
+    };
+    const but = (r) => JSON.stringify(Object.assign({}, r, { accuracy: null }));
+    return engine.call("solve", req.text, req.n, 0, LEVELS, false).then((m) => {
+      const r = m.value;
+      if (!r || !r.ok) {
+        done("the cross-check did not run: " + ((r && r.error) || "no answer"));
+        if (store.last() === solve && EW.results) EW.results.render(solve);
+        return solve.result;
+      }
+      const full = JSON.parse(r.result);
+      if (but(full) === but(solve.result)) {
+        solve.result.accuracy = full.accuracy;
+        done("");
+        if (store.last() === solve && EW.results) EW.results.render(solve); // else it is not on screen
+        return solve.result;
+      }
+      solve.result = full;
+      done("");
+      if (store.last() === solve) return apply(project, r, m.ms, performance.now(), null);
+      return solve.result;
+    }, (e) => {
+      done("the cross-check did not run: " + e.message);
+      if (store.last() === solve && EW.results) EW.results.render(solve);
+      return solve.result;
     });
   }
 
@@ -149,7 +209,10 @@
   }
 
   // apply puts a successful reply into the store, which draws it.
-  function apply(project, r, ms, t0) {
+  // With check ({text, n} of the request), the reply came without its
+  // cross-check, which follows (checkLater); the solve's checked promise
+  // tells when.
+  function apply(project, r, ms, t0, check) {
     const result = JSON.parse(r.result);
     const k = project.conductivity;
     markStale(false);
@@ -162,6 +225,7 @@
       kx: typeof k === "object" ? k.x : k, ky: typeof k === "object" ? k.y : k,
     };
     const text = JSON.stringify(project);
+    solve.checked = check ? checkLater(solve, check, project) : Promise.resolve(result);
     lastSolve = { text, solve };
     store.solved(solve);
     if (text === meantText) store.meant(solve);
@@ -169,7 +233,11 @@
     setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms." + outsideNote(project));
     root.dataset.solved = String(Number(root.dataset.solved || 0) + 1);
     // when the first picture was on screen, in ms from the page's start
-    if (!root.dataset.firstPictureAt) root.dataset.firstPictureAt = performance.now().toFixed(1);
+    if (!root.dataset.firstPictureAt) {
+      performance.mark("ew:first-picture");
+      root.dataset.firstPictureAt = performance.now().toFixed(1);
+      if (!check) root.dataset.firstCheckAt = root.dataset.firstPictureAt;
+    }
     return result;
   }
 
@@ -268,7 +336,7 @@
       store.failed(project, e);
       return;
     }
-    apply(project, out.reply, out.ms, t0);
+    apply(project, out.reply, out.ms, t0, out.check);
   }
 
   // edit puts a project into the inputs and solves it as an edit: a
@@ -383,7 +451,9 @@
     store.edited(obj);
     previews(obj);
     meantText = JSON.stringify(obj);
-    return apply(obj, out.reply, out.ms, t0);
+    apply(obj, out.reply, out.ms, t0, out.check);
+    // the caller gets the result with its cross-check
+    return store.last().checked;
   }
 
   EW.solving = {

@@ -2,13 +2,17 @@
 // functions for the page, so the page never freezes.
 //
 // Messages in:
-//   {type: "init", wasm: ArrayBuffer | null}   (null: fetch app.wasm next to this file)
+//   {type: "init", module?, text?}             the engine: a compiled WebAssembly.Module, or the
+//                                              single file's engine text (scripts/bundle), or
+//                                              neither: fetch app.wasm next to this file
 //   {type: "call", id, fn, args, hold}         runs the engine function edgewise_<fn>(...args);
 //                                              with hold set, not before a "release" (a test hook
 //                                              that makes "a solve in flight" last as long as a test needs)
 //   {type: "release"}                          lets every held call run
 // Messages out:
-//   {type: "ready"} | {type: "fatal", error}
+//   {type: "ready", at} | {type: "fatal", error}
+//                                              at: when the start's steps ended (ms since the epoch)
+//   {type: "module", module}                   after "ready": the compiled engine, for the next worker
 //   {type: "reply", id, value, ms}             value as the engine returned it
 // Typed arrays at the top level of a returned object are transferred to the
 // page, not copied.
@@ -18,27 +22,69 @@ if (typeof Go === "undefined") {
   importScripts("wasm_exec.js");
 }
 
-let ready = null;
+// ready settles with the engine's start; a call that comes before "init"
+// waits for it too
+let began;
+const ready = new Promise((resolve) => { began = resolve; });
+ready.catch(() => {}); // the calls and "init" each say what failed
+const at = {}; // when the start's steps ended, in ms since the epoch (the page marks them)
+const now = () => performance.timeOrigin + performance.now();
+at.loaded = now();
 let held = []; // resolvers of the calls waiting for a release
 
-async function start(bytes) {
-  const go = new Go();
-  let module;
-  if (bytes) {
-    module = await WebAssembly.instantiate(bytes, go.importObject);
-  } else {
-    const url = new URL("app.wasm", self.location.href);
+// chunks is a stream of bytes in slices of 64 KiB, handed out as its
+// reader asks, so that gunzip and compiling go slice by slice.
+function chunks(bytes) {
+  let at = 0;
+  return new ReadableStream({
+    pull(ctl) {
+      ctl.enqueue(bytes.subarray(at, at + 65536));
+      at += 65536;
+      if (at >= bytes.length) ctl.close();
+    },
+  });
+}
+
+// compile returns the engine as a WebAssembly.Module, from what "init"
+// brought: the module itself (a restart), the single file's text (base 85
+// of gzip, decoded by edgewiseEngineBytes, which the bundler puts before
+// this file; gunzip and compiling then overlap), or else app.wasm next to
+// this file.
+async function compile(msg) {
+  if (msg.module) return msg.module;
+  if (typeof msg.text === "string") {
+    const gz = self.edgewiseEngineBytes(msg.text);
+    at.decoded = now();
+    const wasm = () => chunks(gz).pipeThrough(new DecompressionStream("gzip"));
     try {
-      module = await WebAssembly.instantiateStreaming(fetch(url), go.importObject);
+      return await WebAssembly.compileStreaming(new Response(wasm(), { headers: { "Content-Type": "application/wasm" } }));
     } catch (e) {
-      // a server that does not send application/wasm: fall back to bytes
-      const resp = await fetch(url);
-      if (!resp.ok) throw new Error("could not load the engine (" + resp.status + ")");
-      module = await WebAssembly.instantiate(await resp.arrayBuffer(), go.importObject);
+      // a browser without streaming compilation: the whole bytes
+      return WebAssembly.compile(await new Response(wasm()).arrayBuffer());
     }
   }
-  go.run(module.instance); // registers the edgewise_* functions, then waits forever
+  const url = new URL("app.wasm", self.location.href);
+  try {
+    return await WebAssembly.compileStreaming(fetch(url));
+  } catch (e) {
+    // a server that does not send application/wasm: fall back to bytes
+    const resp = await fetch(url);
+    if (!resp.ok) throw new Error("could not load the engine (" + resp.status + ")");
+    return WebAssembly.compile(await resp.arrayBuffer());
+  }
+}
+
+// start compiles and starts the engine; it resolves with the module.
+async function start(msg) {
+  at.init = now();
+  const go = new Go();
+  const module = await compile(msg);
+  at.compiled = now();
+  const instance = await WebAssembly.instantiate(module, go.importObject);
+  go.run(instance); // registers the edgewise_* functions, then waits forever
   if (typeof self.edgewise_solve !== "function") throw new Error("the engine did not start");
+  at.started = now();
+  return module;
 }
 
 function transferables(value) {
@@ -55,10 +101,17 @@ function transferables(value) {
 self.onmessage = async (ev) => {
   const msg = ev.data;
   if (msg.type === "init") {
-    ready = start(msg.wasm);
+    const starting = start(msg);
+    began(starting);
     try {
-      await ready;
-      self.postMessage({ type: "ready" });
+      const module = await starting;
+      self.postMessage({ type: "ready", at });
+      // the page keeps the compiled engine for the next worker (a restart);
+      // in a message of its own, so that a browser that cannot pass it on
+      // loses only that
+      try {
+        self.postMessage({ type: "module", module });
+      } catch (e) { /* the next worker compiles again */ }
     } catch (e) {
       self.postMessage({ type: "fatal", error: String((e && e.message) || e) });
     }

@@ -286,6 +286,11 @@ func cornerBreaks(breaks []series.Break) [4]bool {
 	return out
 }
 
+// noCheck ends the statement of a solve run without its check; the page
+// puts its own sentence in its place while the check runs (site/results.js,
+// NO_CHECK), so the two must agree.
+const noCheck = " No independent check was run for this solve."
+
 // statement is the one accuracy statement of a result (Accuracy.Statement),
 // as the page and the report show it: what the numbers are good to, which figure to rely
 // on, and what the independent check shows. The numbers are left as the
@@ -302,7 +307,7 @@ func (a *Accuracy) statement() string {
 	case a.Crosscheck == nil && a.CrosscheckReason != "":
 		return s + " No independent check was made: " + a.CrosscheckReason + "."
 	case a.Crosscheck == nil:
-		return s + " No independent check was run for this solve."
+		return s + noCheck
 	case a.CrosscheckVerdict == VerdictConfirms:
 		return s + " An independent solution by " + name + " agrees to within {difference}, which confirms it."
 	case a.CrosscheckVerdict == VerdictLimited:

@@ -242,3 +242,54 @@ func boolInt(b bool) int {
 	}
 	return 0
 }
+
+// A solve without its cross-check (the page's first picture) gives the
+// same result as the full one but for the accuracy's cross-check figures,
+// which it leaves null without a reason; the full solve then carries them.
+func TestSolveWithoutCrossCheck(t *testing.T) {
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, err := safejs.Global().Get("edgewise_solve")
+	if err != nil {
+		t.Fatal(err)
+	}
+	result := func(noCheck bool) map[string]any {
+		reply, err := fn.Invoke(square, 40, 40, 0, noCheck)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if ok, _ := mustGet(t, reply, "ok").Bool(); !ok {
+			msg, _ := mustGet(t, reply, "error").String()
+			t.Fatalf("solve failed: %s", msg)
+		}
+		text, _ := mustGet(t, reply, "result").String()
+		var r map[string]any
+		if err := json.Unmarshal([]byte(text), &r); err != nil {
+			t.Fatal(err)
+		}
+		return r
+	}
+	quick, full := result(true), result(false)
+	qa, fa := quick["accuracy"].(map[string]any), full["accuracy"].(map[string]any)
+	if qa["crosscheck"] != nil || qa["crosscheck_skipped"] != nil || qa["crosscheck_grid"] != nil {
+		t.Errorf("without the cross-check the accuracy is %v, want crosscheck null and no reason", qa)
+	}
+	if c, ok := fa["crosscheck"].(float64); !ok || c > 1e-4 {
+		t.Errorf("the full solve's cross-check is %v, want a small difference", fa["crosscheck"])
+	}
+	delete(quick, "accuracy")
+	delete(full, "accuracy")
+	a, _ := json.Marshal(quick)
+	b, _ := json.Marshal(full)
+	if string(a) != string(b) {
+		t.Errorf("the result without the cross-check differs from the full one:\n%s\n%s", a, b)
+	}
+	// the series' own figures are the same; the rest of the accuracy
+	// (the cross-check's figures and what they show) is the full solve's
+	for _, k := range []string{"terms", "estimate", "converged"} {
+		if qa[k] != fa[k] {
+			t.Errorf("accuracy.%s: %v without the cross-check, %v with it", k, qa[k], fa[k])
+		}
+	}
+}

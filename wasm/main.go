@@ -4,7 +4,7 @@
 // runs inside the page's Web Worker, registers these JavaScript functions
 // (the table calls) and never returns:
 //
-//	edgewise_solve(projectJSON string, nx, ny, levels number) -> reply
+//	edgewise_solve(projectJSON string, nx, ny, levels number, noCheck bool) -> reply
 //	edgewise_colours(n number) -> {ok, sequential, diverging: Uint8Array(3n), names}
 //	edgewise_preview(projectJSON string, side string, n number) -> {ok, s, v: Float64Array}
 //	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
@@ -21,7 +21,11 @@
 // A solve reply is a plain object: {ok: true, result: "<result JSON>", nx,
 // ny, w, h, u, ux, uy: Float64Array, and the isolines levels, segs, ends,
 // labels: Float64Array} (nx, ny 0 take the project's grid or the default;
-// levels is the number of isoline levels wanted, 0 for none). The typed
+// levels is the number of isoline levels wanted, 0 for none; noCheck true
+// leaves out the finite-difference cross-check: the result's
+// accuracy.crosscheck is then null with no reason, and the page, which asks
+// so for its first picture only, runs the same solve again with the check
+// and takes its accuracy from there). The typed
 // arrays are fresh buffers at the top level of the reply, which the worker
 // transfers to the page without copying.
 //

@@ -40,6 +40,11 @@ func solveCall(args []safejs.Value) (map[string]any, error) {
 			levels = min(n, 60)
 		}
 	}
+	if len(args) >= 5 {
+		if skip, err := args[4].Truthy(); err == nil && skip {
+			opt.NoCrossCheck = true
+		}
+	}
 	return solveText(text, opt, levels)
 }
 

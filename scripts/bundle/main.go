@@ -11,13 +11,15 @@
 //
 //   - every <link rel="stylesheet" href="X"> becomes an inline <style>, and
 //     every <script src="X"></script> an inline <script>;
-//   - the worker's source (wasm_exec.js then worker.js) sits in
-//     <script type="text/plain" id="ew-worker">, and the page starts the
-//     worker from a Blob URL made from it;
-//   - the engine sits gzip-compressed and base-85-encoded (base85.go) in
-//     <script type="application/octet-stream" id="ew-wasm">; an inline
-//     decoder defines edgewiseEngineBytes(), which the page calls, and which
-//     undoes the gzip with DecompressionStream("gzip");
+//   - right after the policy, before anything else: the worker's source
+//     (wasm_exec.js, the base-85 decoder, worker.js) in
+//     <script type="text/plain" id="ew-worker">; a script (startJS) that
+//     starts the worker from a Blob URL made from that source; the engine,
+//     gzip-compressed and base-85-encoded (base85.go), in
+//     <script type="application/octet-stream" id="ew-wasm">; and a script
+//     (sendJS) that sends the engine's text to the worker, which decodes,
+//     gunzips and compiles it as one stream while the browser reads the
+//     rest of the page (site/engine.js takes the worker over);
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks",
 //     the physics table (physics.json) in one with id="ew-physics";
@@ -40,6 +42,7 @@ import (
 	"path/filepath"
 	"regexp"
 	"strings"
+	"unicode/utf16"
 
 	"edgewise/solver/csp"
 )
@@ -82,6 +85,7 @@ func Bundle(dir string) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
+	html = asciiHTML(html)
 	if !cspRE.MatchString(html) {
 		return nil, fmt.Errorf("index.html has no Content-Security-Policy meta tag to replace")
 	}
@@ -93,7 +97,7 @@ func Bundle(dir string) ([]byte, error) {
 			ferr = err
 			return tag
 		}
-		css = strings.ReplaceAll(css, "</style", `<\/style`)
+		css = strings.ReplaceAll(asciiCSS(css), "</style", `<\/style`)
 		styleHashes = append(styleHashes, hash(css))
 		return "<style>" + css + "</style>"
 	})
@@ -103,7 +107,7 @@ func Bundle(dir string) ([]byte, error) {
 			ferr = err
 			return tag
 		}
-		js = escapeScript(js)
+		js = escapeScript(asciiJS(js))
 		scriptHashes = append(scriptHashes, hash(js))
 		return "<script>" + js + "</script>"
 	})
@@ -147,21 +151,34 @@ func Bundle(dir string) ([]byte, error) {
 		return nil, err
 	}
 
+	// the engine first, right after the policy, which must come before any
+	// script: the worker starts before the browser reads the engine's
+	// text, and gets the text as soon as it is read
+	var early strings.Builder
+	early.WriteString("\n" + `<script type="text/plain" id="ew-worker">` + escapeScript(asciiJS(execJS+"\n"+decode85JS+"\n"+workerJS)) + "</script>\n")
+	early.WriteString("<script>" + startJS + "</script>\n")
+	early.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
+	early.WriteString("<script>" + sendJS + "</script>")
+	scriptHashes = append(scriptHashes, hash(startJS), hash(sendJS))
+	loc := cspRE.FindStringIndex(html)
+	html = html[:loc[1]] + early.String() + html[loc[1]:]
+
 	var extra strings.Builder
-	extra.WriteString(`<script type="text/plain" id="ew-worker">` + escapeScript(execJS+"\n"+workerJS) + "</script>\n")
-	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(demo) + "</script>\n")
-	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(checks) + "</script>\n")
-	extra.WriteString(`<script type="application/json" id="ew-physics">` + escapeScript(physicsTable) + "</script>\n")
-	extra.WriteString(`<script type="application/octet-stream" id="ew-wasm">` + encode85(gz.Bytes()) + "</script>\n")
-	extra.WriteString("<script>" + decode85JS + "</script>\n")
-	scriptHashes = append(scriptHashes, hash(decode85JS))
+	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(asciiJS(demo)) + "</script>\n")
+	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(asciiJS(checks)) + "</script>\n")
+	extra.WriteString(`<script type="application/json" id="ew-physics">` + escapeScript(asciiJS(physicsTable)) + "</script>\n")
 	i := strings.LastIndex(html, "</body>")
 	if i < 0 {
 		return nil, fmt.Errorf("index.html has no </body>")
 	}
 	// the data blocks come before the page's own scripts, which read them
-	j := strings.Index(html, "<script>")
-	if j < 0 || j > i {
+	j := strings.Index(html[loc[1]+early.Len():], "<script>")
+	if j < 0 {
+		j = i
+	} else {
+		j += loc[1] + early.Len()
+	}
+	if j > i {
 		j = i
 	}
 	html = html[:j] + extra.String() + html[j:]
@@ -170,7 +187,81 @@ func Bundle(dir string) ([]byte, error) {
 	return []byte(html), nil
 }
 
+// The page is written in ASCII only: every other character becomes an
+// escape of the language it stands in (asciiHTML, asciiCSS, asciiJS; JSON
+// takes the JavaScript form). The browser decodes a page as UTF-8 in one
+// pass when it has read all of it, and a page with a few hundred other
+// characters among its 2 MB took 110-165 ms of the main thread for that,
+// against 33-38 ms in ASCII (measured in a fresh browser process at load
+// 5); the engine's worker cannot start before the main thread is free.
+
+// asciiHTML writes every character outside ASCII in markup as a numeric
+// character reference (index.html has no inline script or style).
+func asciiHTML(s string) string {
+	return ascii(s, func(b *strings.Builder, r rune) { fmt.Fprintf(b, "&#x%X;", r) })
+}
+
+// asciiCSS writes every character outside ASCII as a CSS escape of six
+// hex digits (which needs no space after it).
+func asciiCSS(s string) string {
+	return ascii(s, func(b *strings.Builder, r rune) { fmt.Fprintf(b, "\\%06X", r) })
+}
+
+// asciiJS writes every character outside ASCII as a \u escape (two, a
+// surrogate pair, beyond U+FFFF): the same string in a string, template
+// or regular expression literal, and harmless in a comment. JSON reads it
+// too.
+func asciiJS(s string) string {
+	return ascii(s, func(b *strings.Builder, r rune) {
+		if r > 0xFFFF {
+			r1, r2 := utf16.EncodeRune(r)
+			fmt.Fprintf(b, "\\u%04x\\u%04x", r1, r2)
+			return
+		}
+		fmt.Fprintf(b, "\\u%04x", r)
+	})
+}
+
+func ascii(s string, esc func(*strings.Builder, rune)) string {
+	var b strings.Builder
+	for _, r := range s {
+		if r < 0x80 {
+			b.WriteRune(r)
+		} else {
+			esc(&b, r)
+		}
+	}
+	return b.String()
+}
+
 // escapeScript keeps inline text from closing its <script> element early.
+// startJS is the page's first script: it starts the engine's worker from
+// the worker's source before the browser reads the engine's text (a new
+// worker takes a while to start), and sendJS, right after that text, sends
+// it to the worker. site/engine.js takes the worker over, with the
+// messages it sent meanwhile (edgewiseEarlyWorker).
+const startJS = `"use strict";
+(function () {
+  try {
+    const src = document.getElementById("ew-worker").textContent;
+    const worker = new Worker(URL.createObjectURL(new Blob([src], { type: "text/javascript" })));
+    const early = { worker, heard: [] };
+    worker.onmessage = worker.onerror = (ev) => { early.heard.push(ev); };
+    window.edgewiseEarlyWorker = early;
+    performance.mark("ew:worker-spawned");
+  } catch (e) {
+    // site/engine.js starts a worker of its own and says what fails
+  }
+})();
+`
+
+const sendJS = `"use strict";
+if (window.edgewiseEarlyWorker) {
+  window.edgewiseEarlyWorker.worker.postMessage({ type: "init", text: document.getElementById("ew-wasm").textContent });
+  performance.mark("ew:engine-sent");
+}
+`
+
 func escapeScript(s string) string {
 	s = strings.ReplaceAll(s, "</script", `<\/script`)
 	return strings.ReplaceAll(s, "<!--", `<\!--`)

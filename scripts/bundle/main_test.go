@@ -28,15 +28,15 @@ var site = map[string]string{
 	"index.html": `<!doctype html><html><head>
 <meta http-equiv="Content-Security-Policy" content="default-src 'self'">
 <link rel="stylesheet" href="style.css">
-</head><body><p>hi</p>
+</head><body><p>hi, Größe</p>
 <script src="app.js"></script>
 </body></html>`,
-	"style.css":    "p { color: red }",
-	"app.js":       `const s = "</script><!-- tricky";`,
+	"style.css":    `p { color: red } p::after { content: "…" }`,
+	"app.js":       `const s = "</script><!-- tricky", t = "20 °C";`,
 	"worker.js":    "self.onmessage = () => {};",
 	"wasm_exec.js": "class Go {}",
 	"app.wasm":     "\x00asm\x01\x00\x00\x00 some engine bytes",
-	"demo.json":    `{"title": "</script>"}`,
+	"demo.json":    `{"title": "</script> W/m²"}`,
 	"checks.json":  `{"cases": []}`,
 	"physics.json": `{"physics": [{"id": "</script>"}]}`,
 }
@@ -50,9 +50,25 @@ func TestBundle(t *testing.T) {
 	if strings.Contains(html, `src="`) || strings.Contains(html, `href="style.css"`) {
 		t.Errorf("an outside script or stylesheet is left")
 	}
-	// the only </script> sequences are the real closing tags: 7 blocks
-	if n := strings.Count(html, "</script"); n != 7 {
-		t.Errorf("%d </script sequences, want 7 (app, worker, demo, checks, physics, engine and its decoder)", n)
+	// the only </script> sequences are the real closing tags: 8 blocks
+	if n := strings.Count(html, "</script"); n != 8 {
+		t.Errorf("%d </script sequences, want 8 (app, worker, demo, checks, physics, engine, and the scripts that start the worker and send it the engine)", n)
+	}
+	// the worker starts before anything but the policy: the worker's
+	// source, the script that starts it, the engine, the script that sends
+	// it, then the page's own head and body
+	order := []string{`http-equiv="Content-Security-Policy"`, `id="ew-worker">`, "new Worker(", `id="ew-wasm">`, `type: "init"`, "<style>", "<body>", `id="ew-demo"`, "const s = "}
+	at := 0
+	for i, s := range order {
+		j := strings.Index(html[at:], s)
+		if j < 0 {
+			t.Errorf("%q is not after %q in the page", s, order[max(i-1, 0)])
+			break
+		}
+		at += j + len(s)
+	}
+	if !strings.Contains(html, "self.edgewiseEngineBytes = function") {
+		t.Errorf("the worker's source has no base-85 decoder")
 	}
 	// every executable inline script and style is allowed by its hash in
 	// the policy (CSP Level 3, hash-source), and nothing else is
@@ -84,6 +100,17 @@ func TestBundle(t *testing.T) {
 	}
 	if !strings.Contains(html, `<script type="application/json" id="ew-physics">{"physics": [{"id": "<\/script>"}]}</script>`) {
 		t.Errorf("the physics table is not inlined as data")
+	}
+	// ASCII only, every other character escaped in its own language
+	for i := 0; i < len(html); i++ {
+		if html[i] >= 0x80 {
+			t.Fatalf("a byte outside ASCII at %d: %.40q", i, html[i:])
+		}
+	}
+	for _, want := range []string{`hi, Gr&#xF6;&#xDF;e`, `content: "\002026"`, `t = "20 \u00b0C"`, `W/m\u00b2"}`} {
+		if !strings.Contains(html, want) {
+			t.Errorf("the page has no %s", want)
+		}
 	}
 	if !strings.Contains(html, `id="ew-worker">class Go {}`) {
 		t.Errorf("worker source does not start with wasm_exec.js")
