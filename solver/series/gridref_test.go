@@ -1,0 +1,142 @@
+package series
+
+import (
+	"fmt"
+	"math"
+	"math/rand"
+	"testing"
+
+	"edgewise/solver/problem"
+)
+
+// The fast grid (blocked kernels, shared logarithms, row recurrences,
+// parallel rows) must give the numbers the term-by-term grid gave
+// (gridold_test.go) to rounding: the same series with the same per-row
+// cut-offs, summed in another order. Tolerance 1e-12 of the field's range
+// on the grid for u, and of the largest gradient for ux and uy (away from
+// the nodes where the gradient is unbounded; NaN where the reference has
+// NaN). Cases: seeded random problems of every kind (breaks, weak exchange,
+// orthotropy, sources), random mixed edges, the benchmark's two-pool
+// problem; grids from 1 x 1 to 200 x 60, with and without gradients.
+func TestGridMatchesReference(t *testing.T) {
+	type tc struct {
+		name string
+		pr   *problem.Problem
+	}
+	var cases []tc
+	rng := rand.New(rand.NewSource(13))
+	nRand, nMixed := 24, 12
+	if raceOn {
+		nRand, nMixed = 4, 2
+	}
+	for i := 0; i < nRand; i++ {
+		cases = append(cases, tc{fmt.Sprintf("random %d", i), randomCase(rng)})
+	}
+	for i := 0; i < nMixed; i++ {
+		cases = append(cases, tc{fmt.Sprintf("mixed %d", i), randomMixedCase(rng)})
+	}
+	cases = append(cases, tc{"two pools", benchMixedProblem()},
+		tc{"steps", stepProblem(1, 1)}, tc{"steps, orthotropic", stepProblem(2, 0.5)})
+	kinds := map[string]int{} // fields compared, by type
+	sizes := [][2]int{{1, 1}, {2, 1}, {7, 3}, {40, 25}, {200, 60}, {65, 129}}
+	for _, c := range cases {
+		breaks, err := FindBreaks(c.pr)
+		if err != nil {
+			continue // refused data: nothing to grid
+		}
+		f, err := SolveBreaks(c.pr, breaks, Options{MaxTerms: 1024})
+		if err != nil {
+			if _, ok := err.(*ImbalanceError); ok {
+				continue
+			}
+			t.Fatalf("%s: %v", c.name, err)
+		}
+		kinds[fmt.Sprintf("%T", f)]++
+		for _, sz := range sizes {
+			nx, ny := sz[0], sz[1]
+			n := (nx + 1) * (ny + 1)
+			for _, grad := range []int{0, 1, 2, 3} { // none, ux, uy, both
+				u, ux, uy := make([]float64, n), make([]float64, n), make([]float64, n)
+				ru, rux, ruy := make([]float64, n), make([]float64, n), make([]float64, n)
+				if grad&1 == 0 {
+					ux, rux = nil, nil
+				}
+				if grad&2 == 0 {
+					uy, ruy = nil, nil
+				}
+				f.Grid(nx, ny, u, ux, uy)
+				refFieldGrid(f, nx, ny, ru, rux, ruy)
+				lo, hi, gmax := math.Inf(1), math.Inf(-1), 0.0
+				for k := range ru {
+					lo, hi = min(lo, ru[k]), max(hi, ru[k])
+				}
+				for _, g := range [][]float64{rux, ruy} {
+					for _, v := range g {
+						if !math.IsNaN(v) && !math.IsInf(v, 0) {
+							gmax = max(gmax, math.Abs(v))
+						}
+					}
+				}
+				tolU := 1e-12 * max(hi-lo, math.Abs(hi), math.Abs(lo), 1e-300)
+				tolG := 1e-12 * max(gmax, 1e-300)
+				for k := range ru {
+					if !(math.Abs(u[k]-ru[k]) <= tolU) {
+						t.Fatalf("%s %dx%d grad %d node %d: u %.17g, reference %.17g (tolerance %.3g)", c.name, nx, ny, grad, k, u[k], ru[k], tolU)
+					}
+				}
+				for gi, g := range [][2][]float64{{ux, rux}, {uy, ruy}} {
+					for k := range g[1] {
+						a, b := g[0][k], g[1][k]
+						if math.IsNaN(b) || math.IsInf(b, 0) {
+							if !math.IsNaN(a) && !math.IsInf(a, 0) {
+								t.Fatalf("%s %dx%d node %d: gradient %d %g, reference %g", c.name, nx, ny, k, gi, a, b)
+							}
+							continue
+						}
+						if !(math.Abs(a-b) <= tolG) {
+							t.Fatalf("%s %dx%d grad %d node %d: gradient %d %.17g, reference %.17g (tolerance %.3g)", c.name, nx, ny, grad, k, gi, a, b, tolG)
+						}
+					}
+				}
+			}
+		}
+	}
+	t.Logf("fields compared: %v", kinds)
+	if kinds["*series.mixedField"] < 2 || kinds["*series.Solution"] < 2 || kinds["*series.breakField"] < 2 {
+		t.Errorf("too few cases compared: %v", kinds)
+	}
+}
+
+// randomMixedCase: one or two edges of two to four parts of random kinds
+// (value, flux, convection with h of its own) and random data, the other
+// edges of random kinds.
+func randomMixedCase(rng *rand.Rand) *problem.Problem {
+	p := randomCase(rng)
+	mixed := []problem.Side{problem.Side(rng.Intn(4))}
+	if rng.Intn(2) == 0 {
+		mixed = append(mixed, (mixed[0]+problem.Side(1+rng.Intn(3)))%4)
+	}
+	for _, side := range mixed {
+		L := p.Length(side)
+		np := 2 + rng.Intn(3)
+		var e problem.Edge
+		for i := 0; i < np; i++ {
+			kind := problem.Kind(rng.Intn(3))
+			if i > 0 && kind == e.Parts[i-1].Kind {
+				kind = (kind + 1) % 3
+			}
+			v := rng.NormFloat64() * 20
+			part := problem.Part{Kind: kind, F: konst(v)}
+			if kind == problem.Convection {
+				part.Hc = konst(math.Pow(10, rng.Float64()*2-1) * p.Kx / L)
+			}
+			if i < np-1 {
+				part.To = L * (float64(i) + 0.3 + 0.4*rng.Float64()) / float64(np)
+			}
+			e.Parts = append(e.Parts, part)
+		}
+		e.Kind, e.F = e.Parts[0].Kind, e.Parts[0].F
+		p.Edges[side] = e
+	}
+	return p
+}
