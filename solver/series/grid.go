@@ -22,6 +22,7 @@ type gridWork struct {
 	fa, fb, fc []float64 // folded transform inputs
 	dst        *fourier.DST
 	dct        *fourier.DCT
+	bufs       []*rowBuf // one per worker of gridRows
 }
 
 func grow(s []float64, n int) []float64 {
@@ -602,8 +603,11 @@ func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64
 	}
 }
 
-// maxTab caps the terms tabulated on the nodes by the separable path.
-var maxTab = 512 // a variable so tests can exercise the rotation path
+// maxTab caps the terms tabulated on the nodes by the separable path
+// (and tabEntries the size of each table: 4 MB).
+var maxTab = 1024 // a variable so tests can exercise the rotation path
+
+const tabEntries = 1 << 19
 
 // gidx returns the node index of s-node i in row r.
 func gidx(vert bool, nx, i, r int) int {
@@ -613,7 +617,21 @@ func gidx(vert bool, nx, i, r int) int {
 	return r*(nx+1) + i
 }
 
-// gridSub adds one sub-problem as separable products, row by row.
+// rowBuf is one worker's buffers for gridSub.
+type rowBuf struct {
+	a, b, al   []float64 // Y_k, dY_k/dt and lambda_k Y_k of a row
+	cu, cs, ct []float64 // a chunk's rows of sums: u, du/ds, du/dt
+}
+
+// gridSub adds one sub-problem as separable products, row by row: with
+// the tables X_k(s_i) = sin(lambda_k s_i + phi_k) and C_k(s_i) (its
+// cosine partner) on the nodes, a row at distance t is
+//
+//	u = sum_k Y_k(t) X_k,  du/ds = sum_k lambda_k Y_k(t) C_k,  du/dt = sum_k Y_k'(t) X_k,
+//
+// summed four terms at a time (sumTerms4), over the terms the row keeps
+// (rowTerms); terms beyond the tables by rotation. Rows are shared among
+// the processors (gridRows).
 func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64) {
 	vert := sp.side == problem.Left || sp.side == problem.Right
 	far := sp.side == problem.Top || sp.side == problem.Right
@@ -623,11 +641,10 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 	}
 	hs := sp.L / float64(M)
 	w := &s.gw
-	w.a, w.b = grow(w.a, sp.n), grow(w.b, sp.n)
 	grad := ux != nil || uy != nil
 	// Tables of X_k and cos(lambda_k s + phi_k) on the nodes for the first
 	// terms (every row uses them); later terms by rotation.
-	nt := min(sp.n, maxTab)
+	nt := min(sp.n, maxTab, tabEntries/(M+1))
 	w.xtab, w.ctab = grow(w.xtab, nt*(M+1)), grow(w.ctab, nt*(M+1))
 	for k := 0; k < nt; k++ {
 		sn, cn := math.Sincos(sp.b.Phi[k])
@@ -638,71 +655,173 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
 		}
 	}
-	w.col = grow(w.col, 3*(M+1))
-	cu, cs, ct := w.col[:M+1], w.col[M+1:2*(M+1)], w.col[2*(M+1):]
-	for r := 0; r <= rows; r++ {
-		rr := r
-		if far {
-			rr = rows - r
-		}
-		t := sp.D * float64(rr) / float64(rows)
-		n := sp.rowTerms(t, cut)
-		if n == 0 {
-			continue
-		}
-		a, b := w.a[:n], w.b[:n]
-		sp.rowY(t, n, a, b, false, 1)
-		clear(cu)
+	// (du/ds, du/dt) to (ux, uy): the signs of sub.global
+	sx, tx, sy, ty := 1.0, 0.0, 0.0, 1.0
+	switch sp.side {
+	case problem.Top:
+		ty = -1
+	case problem.Left:
+		sx, tx, sy, ty = 0, 1, 1, 0
+	case problem.Right:
+		sx, tx, sy, ty = 0, -1, 1, 0
+	}
+	xtab, ctab := w.xtab, w.ctab
+	s.gridRows(rows+1, func(r0, r1 int, buf *rowBuf) {
+		buf.cu = grow(buf.cu, gridChunk*(M+1))
 		if grad {
-			clear(cs)
-			clear(ct)
+			buf.cs, buf.ct = grow(buf.cs, gridChunk*(M+1)), grow(buf.ct, gridChunk*(M+1))
 		}
-		for k := 0; k < n; k++ {
-			lam := sp.b.Lambda[k]
-			ak, al, bk := a[k], a[k]*lam, b[k]
-			if k < nt {
-				xs := w.xtab[k*(M+1) : (k+1)*(M+1)]
-				for i, v := range xs {
-					cu[i] += ak * v
-				}
-				if grad {
-					for i, v := range w.ctab[k*(M+1) : (k+1)*(M+1)] {
-						cs[i] += al * v
-					}
-					for i, v := range xs {
-						ct[i] += bk * v
-					}
-				}
-				continue
-			}
-			sn, cn := math.Sincos(sp.b.Phi[k])
-			ds, dc := math.Sincos(lam * hs)
-			if !grad {
-				for i := range cu {
-					cu[i] += ak * sn
-					sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
-				}
-				continue
-			}
-			for i := range cu {
-				cu[i] += ak * sn
-				cs[i] += al * cn
-				ct[i] += bk * sn
-				sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
-			}
-		}
-		for i := range cu {
-			g := gidx(vert, nx, i, r)
-			u[g] += cu[i]
+		for r := r0; r < r1; r++ {
+			o := (r - r0) * (M + 1)
+			cu := buf.cu[o : o+M+1]
+			clear(cu)
+			var cs, ct []float64
 			if grad {
-				gx, gy := sp.global(cs[i], ct[i])
+				cs, ct = buf.cs[o:o+M+1], buf.ct[o:o+M+1]
+				clear(cs)
+				clear(ct)
+			}
+			rr := r
+			if far {
+				rr = rows - r
+			}
+			sp.gridRow(sp.D*float64(rr)/float64(rows), cut, hs, xtab, ctab, nt, buf, cu, cs, ct)
+		}
+		if !vert {
+			for r := r0; r < r1; r++ {
+				o, g := (r-r0)*(M+1), r*(nx+1)
+				addRow(u[g:g+M+1], buf.cu[o:o+M+1])
 				if ux != nil {
-					ux[g] += gx
+					addRow2(ux[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], sx, tx)
 				}
 				if uy != nil {
-					uy[g] += gy
+					addRow2(uy[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], sy, ty)
+				}
+			}
+			return
+		}
+		// a column of the grid per row: the chunk's rows are next to each
+		// other in every grid row
+		nr := r1 - r0
+		for i := 0; i <= M; i++ {
+			g := i*(nx+1) + r0
+			for j := 0; j < nr; j++ {
+				o := j*(M+1) + i
+				u[g+j] += buf.cu[o]
+				if ux != nil {
+					ux[g+j] += sx*buf.cs[o] + tx*buf.ct[o]
+				}
+				if uy != nil {
+					uy[g+j] += sy*buf.cs[o] + ty*buf.ct[o]
 				}
 			}
 		}
+	})
+}
+
+// gridRow adds the sub-problem's row at distance t from its edge to cu
+// (and du/ds, du/dt to cs, ct when not nil): the terms rowTerms keeps,
+// those below nt from the tables xtab and ctab (nt rows of len(cu)), the
+// rest by rotation.
+func (sp *sub) gridRow(t, cut, hs float64, xtab, ctab []float64, nt int, buf *rowBuf, cu, cs, ct []float64) {
+	n := sp.rowTerms(t, cut)
+	if n == 0 {
+		return
+	}
+	M := len(cu) - 1
+	grad := cs != nil
+	buf.a, buf.b, buf.al = grow(buf.a, n), grow(buf.b, n), grow(buf.al, n)
+	a, b, al := buf.a, buf.b, buf.al
+	sp.rowY(t, n, a, b, false, 1)
+	for k := range al {
+		al[k] = a[k] * sp.b.Lambda[k]
+	}
+	m := min(n, nt)
+	k := 0
+	for ; k+4 <= m; k += 4 {
+		x := xtab[k*(M+1) : (k+4)*(M+1)]
+		if grad {
+			c := ctab[k*(M+1) : (k+4)*(M+1)]
+			sumTerms4Grad(cu, cs, ct, x, c, a[k:k+4], al[k:k+4], b[k:k+4])
+		} else {
+			sumTerms4(cu, x, a[k:k+4])
+		}
+	}
+	for ; k < m; k++ {
+		xs := xtab[k*(M+1) : (k+1)*(M+1)]
+		ak, alk, bk := a[k], al[k], b[k]
+		for i, v := range xs {
+			cu[i] += ak * v
+		}
+		if grad {
+			for i, v := range ctab[k*(M+1) : (k+1)*(M+1)] {
+				cs[i] += alk * v
+			}
+			for i, v := range xs {
+				ct[i] += bk * v
+			}
+		}
+	}
+	for ; k < n; k++ {
+		ak, alk, bk := a[k], al[k], b[k]
+		sn, cn := math.Sincos(sp.b.Phi[k])
+		ds, dc := math.Sincos(sp.b.Lambda[k] * hs)
+		if !grad {
+			for i := range cu {
+				cu[i] += ak * sn
+				sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+			}
+			continue
+		}
+		for i := range cu {
+			cu[i] += ak * sn
+			cs[i] += alk * cn
+			ct[i] += bk * sn
+			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+		}
+	}
+}
+
+// sumTerms4 adds sum_{k<4} a_k x_k to cu, x holding the four rows x_k of
+// length len(cu) one after another.
+func sumTerms4(cu, x, a []float64) {
+	n := len(cu)
+	x0, x1, x2, x3 := x[:n], x[n:2*n], x[2*n:3*n], x[3*n:4*n]
+	a0, a1, a2, a3 := a[0], a[1], a[2], a[3]
+	for i := range cu {
+		cu[i] += a0*x0[i] + a1*x1[i] + a2*x2[i] + a3*x3[i]
+	}
+}
+
+// sumTerms4Grad is sumTerms4 for u, du/ds (al with the cosine rows c) and
+// du/dt (b with x) at once.
+func sumTerms4Grad(cu, cs, ct, x, c, a, al, b []float64) {
+	n := len(cu)
+	cs, ct = cs[:n], ct[:n]
+	x0, x1, x2, x3 := x[:n], x[n:2*n], x[2*n:3*n], x[3*n:4*n]
+	c0, c1, c2, c3 := c[:n], c[n:2*n], c[2*n:3*n], c[3*n:4*n]
+	a0, a1, a2, a3 := a[0], a[1], a[2], a[3]
+	l0, l1, l2, l3 := al[0], al[1], al[2], al[3]
+	b0, b1, b2, b3 := b[0], b[1], b[2], b[3]
+	for i := range cu {
+		v0, v1, v2, v3 := x0[i], x1[i], x2[i], x3[i]
+		cu[i] += a0*v0 + a1*v1 + a2*v2 + a3*v3
+		ct[i] += b0*v0 + b1*v1 + b2*v2 + b3*v3
+		cs[i] += l0*c0[i] + l1*c1[i] + l2*c2[i] + l3*c3[i]
+	}
+}
+
+func addRow(dst, src []float64) {
+	src = src[:len(dst)]
+	for i := range dst {
+		dst[i] += src[i]
+	}
+}
+
+// addRow2 adds p a + q b to dst.
+func addRow2(dst, a, b []float64, p, q float64) {
+	a, b = a[:len(dst)], b[:len(dst)]
+	for i := range dst {
+		dst[i] += p*a[i] + q*b[i]
 	}
 }
