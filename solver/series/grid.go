@@ -2,7 +2,6 @@ package series
 
 import (
 	"math"
-	"math/cmplx"
 
 	"gonum.org/v1/gonum/dsp/fourier"
 
@@ -127,7 +126,6 @@ func atanPos(y, x float64) float64 {
 func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	m := s.m
 	hx, hy := m.W/float64(nx), m.H/float64(ny)
-	grad := ux != nil || uy != nil
 	// Smooth polynomial pieces share one centre and scale: one Horner sum.
 	var poly [6]complex128
 	var pz0, prho complex128
@@ -188,18 +186,21 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			w.logs = make([]complex128, nn)
 		}
 		w.logs = w.logs[:nn]
-		for j := 0; j <= ny; j++ {
-			y := float64(j) * hy
-			row := w.logs[j*(nx+1) : (j+1)*(nx+1)]
-			for i := range row {
-				x := float64(i) * hx
-				if i == 0 && j == 0 {
-					row[i] = 0
-					continue
+		logs := w.logs
+		s.gridRows(ny+1, func(r0, r1 int, _ *rowBuf) {
+			for j := r0; j < r1; j++ {
+				y := float64(j) * hy
+				row := logs[j*(nx+1) : (j+1)*(nx+1)]
+				for i := range row {
+					x := float64(i) * hx
+					if i == 0 && j == 0 {
+						row[i] = 0
+						continue
+					}
+					row[i] = complex(0.5*math.Log(x*x+y*y), atanPos(y, x))
 				}
-				row[i] = complex(0.5*math.Log(x*x+y*y), atanPos(y, x))
 			}
-		}
+		})
 	} else if needLogs {
 		w.theta = grow(w.theta, nn)
 		for j := 0; j <= ny; j++ {
@@ -224,78 +225,141 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 		s.gridPiecesFast(nx, ny, u, ux, uy, poly, pz0, prho, &corner)
 		return
 	}
-	q := s.quad
-	for j := 0; j <= ny; j++ {
-		y := float64(j) * hy
-		for i := 0; i <= nx; i++ {
-			x := float64(i) * hx
-			k := j*(nx+1) + i
-			v := q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E
-			z := prho * complex(x-real(pz0), y-imag(pz0))
-			pv := poly[5]
-			pd := complex(0, 0)
-			for n := 4; n >= 0; n-- {
-				if grad {
-					pd = pd*z + pv
-				}
-				pv = pv*z + poly[n]
-			}
-			u[k] += v + real(pv)
-			if grad {
-				g := complex(2*q.A*x+q.B, -(2*q.C*y+q.D)) + pd*prho // u_x - i u_y
-				if ux != nil {
-					ux[k] += real(g)
-				}
-				if uy != nil {
-					uy[k] -= imag(g)
-				}
-			}
-		}
+	// The corners' powers join the smooth polynomial (re-expanded about its
+	// centre: rho_c (z - z_c) = alpha zeta + beta with zeta = prho (z - pz0));
+	// the corners keep their logarithmic parts alone.
+	if prho == 0 {
+		pz0, prho = complex(m.W/2, m.H/2), complex(2/math.Max(m.W, m.H), 0)
 	}
+	binom := [4][4]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}}
+	var on []logCorner
 	for c := range corner {
 		cr := &corner[c]
 		if !cr.on {
 			continue
 		}
-		for j := 0; j <= ny; j++ {
-			y := float64(j) * hy
-			for i := 0; i <= nx; i++ {
-				x := float64(i) * hx
-				k := j*(nx+1) + i
-				zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
-				f := cr.a0 + zc*(cr.a1+zc*(cr.a2+zc*cr.a3))
-				d := cr.a1 + zc*(2*cr.a2+3*zc*cr.a3)
-				if cr.logs && zc != 0 {
-					var l complex128
-					switch c {
-					case 0:
-						l = w.logs[k]
-					case 1:
-						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[j*(nx+1)+nx-i])
-					case 2:
-						l = w.logs[(ny-j)*(nx+1)+nx-i]
-					case 3:
-						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[(ny-j)*(nx+1)+i])
-					}
-					pl := cr.b0 + zc*(cr.b1+zc*(cr.b2+zc*cr.b3))
-					f += pl * l
-					if grad {
-						// pl/zc without a complex division unless b0 != 0
-						d += (cr.b1+zc*(2*cr.b2+3*zc*cr.b3))*l + cr.b1 + zc*(cr.b2+zc*cr.b3)
-						if cr.b0 != 0 {
-							d += cr.b0 / zc
-						}
-					}
+		alpha, beta := cr.rho/prho, cr.rho*(pz0-cr.z0)
+		for n, an := range [4]complex128{cr.a0, cr.a1, cr.a2, cr.a3} {
+			if an == 0 {
+				continue
+			}
+			// an (alpha zeta + beta)^n = an sum_k C(n,k) alpha^k beta^(n-k) zeta^k
+			for k := 0; k <= n; k++ {
+				poly[k] += an * complex(binom[n][k], 0) * cpow(alpha, k) * cpow(beta, n-k)
+			}
+		}
+		if cr.logs {
+			on = append(on, logCorner{c: c, rho: cr.rho, z0: cr.z0, b: [4]complex128{cr.b0, cr.b1, cr.b2, cr.b3}})
+		}
+	}
+	s.gridRows(ny+1, func(r0, r1 int, _ *rowBuf) {
+		for j := r0; j < r1; j++ {
+			s.piecesRow(j, nx, ny, hx, hy, u, ux, uy, &poly, pz0, prho, on)
+		}
+	})
+}
+
+// logCorner is the logarithmic part of a corner's pieces,
+// (b0 + b1 zeta + b2 zeta^2 + b3 zeta^3) log zeta.
+type logCorner struct {
+	c       int
+	rho, z0 complex128
+	b       [4]complex128
+}
+
+// cpow returns z^n for small n >= 0.
+func cpow(z complex128, n int) complex128 {
+	p := complex(1, 0)
+	for ; n > 0; n-- {
+		p *= z
+	}
+	return p
+}
+
+// piecesRow adds the particular solution and the pieces on row j (the
+// full path of gridPieces): the smooth polynomial by Horner's rule, and
+// each corner's logarithmic part with its logarithm from w.logs (the
+// bottom-left corner's table, mirrored for the others).
+func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64, poly *[6]complex128, pz0, prho complex128, on []logCorner) {
+	q := s.quad
+	w := &s.gw
+	grad := ux != nil || uy != nil
+	y := float64(j) * hy
+	k0 := j * (nx + 1)
+	urow := u[k0 : k0+nx+1]
+	var uxrow, uyrow []float64
+	if ux != nil {
+		uxrow = ux[k0 : k0+nx+1]
+	}
+	if uy != nil {
+		uyrow = uy[k0 : k0+nx+1]
+	}
+	cy := q.C*y*y + q.D*y + q.E
+	gy := -(2*q.C*y + q.D)
+	for i := range urow {
+		x := float64(i) * hx
+		z := prho * complex(x-real(pz0), y-imag(pz0))
+		pv := poly[5]
+		pd := complex(0, 0)
+		for n := 4; n >= 0; n-- {
+			if grad {
+				pd = pd*z + pv
+			}
+			pv = pv*z + poly[n]
+		}
+		urow[i] += q.A*x*x + q.B*x + cy + real(pv)
+		if grad {
+			g := complex(2*q.A*x+q.B, gy) + pd*prho // u_x - i u_y
+			if uxrow != nil {
+				uxrow[i] += real(g)
+			}
+			if uyrow != nil {
+				uyrow[i] -= imag(g)
+			}
+		}
+	}
+	for _, cr := range on {
+		// log zeta_c on this row: the table's row j (corners 0, 1) or
+		// ny - j (2, 3), read backwards for corners 1 and 2, and
+		// i pi/2 + conj(...) for corners 1 and 3
+		lr := j
+		if cr.c >= 2 {
+			lr = ny - j
+		}
+		lrow := w.logs[lr*(nx+1) : (lr+1)*(nx+1)]
+		back := cr.c == 1 || cr.c == 2
+		conj := cr.c == 1 || cr.c == 3
+		b0, b1, b2, b3 := cr.b[0], cr.b[1], cr.b[2], cr.b[3]
+		for i := range urow {
+			x := float64(i) * hx
+			zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
+			if zc == 0 {
+				continue // the corner node: Grid sets it from At
+			}
+			ii := i
+			if back {
+				ii = nx - i
+			}
+			l := lrow[ii]
+			if conj {
+				l = complex(real(l), math.Pi/2-imag(l))
+			}
+			pl := b0 + zc*(b1+zc*(b2+zc*b3))
+			urow[i] += real(pl * l)
+			if grad {
+				// d/dzeta (pl log zeta) = pl' log zeta + pl/zeta, with
+				// b0/zeta = b0 conj(zeta)/|zeta|^2
+				d := (b1+zc*(2*b2+3*zc*b3))*l + b1 + zc*(b2+zc*b3)
+				if b0 != 0 {
+					r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+					d += b0 * complex(real(zc)/r2, -imag(zc)/r2)
 				}
-				u[k] += real(f)
-				if grad {
-					g := d * cr.rho
-					if ux != nil {
-						ux[k] += real(g)
-					}
-					if uy != nil {
-						uy[k] -= imag(g)
-					}
+				g := d * cr.rho
+				if uxrow != nil {
+					uxrow[i] += real(g)
+				}
+				if uyrow != nil {
+					uyrow[i] -= imag(g)
 				}
 			}
 		}
