@@ -311,8 +311,21 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 			continue
 		}
 		lam := sp.b.Lambda[i]
-		ea := math.Exp(-lam * t)
-		eb := math.Exp(-lam * (2*sp.D - t))
+		// on the loaded edge and on the opposite one (where the flows are
+		// taken) the exponentials are known: 1, exp(-lambda D)^2, and
+		// exp(-lambda D) twice; eb is not needed when B is zero
+		var ea, eb float64
+		switch t {
+		case 0:
+			ea, eb = 1, sp.e1[i]*sp.e1[i]
+		case sp.D:
+			ea, eb = sp.e1[i], sp.e1[i]
+		default:
+			ea = math.Exp(-lam * t)
+			if sp.B[i] != 0 {
+				eb = math.Exp(-lam * (2*sp.D - t))
+			}
+		}
 		y := sp.A[i]*ea + sp.B[i]*eb
 		u += x * y
 		us += dx * y
