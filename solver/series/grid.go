@@ -2,11 +2,17 @@ package series
 
 import (
 	"math"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/dsp/fourier"
 
 	"edgewise/solver/problem"
 )
+
+// spareWork keeps one gridWork between Grid calls, of any Solution (a
+// solve per edit makes a new Solution each time): its tables and buffers
+// of up to a few MB are not allocated and cleared anew.
+var spareWork atomic.Pointer[gridWork]
 
 // gridWork holds buffers reused across Grid calls.
 type gridWork struct {
@@ -56,6 +62,15 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 		clear(uy)
 	}
 	m := s.m
+	// the buffers and tables of the last Grid of any Solution, if free
+	s.gw = spareWork.Swap(nil)
+	if s.gw == nil {
+		s.gw = new(gridWork)
+	}
+	defer func() {
+		spareWork.Store(s.gw)
+		s.gw = nil
+	}()
 	s.gridPieces(nx, ny, u, ux, uy)
 	// Each row drops the terms whose sum is below cut (a bound: |X_n| <= 1,
 	// |A e^-lambda t| + |B e^-lambda (2D - t)| <= (|A| + |B|) e^-lambda t).
@@ -179,7 +194,7 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			fullLogs = true
 		}
 	}
-	w := &s.gw
+	w := s.gw
 	nn := (nx + 1) * (ny + 1)
 	if needLogs && fullLogs {
 		if cap(w.logs) < nn {
@@ -282,7 +297,7 @@ func cpow(z complex128, n int) complex128 {
 // bottom-left corner's table, mirrored for the others).
 func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64, poly *[6]complex128, pz0, prho complex128, on []logCorner) {
 	q := s.quad
-	w := &s.gw
+	w := s.gw
 	grad := ux != nil || uy != nil
 	y := float64(j) * hy
 	k0 := j * (nx + 1)
@@ -392,7 +407,7 @@ func (s *Solution) gridPiecesFast(nx, ny int, u, ux, uy []float64, poly [6]compl
 	}
 	binom := [6][6]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}, {1, 5, 10, 10, 5, 1}}
 	q := s.quad
-	w := &s.gw
+	w := s.gw
 	S := 1 / real(prho) // prho is real for the smooth pieces
 	for j := 0; j <= ny; j++ {
 		y := float64(j) * hy
@@ -510,7 +525,7 @@ func (s *Solution) gridSinePair(e1, e2 problem.Side, nx, ny int, cut float64, u,
 	if vert {
 		M, rows, D = ny, nx, m.W
 	}
-	w := &s.gw
+	w := s.gw
 	nmax := max(s1.n, s2.n)
 	w.a, w.b = grow(w.a, nmax), grow(w.b, nmax)
 	w.fa, w.fb, w.fc = grow(w.fa, M+1), grow(w.fb, M+1), grow(w.fc, M+1)
@@ -625,7 +640,7 @@ const tabTerms = 24
 // sineRow adds sum_n a_n sin(n pi i/M) (and the derivatives) for one row
 // of a sine pair from the tables.
 func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64, u, ux, uy []float64) {
-	w := &s.gw
+	w := s.gw
 	gs, gt := ux, uy // derivative along s, across (t)
 	if vert {
 		gs, gt = uy, ux
@@ -704,7 +719,7 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 		M, rows = ny, nx
 	}
 	hs := sp.L / float64(M)
-	w := &s.gw
+	w := s.gw
 	grad := ux != nil || uy != nil
 	// Tables of X_k and cos(lambda_k s + phi_k) on the nodes for the first
 	// terms (every row uses them); later terms by rotation.

@@ -249,3 +249,30 @@ func at(s []float64, k int) float64 {
 	}
 	return s[k]
 }
+
+// BenchmarkMixedGrid513: the grid alone of BenchmarkMixedSolve513's
+// problem, 513 x 513 nodes with gradients, by Field.Grid and by the
+// term-by-term reference (run both in one process to compare them on a
+// busy machine).
+func BenchmarkMixedGrid513(b *testing.B) {
+	pr := benchMixedProblem()
+	breaks, err := FindBreaks(pr)
+	if err != nil {
+		b.Fatal(err)
+	}
+	f, err := SolveBreaks(pr, breaks, Options{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	u, ux, uy := make([]float64, 513*513), make([]float64, 513*513), make([]float64, 513*513)
+	for _, c := range []struct {
+		name string
+		grid func(nx, ny int, u, ux, uy []float64)
+	}{{"fast", f.Grid}, {"reference", func(nx, ny int, u, ux, uy []float64) { refFieldGrid(f, nx, ny, u, ux, uy) }}} {
+		b.Run(c.name, func(b *testing.B) {
+			for b.Loop() {
+				c.grid(512, 512, u, ux, uy)
+			}
+		})
+	}
+}

@@ -47,7 +47,7 @@ func forRows(rows int, chunk func(r0, r1, worker int)) {
 
 // gridRows is forRows with each worker's rowBuf (kept across calls).
 func (s *Solution) gridRows(rows int, chunk func(r0, r1 int, buf *rowBuf)) {
-	w := &s.gw
+	w := s.gw
 	for len(w.bufs) < rowWorkers(rows) {
 		w.bufs = append(w.bufs, new(rowBuf))
 	}

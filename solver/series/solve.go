@@ -111,7 +111,7 @@ type Solution struct {
 	finite   [4]bool
 	mean     float64
 	warnings []problem.Warning
-	gw       gridWork
+	gw       *gridWork // during Grid: the work buffers (spareWork)
 }
 
 // Solve solves p by superposition of separated series, with the corner
