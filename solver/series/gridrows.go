@@ -54,3 +54,31 @@ func (s *Solution) gridRows(rows int, chunk func(r0, r1 int, buf *rowBuf)) {
 	bufs := w.bufs
 	forRows(rows, func(r0, r1, worker int) { chunk(r0, r1, bufs[worker]) })
 }
+
+// forEach calls f(i) for i < n, on up to GOMAXPROCS workers (in order on
+// one).
+func forEach(n int, f func(i int)) {
+	workers := max(1, min(runtime.GOMAXPROCS(0), n))
+	if workers == 1 {
+		for i := 0; i < n; i++ {
+			f(i)
+		}
+		return
+	}
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for k := 0; k < workers; k++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				i := int(next.Add(1)) - 1
+				if i >= n {
+					return
+				}
+				f(i)
+			}
+		}()
+	}
+	wg.Wait()
+}
