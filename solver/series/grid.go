@@ -88,9 +88,16 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 		s.gridSinePair(problem.Left, problem.Right, nx, ny, cut, u, ux, uy)
 		done[problem.Left], done[problem.Right] = true, true
 	}
-	for _, e := range problem.Sides {
-		if !done[e] {
-			s.gridSub(s.subs[e], nx, ny, cut, u, ux, uy)
+	for _, p := range [2][2]problem.Side{{problem.Bottom, problem.Top}, {problem.Left, problem.Right}} {
+		var near, far *sub
+		if !done[p[0]] {
+			near = s.subs[p[0]]
+		}
+		if !done[p[1]] {
+			far = s.subs[p[1]]
+		}
+		if near != nil || far != nil {
+			s.gridSubs(near, far, nx, ny, cut, u, ux, uy)
 		}
 	}
 	if uy != nil && m.a != 1 {
@@ -696,24 +703,39 @@ func gidx(vert bool, nx, i, r int) int {
 	return r*(nx+1) + i
 }
 
-// rowBuf is one worker's buffers for gridSub.
+// rowBuf is one worker's buffers for gridSubs.
 type rowBuf struct {
 	a, b, al   []float64 // Y_k, dY_k/dt and lambda_k Y_k of a row
 	cu, cs, ct []float64 // a chunk's rows of sums: u, du/ds, du/dt
 }
 
-// gridSub adds one sub-problem as separable products, row by row: with
-// the tables X_k(s_i) = sin(lambda_k s_i + phi_k) and C_k(s_i) (its
-// cosine partner) on the nodes, a row at distance t is
+// gridSubs adds two opposite sub-problems (near loaded at row 0: bottom
+// or left; far at the last row: top or right; either may be nil) as
+// separable products, row by row. They share their basis (the same
+// neighbours, in the same order along s), so a row's factors are summed
+// first,
 //
-//	u = sum_k Y_k(t) X_k,  du/ds = sum_k lambda_k Y_k(t) C_k,  du/dt = sum_k Y_k'(t) X_k,
+//	Y_k = Y_k^near(t) + Y_k^far(D - t),
 //
-// summed four terms at a time (sumTerms4), over the terms the row keeps
-// (rowTerms); terms beyond the tables by rotation. Rows are shared among
-// the processors (gridRows).
-func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64) {
+// and the row is one product with the tables X_k(s_i) = sin(lambda_k s_i
+// + phi_k) and C_k(s_i) (its cosine partner) on the nodes:
+//
+//	u = sum_k Y_k X_k,  du/ds = sum_k lambda_k Y_k C_k,  du/dt = sum_k Y_k' X_k,
+//
+// summed four terms at a time (sumTerms4), over the terms each keeps in
+// that row (rowTerms); terms beyond the tables by rotation. Rows are
+// shared among the processors (gridRows).
+func (s *Solution) gridSubs(near, far *sub, nx, ny int, cut float64, u, ux, uy []float64) {
+	if near != nil && far != nil && !sameBasis(near, far) {
+		s.gridSubs(near, nil, nx, ny, cut, u, ux, uy)
+		s.gridSubs(nil, far, nx, ny, cut, u, ux, uy)
+		return
+	}
+	sp := near // the basis and the tables
+	if sp == nil || (far != nil && far.n > sp.n) {
+		sp = far
+	}
 	vert := sp.side == problem.Left || sp.side == problem.Right
-	far := sp.side == problem.Top || sp.side == problem.Right
 	M, rows := nx, ny
 	if vert {
 		M, rows = ny, nx
@@ -734,15 +756,11 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
 		}
 	}
-	// (du/ds, du/dt) to (ux, uy): the signs of sub.global
+	// (du/ds, du/dt) to (ux, uy) in the near side's frame (sub.global):
+	// the far side's t runs the other way, hence its sign -1 in rowY
 	sx, tx, sy, ty := 1.0, 0.0, 0.0, 1.0
-	switch sp.side {
-	case problem.Top:
-		ty = -1
-	case problem.Left:
+	if vert {
 		sx, tx, sy, ty = 0, 1, 1, 0
-	case problem.Right:
-		sx, tx, sy, ty = 0, -1, 1, 0
 	}
 	xtab, ctab := w.xtab, w.ctab
 	s.gridRows(rows+1, func(r0, r1 int, buf *rowBuf) {
@@ -760,11 +778,32 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 				clear(cs)
 				clear(ct)
 			}
-			rr := r
-			if far {
-				rr = rows - r
+			t1, t2 := sp.D*float64(r)/float64(rows), sp.D*float64(rows-r)/float64(rows)
+			n1, n2 := 0, 0
+			if near != nil {
+				n1 = near.rowTerms(t1, cut)
 			}
-			sp.gridRow(sp.D*float64(rr)/float64(rows), cut, hs, xtab, ctab, nt, buf, cu, cs, ct)
+			if far != nil {
+				n2 = far.rowTerms(t2, cut)
+			}
+			n := max(n1, n2)
+			if n == 0 {
+				continue
+			}
+			buf.a, buf.b, buf.al = grow(buf.a, n), grow(buf.b, n), grow(buf.al, n)
+			a, b, al := buf.a, buf.b, buf.al
+			clear(a)
+			clear(b)
+			if near != nil {
+				near.rowY(t1, n1, a, b, true, 1)
+			}
+			if far != nil {
+				far.rowY(t2, n2, a, b, true, -1)
+			}
+			for k := range al {
+				al[k] = a[k] * sp.b.Lambda[k]
+			}
+			sumRow(sp, hs, xtab, ctab, nt, a, b, al, cu, cs, ct)
 		}
 		if !vert {
 			for r := r0; r < r1; r++ {
@@ -798,23 +837,30 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 	})
 }
 
-// gridRow adds the sub-problem's row at distance t from its edge to cu
-// (and du/ds, du/dt to cs, ct when not nil): the terms rowTerms keeps,
-// those below nt from the tables xtab and ctab (nt rows of len(cu)), the
-// rest by rotation.
-func (sp *sub) gridRow(t, cut, hs float64, xtab, ctab []float64, nt int, buf *rowBuf, cu, cs, ct []float64) {
-	n := sp.rowTerms(t, cut)
-	if n == 0 {
-		return
+// sameBasis reports whether two opposite sub-problems have the same
+// basis, term for term (the same neighbours give the same eigenvalues;
+// checked, not assumed).
+func sameBasis(a, b *sub) bool {
+	if a.L != b.L || a.zero != b.zero {
+		return false
 	}
+	n := min(a.n, b.n)
+	for k := 0; k < n; k++ {
+		if a.b.Lambda[k] != b.b.Lambda[k] || a.b.Phi[k] != b.b.Phi[k] {
+			return false
+		}
+	}
+	return true
+}
+
+// sumRow adds to cu (and du/ds, du/dt to cs, ct when not nil) the row
+// sum_k a_k X_k (sum_k al_k C_k, sum_k b_k X_k) over k < len(a): the
+// terms below nt from the tables xtab and ctab (nt rows of len(cu)), the
+// rest by rotation in sp's basis, hs apart.
+func sumRow(sp *sub, hs float64, xtab, ctab []float64, nt int, a, b, al, cu, cs, ct []float64) {
+	n := len(a)
 	M := len(cu) - 1
 	grad := cs != nil
-	buf.a, buf.b, buf.al = grow(buf.a, n), grow(buf.b, n), grow(buf.al, n)
-	a, b, al := buf.a, buf.b, buf.al
-	sp.rowY(t, n, a, b, false, 1)
-	for k := range al {
-		al[k] = a[k] * sp.b.Lambda[k]
-	}
 	m := min(n, nt)
 	k := 0
 	for ; k+4 <= m; k += 4 {
