@@ -43,9 +43,11 @@ func grow(s []float64, n int) []float64 {
 // and is not safe for concurrent use on one Solution. Sub-problems whose
 // basis is the sine series (value edges on both neighbours) are summed by
 // one DST per row (DCT for the derivative along the edge), the others as
-// separable products X_n(s_i) Y_n(t_j) with the X_n by rotation recurrence;
+// separable products X_n(s_i) Y_n(t_j), two opposite sub-problems in one
+// product per row (gridSubs), the X_n tabulated by rotation recurrence;
 // every row keeps only the terms that still matter at its distance from
-// the loaded edge. Caller bugs (nx, ny < 1, short buffers) panic.
+// the loaded edge. Rows are shared among up to GOMAXPROCS goroutines.
+// Caller bugs (nx, ny < 1, short buffers) panic.
 func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 	nn := (nx + 1) * (ny + 1)
 	if nx < 1 || ny < 1 || len(u) < nn || (ux != nil && len(ux) < nn) || (uy != nil && len(uy) < nn) {
