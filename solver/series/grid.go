@@ -291,6 +291,9 @@ type logCorner struct {
 	b       [4]complex128
 }
 
+// binom6 holds the binomial coefficients C(n, k), n <= 5.
+var binom6 = [6][6]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}, {1, 5, 10, 10, 5, 1}}
+
 // cpow returns z^n for small n >= 0.
 func cpow(z complex128, n int) complex128 {
 	p := complex(1, 0)
@@ -320,25 +323,61 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 	}
 	cy := q.C*y*y + q.D*y + q.E
 	gy := -(2*q.C*y + q.D)
-	for i := range urow {
-		x := float64(i) * hx
-		z := prho * complex(x-real(pz0), y-imag(pz0))
-		pv := poly[5]
-		pd := complex(0, 0)
-		for n := 4; n >= 0; n-- {
-			if grad {
-				pd = pd*z + pv
+	if imag(prho) == 0 {
+		// zeta = X + i eta with eta fixed on the row: P(zeta) = sum_k e_k X^k,
+		// e_k = sum_(n>=k) c_n C(n,k) (i eta)^(n-k), and P' = sum_k (k+1) e_(k+1) X^k,
+		// so the row takes real polynomials in X (as gridPiecesFast)
+		rh := real(prho)
+		eta := complex(0, rh*(y-imag(pz0)))
+		var e [6]complex128
+		for k := 0; k <= 5; k++ {
+			pw := complex(1, 0)
+			for n := k; n <= 5; n++ {
+				e[k] += poly[n] * complex(binom6[n][k], 0) * pw
+				pw *= eta
 			}
-			pv = pv*z + poly[n]
 		}
-		urow[i] += q.A*x*x + q.B*x + cy + real(pv)
-		if grad {
-			g := complex(2*q.A*x+q.B, gy) + pd*prho // u_x - i u_y
+		var cu, cx, cyy [6]float64
+		for k := 0; k <= 5; k++ {
+			cu[k] = real(e[k])
+			if k < 5 {
+				cx[k] = rh * float64(k+1) * real(e[k+1])
+				cyy[k] = -rh * float64(k+1) * imag(e[k+1])
+			}
+		}
+		x0 := real(pz0)
+		for i := range urow {
+			x := float64(i) * hx
+			X := rh * (x - x0)
+			urow[i] += q.A*x*x + q.B*x + cy + ((((cu[5]*X+cu[4])*X+cu[3])*X+cu[2])*X+cu[1])*X + cu[0]
 			if uxrow != nil {
-				uxrow[i] += real(g)
+				uxrow[i] += 2*q.A*x + q.B + (((cx[4]*X+cx[3])*X+cx[2])*X+cx[1])*X + cx[0]
 			}
 			if uyrow != nil {
-				uyrow[i] -= imag(g)
+				uyrow[i] += -gy + (((cyy[4]*X+cyy[3])*X+cyy[2])*X+cyy[1])*X + cyy[0]
+			}
+		}
+	} else {
+		for i := range urow {
+			x := float64(i) * hx
+			z := prho * complex(x-real(pz0), y-imag(pz0))
+			pv := poly[5]
+			pd := complex(0, 0)
+			for n := 4; n >= 0; n-- {
+				if grad {
+					pd = pd*z + pv
+				}
+				pv = pv*z + poly[n]
+			}
+			urow[i] += q.A*x*x + q.B*x + cy + real(pv)
+			if grad {
+				g := complex(2*q.A*x+q.B, gy) + pd*prho // u_x - i u_y
+				if uxrow != nil {
+					uxrow[i] += real(g)
+				}
+				if uyrow != nil {
+					uyrow[i] -= imag(g)
+				}
 			}
 		}
 	}
