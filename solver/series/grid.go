@@ -407,6 +407,21 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 			if conj {
 				l = complex(real(l), math.Pi/2-imag(l))
 			}
+			if b1 == 0 && b2 == 0 && b3 == 0 {
+				// b0 log zeta alone (an angle function when b0 is imaginary)
+				urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
+				if grad {
+					r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+					g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * cr.rho
+					if uxrow != nil {
+						uxrow[i] += real(g)
+					}
+					if uyrow != nil {
+						uyrow[i] -= imag(g)
+					}
+				}
+				continue
+			}
 			pl := b0 + zc*(b1+zc*(b2+zc*b3))
 			urow[i] += real(pl * l)
 			if grad {

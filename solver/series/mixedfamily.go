@@ -296,9 +296,9 @@ func (fm *family) sumFast(t, d float64, a []float64) (f, ft, fd float64) {
 		// with c in {1, -i}: c conj(sqrt w) = c^2 conj(c sqrt w)
 		c2r, c2i := cr*cr-ci*ci, 2*cr*ci
 		ur, ui := c2r*sr+c2i*si, c2i*sr-c2r*si // c^2 conj(c sqrt w)
-		dr, di := (qr*ur-qi*ui)/r, (qr*ui+qi*ur)/r
-		ft += dr / fm.half
-		fd -= di / fm.half
+		rh := 1 / (r * fm.half)
+		ft += (qr*ur - qi*ui) * rh
+		fd -= (qr*ui + qi*ur) * rh
 	}
 	return f, ft, fd
 }
