@@ -276,3 +276,56 @@ func BenchmarkMixedGrid513(b *testing.B) {
 		})
 	}
 }
+
+// sub.at takes the exponentials of evenly spaced eigenvalues by a product
+// per term between exact ones (expEvery): it must agree with math.Exp for
+// every term to rounding, 1e-14 of the sum of |term| (seeded places, every
+// sub-problem of problems whose edges give evenly spaced eigenvalues).
+func TestSubAtStepExponentials(t *testing.T) {
+	rng := rand.New(rand.NewSource(5))
+	kinds := []problem.Kind{problem.Value, problem.Flux}
+	checked := 0
+	for c := 0; c < 8; c++ {
+		p := &problem.Problem{W: 0.5 + 3*rng.Float64(), H: 0.5 + 3*rng.Float64(), Kx: 1, Ky: 1}
+		for _, e := range problem.Sides {
+			v := rng.NormFloat64() * 10
+			p.Edges[e] = problem.Edge{Kind: kinds[rng.Intn(2)], F: func(s float64) float64 { return v * (1 + s*s) }}
+		}
+		p.Edges[problem.Bottom].Kind = problem.Value
+		s, err := Solve(p, Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, sp := range s.subs {
+			if !sp.b.Uniform {
+				continue
+			}
+			checked++
+			for k := 0; k < 50; k++ {
+				ls, lt := sp.L*rng.Float64(), sp.D*rng.Float64()
+				u, us, ut := sp.at(ls, lt)
+				var wu, wus, wut, mag float64
+				for i := 0; i < sp.rowTerms(lt, 0); i++ {
+					x, dx := sp.b.X(i, ls)
+					lam := sp.b.Lambda[i]
+					var y, dy float64
+					if sp.zero && i == 0 {
+						y, dy = sp.A[0]+sp.B[0]*lt, sp.B[0]
+					} else {
+						ea, eb := math.Exp(-lam*lt), math.Exp(-lam*(2*sp.D-lt))
+						y, dy = sp.A[i]*ea+sp.B[i]*eb, lam*(sp.B[i]*eb-sp.A[i]*ea)
+					}
+					wu, wus, wut = wu+x*y, wus+dx*y, wut+x*dy
+					mag += math.Abs(y) + math.Abs(dx*y) + math.Abs(dy)
+				}
+				if d := max(math.Abs(u-wu), math.Abs(us-wus), math.Abs(ut-wut)); !(d <= 1e-14*mag) {
+					t.Fatalf("case %d %v (%g, %g): at (%.17g, %.17g, %.17g), direct (%.17g, %.17g, %.17g): %.3g of %.3g",
+						c, sp.side, ls, lt, u, us, ut, wu, wus, wut, d, mag)
+				}
+			}
+		}
+	}
+	if checked < 8 {
+		t.Errorf("only %d sub-problems with evenly spaced eigenvalues", checked)
+	}
+}
