@@ -2,6 +2,7 @@ package series
 
 import (
 	"math"
+	"sync"
 
 	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
@@ -31,6 +32,10 @@ type sub struct {
 	tail    float64   // estimated truncation error of u (max over the region)
 	capped  bool      // stopped at MaxTerms before meeting the tolerance
 	sine    bool      // value neighbours on both ends: X_n = sin(n pi s / L)
+	// X_n and X_n' at s = 0 and s = L (where the flows through the
+	// neighbouring edges are taken), made once by the first at there
+	endOnce [2]sync.Once
+	endX    [2][2][]float64
 }
 
 func biot(m *model, e problem.Side, L float64) float64 {
@@ -301,12 +306,27 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 		t = 0
 	}
 	cut := sp.rowTerms(t, 0)
-	var xb, dxb [128]float64
-	xs, dxs := xb[:], dxb[:]
-	if cut > len(xs) {
-		xs, dxs = make([]float64, cut), make([]float64, cut)
+	var xs, dxs []float64
+	if s == 0 || s == sp.L {
+		end := 0
+		if s == sp.L {
+			end = 1
+		}
+		sp.endOnce[end].Do(func() {
+			x, dx := make([]float64, sp.n), make([]float64, sp.n)
+			sp.b.Row(s, 0, sp.n, x, dx) // the same recurrence: Row's prefix
+			sp.endX[end] = [2][]float64{x, dx}
+		})
+		xs, dxs = sp.endX[end][0], sp.endX[end][1]
 	}
-	sp.b.Row(s, 0, cut, xs, dxs)
+	if len(xs) < cut {
+		var xb, dxb [128]float64
+		xs, dxs = xb[:], dxb[:]
+		if cut > len(xs) {
+			xs, dxs = make([]float64, cut), make([]float64, cut)
+		}
+		sp.b.Row(s, 0, cut, xs, dxs)
+	}
 	// evenly spaced eigenvalues (lambda_(i+1) - lambda_i = pi/L): between
 	// exact exponentials every expEvery terms, the step factors
 	var qa, qb, ea, eb float64
