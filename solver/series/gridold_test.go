@@ -674,7 +674,7 @@ func refFieldGrid(f Field, nx, ny int, u, ux, uy []float64) {
 			for i := 0; i <= nx; i++ {
 				x := float64(i) * f.pr.W / float64(nx)
 				k := j*(nx+1) + i
-				fu, fx, fy := refFamSum(f.ms, f.x, x, y)
+				fu, fx, fy := f.ms.famSum(f.x, x, y)
 				u[k] += fu
 				if ux != nil {
 					ux[k] += fx
@@ -687,21 +687,4 @@ func refFieldGrid(f Field, nx, ny int, u, ux, uy []float64) {
 	default:
 		panic("series: refFieldGrid: unknown field")
 	}
-}
-
-// refFamSum is mixedSolver.famSum by family.sum (complex arithmetic), as
-// it was.
-func refFamSum(ms *mixedSolver, x []float64, px, py float64) (u, ux, uy float64) {
-	for _, me := range ms.edges {
-		if me.fam == nil {
-			continue
-		}
-		fm := me.fam
-		t, d := fm.fr.at(px, py)
-		g, gt, gd := fm.sum(t, d, x[me.famOff:me.famOff+fm.n])
-		u += g
-		ux += gt*fm.fr.tx + gd*fm.fr.dx
-		uy += gt*fm.fr.ty + gd*fm.fr.dy
-	}
-	return u, ux, uy
 }

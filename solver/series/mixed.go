@@ -454,7 +454,7 @@ func (ms *mixedSolver) famSum(x []float64, px, py float64, skip ...*mixedEdge) (
 		}
 		fm := me.fam
 		t, d := fm.fr.at(px, py)
-		g, gt, gd := fm.sumFast(t, d, x[me.famOff:me.famOff+fm.n])
+		g, gt, gd := fm.sum(t, d, x[me.famOff:me.famOff+fm.n])
 		u += g
 		ux += gt*fm.fr.tx + gd*fm.fr.dx
 		uy += gt*fm.fr.ty + gd*fm.fr.dy

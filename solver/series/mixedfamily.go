@@ -252,7 +252,7 @@ func (fm *family) sum(t, d float64, a []float64) (f, ft, fd float64) {
 	return f, ft, fd
 }
 
-// sumFast is sum in real arithmetic (famSum and the grid): the square root's
+// sumFast is sum in real arithmetic for the grid: the square root's
 // modulus without math.Hypot (zeta is normalised: |w| is of order 1, far
 // from overflow), and G' = c Q / sqrt(w) = c Q conj(sqrt w) / |w| without
 // a complex division. Logarithmic meetings as in sum.
