@@ -43,12 +43,19 @@
 //     across the region, exponentials in overflow-free form,
 //     exp(-lambda t) and exp(-lambda (2D - t)) over the loaded edge's
 //     operator, meet the opposite edge's condition for any aspect ratio.
-//  5. Grid: the pieces in one pass (one arctangent or logarithm per node,
-//     shared by the four corners through symmetry); the sub-problems row by
-//     row with per-row truncation (a term falls like exp(-lambda t) at
-//     distance t from its edge; the terms dropped sum to at most a tenth
-//     of ErrorEstimate, so the grid is covered by it like a probe), by DST-I/DCT-I (gonum dsp/fourier) for
-//     the sine pairs and by separable products with recurrences otherwise.
+//  5. Grid: the pieces in one pass per row (one arctangent or logarithm
+//     per node, shared by the four corners through symmetry; the corners'
+//     powers folded into the smooth polynomial, so a corner adds only its
+//     logarithmic part); the sub-problems row by row with per-row
+//     truncation (a term falls like exp(-lambda t) at distance t from its
+//     edge; the terms dropped sum to at most a tenth of ErrorEstimate, so
+//     the grid is covered by it like a probe), by DST-I/DCT-I (gonum
+//     dsp/fourier) for the sine pairs and otherwise as one product per row
+//     for each pair of opposite sub-problems (they share their basis: the
+//     two rows' factors are added first), from tables of the
+//     eigenfunctions on the nodes, four terms at a time. Rows are shared
+//     among the processors (one in the wasm build); the numbers do not
+//     depend on how.
 //
 // Accuracy: Options.Tol is relative to the data scale (Solution.Scale: the
 // range of prescribed values and ambients, the largest |flux| times the

@@ -2,12 +2,17 @@ package series
 
 import (
 	"math"
-	"math/cmplx"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/dsp/fourier"
 
 	"edgewise/solver/problem"
 )
+
+// spareWork keeps one gridWork between Grid calls, of any Solution (a
+// solve per edit makes a new Solution each time): its tables and buffers
+// of up to a few MB are not allocated and cleared anew.
+var spareWork atomic.Pointer[gridWork]
 
 // gridWork holds buffers reused across Grid calls.
 type gridWork struct {
@@ -22,6 +27,7 @@ type gridWork struct {
 	fa, fb, fc []float64 // folded transform inputs
 	dst        *fourier.DST
 	dct        *fourier.DCT
+	bufs       []*rowBuf // one per worker of gridRows
 }
 
 func grow(s []float64, n int) []float64 {
@@ -37,9 +43,11 @@ func grow(s []float64, n int) []float64 {
 // and is not safe for concurrent use on one Solution. Sub-problems whose
 // basis is the sine series (value edges on both neighbours) are summed by
 // one DST per row (DCT for the derivative along the edge), the others as
-// separable products X_n(s_i) Y_n(t_j) with the X_n by rotation recurrence;
+// separable products X_n(s_i) Y_n(t_j), two opposite sub-problems in one
+// product per row (gridSubs), the X_n tabulated by rotation recurrence;
 // every row keeps only the terms that still matter at its distance from
-// the loaded edge. Caller bugs (nx, ny < 1, short buffers) panic.
+// the loaded edge. Rows are shared among up to GOMAXPROCS goroutines.
+// Caller bugs (nx, ny < 1, short buffers) panic.
 func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 	nn := (nx + 1) * (ny + 1)
 	if nx < 1 || ny < 1 || len(u) < nn || (ux != nil && len(ux) < nn) || (uy != nil && len(uy) < nn) {
@@ -56,6 +64,15 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 		clear(uy)
 	}
 	m := s.m
+	// the buffers and tables of the last Grid of any Solution, if free
+	s.gw = spareWork.Swap(nil)
+	if s.gw == nil {
+		s.gw = new(gridWork)
+	}
+	defer func() {
+		spareWork.Store(s.gw)
+		s.gw = nil
+	}()
 	s.gridPieces(nx, ny, u, ux, uy)
 	// Each row drops the terms whose sum is below cut (a bound: |X_n| <= 1,
 	// |A e^-lambda t| + |B e^-lambda (2D - t)| <= (|A| + |B|) e^-lambda t).
@@ -73,9 +90,16 @@ func (s *Solution) Grid(nx, ny int, u, ux, uy []float64) {
 		s.gridSinePair(problem.Left, problem.Right, nx, ny, cut, u, ux, uy)
 		done[problem.Left], done[problem.Right] = true, true
 	}
-	for _, e := range problem.Sides {
-		if !done[e] {
-			s.gridSub(s.subs[e], nx, ny, cut, u, ux, uy)
+	for _, p := range [2][2]problem.Side{{problem.Bottom, problem.Top}, {problem.Left, problem.Right}} {
+		var near, far *sub
+		if !done[p[0]] {
+			near = s.subs[p[0]]
+		}
+		if !done[p[1]] {
+			far = s.subs[p[1]]
+		}
+		if near != nil || far != nil {
+			s.gridSubs(near, far, nx, ny, cut, u, ux, uy)
 		}
 	}
 	if uy != nil && m.a != 1 {
@@ -126,7 +150,6 @@ func atanPos(y, x float64) float64 {
 func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 	m := s.m
 	hx, hy := m.W/float64(nx), m.H/float64(ny)
-	grad := ux != nil || uy != nil
 	// Smooth polynomial pieces share one centre and scale: one Horner sum.
 	var poly [6]complex128
 	var pz0, prho complex128
@@ -180,25 +203,28 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 			fullLogs = true
 		}
 	}
-	w := &s.gw
+	w := s.gw
 	nn := (nx + 1) * (ny + 1)
 	if needLogs && fullLogs {
 		if cap(w.logs) < nn {
 			w.logs = make([]complex128, nn)
 		}
 		w.logs = w.logs[:nn]
-		for j := 0; j <= ny; j++ {
-			y := float64(j) * hy
-			row := w.logs[j*(nx+1) : (j+1)*(nx+1)]
-			for i := range row {
-				x := float64(i) * hx
-				if i == 0 && j == 0 {
-					row[i] = 0
-					continue
+		logs := w.logs
+		s.gridRows(ny+1, func(r0, r1 int, _ *rowBuf) {
+			for j := r0; j < r1; j++ {
+				y := float64(j) * hy
+				row := logs[j*(nx+1) : (j+1)*(nx+1)]
+				for i := range row {
+					x := float64(i) * hx
+					if i == 0 && j == 0 {
+						row[i] = 0
+						continue
+					}
+					row[i] = complex(0.5*math.Log(x*x+y*y), atanPos(y, x))
 				}
-				row[i] = complex(0.5*math.Log(x*x+y*y), atanPos(y, x))
 			}
-		}
+		})
 	} else if needLogs {
 		w.theta = grow(w.theta, nn)
 		for j := 0; j <= ny; j++ {
@@ -223,13 +249,117 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 		s.gridPiecesFast(nx, ny, u, ux, uy, poly, pz0, prho, &corner)
 		return
 	}
+	// The corners' powers join the smooth polynomial (re-expanded about its
+	// centre: rho_c (z - z_c) = alpha zeta + beta with zeta = prho (z - pz0));
+	// the corners keep their logarithmic parts alone.
+	if prho == 0 {
+		pz0, prho = complex(m.W/2, m.H/2), complex(2/math.Max(m.W, m.H), 0)
+	}
+	binom := [4][4]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}}
+	var on []logCorner
+	for c := range corner {
+		cr := &corner[c]
+		if !cr.on {
+			continue
+		}
+		alpha, beta := cr.rho/prho, cr.rho*(pz0-cr.z0)
+		for n, an := range [4]complex128{cr.a0, cr.a1, cr.a2, cr.a3} {
+			if an == 0 {
+				continue
+			}
+			// an (alpha zeta + beta)^n = an sum_k C(n,k) alpha^k beta^(n-k) zeta^k
+			for k := 0; k <= n; k++ {
+				poly[k] += an * complex(binom[n][k], 0) * cpow(alpha, k) * cpow(beta, n-k)
+			}
+		}
+		if cr.logs {
+			on = append(on, logCorner{c: c, rho: cr.rho, z0: cr.z0, b: [4]complex128{cr.b0, cr.b1, cr.b2, cr.b3}})
+		}
+	}
+	s.gridRows(ny+1, func(r0, r1 int, _ *rowBuf) {
+		for j := r0; j < r1; j++ {
+			s.piecesRow(j, nx, ny, hx, hy, u, ux, uy, &poly, pz0, prho, on)
+		}
+	})
+}
+
+// logCorner is the logarithmic part of a corner's pieces,
+// (b0 + b1 zeta + b2 zeta^2 + b3 zeta^3) log zeta.
+type logCorner struct {
+	c       int
+	rho, z0 complex128
+	b       [4]complex128
+}
+
+// binom6 holds the binomial coefficients C(n, k), n <= 5.
+var binom6 = [6][6]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}, {1, 5, 10, 10, 5, 1}}
+
+// cpow returns z^n for small n >= 0.
+func cpow(z complex128, n int) complex128 {
+	p := complex(1, 0)
+	for ; n > 0; n-- {
+		p *= z
+	}
+	return p
+}
+
+// piecesRow adds the particular solution and the pieces on row j (the
+// full path of gridPieces): the smooth polynomial by Horner's rule, and
+// each corner's logarithmic part with its logarithm from w.logs (the
+// bottom-left corner's table, mirrored for the others).
+func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64, poly *[6]complex128, pz0, prho complex128, on []logCorner) {
 	q := s.quad
-	for j := 0; j <= ny; j++ {
-		y := float64(j) * hy
-		for i := 0; i <= nx; i++ {
+	w := s.gw
+	grad := ux != nil || uy != nil
+	y := float64(j) * hy
+	k0 := j * (nx + 1)
+	urow := u[k0 : k0+nx+1]
+	var uxrow, uyrow []float64
+	if ux != nil {
+		uxrow = ux[k0 : k0+nx+1]
+	}
+	if uy != nil {
+		uyrow = uy[k0 : k0+nx+1]
+	}
+	cy := q.C*y*y + q.D*y + q.E
+	gy := -(2*q.C*y + q.D)
+	if imag(prho) == 0 {
+		// zeta = X + i eta with eta fixed on the row: P(zeta) = sum_k e_k X^k,
+		// e_k = sum_(n>=k) c_n C(n,k) (i eta)^(n-k), and P' = sum_k (k+1) e_(k+1) X^k,
+		// so the row takes real polynomials in X (as gridPiecesFast)
+		rh := real(prho)
+		eta := complex(0, rh*(y-imag(pz0)))
+		var e [6]complex128
+		for k := 0; k <= 5; k++ {
+			pw := complex(1, 0)
+			for n := k; n <= 5; n++ {
+				e[k] += poly[n] * complex(binom6[n][k], 0) * pw
+				pw *= eta
+			}
+		}
+		var cu, cx, cyy [6]float64
+		for k := 0; k <= 5; k++ {
+			cu[k] = real(e[k])
+			if k < 5 {
+				cx[k] = rh * float64(k+1) * real(e[k+1])
+				cyy[k] = -rh * float64(k+1) * imag(e[k+1])
+			}
+		}
+		x0 := real(pz0)
+		for i := range urow {
 			x := float64(i) * hx
-			k := j*(nx+1) + i
-			v := q.A*x*x + q.B*x + q.C*y*y + q.D*y + q.E
+			X := rh * (x - x0)
+			urow[i] += q.A*x*x + q.B*x + cy + ((((cu[5]*X+cu[4])*X+cu[3])*X+cu[2])*X+cu[1])*X + cu[0]
+			if uxrow != nil {
+				uxrow[i] += 2*q.A*x + q.B + (((cx[4]*X+cx[3])*X+cx[2])*X+cx[1])*X + cx[0]
+			}
+			if uyrow != nil {
+				uyrow[i] += -gy + (((cyy[4]*X+cyy[3])*X+cyy[2])*X+cyy[1])*X + cyy[0]
+			}
+		}
+	} else {
+		for i := range urow {
+			x := float64(i) * hx
 			z := prho * complex(x-real(pz0), y-imag(pz0))
 			pv := poly[5]
 			pd := complex(0, 0)
@@ -239,62 +369,75 @@ func (s *Solution) gridPieces(nx, ny int, u, ux, uy []float64) {
 				}
 				pv = pv*z + poly[n]
 			}
-			u[k] += v + real(pv)
+			urow[i] += q.A*x*x + q.B*x + cy + real(pv)
 			if grad {
-				g := complex(2*q.A*x+q.B, -(2*q.C*y+q.D)) + pd*prho // u_x - i u_y
-				if ux != nil {
-					ux[k] += real(g)
+				g := complex(2*q.A*x+q.B, gy) + pd*prho // u_x - i u_y
+				if uxrow != nil {
+					uxrow[i] += real(g)
 				}
-				if uy != nil {
-					uy[k] -= imag(g)
+				if uyrow != nil {
+					uyrow[i] -= imag(g)
 				}
 			}
 		}
 	}
-	for c := range corner {
-		cr := &corner[c]
-		if !cr.on {
-			continue
+	for _, cr := range on {
+		// log zeta_c on this row: the table's row j (corners 0, 1) or
+		// ny - j (2, 3), read backwards for corners 1 and 2, and
+		// i pi/2 + conj(...) for corners 1 and 3
+		lr := j
+		if cr.c >= 2 {
+			lr = ny - j
 		}
-		for j := 0; j <= ny; j++ {
-			y := float64(j) * hy
-			for i := 0; i <= nx; i++ {
-				x := float64(i) * hx
-				k := j*(nx+1) + i
-				zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
-				f := cr.a0 + zc*(cr.a1+zc*(cr.a2+zc*cr.a3))
-				d := cr.a1 + zc*(2*cr.a2+3*zc*cr.a3)
-				if cr.logs && zc != 0 {
-					var l complex128
-					switch c {
-					case 0:
-						l = w.logs[k]
-					case 1:
-						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[j*(nx+1)+nx-i])
-					case 2:
-						l = w.logs[(ny-j)*(nx+1)+nx-i]
-					case 3:
-						l = 1i*math.Pi/2 + cmplx.Conj(w.logs[(ny-j)*(nx+1)+i])
+		lrow := w.logs[lr*(nx+1) : (lr+1)*(nx+1)]
+		back := cr.c == 1 || cr.c == 2
+		conj := cr.c == 1 || cr.c == 3
+		b0, b1, b2, b3 := cr.b[0], cr.b[1], cr.b[2], cr.b[3]
+		for i := range urow {
+			x := float64(i) * hx
+			zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
+			if zc == 0 {
+				continue // the corner node: Grid sets it from At
+			}
+			ii := i
+			if back {
+				ii = nx - i
+			}
+			l := lrow[ii]
+			if conj {
+				l = complex(real(l), math.Pi/2-imag(l))
+			}
+			if b1 == 0 && b2 == 0 && b3 == 0 {
+				// b0 log zeta alone (an angle function when b0 is imaginary)
+				urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
+				if grad {
+					r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+					g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * cr.rho
+					if uxrow != nil {
+						uxrow[i] += real(g)
 					}
-					pl := cr.b0 + zc*(cr.b1+zc*(cr.b2+zc*cr.b3))
-					f += pl * l
-					if grad {
-						// pl/zc without a complex division unless b0 != 0
-						d += (cr.b1+zc*(2*cr.b2+3*zc*cr.b3))*l + cr.b1 + zc*(cr.b2+zc*cr.b3)
-						if cr.b0 != 0 {
-							d += cr.b0 / zc
-						}
+					if uyrow != nil {
+						uyrow[i] -= imag(g)
 					}
 				}
-				u[k] += real(f)
-				if grad {
-					g := d * cr.rho
-					if ux != nil {
-						ux[k] += real(g)
-					}
-					if uy != nil {
-						uy[k] -= imag(g)
-					}
+				continue
+			}
+			pl := b0 + zc*(b1+zc*(b2+zc*b3))
+			urow[i] += real(pl * l)
+			if grad {
+				// d/dzeta (pl log zeta) = pl' log zeta + pl/zeta, with
+				// b0/zeta = b0 conj(zeta)/|zeta|^2
+				d := (b1+zc*(2*b2+3*zc*b3))*l + b1 + zc*(b2+zc*b3)
+				if b0 != 0 {
+					r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+					d += b0 * complex(real(zc)/r2, -imag(zc)/r2)
+				}
+				g := d * cr.rho
+				if uxrow != nil {
+					uxrow[i] += real(g)
+				}
+				if uyrow != nil {
+					uyrow[i] -= imag(g)
 				}
 			}
 		}
@@ -327,7 +470,7 @@ func (s *Solution) gridPiecesFast(nx, ny int, u, ux, uy []float64, poly [6]compl
 	}
 	binom := [6][6]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}, {1, 5, 10, 10, 5, 1}}
 	q := s.quad
-	w := &s.gw
+	w := s.gw
 	S := 1 / real(prho) // prho is real for the smooth pieces
 	for j := 0; j <= ny; j++ {
 		y := float64(j) * hy
@@ -445,7 +588,7 @@ func (s *Solution) gridSinePair(e1, e2 problem.Side, nx, ny int, cut float64, u,
 	if vert {
 		M, rows, D = ny, nx, m.W
 	}
-	w := &s.gw
+	w := s.gw
 	nmax := max(s1.n, s2.n)
 	w.a, w.b = grow(w.a, nmax), grow(w.b, nmax)
 	w.fa, w.fb, w.fc = grow(w.fa, M+1), grow(w.fb, M+1), grow(w.fc, M+1)
@@ -560,7 +703,7 @@ const tabTerms = 24
 // sineRow adds sum_n a_n sin(n pi i/M) (and the derivatives) for one row
 // of a sine pair from the tables.
 func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64, u, ux, uy []float64) {
-	w := &s.gw
+	w := s.gw
 	gs, gt := ux, uy // derivative along s, across (t)
 	if vert {
 		gs, gt = uy, ux
@@ -602,8 +745,11 @@ func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64
 	}
 }
 
-// maxTab caps the terms tabulated on the nodes by the separable path.
-var maxTab = 512 // a variable so tests can exercise the rotation path
+// maxTab caps the terms tabulated on the nodes by the separable path
+// (and tabEntries the size of each table: 4 MB).
+var maxTab = 1024 // a variable so tests can exercise the rotation path
+
+const tabEntries = 1 << 19
 
 // gidx returns the node index of s-node i in row r.
 func gidx(vert bool, nx, i, r int) int {
@@ -613,21 +759,49 @@ func gidx(vert bool, nx, i, r int) int {
 	return r*(nx+1) + i
 }
 
-// gridSub adds one sub-problem as separable products, row by row.
-func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64) {
+// rowBuf is one worker's buffers for gridSubs.
+type rowBuf struct {
+	a, b, al   []float64 // Y_k, dY_k/dt and lambda_k Y_k of a row
+	cu, cs, ct []float64 // a chunk's rows of sums: u, du/ds, du/dt
+}
+
+// gridSubs adds two opposite sub-problems (near loaded at row 0: bottom
+// or left; far at the last row: top or right; either may be nil) as
+// separable products, row by row. They share their basis (the same
+// neighbours, in the same order along s), so a row's factors are summed
+// first,
+//
+//	Y_k = Y_k^near(t) + Y_k^far(D - t),
+//
+// and the row is one product with the tables X_k(s_i) = sin(lambda_k s_i
+// + phi_k) and C_k(s_i) (its cosine partner) on the nodes:
+//
+//	u = sum_k Y_k X_k,  du/ds = sum_k lambda_k Y_k C_k,  du/dt = sum_k Y_k' X_k,
+//
+// summed four terms at a time (sumTerms4), over the terms each keeps in
+// that row (rowTerms); terms beyond the tables by rotation. Rows are
+// shared among the processors (gridRows).
+func (s *Solution) gridSubs(near, far *sub, nx, ny int, cut float64, u, ux, uy []float64) {
+	if near != nil && far != nil && !sameBasis(near, far) {
+		s.gridSubs(near, nil, nx, ny, cut, u, ux, uy)
+		s.gridSubs(nil, far, nx, ny, cut, u, ux, uy)
+		return
+	}
+	sp := near // the basis and the tables
+	if sp == nil || (far != nil && far.n > sp.n) {
+		sp = far
+	}
 	vert := sp.side == problem.Left || sp.side == problem.Right
-	far := sp.side == problem.Top || sp.side == problem.Right
 	M, rows := nx, ny
 	if vert {
 		M, rows = ny, nx
 	}
 	hs := sp.L / float64(M)
-	w := &s.gw
-	w.a, w.b = grow(w.a, sp.n), grow(w.b, sp.n)
+	w := s.gw
 	grad := ux != nil || uy != nil
 	// Tables of X_k and cos(lambda_k s + phi_k) on the nodes for the first
 	// terms (every row uses them); later terms by rotation.
-	nt := min(sp.n, maxTab)
+	nt := min(sp.n, maxTab, tabEntries/(M+1))
 	w.xtab, w.ctab = grow(w.xtab, nt*(M+1)), grow(w.ctab, nt*(M+1))
 	for k := 0; k < nt; k++ {
 		sn, cn := math.Sincos(sp.b.Phi[k])
@@ -638,71 +812,197 @@ func (s *Solution) gridSub(sp *sub, nx, ny int, cut float64, u, ux, uy []float64
 			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
 		}
 	}
-	w.col = grow(w.col, 3*(M+1))
-	cu, cs, ct := w.col[:M+1], w.col[M+1:2*(M+1)], w.col[2*(M+1):]
-	for r := 0; r <= rows; r++ {
-		rr := r
-		if far {
-			rr = rows - r
-		}
-		t := sp.D * float64(rr) / float64(rows)
-		n := sp.rowTerms(t, cut)
-		if n == 0 {
-			continue
-		}
-		a, b := w.a[:n], w.b[:n]
-		sp.rowY(t, n, a, b, false, 1)
-		clear(cu)
+	// (du/ds, du/dt) to (ux, uy) in the near side's frame (sub.global):
+	// the far side's t runs the other way, hence its sign -1 in rowY
+	sx, tx, sy, ty := 1.0, 0.0, 0.0, 1.0
+	if vert {
+		sx, tx, sy, ty = 0, 1, 1, 0
+	}
+	xtab, ctab := w.xtab, w.ctab
+	s.gridRows(rows+1, func(r0, r1 int, buf *rowBuf) {
+		buf.cu = grow(buf.cu, gridChunk*(M+1))
 		if grad {
-			clear(cs)
-			clear(ct)
+			buf.cs, buf.ct = grow(buf.cs, gridChunk*(M+1)), grow(buf.ct, gridChunk*(M+1))
 		}
-		for k := 0; k < n; k++ {
-			lam := sp.b.Lambda[k]
-			ak, al, bk := a[k], a[k]*lam, b[k]
-			if k < nt {
-				xs := w.xtab[k*(M+1) : (k+1)*(M+1)]
-				for i, v := range xs {
-					cu[i] += ak * v
-				}
-				if grad {
-					for i, v := range w.ctab[k*(M+1) : (k+1)*(M+1)] {
-						cs[i] += al * v
-					}
-					for i, v := range xs {
-						ct[i] += bk * v
-					}
-				}
-				continue
-			}
-			sn, cn := math.Sincos(sp.b.Phi[k])
-			ds, dc := math.Sincos(lam * hs)
-			if !grad {
-				for i := range cu {
-					cu[i] += ak * sn
-					sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
-				}
-				continue
-			}
-			for i := range cu {
-				cu[i] += ak * sn
-				cs[i] += al * cn
-				ct[i] += bk * sn
-				sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
-			}
-		}
-		for i := range cu {
-			g := gidx(vert, nx, i, r)
-			u[g] += cu[i]
+		for r := r0; r < r1; r++ {
+			o := (r - r0) * (M + 1)
+			cu := buf.cu[o : o+M+1]
+			clear(cu)
+			var cs, ct []float64
 			if grad {
-				gx, gy := sp.global(cs[i], ct[i])
+				cs, ct = buf.cs[o:o+M+1], buf.ct[o:o+M+1]
+				clear(cs)
+				clear(ct)
+			}
+			t1, t2 := sp.D*float64(r)/float64(rows), sp.D*float64(rows-r)/float64(rows)
+			n1, n2 := 0, 0
+			if near != nil {
+				n1 = near.rowTerms(t1, cut)
+			}
+			if far != nil {
+				n2 = far.rowTerms(t2, cut)
+			}
+			n := max(n1, n2)
+			if n == 0 {
+				continue
+			}
+			buf.a, buf.b, buf.al = grow(buf.a, n), grow(buf.b, n), grow(buf.al, n)
+			a, b, al := buf.a, buf.b, buf.al
+			clear(a)
+			clear(b)
+			if near != nil {
+				near.rowY(t1, n1, a, b, true, 1)
+			}
+			if far != nil {
+				far.rowY(t2, n2, a, b, true, -1)
+			}
+			for k := range al {
+				al[k] = a[k] * sp.b.Lambda[k]
+			}
+			sumRow(sp, hs, xtab, ctab, nt, a, b, al, cu, cs, ct)
+		}
+		if !vert {
+			for r := r0; r < r1; r++ {
+				o, g := (r-r0)*(M+1), r*(nx+1)
+				addRow(u[g:g+M+1], buf.cu[o:o+M+1])
 				if ux != nil {
-					ux[g] += gx
+					addRow2(ux[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], sx, tx)
 				}
 				if uy != nil {
-					uy[g] += gy
+					addRow2(uy[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], sy, ty)
+				}
+			}
+			return
+		}
+		// a column of the grid per row: the chunk's rows are next to each
+		// other in every grid row
+		nr := r1 - r0
+		for i := 0; i <= M; i++ {
+			g := i*(nx+1) + r0
+			for j := 0; j < nr; j++ {
+				o := j*(M+1) + i
+				u[g+j] += buf.cu[o]
+				if ux != nil {
+					ux[g+j] += sx*buf.cs[o] + tx*buf.ct[o]
+				}
+				if uy != nil {
+					uy[g+j] += sy*buf.cs[o] + ty*buf.ct[o]
 				}
 			}
 		}
+	})
+}
+
+// sameBasis reports whether two opposite sub-problems have the same
+// basis, term for term (the same neighbours give the same eigenvalues;
+// checked, not assumed).
+func sameBasis(a, b *sub) bool {
+	if a.L != b.L || a.zero != b.zero {
+		return false
+	}
+	n := min(a.n, b.n)
+	for k := 0; k < n; k++ {
+		if a.b.Lambda[k] != b.b.Lambda[k] || a.b.Phi[k] != b.b.Phi[k] {
+			return false
+		}
+	}
+	return true
+}
+
+// sumRow adds to cu (and du/ds, du/dt to cs, ct when not nil) the row
+// sum_k a_k X_k (sum_k al_k C_k, sum_k b_k X_k) over k < len(a): the
+// terms below nt from the tables xtab and ctab (nt rows of len(cu)), the
+// rest by rotation in sp's basis, hs apart.
+func sumRow(sp *sub, hs float64, xtab, ctab []float64, nt int, a, b, al, cu, cs, ct []float64) {
+	n := len(a)
+	M := len(cu) - 1
+	grad := cs != nil
+	m := min(n, nt)
+	k := 0
+	for ; k+4 <= m; k += 4 {
+		x := xtab[k*(M+1) : (k+4)*(M+1)]
+		if grad {
+			c := ctab[k*(M+1) : (k+4)*(M+1)]
+			sumTerms4Grad(cu, cs, ct, x, c, a[k:k+4], al[k:k+4], b[k:k+4])
+		} else {
+			sumTerms4(cu, x, a[k:k+4])
+		}
+	}
+	for ; k < m; k++ {
+		xs := xtab[k*(M+1) : (k+1)*(M+1)]
+		ak, alk, bk := a[k], al[k], b[k]
+		for i, v := range xs {
+			cu[i] += ak * v
+		}
+		if grad {
+			for i, v := range ctab[k*(M+1) : (k+1)*(M+1)] {
+				cs[i] += alk * v
+			}
+			for i, v := range xs {
+				ct[i] += bk * v
+			}
+		}
+	}
+	for ; k < n; k++ {
+		ak, alk, bk := a[k], al[k], b[k]
+		sn, cn := math.Sincos(sp.b.Phi[k])
+		ds, dc := math.Sincos(sp.b.Lambda[k] * hs)
+		if !grad {
+			for i := range cu {
+				cu[i] += ak * sn
+				sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+			}
+			continue
+		}
+		for i := range cu {
+			cu[i] += ak * sn
+			cs[i] += alk * cn
+			ct[i] += bk * sn
+			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+		}
+	}
+}
+
+// sumTerms4 adds sum_{k<4} a_k x_k to cu, x holding the four rows x_k of
+// length len(cu) one after another.
+func sumTerms4(cu, x, a []float64) {
+	n := len(cu)
+	x0, x1, x2, x3 := x[:n], x[n:2*n], x[2*n:3*n], x[3*n:4*n]
+	a0, a1, a2, a3 := a[0], a[1], a[2], a[3]
+	for i := range cu {
+		cu[i] += a0*x0[i] + a1*x1[i] + a2*x2[i] + a3*x3[i]
+	}
+}
+
+// sumTerms4Grad is sumTerms4 for u, du/ds (al with the cosine rows c) and
+// du/dt (b with x) at once.
+func sumTerms4Grad(cu, cs, ct, x, c, a, al, b []float64) {
+	n := len(cu)
+	cs, ct = cs[:n], ct[:n]
+	x0, x1, x2, x3 := x[:n], x[n:2*n], x[2*n:3*n], x[3*n:4*n]
+	c0, c1, c2, c3 := c[:n], c[n:2*n], c[2*n:3*n], c[3*n:4*n]
+	a0, a1, a2, a3 := a[0], a[1], a[2], a[3]
+	l0, l1, l2, l3 := al[0], al[1], al[2], al[3]
+	b0, b1, b2, b3 := b[0], b[1], b[2], b[3]
+	for i := range cu {
+		v0, v1, v2, v3 := x0[i], x1[i], x2[i], x3[i]
+		cu[i] += a0*v0 + a1*v1 + a2*v2 + a3*v3
+		ct[i] += b0*v0 + b1*v1 + b2*v2 + b3*v3
+		cs[i] += l0*c0[i] + l1*c1[i] + l2*c2[i] + l3*c3[i]
+	}
+}
+
+func addRow(dst, src []float64) {
+	src = src[:len(dst)]
+	for i := range dst {
+		dst[i] += src[i]
+	}
+}
+
+// addRow2 adds p a + q b to dst.
+func addRow2(dst, a, b []float64, p, q float64) {
+	a, b = a[:len(dst)], b[:len(dst)]
+	for i := range dst {
+		dst[i] += p*a[i] + q*b[i]
 	}
 }

@@ -195,21 +195,35 @@ func (mf *mixedField) Grid(nx, ny int, u, ux, uy []float64) {
 	if mf.ms == nil {
 		return
 	}
-	for j := 0; j <= ny; j++ {
-		y := float64(j) * mf.pr.H / float64(ny)
-		for i := 0; i <= nx; i++ {
-			x := float64(i) * mf.pr.W / float64(nx)
-			k := j*(nx+1) + i
-			fu, fx, fy := mf.ms.famSum(mf.x, x, y)
-			u[k] += fu
-			if ux != nil {
-				ux[k] += fx
-			}
-			if uy != nil {
-				uy[k] += fy
+	// the family members by family.sumFast, rows shared among the processors
+	forRows(ny+1, func(r0, r1, _ int) {
+		for j := r0; j < r1; j++ {
+			y := float64(j) * mf.pr.H / float64(ny)
+			for i := 0; i <= nx; i++ {
+				x := float64(i) * mf.pr.W / float64(nx)
+				k := j*(nx+1) + i
+				var fu, fx, fy float64
+				for _, me := range mf.ms.edges {
+					fm := me.fam
+					if fm == nil {
+						continue
+					}
+					t, d := fm.fr.at(x, y)
+					g, gt, gd := fm.sumFast(t, d, mf.x[me.famOff:me.famOff+fm.n])
+					fu += g
+					fx += gt*fm.fr.tx + gd*fm.fr.dx
+					fy += gt*fm.fr.ty + gd*fm.fr.dy
+				}
+				u[k] += fu
+				if ux != nil {
+					ux[k] += fx
+				}
+				if uy != nil {
+					uy[k] += fy
+				}
 			}
 		}
-	}
+	})
 }
 
 // famFlow returns the flow of the family entering through [a, b] of edge

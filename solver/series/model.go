@@ -2,6 +2,7 @@ package series
 
 import (
 	"math"
+	"sync"
 
 	"edgewise/solver/problem"
 )
@@ -27,7 +28,9 @@ type model struct {
 	beta   [4]float64
 	allFlx bool
 	breaks [4][]float64 // mapped places of the flux breaks (problem.Edge.Breaks)
-	err    error
+	errMu  sync.Mutex   // the sub-problems are built concurrently (solve)
+	err    error        // the first error of data
+	errs   [4]error     // the first error of each edge's data
 }
 
 func newModel(p *problem.Problem) *model {
@@ -79,9 +82,14 @@ func (m *model) data(e problem.Side, s float64) float64 {
 	}
 	v, err := m.p.Eval(e, so)
 	if err != nil {
+		m.errMu.Lock()
 		if m.err == nil {
 			m.err = err
 		}
+		if m.errs[e] == nil {
+			m.errs[e] = err
+		}
+		m.errMu.Unlock()
 		return 0
 	}
 	switch m.kinds[e] {

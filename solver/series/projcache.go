@@ -63,16 +63,39 @@ func (c *projCache) project(b *basis.Basis, r func(s float64) float64, n int, ds
 	for i := range dst {
 		dst[i] = 0
 	}
+	// dst += sum_j w_j r(s_j) X(s_j), four nodes at a time (one pass over
+	// dst for four rows of the table)
+	wr := make([]float64, 0, 4)
+	var rows [4][]float64
+	flush := func() {
+		switch len(wr) {
+		case 4:
+			w0, w1, w2, w3 := wr[0], wr[1], wr[2], wr[3]
+			x0, x1, x2, x3 := rows[0][:n], rows[1][:n], rows[2][:n], rows[3][:n]
+			for i := range dst {
+				dst[i] += w0*x0[i] + w1*x1[i] + w2*x2[i] + w3*x3[i]
+			}
+		default:
+			for k, w := range wr {
+				for i, v := range rows[k][:n] {
+					dst[i] += w * v
+				}
+			}
+		}
+		wr = wr[:0]
+	}
 	for j, s := range tab.xs {
-		wr := tab.ws[j] * r(s)
-		if wr == 0 {
+		v := tab.ws[j] * r(s)
+		if v == 0 {
 			continue
 		}
-		row := tab.x[j*n : (j+1)*n]
-		for i, v := range row {
-			dst[i] += wr * v
+		rows[len(wr)] = tab.x[j*n : (j+1)*n]
+		wr = append(wr, v)
+		if len(wr) == 4 {
+			flush()
 		}
 	}
+	flush()
 	for i := range dst {
 		dst[i] /= b.Norm[i]
 	}

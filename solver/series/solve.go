@@ -111,7 +111,7 @@ type Solution struct {
 	finite   [4]bool
 	mean     float64
 	warnings []problem.Warning
-	gw       gridWork
+	gw       *gridWork // during Grid: the work buffers (spareWork)
 }
 
 // Solve solves p by superposition of separated series, with the corner
@@ -202,13 +202,19 @@ func solve(p *problem.Problem, opt Options, corners []Break) (*Solution, error) 
 	if m.allFlx {
 		s.fluxQuadratic(fluxInt)
 	}
-	for _, e := range problem.Sides {
-		e := e
+	// the four sub-problems are independent: built side by side where
+	// there are processors for it (in order in the wasm build)
+	forEach(len(problem.Sides), func(i int) {
+		e := problem.Sides[i]
 		r := func(t float64) float64 { return s.residual(e, t) }
 		s.subs[e] = newSub(m, e, r, s.tolAbs/4, opt.MaxTerms, m.breaks[e], opt.cache)
-		if m.err != nil {
-			return nil, m.err
+	})
+	for _, e := range problem.Sides {
+		if m.errs[e] != nil {
+			return nil, m.errs[e] // the first edge in order whose data failed
 		}
+	}
+	for _, e := range problem.Sides {
 		s.est += s.subs[e].tail
 		if s.subs[e].capped {
 			s.warnings = append(s.warnings, problem.Warning{Code: problem.TermLimit, Edges: []problem.Side{e},

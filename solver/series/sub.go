@@ -2,6 +2,7 @@ package series
 
 import (
 	"math"
+	"sync"
 
 	"edgewise/solver/gauss"
 	"edgewise/solver/problem"
@@ -31,6 +32,10 @@ type sub struct {
 	tail    float64   // estimated truncation error of u (max over the region)
 	capped  bool      // stopped at MaxTerms before meeting the tolerance
 	sine    bool      // value neighbours on both ends: X_n = sin(n pi s / L)
+	// X_n and X_n' at s = 0 and s = L (where the flows through the
+	// neighbouring edges are taken), made once by the first at there
+	endOnce [2]sync.Once
+	endX    [2][2][]float64
 }
 
 func biot(m *model, e problem.Side, L float64) float64 {
@@ -290,18 +295,45 @@ func (sp *sub) tailEstimate(n int) float64 {
 	return 2 * diff * r / (1 - r)
 }
 
+// expEvery is how often sub.at takes the exponentials afresh on a basis
+// of evenly spaced eigenvalues (between them, a product per term: the
+// error grows by a rounding per step, to about 1e-15 relative).
+const expEvery = 8
+
 // at returns u, du/ds, du/dt at local (s, t).
 func (sp *sub) at(s, t float64) (u, us, ut float64) {
 	if t < 0 {
 		t = 0
 	}
 	cut := sp.rowTerms(t, 0)
-	var xb, dxb [128]float64
-	xs, dxs := xb[:], dxb[:]
-	if cut > len(xs) {
-		xs, dxs = make([]float64, cut), make([]float64, cut)
+	var xs, dxs []float64
+	if s == 0 || s == sp.L {
+		end := 0
+		if s == sp.L {
+			end = 1
+		}
+		sp.endOnce[end].Do(func() {
+			x, dx := make([]float64, sp.n), make([]float64, sp.n)
+			sp.b.Row(s, 0, sp.n, x, dx) // the same recurrence: Row's prefix
+			sp.endX[end] = [2][]float64{x, dx}
+		})
+		xs, dxs = sp.endX[end][0], sp.endX[end][1]
 	}
-	sp.b.Row(s, 0, cut, xs, dxs)
+	if len(xs) < cut {
+		var xb, dxb [128]float64
+		xs, dxs = xb[:], dxb[:]
+		if cut > len(xs) {
+			xs, dxs = make([]float64, cut), make([]float64, cut)
+		}
+		sp.b.Row(s, 0, cut, xs, dxs)
+	}
+	// evenly spaced eigenvalues (lambda_(i+1) - lambda_i = pi/L): between
+	// exact exponentials every expEvery terms, the step factors
+	var qa, qb, ea, eb float64
+	uniform := sp.b.Uniform && t != 0 && t != sp.D
+	if uniform {
+		qa, qb = math.Exp(-math.Pi/sp.L*t), math.Exp(-math.Pi/sp.L*(2*sp.D-t))
+	}
 	for i := 0; i < cut; i++ {
 		x, dx := xs[i], dxs[i]
 		if sp.zero && i == 0 {
@@ -311,8 +343,26 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 			continue
 		}
 		lam := sp.b.Lambda[i]
-		ea := math.Exp(-lam * t)
-		eb := math.Exp(-lam * (2*sp.D - t))
+		// on the loaded edge and on the opposite one (where the flows are
+		// taken) the exponentials are known: 1, exp(-lambda D)^2, and
+		// exp(-lambda D) twice; eb is not needed when B is zero
+		switch {
+		case t == 0:
+			ea, eb = 1, sp.e1[i]*sp.e1[i]
+		case t == sp.D:
+			ea, eb = sp.e1[i], sp.e1[i]
+		case uniform && i%expEvery != 0 && (i-1 > 0 || !sp.zero):
+			ea, eb = ea*qa, eb*qb // from term i-1, computed just before
+			if eb < 1e-300 {
+				eb = 0 // no subnormal steps: B eb is nothing beside A ea
+			}
+		default:
+			ea = math.Exp(-lam * t)
+			eb = 0
+			if sp.B[i] != 0 || uniform {
+				eb = math.Exp(-lam * (2*sp.D - t))
+			}
+		}
 		y := sp.A[i]*ea + sp.B[i]*eb
 		u += x * y
 		us += dx * y
