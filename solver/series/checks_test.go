@@ -163,25 +163,7 @@ func TestManufacturedOrthotropicSource(t *testing.T) {
 	}
 	for kc := first; kc < 81; kc += step {
 		p := &problem.Problem{W: 0.9, H: 1.1, Kx: kx, Ky: ky, Source: q}
-		kk := kc
-		for _, e := range problem.Sides {
-			kind := problem.Kind(kk % 3)
-			kk /= 3
-			e, hc := e, hcs[e]
-			p.Edges[e] = problem.Edge{Kind: kind, Hc: hc, F: func(s float64) float64 {
-				x, y := p.Point(e, s)
-				u, ux, uy := exact(x, y)
-				n := normal[e]
-				fl := p.Kx*ux*real(n) + p.Ky*uy*imag(n)
-				switch kind {
-				case problem.Value:
-					return u
-				case problem.Flux:
-					return fl
-				}
-				return u + fl/hc
-			}}
-		}
+		manufacturedEdges(p, kc, hcs, exact)
 		s := mustSolve(t, p, Options{})
 		off := 0.0
 		if s.m.allFlx {

@@ -40,37 +40,10 @@ func cornerGradients(t *testing.T, k, tol float64) {
 		for kc := 0; kc < 81; kc += step {
 			p := &problem.Problem{W: 1.3, H: 0.7, Kx: kx, Ky: 2}
 			a := math.Sqrt(kx / 2)
-			kk := kc
-			var kinds [4]problem.Kind
-			for _, e := range problem.Sides {
-				kind := problem.Kind(kk % 3)
-				kinds[e] = kind
-				kk /= 3
-				e, hc := e, 1.5
-				p.Edges[e] = problem.Edge{Kind: kind, Hc: hc, F: func(s float64) float64 {
-					x, y := p.Point(e, s)
-					u, ux, uy := exact(x, a*y)
-					uy *= a
-					var in float64
-					switch e {
-					case problem.Bottom:
-						in = -p.Ky * uy
-					case problem.Top:
-						in = p.Ky * uy
-					case problem.Left:
-						in = -p.Kx * ux
-					default:
-						in = p.Kx * ux
-					}
-					switch kind {
-					case problem.Value:
-						return u
-					case problem.Flux:
-						return in
-					}
-					return u + in/hc
-				}}
-			}
+			kinds := manufacturedEdges(p, kc, [4]float64{1.5, 1.5, 1.5, 1.5}, func(x, y float64) (u, ux, uy float64) {
+				u, ux, uy = exact(x, a*y)
+				return u, ux, a * uy
+			})
 			bs, err := FindBreaks(p)
 			if err != nil {
 				t.Fatal(err)

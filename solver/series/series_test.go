@@ -124,27 +124,7 @@ func TestManufacturedAllKinds(t *testing.T) {
 	}
 	for kc := first; kc < 81; kc += step {
 		p := &problem.Problem{W: 1.3, H: 0.7, Kx: 2, Ky: 2}
-		kk := kc
-		var kinds [4]problem.Kind
-		for _, e := range problem.Sides {
-			kind := problem.Kind(kk % 3)
-			kinds[e] = kind
-			kk /= 3
-			e, hc := e, hcs[e]
-			p.Edges[e] = problem.Edge{Kind: kind, Hc: hc, F: func(s float64) float64 {
-				x, y := p.Point(e, s)
-				u, ux, uy := exact(x, y)
-				n := normal[e]
-				fl := p.Kx * (ux*real(n) + uy*imag(n)) // entering flux
-				switch kind {
-				case problem.Value:
-					return u
-				case problem.Flux:
-					return fl
-				}
-				return u + fl/hc // ambient
-			}}
-		}
+		kinds := manufacturedEdges(p, kc, hcs, exact)
 		s := mustSolve(t, p, Options{})
 		off := 0.0
 		if s.m.allFlx {

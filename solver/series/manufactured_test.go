@@ -9,6 +9,32 @@ import (
 	"edgewise/solver/problem"
 )
 
+// manufacturedEdges gives p's four edges the kinds of combination kc of
+// the 81 (its base-3 digits, bottom first), each carrying the data of the
+// exact field: its value, its entering flux Kx ux nx + Ky uy ny, or for
+// convection with coefficient hcs[side] the ambient that makes it exact.
+func manufacturedEdges(p *problem.Problem, kc int, hcs [4]float64, exact func(x, y float64) (u, ux, uy float64)) (kinds [4]problem.Kind) {
+	for _, e := range problem.Sides {
+		kind := problem.Kind(kc % 3)
+		kinds[e] = kind
+		kc /= 3
+		hc := hcs[e]
+		p.Edges[e] = problem.Edge{Kind: kind, Hc: hc, F: func(s float64) float64 {
+			u, ux, uy := exact(p.Point(e, s))
+			n := normal[e]
+			fl := p.Kx*ux*real(n) + p.Ky*uy*imag(n) // entering flux
+			switch kind {
+			case problem.Value:
+				return u
+			case problem.Flux:
+				return fl
+			}
+			return u + fl/hc // the ambient
+		}}
+	}
+	return kinds
+}
+
 // eachManufactured solves the exact field x^2 - y^2 + 3xy + 2 + e^x sin y
 // on a 1.3 x 0.7 plate for all 81 combinations of edge kinds, with
 // convection coefficients of about 0.001 and 1 (Biot numbers 5e-4 to 2),
@@ -23,27 +49,7 @@ func eachManufactured(t *testing.T, step int, check func(kinds [4]problem.Kind, 
 		hcs := [4]float64{hcv, hcv * 3, hcv, hcv * 2}
 		for kc := 0; kc < 81; kc += step {
 			p := &problem.Problem{W: 1.3, H: 0.7, Kx: 2, Ky: 2}
-			kk := kc
-			var kinds [4]problem.Kind
-			for _, e := range problem.Sides {
-				kind := problem.Kind(kk % 3)
-				kinds[e] = kind
-				kk /= 3
-				e, hc := e, hcs[e]
-				p.Edges[e] = problem.Edge{Kind: kind, Hc: hc, F: func(s float64) float64 {
-					x, y := p.Point(e, s)
-					u, ux, uy := exact(x, y)
-					n := normal[e]
-					fl := p.Kx * (ux*real(n) + uy*imag(n))
-					switch kind {
-					case problem.Value:
-						return u
-					case problem.Flux:
-						return fl
-					}
-					return u + fl/hc
-				}}
-			}
+			kinds := manufacturedEdges(p, kc, hcs, exact)
 			bs, err := FindBreaks(p)
 			if err != nil {
 				t.Fatal(err)
