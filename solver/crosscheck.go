@@ -19,7 +19,9 @@ const CrossCheckGrid = 24
 
 // spectralNodes is the number of GLL intervals along the shorter (scaled)
 // side of the spectral check's first solution; its second has half as
-// many again, and the longer side up to spectralLong.
+// many again, and the longer side up to spectralLong times as many. A
+// check that does not confirm the estimate tries once more with half as
+// many nodes again.
 const (
 	spectralNodes = 16
 	spectralLong  = 64
@@ -38,10 +40,12 @@ const confirmWithin = 100
 // meets a flux or convection part (the field goes like r^(1/2) there).
 //
 // The independent solution is the spectral Galerkin solution of package
-// spectral, on two numbers of nodes; where the data are not smooth enough
-// for it to resolve the problem to the series' accuracy, or an edge is
-// made of parts, the Richardson-extrapolated finite differences of
-// package fdcheck, whichever resolves it better. Either way the result
+// spectral, on two numbers of nodes (and, when that does not confirm the
+// estimate, on half as many again); where it still does not
+// confirm the estimate and does not resolve the problem to the series'
+// accuracy, or an edge is made of parts, the Richardson-extrapolated
+// finite differences of package fdcheck are tried too, and the check
+// that resolves the problem better is kept. Either way the result
 // says how far the check itself goes (Accuracy.CrosscheckResolution) and
 // whether it confirms the series' estimate (Accuracy.CrosscheckVerdict).
 func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) {
@@ -61,8 +65,17 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 	}
 	keep := compared(pr, nx, ny, breaks)
 	est := f.ErrorEstimate()
-	best, err := spectralCheck(pq, nx, ny, sum, keep, breaks)
-	if err != nil || best.resolution > est*confirmWithin/10 {
+	best, err := spectralCheck(pq, spectralNodes, nx, ny, sum, keep, breaks)
+	confirms := func() bool { return err == nil && verdict(best.diff, best.resolution, est) == VerdictConfirms }
+	if !confirms() && err == nil {
+		// half as many nodes again may confirm: narrow features of the
+		// data may need them, and near a corner whose conditions do not
+		// join smoothly the error falls like a power of the nodes
+		if finer, ferr := spectralCheck(pq, spectralNodes*3/2, nx, ny, sum, keep, breaks); ferr == nil && finer.resolution < best.resolution {
+			best = finer
+		}
+	}
+	if !confirms() && (err != nil || best.resolution > est*confirmWithin/10) {
 		fd, fdErr := fdCheck(pq, nx, ny, sum, keep)
 		switch {
 		case fdErr != nil && err != nil:
@@ -114,8 +127,9 @@ const (
 
 // Verdicts of the cross-check (Accuracy.CrosscheckVerdict).
 const (
-	// VerdictConfirms: the independent solution agrees with the series
-	// within confirmWithin times the series' estimate.
+	// VerdictConfirms: the independent solution resolves the problem
+	// and agrees with the series within confirmWithin times the series'
+	// estimate.
 	VerdictConfirms = "confirms"
 	// VerdictLimited: it differs by more, but no more than its own
 	// resolution explains: it cannot confirm the estimate on this
@@ -128,7 +142,9 @@ const (
 
 func verdict(diff, resolution, est float64) string {
 	switch {
-	case diff <= confirmWithin*est:
+	case diff <= confirmWithin*est && resolution <= confirmWithin*est:
+		// a check that resolves the problem less well than that
+		// cannot confirm it, however small its difference
 		return VerdictConfirms
 	case diff <= 3*resolution+confirmWithin*est:
 		return VerdictLimited
@@ -176,18 +192,19 @@ func largest(a, b []float64, keep []bool) float64 {
 	return worst
 }
 
-// spectralCheck solves pq by the spectral method on two numbers of nodes
-// and compares the finer with the series' values sum.
-func spectralCheck(pq *problem.Problem, nx, ny int, sum []float64, keep []bool, breaks []series.Break) (check, error) {
+// spectralCheck solves pq by the spectral method on two numbers of nodes,
+// base and half as many again along the shorter side, and compares the
+// finer with the series' values sum.
+func spectralCheck(pq *problem.Problem, base, nx, ny int, sum []float64, keep []bool, breaks []series.Break) (check, error) {
 	// nodes by the scaled sides (the field varies on the scale of
-	// L/sqrt(K)), the shorter with spectralNodes
+	// L/sqrt(K)), the shorter with base
 	ex, ey := pq.W/math.Sqrt(pq.Kx), pq.H/math.Sqrt(pq.Ky)
-	n := func(base int, mine, other float64) int {
-		return min(spectralLong*base/spectralNodes, int(math.Ceil(float64(base)*max(1, math.Sqrt(mine/other)))))
+	n := func(b int, mine, other float64) int {
+		return min(spectralLong*b/spectralNodes, int(math.Ceil(float64(b)*max(1, math.Sqrt(mine/other)))))
 	}
 	var fields [2]*spectral.Field
-	for i, base := range [2]int{spectralNodes, spectralNodes * 3 / 2} {
-		f, err := spectral.Solve(pq, n(base, ex, ey), n(base, ey, ex))
+	for i, b := range [2]int{base, base * 3 / 2} {
+		f, err := spectral.Solve(pq, n(b, ex, ey), n(b, ey, ex))
 		if err != nil {
 			return check{}, err
 		}

@@ -184,9 +184,10 @@ func TestCrossCheckConfirmsOnSmoothData(t *testing.T) {
 	}
 }
 
-// The cross-check's cost next to the series solve it checks: a smooth
-// problem (spectral only) and one with corners whose conditions disagree
-// (spectral, then finite differences).
+// The cross-check's cost next to the series solve it checks (the solve
+// and the page's default grid): a smooth problem (spectral only) and one
+// with corners whose conditions disagree (spectral twice, then finite
+// differences).
 func BenchmarkCrossCheck(b *testing.B) {
 	kinds := [4]problem.Kind{problem.Value, problem.Convection, problem.Flux, problem.Convection}
 	for _, c := range []struct {
@@ -201,11 +202,16 @@ func BenchmarkCrossCheck(b *testing.B) {
 			b.Fatal(err)
 		}
 		breaks, _ := series.FindBreaks(c.pr)
+		// the series as the page runs it: the solve and the default grid
+		nx, ny := problem.Proportional(c.pr.W, c.pr.H, DefaultGrid)
+		u, ux, uy := make([]float64, (nx+1)*(ny+1)), make([]float64, (nx+1)*(ny+1)), make([]float64, (nx+1)*(ny+1))
 		b.Run(c.name+"/series", func(b *testing.B) {
 			for b.Loop() {
-				if _, err := solveSeries(c.pr); err != nil {
+				f, err := solveSeries(c.pr)
+				if err != nil {
 					b.Fatal(err)
 				}
+				f.Grid(nx, ny, u, ux, uy)
 			}
 		})
 		b.Run(c.name+"/crosscheck", func(b *testing.B) {
