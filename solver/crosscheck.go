@@ -24,7 +24,7 @@ const CrossCheckGrid = 24
 // many nodes again.
 const (
 	spectralNodes = 16
-	spectralLong  = 64
+	spectralLong  = 48
 )
 
 // confirmWithin is how far above the series' estimate the check's
