@@ -68,9 +68,10 @@ func TestSpectralConvergence(t *testing.T) {
 	}
 }
 
-// The GLL rule integrates polynomials up to degree 2n - 1 exactly, and the
-// nodes are those of the published small rules (n = 2: 0; n = 3: ±1/sqrt 5;
-// exact values, e.g. Abramowitz & Stegun 25.4.32).
+// The GLL rule integrates polynomials up to degree 2n - 1 exactly (the
+// exact identity that defines it), and its inner nodes for n = 3 are
+// ±1/sqrt 5, as in the published small Lobatto rules (Abramowitz &
+// Stegun 25.4.32, from memory).
 func TestLobatto(t *testing.T) {
 	for n := 2; n <= 60; n++ {
 		x, w := lobatto(n)
