@@ -64,6 +64,11 @@ func TestMain(m *testing.M) {
 		chromedp.Flag("allow-file-access-from-files", false),
 		chromedp.WindowSize(1280, 860),
 	)
+	if f := os.Getenv("EDGEWISE_JS_FLAGS"); f != "" {
+		// an experiment with the browser's JavaScript engine (benchmarks
+		// only: a page cannot set these)
+		opts = append(opts, chromedp.Flag("js-flags", f))
+	}
 	var cancel context.CancelFunc
 	allocCtx, cancel = chromedp.NewExecAllocator(context.Background(), opts...)
 	// start the browser once, with a generous timeout for the first start
