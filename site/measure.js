@@ -270,7 +270,10 @@
       return { v: c ? t.slice(0, t.length - r.rest.length).trim() : t, note: "= " + EW.num(r.v, 6) + " " + siConv.unit + ": a formula of parameters is in SI units (" + siConv.unit + not + ")" };
     }
     const from = c || (formula ? siConv : shown);
-    const si = (r.v - from.offset) / from.scale;
+    // to 15 significant digits: a typed number has no more, and the
+    // conversion's rounding (0.864 1/day is 9.999999999999999e-6 1/s)
+    // stays out of the file
+    const si = from === siConv ? r.v : Number(((r.v - from.offset) / from.scale).toPrecision(15));
     if (formula && c) return { v: String(Number(si.toPrecision(15))), note: "= " + EW.num(si, 6) + " " + siConv.unit };
     // a constant in SI, shown in the display unit too (100 °C = 212 °F)
     if (formula) return { v: text, note: shown.unit !== siConv.unit ? "= " + EW.num(r.v * shown.scale + shown.offset, 6) + " " + shown.unit : "" };
@@ -289,16 +292,31 @@
     const list = [["in-width", "width", "length"], ["in-height", "height", "length"], ["in-source", "source", "source"]];
     if (byId("in-ortho").checked) list.push(["in-kx", "conductivity.x", "conductivity"], ["in-ky", "conductivity.y", "conductivity"]);
     else list.push(["in-k", "conductivity", "conductivity"]);
+    const edge = (id, path, kind) => {
+      if (kind === "convection") list.push([id + "-h", path + ".h", "coefficient"], [id + "-ambient", path + ".ambient", "value", true]);
+      else list.push([id + "-expr", path + ".expr", kind === "value" ? "value" : "flux", true]);
+    };
     for (const side of EW.SIDES) {
-      const kind = byId("in-" + side + "-kind").value;
-      if (kind === "convection") list.push(["in-" + side + "-h", "edges." + side + ".h", "coefficient"], ["in-" + side + "-ambient", "edges." + side + ".ambient", "value", true]);
-      else list.push(["in-" + side + "-expr", "edges." + side + ".expr", kind === "value" ? "value" : "flux", true]);
+      const n = EW.parts ? EW.parts.count(side) : 0;
+      if (n < 2) {
+        edge("in-" + side, "edges." + side, byId("in-" + side + "-kind").value);
+        continue;
+      }
+      // an edge in parts (segments.js): each part's end and data, read
+      // and shown like the one-condition edge's
+      for (let i = 0; i < n; i++) {
+        const id = "part-" + side + "-" + i, path = "edges." + side + ".segments[" + i + "]";
+        if (i < n - 1) list.push([id + "-to", path + ".to", "length"]);
+        edge(id, path, byId(id + "-kind").value);
+      }
     }
     return list;
   }
-  const getAt = (p, path) => path.split(".").reduce((o, k) => (o && typeof o === "object" ? o[k] : undefined), p);
+  // keys of a project path: "edges.top.segments[1].h" -> edges, top, segments, 1, h
+  const keys = (path) => path.replace(/\[(\d+)\]/g, ".$1").split(".");
+  const getAt = (p, path) => keys(path).reduce((o, k) => (o && typeof o === "object" ? o[k] : undefined), p);
   function setAt(p, path, v) {
-    const ks = path.split(".");
+    const ks = keys(path);
     let o = p;
     for (const k of ks.slice(0, -1)) { if (!o[k] || typeof o[k] !== "object") return; o = o[k]; }
     o[ks[ks.length - 1]] = v;

@@ -115,7 +115,7 @@
           title: "Remove " + name.toLowerCase() + (i > 0 ? "; part " + i + " takes over its stretch" : "; part 2 takes over its stretch"), onclick: () => removePart(side, i) })),
       el("div", { class: "pair" },
         last ? el("p", { class: "part-end", id: id(side, i, "end") })
-          : el("label", { class: "row" }, el("span", {}, name + " ends at s ", el("i", { class: "u", "data-si": "length" })), to),
+          : el("label", { class: "row" }, el("span", {}, name + " ends at s ", el("i", { class: "u", "data-unit": "length" })), to),
         el("label", { class: "row" }, el("span", { text: name + " condition" }), kind)),
       el("div", { class: "f-expr" }, el("label", { class: "row" }, el("span", { class: "lbl-expr" }), expr)),
       el("div", { class: "f-conv pair" },
@@ -146,6 +146,9 @@
   function relabel() {
     const P = EW.physicsOf(byId("in-physics").value);
     const u = P.units || {}, kinds = P.kinds || {}, labels = P.labels || {};
+    // a part's end and h are read and shown in the display units, like the
+    // one-condition edge's (measure.js); formulas stay SI
+    const d = EW.shownUnits ? EW.shownUnits(u) : u;
     const unit = (x) => (x ? " [" + x + "]" : "");
     for (const side of SIDES) {
       rows(side).forEach((r, i) => {
@@ -159,11 +162,9 @@
         r.querySelector(".lbl-expr").textContent = name + (k.value === "value"
           ? (u.value || "value") + unit(u.value_unit)
           : (labels.flux_in || (u.flux || "flux") + " in").toLowerCase() + unit(u.flux_unit));
-        r.querySelector(".lbl-h").textContent = name + (u.coefficient || "h") + unit(u.coefficient_unit);
+        r.querySelector(".lbl-h").textContent = name + (u.coefficient || "h") + unit(d.coefficient_unit);
         r.querySelector(".lbl-amb").textContent = name + (labels.ambient || "ambient " + (u.value || "value")).toLowerCase() + unit(u.value_unit);
-        // the parts' numbers are read in SI whatever the display units (the
-        // page's relabel of [data-unit] must not reach them)
-        for (const i2 of r.querySelectorAll("[data-si=length]")) i2.textContent = "[" + (u.length_unit || "m") + "]";
+        for (const i2 of r.querySelectorAll("[data-unit=length]")) i2.textContent = "[" + (d.length_unit || "m") + "]";
       });
       froms(side);
     }
@@ -333,6 +334,9 @@
       if (fr[3]) ctx.fillText(EW.num(fr[2], 4), m.l - 5, Y(fr[2]));
       else { ctx.fillText(EW.num(fr[1], 4), m.l - 5, Y(fr[1])); ctx.fillText(EW.num(fr[0], 4), m.l - 5, Y(fr[0])); }
     }
+    // where the parts meet, in the display length unit (as their fields)
+    const U = EW.physicsOf(byId("in-physics").value).units || {};
+    const at = (s) => (EW.dv ? EW.dv(U, "length", s) : s);
     const said = [];
     r.parts.forEach((p, i) => {
       const x0 = X(p.from), x1 = X(p.to);
@@ -362,9 +366,9 @@
         ctx.strokeStyle = INK; ctx.lineWidth = 1;
         ctx.beginPath(); ctx.moveTo(x0, 0); ctx.lineTo(x0, cssH); ctx.stroke();
         ctx.fillStyle = INK; ctx.textAlign = "center";
-        ctx.fillText(EW.num(p.from, 3), x0, 5);
+        ctx.fillText(EW.num(at(p.from), 3), x0, 5);
       }
-      said.push("part " + (i + 1) + ", " + p.kind + " from s = " + EW.num(p.from) + " to " + EW.num(p.to) +
+      said.push("part " + (i + 1) + ", " + p.kind + " from s = " + EW.num(at(p.from)) + " to " + EW.num(at(p.to)) +
         (p.v.length ? " (" + EW.num(Math.min(...p.v)) + (Math.max(...p.v) > Math.min(...p.v) ? " to " + EW.num(Math.max(...p.v)) : "") + ")" : ""));
     });
     c.setAttribute("aria-label", "The " + side + " edge in " + r.parts.length + " parts: " + said.join("; "));

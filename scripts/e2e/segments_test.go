@@ -272,9 +272,13 @@ func TestProbeUnboundedSaysWhy(t *testing.T) {
 	tb.noErrors(t)
 }
 
-// With lengths shown in mm, a part's end is still read and labelled in
-// metres (the parts' numbers are SI): the label says [m] and the file
-// keeps the number typed.
+// A part's end and its h are shown and read in the display units, like
+// the one-condition edge's fields, and the file stays SI. Splitting an
+// edge under other units puts the split at the edge's middle (it wrote
+// the middle in feet into a field read in metres: "49.21 is not before
+// the edge's end (30)"), and an h copied from the whole edge keeps its
+// meaning (a leakance in 1/day read as 1/s would have been 86400 times
+// too large, silently).
 func TestSegmentsUnderDisplayUnits(t *testing.T) {
 	tb := newTab(t)
 	tb.open(t, siteURL)
@@ -283,13 +287,56 @@ func TestSegmentsUnderDisplayUnits(t *testing.T) {
 	tb.waitFor(t, `(() => { const p = window.edgewiseInternal.last(); return p && JSON.stringify(p.project.edges.top) === `+jsString(wantTopJSON)+`; })()`, "the solve of the split edge")
 	tb.chooseUnit(t, "length", "mm")
 	label := eval[string](t, tb, `document.querySelector("#parts-top > .part i.u").textContent`)
-	if label != "[m]" {
-		t.Errorf("a part's end is labelled %q, want [m] (it is read in metres)", label)
+	if label != "[mm]" {
+		t.Errorf("a part's end is labelled %q, want [mm]", label)
+	}
+	if v := eval[string](t, tb, `document.getElementById("part-top-0-to").value`); v != "10000" {
+		t.Errorf("the first part's end shows %q, want 10000 (mm)", v)
 	}
 	top := topEdge(t, tb).(map[string]any)
 	segs, _ := top["segments"].([]any)
 	if len(segs) != 3 || segs[0].(map[string]any)["to"] != 10.0 {
-		t.Errorf("top edge %v, want the first part to end at 10 (m), as typed", top)
+		t.Errorf("top edge %v, want the first part to end at 10 (m) in the file", top)
+	}
+	n := tb.solved(t)
+	tb.typeInto(t, "#part-top-0-to", "12500\n")
+	tb.waitSolved(t, n+1)
+	segs, _ = topEdge(t, tb).(map[string]any)["segments"].([]any)
+	if len(segs) != 3 || segs[0].(map[string]any)["to"] != 12.5 {
+		t.Errorf("typed 12500 (mm): the file has %v, want the first part to end at 12.5 (m)", segs)
+	}
+
+	// a whole convection edge in feet and 1/day, split in two
+	tb.loadProject(t, `{schema: "edgewise/1", physics: "seepage", width: 30, height: 10, conductivity: 1e-5, source: 0,
+	  display: {length: "ft", rate: "1/day"},
+	  edges: {bottom: {kind: "flux", expr: "0"}, top: {kind: "convection", h: 1e-5, ambient: "12"},
+	          left: {kind: "flux", expr: "0"}, right: {kind: "value", expr: "2"}}, probes: []}`)
+	h := eval[string](t, tb, `document.getElementById("in-top-h").value`)
+	if h != "0.864" {
+		t.Errorf("the top edge's h shows %q, want 0.864 (1/day)", h)
+	}
+	n = tb.solved(t)
+	tb.click(t, "#split-top")
+	tb.waitSolved(t, n+1)
+	got := eval[[]string](t, tb, `["part-top-0-to", "part-top-0-h", "part-top-1-h"].map((id) => document.getElementById(id).value)`)
+	if got[1] != "0.864" || got[2] != "0.864" {
+		t.Errorf("the parts' h show %v, want the whole edge's 0.864 (1/day)", got[1:])
+	}
+	segs, _ = topEdge(t, tb).(map[string]any)["segments"].([]any)
+	if len(segs) != 2 {
+		t.Fatalf("split: top edge %v", topEdge(t, tb))
+	}
+	s0, s1 := segs[0].(map[string]any), segs[1].(map[string]any)
+	if to, _ := s0["to"].(float64); math.Abs(to-15) > 1e-3 {
+		t.Errorf("split at %v (m; the field shows %q ft), want the middle, 15 m", s0["to"], got[0])
+	}
+	for _, s := range []map[string]any{s0, s1} {
+		if h, _ := s["h"].(float64); math.Abs(h-1e-5) > 1e-12 {
+			t.Errorf("a part's h is %v in the file, want the whole edge's 1e-5 (1/s)", s["h"])
+		}
+	}
+	if st := eval[string](t, tb, `document.getElementById("status").textContent`); !strings.HasPrefix(st, "Solved") {
+		t.Errorf("after the split the status says %q", st)
 	}
 	tb.noErrors(t)
 }
