@@ -293,7 +293,8 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 			}
 		}
 		ms.holdSteps(me)
-		if len(me.meets) > 0 {
+		corners := ms.valueCorners(me)
+		if len(me.meets)+len(corners) > 0 {
 			ts := 1.0
 			kappa := math.Sqrt(p.Kx * p.Ky)
 			if side == problem.Left || side == problem.Right {
@@ -302,7 +303,7 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 			lm := me.L * ts
 			per := lv.perMeet + 2
 			fam := &family{fr: newFrame(p, side), centre: lm / 2, half: lm / 2,
-				per: per, n: per * len(me.meets), kappa: kappa, ts: ts}
+				per: per, n: per * (len(me.meets) + len(corners)), kappa: kappa, ts: ts}
 			for i, s := range me.meets {
 				fam.z = append(fam.z, complex((s*ts-fam.centre)/fam.half, 0))
 				c := complex(1, 0) // the value part (or holding side) before the meeting
@@ -311,7 +312,16 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 				}
 				fam.c = append(fam.c, c)
 			}
-			fam.logs = me.logs
+			fam.logs = append([]bool(nil), me.logs...)
+			if len(corners) > 0 {
+				fam.corner = make([]int8, len(me.meets), len(me.meets)+len(corners))
+				for _, end := range corners {
+					fam.z = append(fam.z, complex(float64(2*end-1), 0))
+					fam.c = append(fam.c, 1)
+					fam.logs = append(fam.logs, false)
+					fam.corner = append(fam.corner, int8(2*end-1))
+				}
+			}
 			me.fam, me.famOff = fam, ms.n
 			ms.n += fam.n
 		}
@@ -339,6 +349,32 @@ func newMixedSolver(p *problem.Problem, opt Options, level int) *mixedSolver {
 		}
 	}
 	return ms
+}
+
+// valueCorners returns the ends of edge me (0 start, 1 end) where a flux
+// or convection part meets a corner whose other edge holds a value there:
+// the family's corner members (see family) carry the field's r ln r
+// there.
+func (ms *mixedSolver) valueCorners(me *mixedEdge) []int {
+	var out []int
+	for end := 0; end < 2; end++ {
+		i := 0
+		if end == 1 {
+			i = len(me.value) - 1
+		}
+		if me.value[i] {
+			continue
+		}
+		c := cornerAt(me.side, end == 1)
+		other := problem.Side(c)
+		if other == me.side {
+			other = problem.Side((c + 3) % 4)
+		}
+		if kind, _ := endCondition(ms.pr, other, edgeEnd(other, c)); kind == problem.Value {
+			out = append(out, end)
+		}
+	}
+	return out
 }
 
 // pin sets the conditions of a span's two ends (see span).

@@ -3,6 +3,7 @@ package series
 import (
 	"fmt"
 	"math"
+	"math/cmplx"
 	"math/rand/v2"
 	"testing"
 
@@ -480,4 +481,118 @@ func TestMixedManyParts(t *testing.T) {
 		t.Errorf("parts sum to %g, the edge's flow %g (inflow %g): the section must balance", sum, q, in)
 	}
 	t.Logf("24 parts: inflow %.6g, net %.3g, estimate %.3g", in, q, f.ErrorEstimate())
+}
+
+// A flux part that reaches a corner whose other edge holds a value, with
+// an entering flux there that is not zero: the field goes like r ln r
+// along the edge (the corner members of the family). Exact field (an
+// identity): u = A F + S with, at the top right corner, w = (W - x) +
+// i (H - y) and F = Re(w log w) + pi/2 Im(w), harmonic, zero along the
+// whole right edge, r ln r along the top, its entering flux through the
+// top -A pi/2 there; S a smooth harmonic polynomial. The top edge is a
+// value part, then a flux part to the corner; the right edge holds S, the
+// others u. Without the corner members the fit missed its tolerance by far
+// (estimated 0.1 to 9 of the range on such edges; this field: not
+// converged).
+func TestMixedFluxReachesValueCorner(t *testing.T) {
+	const W, H, A = 3.0, 1.0, 2.0
+	for _, c := range []struct {
+		at, kx, ky float64
+		start      bool // the flux part at the edge's start, the field mirrored
+	}{{1.2, 1, 1, false}, {2.4, 1, 1, false}, {1.2, 2, 0.5, false}, {1.2, 1, 1, true}, {2.4, 2, 0.5, true}} {
+		at, m := c.at, math.Sqrt(c.kx/c.ky)
+		// orthotropic: harmonic in (x, m y), so kx u_xx + ky u_yy = 0
+		exactEnd := func(x, y float64) (u, ux, uy float64) {
+			Y := m * y
+			w := complex(W-x, m*H-Y)
+			var g, dg complex128 // g = w log w - i pi/2 w, dg = g'
+			if w != 0 {
+				g = w*cmplx.Log(w) - complex(0, math.Pi/2)*w
+				dg = cmplx.Log(w) + 1 - complex(0, math.Pi/2)
+			}
+			// dw/dx = -1, dw/dY = -i
+			u = A*real(g) + 1 + 0.3*x*Y + 0.2*(x*x-Y*Y)
+			ux = -A*real(dg) + 0.3*Y + 0.4*x
+			uy = m * (A*imag(dg) + 0.3*x - 0.4*Y)
+			return
+		}
+		exact := exactEnd
+		if c.start {
+			exact = func(x, y float64) (u, ux, uy float64) {
+				u, ux, uy = exactEnd(W-x, y)
+				return u, -ux, uy
+			}
+		}
+		pr := &problem.Problem{W: W, H: H, Kx: c.kx, Ky: c.ky}
+		data := func(side problem.Side, kind problem.Kind) func(float64) float64 {
+			return func(s float64) float64 {
+				x, y := pr.Point(side, s)
+				u, ux, uy := exact(x, y)
+				if kind == problem.Flux {
+					return Entering(pr, side, ux, uy)
+				}
+				return u
+			}
+		}
+		for _, side := range problem.Sides {
+			pr.Edges[side] = problem.Edge{Kind: problem.Value, F: data(side, problem.Value)}
+		}
+		pr.Edges[problem.Bottom] = problem.Edge{Kind: problem.Flux, F: data(problem.Bottom, problem.Flux)}
+		parts := []problem.Part{
+			{To: at, Kind: problem.Value, F: data(problem.Top, problem.Value)},
+			{Kind: problem.Flux, F: data(problem.Top, problem.Flux)},
+		}
+		if c.start {
+			parts = []problem.Part{
+				{To: W - at, Kind: problem.Flux, F: data(problem.Top, problem.Flux)},
+				{Kind: problem.Value, F: data(problem.Top, problem.Value)},
+			}
+		}
+		pr.Edges[problem.Top] = problem.Edge{Kind: parts[0].Kind, F: parts[0].F, Parts: parts}
+		f := solveMixedTest(t, pr)
+		lo, hi, worst := math.Inf(1), math.Inf(-1), 0.0
+		for i := 0; i <= 30; i++ {
+			for j := 0; j <= 10; j++ {
+				x, y := W*float64(i)/30, H*float64(j)/10
+				u, _, _ := f.At(x, y)
+				w, _, _ := exact(x, y)
+				lo, hi = min(lo, w), max(hi, w)
+				worst = max(worst, math.Abs(u-w))
+			}
+		}
+		notConverged := false
+		for _, w := range f.Warnings() {
+			notConverged = notConverged || w.Code == problem.NotConverged
+		}
+		// the flux part's flow (its data is linear along the edge: the
+		// midpoint rule is exact) and the mean (a midpoint rule, fine
+		// enough for r ln r), which take the corner members' conjugate and
+		// area
+		fp := 1
+		if c.start {
+			fp = 0
+		}
+		from, to := pr.Edges[problem.Top].PartRange(fp, W)
+		want := data(problem.Top, problem.Flux)((from+to)/2) * (to - from)
+		got := PartsOf(f, pr, problem.Top)[fp].Flow
+		const n = 600
+		mean := 0.0
+		for i := 0; i < n; i++ {
+			for j := 0; j < n/3; j++ {
+				u, _, _ := exact(W*(float64(i)+0.5)/n, H*(float64(j)+0.5)/(n/3))
+				mean += u / (n * n / 3)
+			}
+		}
+		t.Logf("%+v: flux part's flow %.10g (exact %.10g), mean %.8g (midpoint rule %.8g)", c, got, want, f.Mean(), mean)
+		if math.Abs(got-want) > 1e-7*math.Abs(want) {
+			t.Errorf("%+v: the flux part's flow %.12g, exact %.12g", c, got, want)
+		}
+		if math.Abs(f.Mean()-mean) > 1e-5*(hi-lo) {
+			t.Errorf("%+v: mean %.10g, by a midpoint rule %.10g", c, f.Mean(), mean)
+		}
+		t.Logf("%+v: worst error %.3g (%.2g of the range), estimate %.3g", c, worst, worst/(hi-lo), f.ErrorEstimate())
+		if notConverged || worst > f.ErrorEstimate() || worst > 1e-5*(hi-lo) {
+			t.Errorf("%+v: not converged %v, worst error %.3g (%.2g of the range), estimate %.3g", c, notConverged, worst, worst/(hi-lo), f.ErrorEstimate())
+		}
+	}
 }

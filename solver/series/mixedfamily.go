@@ -60,12 +60,28 @@ func (f *frame) at(x, y float64) (t, d float64) {
 //	G_ij = (zeta - z_i)^(j + 1) log(zeta - z_i),
 //
 // whose normal derivative steps at z_i (j = 0) or has a kink of order j.
+//
+// Where a run of flux and convection parts reaches a corner whose other
+// edge holds a value, the entering flux there tends to a number that is
+// not zero in general (h (ambient - value), or the flux data), and the
+// field goes like r ln r along the edge: the corner (z = -1 at the edge's
+// start, +1 at its end) has the members
+//
+//	G_j = w^(2j+1) (log w - i pi/2),   F_j = Re G_j,
+//
+// with w = zeta - z at the start and w = -conj(zeta - z) at the end (the
+// region then lies in Re w >= 0, Im w >= 0). Each F_j is zero along the
+// whole line of the other edge (w = i r: (i r)^(2j+1) ln r is imaginary),
+// its trace along the edge is r^(2j+1) ln r, and its normal derivative
+// there is smooth (pi/2 (2j+1) r^(2j) / half): F_0 carries the corner's
+// r ln r, and the fit's polynomials what is left, which is smoother.
 type family struct {
 	fr           frame
 	centre, half float64
 	z            []complex128
 	c            []complex128
 	logs         []bool // meeting i is a step inside a span: logarithmic members
+	corner       []int8 // -1, +1: z_i is the edge's start or end corner (corner members); 0 a meeting
 	per          int    // members per meeting
 	n            int
 	kappa, ts    float64 // entering flux = -kappa dF/dd; t per unit s
@@ -78,6 +94,10 @@ func (fm *family) eval(t, d float64, f, ft, fd []float64) {
 	zeta := complex((t-fm.centre)/fm.half, d/fm.half)
 	for i, z := range fm.z {
 		w := zeta - z
+		if fm.isCorner(i) {
+			fm.evalCorner(i, w, f, ft, fd)
+			continue
+		}
 		if fm.logs[i] {
 			fm.evalLog(i, w, f, ft, fd)
 			continue
@@ -140,6 +160,47 @@ func (fm *family) evalLog(i int, w complex128, f, ft, fd []float64) {
 	}
 }
 
+func (fm *family) isCorner(i int) bool { return fm.corner != nil && fm.corner[i] != 0 }
+
+// cornerW returns the corner members' variable for w = zeta - z_i, and
+// the sign of d/dt (the end corner's w is reflected across the other
+// edge's line).
+func (fm *family) cornerW(i int, w complex128) (complex128, float64) {
+	if fm.corner[i] > 0 {
+		return complex(-real(w), imag(w)), -1
+	}
+	return w, 1
+}
+
+// evalCorner writes the corner members of meeting i (a corner) at w =
+// zeta - z_i: F_j = Re G_j(v), G_j = v^(2j+1) (log v - i pi/2), v =
+// cornerW(w); d/dt = sign Re G'/half, d/dd = -Im G'/half.
+func (fm *family) evalCorner(i int, w complex128, f, ft, fd []float64) {
+	v, sign := fm.cornerW(i, w)
+	var lv complex128
+	if v != 0 {
+		lv = cmplx.Log(v) - complex(0, math.Pi/2)
+	}
+	v2 := v * v
+	vn := complex(1, 0) // v^(2j)
+	for j := 0; j < fm.per; j++ {
+		k := i*fm.per + j
+		if k >= len(f) {
+			return
+		}
+		n := float64(2*j + 1)
+		f[k] = real(vn * v * lv)
+		if ft != nil {
+			dg := vn * (complex(n, 0)*lv + 1)
+			if v == 0 && j == 0 {
+				dg = complex(math.NaN(), math.NaN())
+			}
+			ft[k], fd[k] = sign*real(dg)/fm.half, -imag(dg)/fm.half
+		}
+		vn *= v2
+	}
+}
+
 // xy evaluates the family at (x, y): F_k and their gradients (values
 // only when fx is nil).
 func (fm *family) xy(x, y float64, f, fx, fy []float64) {
@@ -163,6 +224,20 @@ func (fm *family) conjugate(t float64, g []float64) {
 	zeta := complex((t-fm.centre)/fm.half, 0)
 	for i, z := range fm.z {
 		w := zeta - z
+		if fm.isCorner(i) {
+			// along the edge v is real and >= 0: Im G_j = -pi/2 v^(2j+1); at
+			// the end corner F = Re K with K(w) = conj(G(-conj w)), whose
+			// imaginary part is -Im G
+			v, sign := fm.cornerW(i, w)
+			p := v
+			for j := 0; j < fm.per; j++ {
+				if k := i*fm.per + j; k < len(g) {
+					g[k] = sign * -math.Pi / 2 * real(p)
+				}
+				p *= v * v
+			}
+			continue
+		}
 		if fm.logs[i] {
 			var lw complex128
 			if w != 0 {
@@ -211,6 +286,30 @@ func (fm *family) sum(t, d float64, a []float64) (f, ft, fd float64) {
 	for i, z := range fm.z {
 		w := zeta - z
 		co := a[i*fm.per : (i+1)*fm.per]
+		if fm.isCorner(i) {
+			// G = v (log v - i pi/2) P(v^2), G' = (log v - i pi/2) Q(v^2) + P(v^2),
+			// Q = sum (2j+1) a_j v^2j
+			v, sign := fm.cornerW(i, w)
+			v2 := v * v
+			var p, q complex128
+			for j := fm.per - 1; j >= 0; j-- {
+				p = p*v2 + complex(co[j], 0)
+				q = q*v2 + complex(float64(2*j+1)*co[j], 0)
+			}
+			var lv complex128
+			if v != 0 {
+				lv = cmplx.Log(v) - complex(0, math.Pi/2)
+			}
+			g := v * lv * p
+			dg := lv*q + p
+			if v == 0 && co[0] != 0 {
+				dg = complex(math.NaN(), math.NaN())
+			}
+			f += real(g)
+			ft += sign * real(dg) / fm.half
+			fd -= imag(dg) / fm.half
+			continue
+		}
 		if fm.logs[i] {
 			// G = w log w P(w), G' = log w Q(w) + P(w), Q = sum (j+1) a_j w^j
 			var p, q complex128
@@ -259,7 +358,7 @@ func (fm *family) sum(t, d float64, a []float64) (f, ft, fd float64) {
 func (fm *family) sumFast(t, d float64, a []float64) (f, ft, fd float64) {
 	zr, zi := (t-fm.centre)/fm.half, d/fm.half
 	for i, z := range fm.z {
-		if fm.logs[i] {
+		if fm.logs[i] || fm.isCorner(i) {
 			g, gt, gd := fm.sumOne(i, t, d, a)
 			f, ft, fd = f+g, ft+gt, fd+gd
 			continue
@@ -307,6 +406,9 @@ func (fm *family) sumFast(t, d float64, a []float64) (f, ft, fd float64) {
 func (fm *family) sumOne(i int, t, d float64, a []float64) (f, ft, fd float64) {
 	sub := family{fr: fm.fr, centre: fm.centre, half: fm.half, z: fm.z[i : i+1], c: fm.c[i : i+1],
 		logs: fm.logs[i : i+1], per: fm.per}
+	if fm.corner != nil {
+		sub.corner = fm.corner[i : i+1]
+	}
 	return sub.sum(t, d, a[i*fm.per:(i+1)*fm.per])
 }
 
@@ -337,6 +439,9 @@ func sqrtC(w complex128) complex128 {
 // the corners on the edge itself are taken from above the branch cuts.
 // For G = c w^(j+1/2): Q = c w^(j+5/2) / ((j + 3/2)(j + 5/2)); for
 // G = w^(j+1) log w: Q = w^(j+3) (log w / ((j+2)(j+3)) - 1/((j+2)(j+3)^2) - 1/((j+2)^2 (j+3))).
+// For a corner's G_j = v^n (log v - i pi/2), n = 2j+1: the same with n for
+// j+1, less i pi/2 v^(n+2) / ((n+1)(n+2)); at the end corner F = Re K,
+// K(w) = conj(G(-conj w)), and Q_K(w) = conj(Q_G(-conj w)).
 func (fm *family) area(a []float64, depth, stretch float64) float64 {
 	e := depth / fm.half
 	corners := [4]complex128{complex(1, e), complex(-1, e), complex(1, 0), complex(-1, 0)}
@@ -352,6 +457,20 @@ func (fm *family) area(a []float64, depth, stretch float64) float64 {
 					continue
 				}
 				fj := float64(j)
+				if fm.isCorner(i) {
+					v, sign := fm.cornerW(i, w)
+					if v == 0 {
+						continue
+					}
+					n := float64(2*j + 1)
+					qv := cmplx.Pow(v, complex(n+2, 0)) * ((cmplx.Log(v)-complex(0, math.Pi/2))/complex((n+1)*(n+2), 0) -
+						complex(1/((n+1)*(n+2)*(n+2))+1/((n+1)*(n+1)*(n+2)), 0))
+					if sign < 0 {
+						qv = cmplx.Conj(qv)
+					}
+					q += complex(co, 0) * qv
+					continue
+				}
 				if fm.logs[i] {
 					if w == 0 {
 						continue
