@@ -453,9 +453,10 @@ func TestShareLinkRoundTrip(t *testing.T) {
 	if eval[bool](t, fresh, `window.__pwned === 1`) {
 		t.Errorf("the project title ran as markup")
 	}
-	if !strings.Contains(eval[string](t, fresh, `(document.getElementById("ew-restore-previous")||{}).textContent || ""`), "my own work") {
-		t.Errorf("no way back to the autosaved project after opening a link")
-	}
+	// the offer comes once the link's project has solved with its
+	// cross-check (which follows the first picture)
+	fresh.until(t, `((document.getElementById("ew-restore-previous")||{}).textContent || "").includes("my own work")`,
+		"a way back to the autosaved project after opening a link")
 	n := eval[int](t, fresh, `Number(document.documentElement.dataset.solved || 0)`)
 	if err := chromedp.Do(fresh.ctx, chromedp.Click(chromedp.ID("ew-restore-previous"))); err != nil {
 		t.Fatal(err)
