@@ -2,6 +2,7 @@ package solver
 
 import (
 	"math"
+	"runtime"
 	"strings"
 
 	"edgewise/solver/physics"
@@ -84,6 +85,15 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	if err != nil {
 		return nil, wrapEngineError(pr, err)
 	}
+	// The cross-check's independent solutions need only the problem and
+	// a coarse grid of the series: where there is more than one
+	// processor they are made while the output grid is summed.
+	var check *crossRun
+	checked := func() {}
+	if !opt.NoCrossCheck {
+		check = newCrossRun(pr, f, breaks)
+		checked = meanwhile(check.run)
+	}
 	n := (nx + 1) * (ny + 1)
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
@@ -95,10 +105,11 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 			out.Result.Probes[i].Unbounded = unboundedAt(pr, breaks, q.X, q.Y)
 		}
 	}
-	if !opt.NoCrossCheck {
+	checked()
+	if check != nil {
 		// before checkConverged: an independent solution that differs
 		// by more than both accuracies makes the result not converged
-		crossCheck(pr, f, &out.Result, breaks)
+		check.apply(&out.Result)
 	}
 	checkConverged(pr, &out.Result)
 	out.Result.Accuracy.Statement = out.Result.Accuracy.statement()
@@ -117,6 +128,26 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 		}
 	}
 	return out, nil
+}
+
+// meanwhile starts job on another goroutine when there is more than one
+// processor and returns the function that waits for it to end (and
+// panics with its panic, if it had one); on one processor (WebAssembly)
+// it returns job itself, to be run where the wait is.
+func meanwhile(job func()) (wait func()) {
+	if runtime.GOMAXPROCS(0) == 1 {
+		return job
+	}
+	done := make(chan any, 1)
+	go func() {
+		defer func() { done <- recover() }()
+		job()
+	}()
+	return func() {
+		if r := <-done; r != nil {
+			panic(r)
+		}
+	}
 }
 
 func grow(b []float64, n int) []float64 {
