@@ -115,6 +115,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
+	oneSolveMemory(solveNeed(p, opt))
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
 	if err != nil {
