@@ -61,6 +61,44 @@ func TestSolvePrintsResult(t *testing.T) {
 	}
 }
 
+// -csv writes over an existing file in place and cuts it to the new
+// length: whatever was there before (longer, shorter, empty), the file
+// is the one a run writes where there was none.
+func TestSolveCSVOverExistingFile(t *testing.T) {
+	dir := t.TempDir()
+	proj := filepath.Join(dir, "p.json")
+	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	write := func(path string) []byte {
+		t.Helper()
+		var out, errb bytes.Buffer
+		if st := run([]string{"-grid", "16", "-csv", path, proj}, nil, &out, &errb); st != 0 {
+			t.Fatalf("exit %d, stderr %q", st, errb.String())
+		}
+		data, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return data
+	}
+	want := write(filepath.Join(dir, "new.csv"))
+	for _, before := range [][]byte{
+		bytes.Repeat([]byte("9"), 3*len(want)), // longer: its end must go
+		[]byte("x\n"),                          // shorter
+		{},
+		append(bytes.Clone(want), "1,2,3\r\n"...), // the same text and a line more
+	} {
+		path := filepath.Join(dir, "old.csv")
+		if err := os.WriteFile(path, before, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		if got := write(path); !bytes.Equal(got, want) {
+			t.Errorf("over %d bytes: %d bytes written, want the %d of a new file", len(before), len(got), len(want))
+		}
+	}
+}
+
 func TestSolveBadInput(t *testing.T) {
 	tests := []struct {
 		name, project string
