@@ -115,7 +115,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
-	oneSolveMemory(solveNeed(p, opt))
+	defer oneSolveMemory(solveNeed(p, opt))()
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
 	if err != nil {
@@ -252,13 +252,8 @@ func writeCSV(path string, p *project.Project, out *solver.Output) error {
 	if err != nil {
 		return err
 	}
-	u := solver.Units(p.Physics)
 	w := &countingWriter{w: f}
-	err = export.FieldCSV(w, &export.Field{
-		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H, U: out.U, Ux: out.Ux, Uy: out.Uy,
-		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
-		Units: export.Units{Quantity: u.Value, Unit: u.ValueUnit, FluxUnit: u.FluxUnit, LengthUnit: u.Length},
-	})
+	err = fieldCSV(w, p, out)
 	// the old text after the new ends (a pipe or a device has none)
 	if st, serr := f.Stat(); serr == nil && st.Mode().IsRegular() && st.Size() > w.n {
 		if terr := f.Truncate(w.n); err == nil {
@@ -269,6 +264,16 @@ func writeCSV(path string, p *project.Project, out *solver.Output) error {
 		err = cerr
 	}
 	return err
+}
+
+// fieldCSV writes the field of out as CSV to w.
+func fieldCSV(w io.Writer, p *project.Project, out *solver.Output) error {
+	u := solver.Units(p.Physics)
+	return export.FieldCSV(w, &export.Field{
+		Nx: out.Nx, Ny: out.Ny, W: out.W, H: out.H, U: out.U, Ux: out.Ux, Uy: out.Uy,
+		Kx: p.Conductivity.X, Ky: p.Conductivity.Y,
+		Units: export.Units{Quantity: u.Value, Unit: u.ValueUnit, FluxUnit: u.FluxUnit, LengthUnit: u.Length},
+	})
 }
 
 // countingWriter counts the bytes written through it.

@@ -9,7 +9,8 @@ import (
 
 // oneSolveMemory readies the process's memory for the one solve of a run
 // (not a study, which solves many times): about need bytes of it live at
-// once (see solveNeed).
+// once (see solveNeed). The returned function puts the collector's
+// settings back (for the tests, which run the command in one process).
 //
 // The collector is switched off below a limit of several times that: a
 // run allocates little more than what it keeps, and a collection during
@@ -21,10 +22,14 @@ import (
 // Then, where the system has them, the heap is backed by large pages
 // (hugePages): on a virtual machine the first touch of every 4 KB page
 // costs 10 to 20 µs, more than the field's 15 ns a node.
-func oneSolveMemory(need int64) {
-	debug.SetGCPercent(-1)
-	debug.SetMemoryLimit(4*need + 64<<20)
+func oneSolveMemory(need int64) (restore func()) {
+	percent := debug.SetGCPercent(-1)
+	limit := debug.SetMemoryLimit(4*need + 64<<20)
 	hugePages(need)
+	return func() {
+		debug.SetGCPercent(percent)
+		debug.SetMemoryLimit(limit)
+	}
 }
 
 // solveNeed is about the most memory a solve with nx x ny output
