@@ -31,11 +31,12 @@ const benchPlate = `{"schema": "edgewise/1", "physics": "generic", "width": 2, "
 //   - csv-file: the whole command with -csv to a file written over each
 //     time, as a run again on the same file does.
 //
-// It reports the processor time too (ms-cpu/op) and the CSV's size. A
-// separate process adds its start and the first touch of its memory,
-// which repeated runs in one process do not show; the command's memory
-// settings for its one solve (oneSolveMemory) collect the whole test
-// process's garbage on every run here, more than the command has.
+// It reports the CSV's size (as MB/s); with -cpu 1 the time is that of
+// one processor. A separate process adds its start and the first touch
+// of its memory, which repeated runs in one process do not show; and the
+// command's memory settings for its one solve (oneSolveMemory) collect
+// the whole test process's garbage on every run here, more than the
+// command has.
 func BenchmarkRunner(b *testing.B) {
 	dir := b.TempDir()
 	proj := filepath.Join(dir, "plate.json")
@@ -87,12 +88,9 @@ func BenchmarkRunner(b *testing.B) {
 		for _, c := range cases {
 			b.Run(grid+"/"+c.name, func(b *testing.B) {
 				var size int64
-				cpu := processorTime()
 				for b.Loop() {
 					size = c.once()
 				}
-				cpu = processorTime() - cpu
-				b.ReportMetric(float64(cpu.Microseconds())/1000/float64(b.N), "ms-cpu/op")
 				if size > 0 {
 					b.SetBytes(size)
 				}

@@ -725,56 +725,60 @@ func (p *sinePass) row(sb *sineBuf, r int, du, ds, dt []float64) {
 	if ds != nil && (sb.dct == nil || sb.dct.Len() != M+1) {
 		sb.dct = fourier.NewDCT(M + 1)
 	}
-	fold := func(dst []float64, src []float64, scale func(i int) float64, cosine bool) {
-		clear(dst)
-		for i, v := range src {
-			if v == 0 {
-				continue
-			}
-			if scale != nil {
-				v *= scale(i)
-			}
-			nn := (i + 1) % (2 * M)
-			switch {
-			case cosine && nn > M:
-				dst[2*M-nn] += v
-			case cosine:
-				dst[nn] += v
-			case nn == 0 || nn == M:
-			case nn < M:
-				dst[nn] += v
-			default:
-				dst[2*M-nn] -= v
-			}
-		}
-	}
-	// u: sum_n a_n sin(n pi i / M) = DST-I of a_n/2.
-	fold(sb.fa, a, nil, false)
-	for k := 1; k < M; k++ {
-		sb.fa[k-1] = sb.fa[k] / 2
-	}
-	out := sb.dst.Transform(sb.fc[:M-1], sb.fa[:M-1])
-	for i := 1; i < M; i++ {
-		du[i] += out[i-1]
-	}
+	sb.addSines(du, a, M)
 	if dt != nil {
-		fold(sb.fa, b, nil, false)
-		for k := 1; k < M; k++ {
-			sb.fa[k-1] = sb.fa[k] / 2
-		}
-		out := sb.dst.Transform(sb.fc[:M-1], sb.fa[:M-1])
-		for i := 1; i < M; i++ {
-			dt[i] += out[i-1]
-		}
+		sb.addSines(dt, b, M)
 	}
 	if ds != nil {
-		fold(sb.fb, a, func(i int) float64 { return lam0 * float64(i+1) }, true)
+		// du/ds: sum_n lambda_n a_n cos(n pi i / M) = DCT-I of the
+		// folded coefficients, halved inside
+		foldSeries(sb.fb, a, M, lam0, true)
 		for k := 1; k < M; k++ {
 			sb.fb[k] /= 2
 		}
 		out := sb.dct.Transform(sb.fc[:M+1], sb.fb[:M+1])
 		for i := 0; i <= M; i++ {
 			ds[i] += out[i]
+		}
+	}
+}
+
+// addSines adds sum_n c_n sin(n pi i / M) to d at i = 1 to M-1: one
+// DST-I of the c_n/2, folded into the transform's terms.
+func (sb *sineBuf) addSines(d, c []float64, M int) {
+	foldSeries(sb.fa, c, M, 0, false)
+	for k := 1; k < M; k++ {
+		sb.fa[k-1] = sb.fa[k] / 2
+	}
+	out := sb.dst.Transform(sb.fc[:M-1], sb.fa[:M-1])
+	for i := 1; i < M; i++ {
+		d[i] += out[i-1]
+	}
+}
+
+// foldSeries folds the coefficients src (of terms n = 1, 2, ...) into
+// dst (M+1 long) by the period 2M of sin(n pi i / M) (or of the cosine),
+// each multiplied by lam n first when lam is not 0.
+func foldSeries(dst, src []float64, M int, lam float64, cosine bool) {
+	clear(dst)
+	for i, v := range src {
+		if v == 0 {
+			continue
+		}
+		if lam != 0 {
+			v *= lam * float64(i+1)
+		}
+		nn := (i + 1) % (2 * M)
+		switch {
+		case cosine && nn > M:
+			dst[2*M-nn] += v
+		case cosine:
+			dst[nn] += v
+		case nn == 0 || nn == M:
+		case nn < M:
+			dst[nn] += v
+		default:
+			dst[2*M-nn] -= v
 		}
 	}
 }

@@ -14,6 +14,19 @@ import (
 // for u, 1e-6 relative to the largest gradient for the derivatives (the
 // per-row truncation keeps terms by their size in u).
 func TestGridMatchesAt(t *testing.T) {
+	defer func(m int) { maxTab = m }(maxTab)
+	for name, p := range gridCases() {
+		for _, mt := range []int{512, 3} { // tables, then mostly rotations
+			maxTab = mt
+			testGridAgainstAt(t, name, p)
+		}
+	}
+}
+
+// gridCases are the grid tests' problems: value edges only, wide (the
+// sine pairs) and tall with a jump at every corner, and mixed kinds with
+// a source (the separable products).
+func gridCases() map[string]*problem.Problem {
 	cases := map[string]*problem.Problem{
 		"values with jumps":              valueBox(2, 1, 0, 50, 100, 0),
 		"values, all corners jump, tall": valueBox(0.5, 1.7, 10, 50, 100, -3),
@@ -24,13 +37,7 @@ func TestGridMatchesAt(t *testing.T) {
 	mixed.Edges[problem.Top] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { return s * s }}
 	mixed.Edges[problem.Left] = problem.Edge{Kind: problem.Value, F: problem.Const(5)}
 	cases["mixed"] = mixed
-	defer func(m int) { maxTab = m }(maxTab)
-	for name, p := range cases {
-		for _, mt := range []int{512, 3} { // tables, then mostly rotations
-			maxTab = mt
-			testGridAgainstAt(t, name, p)
-		}
-	}
+	return cases
 }
 
 func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
@@ -79,18 +86,8 @@ func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
 // pairs both ways, with rows summed by transforms near the loaded edges
 // and from the tables farther in; the pieces; the separable products).
 func TestGridSameOnAnyWorkers(t *testing.T) {
-	cases := map[string]*problem.Problem{
-		"values with jumps, wide":        valueBox(2, 1, 0, 50, 100, 0),
-		"values, all corners jump, tall": valueBox(0.5, 1.7, 10, 50, 100, -3),
-	}
-	mixed := &problem.Problem{W: 1, H: 1.5, Kx: 3, Ky: 1, Source: 2}
-	mixed.Edges[problem.Bottom] = problem.Edge{Kind: problem.Value, F: func(s float64) float64 { return 10 * math.Sin(3*s) }}
-	mixed.Edges[problem.Right] = problem.Edge{Kind: problem.Convection, Hc: 4, F: problem.Const(20)}
-	mixed.Edges[problem.Top] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { return s * s }}
-	mixed.Edges[problem.Left] = problem.Edge{Kind: problem.Value, F: problem.Const(5)}
-	cases["mixed"] = mixed
 	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
-	for name, p := range cases {
+	for name, p := range gridCases() {
 		s := mustSolve(t, p, Options{})
 		for _, sz := range [][2]int{{256, 128}, {77, 201}, {3, 2}} {
 			nx, ny := sz[0], sz[1]

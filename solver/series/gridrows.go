@@ -14,9 +14,14 @@ const gridChunk = 8
 // with their two derivatives 400 KB, within a processor's own cache.
 const columnChunk = 32
 
-// rowWorkers returns the number of workers forRows uses for rows rows.
-func rowWorkers(rows int) int {
-	return max(1, min(runtime.GOMAXPROCS(0), (rows+gridChunk-1)/gridChunk))
+// rowWorkers returns the number of workers forRows uses for rows rows
+// (forColumns uses no more).
+func rowWorkers(rows int) int { return chunkWorkers(rows, gridChunk) }
+
+// chunkWorkers returns the number of workers forChunks uses for n
+// indices in runs of size.
+func chunkWorkers(n, size int) int {
+	return max(1, min(runtime.GOMAXPROCS(0), (n+size-1)/size))
 }
 
 // forRows calls chunk(r0, r1, worker) for consecutive runs of at most
@@ -25,64 +30,50 @@ func rowWorkers(rows int) int {
 // (below rowWorkers(rows)) tells whose buffers to use. Chunks must write
 // disjoint nodes.
 func forRows(rows int, chunk func(r0, r1, worker int)) {
-	workers := rowWorkers(rows)
-	if workers == 1 {
-		for r := 0; r < rows; r += gridChunk {
-			chunk(r, min(r+gridChunk, rows), 0)
-		}
-		return
-	}
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for k := 0; k < workers; k++ {
-		wg.Add(1)
-		go func(worker int) {
-			defer wg.Done()
-			for {
-				r0 := int(next.Add(gridChunk)) - gridChunk
-				if r0 >= rows {
-					return
-				}
-				chunk(r0, min(r0+gridChunk, rows), worker)
-			}
-		}(k)
-	}
-	wg.Wait()
+	forChunks(rows, gridChunk, false, chunk)
 }
 
-// forColumns is forRows for chunks of grid columns, whose nodes lie
-// next to the neighbouring chunks' in every grid row: the workers take
-// the chunks from as many parts of the range as there are workers in
-// turn, so that no two work on neighbouring chunks (and write the same
-// cache lines) but where two parts meet.
+// forColumns is forRows for runs of columnChunk grid columns, whose
+// nodes lie next to the neighbouring runs' in every grid row: the
+// workers take the runs from as many parts of the range as there are
+// workers in turn, so that no two work on neighbouring runs (and write
+// the same cache lines) but where two parts meet.
 func forColumns(cols int, chunk func(c0, c1, worker int)) {
-	workers := max(1, min(runtime.GOMAXPROCS(0), (cols+columnChunk-1)/columnChunk))
-	if workers == 1 {
-		for c := 0; c < cols; c += columnChunk {
-			chunk(c, min(c+columnChunk, cols), 0)
+	forChunks(cols, columnChunk, true, chunk)
+}
+
+// forChunks calls chunk for the runs of size indices covering [0, n)
+// on up to GOMAXPROCS workers, taking them in order or, with spread,
+// from one part of the range after another.
+func forChunks(n, size int, spread bool, chunk func(i0, i1, worker int)) {
+	chunks, workers := (n+size-1)/size, chunkWorkers(n, size)
+	parts := 1
+	if spread {
+		parts = workers
+	}
+	per := (chunks + parts - 1) / parts // runs in a part
+	var next atomic.Int64
+	work := func(worker int) {
+		for {
+			k := int(next.Add(1)) - 1
+			if k >= per*parts {
+				return
+			}
+			if c := (k%parts)*per + k/parts; c < chunks { // the k-th run taken
+				chunk(c*size, min(c*size+size, n), worker)
+			}
 		}
+	}
+	if workers == 1 {
+		work(0)
 		return
 	}
-	chunks := (cols + columnChunk - 1) / columnChunk
-	per := (chunks + workers - 1) / workers // chunks in a part
-	var next atomic.Int64
 	var wg sync.WaitGroup
 	for k := 0; k < workers; k++ {
 		wg.Add(1)
 		go func(worker int) {
 			defer wg.Done()
-			for {
-				n := int(next.Add(1)) - 1
-				if n >= per*workers {
-					return
-				}
-				c := (n%workers)*per + n/workers // the n-th chunk taken
-				if c >= chunks {
-					continue
-				}
-				c0 := c * columnChunk
-				chunk(c0, min(c0+columnChunk, cols), worker)
-			}
+			work(worker)
 		}(k)
 	}
 	wg.Wait()
