@@ -35,33 +35,32 @@ func forRows(rows int, chunk func(r0, r1, worker int)) {
 
 // forColumns is forRows for runs of columnChunk grid columns, whose
 // nodes lie next to the neighbouring runs' in every grid row: the
-// workers take the runs from as many parts of the range as there are
-// workers in turn, so that no two work on neighbouring runs (and write
-// the same cache lines) but where two parts meet.
+// workers take the runs from the two ends of the range in turn, so that
+// no two work on neighbouring runs (and write the same cache lines) but
+// where the ends meet; the columns next to the loaded edges, which keep
+// the most terms, come first.
 func forColumns(cols int, chunk func(c0, c1, worker int)) {
 	forChunks(cols, columnChunk, true, chunk)
 }
 
 // forChunks calls chunk for the runs of size indices covering [0, n)
-// on up to GOMAXPROCS workers, taking them in order or, with spread,
-// from one part of the range after another.
-func forChunks(n, size int, spread bool, chunk func(i0, i1, worker int)) {
+// on up to GOMAXPROCS workers, taking them in order or, fromEnds, from
+// the two ends in turn.
+func forChunks(n, size int, fromEnds bool, chunk func(i0, i1, worker int)) {
 	chunks, workers := (n+size-1)/size, chunkWorkers(n, size)
-	parts := 1
-	if spread {
-		parts = workers
-	}
-	per := (chunks + parts - 1) / parts // runs in a part
 	var next atomic.Int64
 	work := func(worker int) {
 		for {
-			k := int(next.Add(1)) - 1
-			if k >= per*parts {
+			c := int(next.Add(1)) - 1 // the c-th run taken
+			if c >= chunks {
 				return
 			}
-			if c := (k%parts)*per + k/parts; c < chunks { // the k-th run taken
-				chunk(c*size, min(c*size+size, n), worker)
+			if fromEnds && c%2 == 1 {
+				c = chunks - 1 - c/2
+			} else if fromEnds {
+				c /= 2
 			}
+			chunk(c*size, min(c*size+size, n), worker)
 		}
 	}
 	if workers == 1 {
