@@ -115,7 +115,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) (status int) 
 		fmt.Fprintln(stderr, project.Shorten(err.Error()))
 		return 1
 	}
-	defer oneSolveMemory(solveNeed(p, opt))()
+	defer oneSolveMemory(p, opt)()
 	var s solver.Solver
 	out, err := s.Solve(p, opt)
 	if err != nil {
