@@ -51,6 +51,7 @@ func stretchMean(f func(float64) float64, a, b float64, cuts []float64) float64 
 		}
 	}
 	pts = append(pts, b)
+	meanX, meanW := meanRule()
 	sum := 0.0
 	for k := 0; k+1 < len(pts); k++ {
 		lo, hi := pts[k], pts[k+1]
@@ -63,11 +64,13 @@ func stretchMean(f func(float64) float64, a, b float64, cuts []float64) float64 
 	return sum / (b - a)
 }
 
-var meanX, meanW = func() ([]float64, []float64) {
-	x, w := make([]float64, 48), make([]float64, 48)
+// meanRule is stretchMean's 48-node Gauss-Legendre rule, made on first
+// use rather than when every program that links the engine starts.
+var meanRule = sync.OnceValues(func() (x, w []float64) {
+	x, w = make([]float64, 48), make([]float64, 48)
 	gauss.Legendre(x, w, -1, 1)
 	return x, w
-}()
+})
 
 // mixedField is the solution of a problem with mixed edges: the inner
 // problem's series plus the family members.
