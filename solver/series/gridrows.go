@@ -35,10 +35,11 @@ func forRows(rows int, chunk func(r0, r1, worker int)) {
 
 // forColumns is forRows for runs of columnChunk grid columns, whose
 // nodes lie next to the neighbouring runs' in every grid row: the
-// workers take the runs from the two ends of the range in turn, so that
-// no two work on neighbouring runs (and write the same cache lines) but
-// where the ends meet; the columns next to the loaded edges, which keep
-// the most terms, come first.
+// workers take the runs from the two ends of the range in turn, the
+// columns next to the loaded edges, which keep the most terms, first,
+// and two workers seldom write the same cache lines (where the ends
+// meet, and the first and last runs where a grid row ends and the next
+// begins).
 func forColumns(cols int, chunk func(c0, c1, worker int)) {
 	forChunks(cols, columnChunk, true, chunk)
 }
