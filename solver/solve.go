@@ -2,7 +2,6 @@ package solver
 
 import (
 	"math"
-	"runtime"
 	"strings"
 
 	"edgewise/solver/physics"
@@ -128,26 +127,6 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 		}
 	}
 	return out, nil
-}
-
-// meanwhile starts job on another goroutine when there is more than one
-// processor and returns the function that waits for it to end (and
-// panics with its panic, if it had one); on one processor (WebAssembly)
-// it returns job itself, to be run where the wait is.
-func meanwhile(job func()) (wait func()) {
-	if runtime.GOMAXPROCS(0) == 1 {
-		return job
-	}
-	done := make(chan any, 1)
-	go func() {
-		defer func() { done <- recover() }()
-		job()
-	}()
-	return func() {
-		if r := <-done; r != nil {
-			panic(r)
-		}
-	}
 }
 
 func grow(b []float64, n int) []float64 {
