@@ -49,6 +49,29 @@ const confirmWithin = 100
 // says how far the check itself goes (Accuracy.CrosscheckResolution) and
 // whether it confirms the series' estimate (Accuracy.CrosscheckVerdict).
 func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) {
+	c := newCrossRun(pr, f, breaks)
+	c.run()
+	c.apply(r)
+}
+
+// A crossRun is one cross-check in three steps: newCrossRun takes from
+// the series what the check compares with (a coarse grid of it, which
+// must not run at the same time as another Grid of the same field); run
+// makes the independent solutions, reading nothing but the problem and
+// its own data, so that it may run at the same time as the series' own
+// output grid; apply writes the outcome into the result.
+type crossRun struct {
+	pq     *problem.Problem // the problem the check solves
+	nx, ny int
+	sum    []float64 // the series' values on the check's grid
+	keep   []bool    // the nodes compared
+	est    float64   // the series' error estimate
+	breaks []series.Break
+	best   check
+	reason string // why no check could be made, or ""
+}
+
+func newCrossRun(pr *problem.Problem, f field, breaks []series.Break) *crossRun {
 	nx, ny := problem.Proportional(pr.W, pr.H, CrossCheckGrid)
 	// A weakly exchanging problem is checked through the flux problem its
 	// varying part solves (nearly singular for the grid as it is).
@@ -63,8 +86,12 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 	for k := range sum {
 		sum[k] -= shift
 	}
-	keep := compared(pr, nx, ny, breaks)
-	est := f.ErrorEstimate()
+	return &crossRun{pq: pq, nx: nx, ny: ny, sum: sum, keep: compared(pr, nx, ny, breaks), est: f.ErrorEstimate(), breaks: breaks}
+}
+
+// run makes the independent solutions and keeps the best check.
+func (c *crossRun) run() {
+	pq, nx, ny, sum, keep, est, breaks := c.pq, c.nx, c.ny, c.sum, c.keep, c.est, c.breaks
 	best, err := spectralCheck(pq, spectralNodes, nx, ny, sum, keep, breaks)
 	confirms := func() bool { return err == nil && verdict(best.diff, best.resolution, est) == VerdictConfirms }
 	if !confirms() && err == nil {
@@ -79,12 +106,22 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 		fd, fdErr := fdCheck(pq, nx, ny, sum, keep)
 		switch {
 		case fdErr != nil && err != nil:
-			r.Accuracy.CrosscheckReason = fdErr.Error()
+			c.reason = fdErr.Error()
 			return
 		case fdErr == nil && (err != nil || fd.resolution < best.resolution):
 			best = fd
 		}
 	}
+	c.best = best
+}
+
+// apply writes the check into r.
+func (c *crossRun) apply(r *Result) {
+	if c.reason != "" {
+		r.Accuracy.CrosscheckReason = c.reason
+		return
+	}
+	best, est := c.best, c.est
 	r.Accuracy.Crosscheck = &best.diff
 	r.Accuracy.CrosscheckResolution = &best.resolution
 	r.Accuracy.CrosscheckMethod = best.name
@@ -100,7 +137,7 @@ func crossCheck(pr *problem.Problem, f field, r *Result, breaks []series.Break) 
 			Text: fmt.Sprintf("the result is not reliable: an independent solution (%s) differs from the series by %.3g, "+
 				"more than its own resolution %.3g and the series' estimate %.3g can explain", best.method, best.diff, best.resolution, est)})
 	}
-	for _, b := range breaks {
+	for _, b := range c.breaks {
 		if b.Class == series.PartMeet {
 			// the grid's error there is of first order and spreads: the
 			// difference then measures the grid, not the series

@@ -84,6 +84,15 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 	if err != nil {
 		return nil, wrapEngineError(pr, err)
 	}
+	// The cross-check's independent solutions need only the problem and
+	// a coarse grid of the series: where there is more than one
+	// processor they are made while the output grid is summed.
+	var check *crossRun
+	checked := func() {}
+	if !opt.NoCrossCheck {
+		check = newCrossRun(pr, f, breaks)
+		checked = meanwhile(check.run)
+	}
 	n := (nx + 1) * (ny + 1)
 	s.u, s.ux, s.uy = grow(s.u, n), grow(s.ux, n), grow(s.uy, n)
 	f.Grid(nx, ny, s.u, s.ux, s.uy)
@@ -95,10 +104,11 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 			out.Result.Probes[i].Unbounded = unboundedAt(pr, breaks, q.X, q.Y)
 		}
 	}
-	if !opt.NoCrossCheck {
+	checked()
+	if check != nil {
 		// before checkConverged: an independent solution that differs
 		// by more than both accuracies makes the result not converged
-		crossCheck(pr, f, &out.Result, breaks)
+		check.apply(&out.Result)
 	}
 	checkConverged(pr, &out.Result)
 	out.Result.Accuracy.Statement = out.Result.Accuracy.statement()

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"fmt"
 	"io"
 	"math"
 	"os"
@@ -12,6 +13,8 @@ import (
 	"strings"
 	"testing"
 
+	"edgewise/solver"
+	"edgewise/solver/problem"
 	"edgewise/solver/project"
 )
 
@@ -58,6 +61,44 @@ func TestSolvePrintsResult(t *testing.T) {
 	}
 	if len(rows) != 1+9*9 || !strings.HasPrefix(strings.Join(rows[0], ","), "x [m],y [m],temperature [°C]") {
 		t.Errorf("CSV has %d rows, header %q", len(rows), rows[0])
+	}
+}
+
+// -csv writes over an existing file in place and cuts it to the new
+// length: whatever was there before (longer, shorter, empty), the file
+// is the one a run writes where there was none.
+func TestSolveCSVOverExistingFile(t *testing.T) {
+	dir := t.TempDir()
+	proj := filepath.Join(dir, "p.json")
+	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	write := func(path string) []byte {
+		t.Helper()
+		var out, errb bytes.Buffer
+		if st := run([]string{"-grid", "16", "-csv", path, proj}, nil, &out, &errb); st != 0 {
+			t.Fatalf("exit %d, stderr %q", st, errb.String())
+		}
+		data, err := os.ReadFile(path)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return data
+	}
+	want := write(filepath.Join(dir, "new.csv"))
+	for _, before := range [][]byte{
+		bytes.Repeat([]byte("9"), 3*len(want)), // longer: its end must go
+		[]byte("x\n"),                          // shorter
+		{},
+		append(bytes.Clone(want), "1,2,3\r\n"...), // the same text and a line more
+	} {
+		path := filepath.Join(dir, "old.csv")
+		if err := os.WriteFile(path, before, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		if got := write(path); !bytes.Equal(got, want) {
+			t.Errorf("over %d bytes: %d bytes written, want the %d of a new file", len(before), len(got), len(want))
+		}
 	}
 }
 
@@ -246,5 +287,93 @@ func TestCPUProfile(t *testing.T) {
 	if st := run([]string{"-cpuprofile", filepath.Join(dir, "no", "such", "dir", "x"), proj}, nil, &out, &errb); st != 1 ||
 		!strings.HasPrefix(errb.String(), "-cpuprofile: ") || strings.Count(errb.String(), "\n") != 1 {
 		t.Errorf("bad path: exit %d, stderr %q", st, errb.String())
+	}
+}
+
+// benchPlate is the runner's benchmark case: a 2 x 1 plate with a value on
+// every edge, 1 on the top and 0 on the others (so the value jumps at the
+// top corners), unit conductivity.
+const benchPlate = `{"schema": "edgewise/1", "physics": "generic", "width": 2, "height": 1, "conductivity": 1,
+ "edges": {"bottom": {"kind": "value", "expr": "0"}, "right": {"kind": "value", "expr": "0"},
+           "top": {"kind": "value", "expr": "1"}, "left": {"kind": "value", "expr": "0"}}}`
+
+// BenchmarkRunner is the runner's path for one solve, -grid N on the
+// plate (N x N/2 intervals; 512 is the 513 x 257 nodes of the README's
+// whole-process figure), in this process:
+//
+//   - solve: the command without -csv (read, decode, solve with the
+//     cross-check, the result JSON to a discarding writer);
+//   - csv-discard: the solve and the field CSV to a writer that only
+//     counts, so the figure is the solve and the formatting alone;
+//   - csv-file: the whole command with -csv to a file written over each
+//     time, as a run again on the same file does.
+//
+// It reports the CSV's size (as MB/s); with -cpu 1 the time is that of
+// one processor. The command's memory settings for its one solve
+// (oneSolveMemory) are left out: their collection would take the whole
+// test process's garbage on every run, and what they save, the first
+// touch of fresh memory, repeated runs in one process do not have. A
+// separate process adds both, and its start.
+func BenchmarkRunner(b *testing.B) {
+	defer func(prepare func(*project.Project, solver.Options) func()) { prepareMemory = prepare }(prepareMemory)
+	prepareMemory = func(*project.Project, solver.Options) func() { return func() {} }
+	dir := b.TempDir()
+	proj := filepath.Join(dir, "plate.json")
+	if err := os.WriteFile(proj, []byte(benchPlate), 0o644); err != nil {
+		b.Fatal(err)
+	}
+	p, err := project.Decode([]byte(benchPlate))
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, n := range []int{128, 512, 1024} {
+		grid := fmt.Sprint(n)
+		csvPath := filepath.Join(dir, "field.csv")
+		cases := []struct {
+			name string
+			once func() int64 // one run; the CSV's size
+		}{
+			{"solve", func() int64 {
+				if st := run([]string{"-grid", grid, proj}, nil, io.Discard, io.Discard); st != 0 {
+					b.Fatalf("exit %d", st)
+				}
+				return 0
+			}},
+			{"csv-discard", func() int64 {
+				opt := solver.Options{}
+				opt.Nx, opt.Ny = problem.Proportional(p.Width, p.Height, n)
+				var s solver.Solver
+				out, err := s.Solve(p, opt)
+				if err != nil {
+					b.Fatal(err)
+				}
+				w := &countingWriter{w: io.Discard}
+				if err := fieldCSV(w, p, out); err != nil {
+					b.Fatal(err)
+				}
+				return w.n
+			}},
+			{"csv-file", func() int64 {
+				if st := run([]string{"-grid", grid, "-csv", csvPath, proj}, nil, io.Discard, io.Discard); st != 0 {
+					b.Fatalf("exit %d", st)
+				}
+				st, err := os.Stat(csvPath)
+				if err != nil {
+					b.Fatal(err)
+				}
+				return st.Size()
+			}},
+		}
+		for _, c := range cases {
+			b.Run(grid+"/"+c.name, func(b *testing.B) {
+				var size int64
+				for b.Loop() {
+					size = c.once()
+				}
+				if size > 0 {
+					b.SetBytes(size)
+				}
+			})
+		}
 	}
 }

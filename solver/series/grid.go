@@ -21,13 +21,19 @@ type gridWork struct {
 	sinTab     []float64    // sin(n pi i / M), n < tabTerms
 	cosTab     []float64
 	tabM       int
-	col        []float64
-	xtab, ctab []float64 // X_k and its cosine partner on the nodes (separable path)
-	a, b, c    []float64 // per-row coefficient buffers
+	xtab, ctab []float64  // X_k and its cosine partner on the nodes (separable path)
+	bufs       []*rowBuf  // one per worker of gridRows
+	sines      []*sineBuf // one per worker of gridSinePair
+}
+
+// sineBuf is one worker's buffers for gridSinePair.
+type sineBuf struct {
+	a, b       []float64 // a row's coefficients and their t-derivatives
+	col        []float64 // a row's sum from the tables
+	cu, cs, ct []float64 // a chunk of grid columns as rows: u and its derivatives along and across
 	fa, fb, fc []float64 // folded transform inputs
 	dst        *fourier.DST
 	dct        *fourier.DCT
-	bufs       []*rowBuf // one per worker of gridRows
 }
 
 func grow(s []float64, n int) []float64 {
@@ -468,44 +474,66 @@ func (s *Solution) gridPiecesFast(nx, ny int, u, ux, uy []float64, poly [6]compl
 			bi[c] = imag(cr.b0)
 		}
 	}
-	binom := [6][6]float64{{1}, {1, 1}, {1, 2, 1}, {1, 3, 3, 1}, {1, 4, 6, 4, 1}, {1, 5, 10, 10, 5, 1}}
-	q := s.quad
-	w := s.gw
-	S := 1 / real(prho) // prho is real for the smooth pieces
-	for j := 0; j <= ny; j++ {
-		y := float64(j) * hy
-		eta := complex(0, (y-imag(pz0))/S)
-		// Re(sum_n c_n (X + i eta)^n) = sum_k X^k Re(sum_n c_n C(n,k) (i eta)^(n-k))
-		var co [6]float64
-		for k := 0; k <= 5; k++ {
-			var acc complex128
-			pw := complex(1, 0)
-			for n := k; n <= 5; n++ {
-				acc += poly[n] * complex(binom[n][k], 0) * pw
-				pw *= eta
-			}
-			co[k] = real(acc)
+	fp := &fastPieces{s: s, nx: nx, ny: ny, hx: hx, hy: hy, S: 1 / real(prho), // prho is real for the smooth pieces
+		poly: poly, pz0: pz0, prho: prho, corner: corner, bi: bi, u: u, ux: ux, uy: uy}
+	// Rows are independent: shared among the workers.
+	forRows(ny+1, func(r0, r1, _ int) {
+		for j := r0; j < r1; j++ {
+			fp.row(j)
 		}
-		cy := q.C*y*y + q.D*y + q.E
-		row := u[j*(nx+1) : (j+1)*(nx+1)]
-		for i := range row {
-			x := float64(i) * hx
-			X := (x - real(pz0)) / S
-			row[i] += q.A*x*x + q.B*x + cy + ((((co[5]*X+co[4])*X+co[3])*X+co[2])*X+co[1])*X + co[0]
+	})
+}
+
+// fastPieces is gridPiecesFast's summation on the grid.
+type fastPieces struct {
+	s         *Solution
+	nx, ny    int
+	hx, hy, S float64
+	poly      [6]complex128
+	pz0, prho complex128
+	corner    *[4]cornerSum
+	bi        [4]float64 // the corners' angle functions
+	u, ux, uy []float64
+}
+
+// row adds row j: the polynomial and the quadratic in u, the corners'
+// angle functions from the table of angles, and the gradient
+// (fastGradRow).
+func (fp *fastPieces) row(j int) {
+	s, nx, ny, hx, S, poly, pz0, bi, u := fp.s, fp.nx, fp.ny, fp.hx, fp.S, &fp.poly, fp.pz0, &fp.bi, fp.u
+	q, w := s.quad, s.gw
+	y := float64(j) * fp.hy
+	eta := complex(0, (y-imag(pz0))/S)
+	// Re(sum_n c_n (X + i eta)^n) = sum_k X^k Re(sum_n c_n C(n,k) (i eta)^(n-k))
+	var co [6]float64
+	for k := 0; k <= 5; k++ {
+		var acc complex128
+		pw := complex(1, 0)
+		for n := k; n <= 5; n++ {
+			acc += poly[n] * complex(binom6[n][k], 0) * pw
+			pw *= eta
 		}
-		if ux != nil || uy != nil {
-			s.fastGradRow(j, nx, hx, y, ux, uy, poly, pz0, prho, corner)
-		}
-		if bi == [4]float64{} {
-			continue
-		}
-		// u -= b0_imag * theta_c for each corner (see cornerSum).
-		t0 := w.theta[j*(nx+1) : (j+1)*(nx+1)]
-		t3 := w.theta[(ny-j)*(nx+1) : (ny-j+1)*(nx+1)]
-		cst := -(bi[1] + bi[3]) * math.Pi / 2
-		for i := range row {
-			row[i] += cst - bi[0]*t0[i] + bi[1]*t0[nx-i] - bi[2]*t3[nx-i] + bi[3]*t3[i]
-		}
+		co[k] = real(acc)
+	}
+	cy := q.C*y*y + q.D*y + q.E
+	row := u[j*(nx+1) : (j+1)*(nx+1)]
+	for i := range row {
+		x := float64(i) * hx
+		X := (x - real(pz0)) / S
+		row[i] += q.A*x*x + q.B*x + cy + ((((co[5]*X+co[4])*X+co[3])*X+co[2])*X+co[1])*X + co[0]
+	}
+	if fp.ux != nil || fp.uy != nil {
+		s.fastGradRow(j, nx, hx, y, fp.ux, fp.uy, fp.poly, pz0, fp.prho, fp.corner)
+	}
+	if *bi == [4]float64{} {
+		return
+	}
+	// u -= b0_imag * theta_c for each corner (see cornerSum).
+	t0 := w.theta[j*(nx+1) : (j+1)*(nx+1)]
+	t3 := w.theta[(ny-j)*(nx+1) : (ny-j+1)*(nx+1)]
+	cst := -(bi[1] + bi[3]) * math.Pi / 2
+	for i := range row {
+		row[i] += cst - bi[0]*t0[i] + bi[1]*t0[nx-i] - bi[2]*t3[nx-i] + bi[3]*t3[i]
 	}
 }
 
@@ -578,7 +606,8 @@ func (sp *sub) rowY(t float64, n int, a, b []float64, add bool, sign float64) {
 
 // gridSinePair sums two opposite sub-problems that share the sine basis
 // along s (e1 loaded at t = 0 of the row coordinate, e2 at the far side)
-// by one DST per row.
+// by one DST per row, the rows shared among the workers (grid columns,
+// for the left and right pair, by forColumns).
 func (s *Solution) gridSinePair(e1, e2 problem.Side, nx, ny int, cut float64, u, ux, uy []float64) {
 	m := s.m
 	s1, s2 := s.subs[e1], s.subs[e2]
@@ -589,17 +618,6 @@ func (s *Solution) gridSinePair(e1, e2 problem.Side, nx, ny int, cut float64, u,
 		M, rows, D = ny, nx, m.W
 	}
 	w := s.gw
-	nmax := max(s1.n, s2.n)
-	w.a, w.b = grow(w.a, nmax), grow(w.b, nmax)
-	w.fa, w.fb, w.fc = grow(w.fa, M+1), grow(w.fb, M+1), grow(w.fc, M+1)
-	if w.dst == nil || w.dst.Len() != M-1 {
-		w.dst = fourier.NewDST(M - 1)
-	}
-	if (vert && uy != nil) || (!vert && ux != nil) {
-		if w.dct == nil || w.dct.Len() != M+1 {
-			w.dct = fourier.NewDCT(M + 1)
-		}
-	}
 	if w.tabM != M {
 		w.sinTab = grow(w.sinTab, tabTerms*(M+1))
 		w.cosTab = grow(w.cosTab, tabTerms*(M+1))
@@ -613,84 +631,178 @@ func (s *Solution) gridSinePair(e1, e2 problem.Side, nx, ny int, cut float64, u,
 		}
 		w.tabM = M
 	}
-	needS := (vert && uy != nil) || (!vert && ux != nil)
-	needT := (vert && ux != nil) || (!vert && uy != nil)
-	lam0 := math.Pi / s1.L
-	for r := 0; r <= rows; r++ {
-		t1 := D * float64(r) / float64(rows)
-		t2 := D * float64(rows-r) / float64(rows)
-		n1, n2 := s1.rowTerms(t1, cut), s2.rowTerms(t2, cut)
-		n := max(n1, n2)
-		if n == 0 {
-			continue
+	sp := &sinePass{s: s, s1: s1, s2: s2, M: M, rows: rows, D: D, cut: cut, lam0: math.Pi / s1.L}
+	gs, gt := ux, uy // the derivatives along s and across
+	if vert {
+		gs, gt = uy, ux
+	}
+	nmax := max(s1.n, s2.n)
+	for len(w.sines) < rowWorkers(rows+1) {
+		w.sines = append(w.sines, new(sineBuf))
+	}
+	sines := w.sines
+	// Rows are independent: each worker sums its own with its own buffers
+	// and transforms, every node getting its additions in the same order.
+	each := forRows
+	if vert {
+		each = forColumns
+	}
+	each(rows+1, func(r0, r1, worker int) {
+		sb := sines[worker]
+		sb.a, sb.b = grow(sb.a, nmax), grow(sb.b, nmax)
+		sb.fa, sb.fb, sb.fc = grow(sb.fa, M+1), grow(sb.fb, M+1), grow(sb.fc, M+1)
+		if !vert {
+			for r := r0; r < r1; r++ {
+				g := r * (nx + 1)
+				sp.row(sb, r, u[g:g+M+1], rowOf(gs, g, M+1), rowOf(gt, g, M+1))
+			}
+			return
 		}
-		a, b := w.a[:n], w.b[:n]
-		clear(a)
-		clear(b)
-		s1.rowY(t1, n1, a, b, true, 1)
-		s2.rowY(t2, n2, a, b, true, -1)
-		if n <= tabTerms {
-			s.sineRow(vert, nx, M, r, a, b, lam0, u, ux, uy)
-			continue
-		}
-		fold := func(dst []float64, src []float64, scale func(i int) float64, cosine bool) {
-			clear(dst)
-			for i, v := range src {
-				if v == 0 {
-					continue
-				}
-				if scale != nil {
-					v *= scale(i)
-				}
-				nn := (i + 1) % (2 * M)
-				switch {
-				case cosine && nn > M:
-					dst[2*M-nn] += v
-				case cosine:
-					dst[nn] += v
-				case nn == 0 || nn == M:
-				case nn < M:
-					dst[nn] += v
-				default:
-					dst[2*M-nn] -= v
-				}
+		// A row is a grid column: the chunk's columns are copied out
+		// next to each other, summed as rows and copied back, so that
+		// the workers do not write the same cache lines term after term.
+		nr := r1 - r0
+		sb.cu, sb.cs, sb.ct = grow(sb.cu, nr*(M+1)), grow(sb.cs, nr*(M+1)), grow(sb.ct, nr*(M+1))
+		cols := [3][2][]float64{{u, sb.cu}, {gs, sb.cs}, {gt, sb.ct}}
+		for _, c := range cols {
+			if c[0] != nil {
+				transpose(c[1], c[0], nx, M, r0, r1, false)
 			}
 		}
-		// u: sum_n a_n sin(n pi i / M) = DST-I of a_n/2.
-		fold(w.fa, a, nil, false)
+		cs, ct := sb.cs, sb.ct
+		if gs == nil {
+			cs = nil
+		}
+		if gt == nil {
+			ct = nil
+		}
+		for r := r0; r < r1; r++ {
+			o := (r - r0) * (M + 1)
+			sp.row(sb, r, sb.cu[o:o+M+1], rowOf(cs, o, M+1), rowOf(ct, o, M+1))
+		}
+		for _, c := range cols {
+			if c[0] != nil {
+				transpose(c[1], c[0], nx, M, r0, r1, true)
+			}
+		}
+	})
+}
+
+// sinePass is one sine pair's summation on the grid (gridSinePair): s1
+// loaded at row 0, s2 at row rows, D apart, M intervals along each row.
+type sinePass struct {
+	s            *Solution
+	s1, s2       *sub
+	M, rows      int
+	D, cut, lam0 float64
+}
+
+// row adds row r of the pair to du and, when not nil, its derivatives
+// along the row and across to ds and dt (M+1 nodes each), with the
+// worker's buffers sb: from the tables when the row keeps few terms,
+// else by one transform for each.
+func (p *sinePass) row(sb *sineBuf, r int, du, ds, dt []float64) {
+	s1, s2, M, D, cut, lam0 := p.s1, p.s2, p.M, p.D, p.cut, p.lam0
+	t1 := D * float64(r) / float64(p.rows)
+	t2 := D * float64(p.rows-r) / float64(p.rows)
+	n1, n2 := s1.rowTerms(t1, cut), s2.rowTerms(t2, cut)
+	n := max(n1, n2)
+	if n == 0 {
+		return
+	}
+	a, b := sb.a[:n], sb.b[:n]
+	clear(a)
+	clear(b)
+	s1.rowY(t1, n1, a, b, true, 1)
+	s2.rowY(t2, n2, a, b, true, -1)
+	if n <= tabTerms {
+		p.s.sineRow(sb, M, a, b, lam0, du, ds, dt)
+		return
+	}
+	if sb.dst == nil || sb.dst.Len() != M-1 {
+		sb.dst = fourier.NewDST(M - 1)
+	}
+	if ds != nil && (sb.dct == nil || sb.dct.Len() != M+1) {
+		sb.dct = fourier.NewDCT(M + 1)
+	}
+	sb.addSines(du, a, M)
+	if dt != nil {
+		sb.addSines(dt, b, M)
+	}
+	if ds != nil {
+		// du/ds: sum_n lambda_n a_n cos(n pi i / M) = DCT-I of the
+		// folded coefficients, halved inside
+		foldSeries(sb.fb, a, M, lam0, true)
 		for k := 1; k < M; k++ {
-			w.fa[k-1] = w.fa[k] / 2
+			sb.fb[k] /= 2
 		}
-		out := w.dst.Transform(w.fc[:M-1], w.fa[:M-1])
-		for i := 1; i < M; i++ {
-			u[gidx(vert, nx, i, r)] += out[i-1]
+		out := sb.dct.Transform(sb.fc[:M+1], sb.fb[:M+1])
+		for i := 0; i <= M; i++ {
+			ds[i] += out[i]
 		}
-		if needT {
-			fold(w.fa, b, nil, false)
-			for k := 1; k < M; k++ {
-				w.fa[k-1] = w.fa[k] / 2
-			}
-			out := w.dst.Transform(w.fc[:M-1], w.fa[:M-1])
-			g := ux
-			if !vert {
-				g = uy
-			}
-			for i := 1; i < M; i++ {
-				g[gidx(vert, nx, i, r)] += out[i-1]
-			}
+	}
+}
+
+// addSines adds sum_n c_n sin(n pi i / M) to d at i = 1 to M-1: one
+// DST-I of the c_n/2, folded into the transform's terms.
+func (sb *sineBuf) addSines(d, c []float64, M int) {
+	foldSeries(sb.fa, c, M, 0, false)
+	for k := 1; k < M; k++ {
+		sb.fa[k-1] = sb.fa[k] / 2
+	}
+	out := sb.dst.Transform(sb.fc[:M-1], sb.fa[:M-1])
+	for i := 1; i < M; i++ {
+		d[i] += out[i-1]
+	}
+}
+
+// foldSeries folds the coefficients src (of terms n = 1, 2, ...) into
+// dst (M+1 long) by the period 2M of sin(n pi i / M) (or of the cosine),
+// each multiplied by lam n first when lam is not 0.
+func foldSeries(dst, src []float64, M int, lam float64, cosine bool) {
+	clear(dst)
+	for i, v := range src {
+		if v == 0 {
+			continue
 		}
-		if needS {
-			fold(w.fb, a, func(i int) float64 { return lam0 * float64(i+1) }, true)
-			for k := 1; k < M; k++ {
-				w.fb[k] /= 2
-			}
-			out := w.dct.Transform(w.fc[:M+1], w.fb[:M+1])
-			g := uy
-			if !vert {
-				g = ux
-			}
-			for i := 0; i <= M; i++ {
-				g[gidx(vert, nx, i, r)] += out[i]
+		if lam != 0 {
+			v *= lam * float64(i+1)
+		}
+		nn := (i + 1) % (2 * M)
+		switch {
+		case cosine && nn > M:
+			dst[2*M-nn] += v
+		case cosine:
+			dst[nn] += v
+		case nn == 0 || nn == M:
+		case nn < M:
+			dst[nn] += v
+		default:
+			dst[2*M-nn] -= v
+		}
+	}
+}
+
+// rowOf returns n values of g from o on, or nil when g is nil.
+func rowOf(g []float64, o, n int) []float64 {
+	if g == nil {
+		return nil
+	}
+	return g[o : o+n]
+}
+
+// transpose copies grid columns r0 to r1-1 (M+1 nodes each, grid rows
+// nx+1 long) of g to the rows of c, one after another; back copies them
+// from c to g instead.
+func transpose(c, g []float64, nx, M, r0, r1 int, back bool) {
+	nr := r1 - r0
+	for i := 0; i <= M; i++ {
+		gi := g[i*(nx+1)+r0 : i*(nx+1)+r1]
+		for j := 0; j < nr; j++ {
+			if back {
+				gi[j] = c[j*(M+1)+i]
+			} else {
+				c[j*(M+1)+i] = gi[j]
 			}
 		}
 	}
@@ -702,14 +814,10 @@ const tabTerms = 24
 
 // sineRow adds sum_n a_n sin(n pi i/M) (and the derivatives) for one row
 // of a sine pair from the tables.
-func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64, u, ux, uy []float64) {
+func (s *Solution) sineRow(sb *sineBuf, M int, a, b []float64, lam0 float64, du, ds, dt []float64) {
 	w := s.gw
-	gs, gt := ux, uy // derivative along s, across (t)
-	if vert {
-		gs, gt = uy, ux
-	}
-	w.col = grow(w.col, M+1)
-	col := w.col
+	sb.col = grow(sb.col, M+1)
+	col := sb.col
 	clear(col)
 	for k := range a {
 		ak := a[k]
@@ -718,28 +826,24 @@ func (s *Solution) sineRow(vert bool, nx, M, r int, a, b []float64, lam0 float64
 			col[i] += ak * v
 		}
 	}
-	if vert {
-		for i, v := range col {
-			u[i*(nx+1)+r] += v
-		}
-	} else {
-		row := u[r*(nx+1) : r*(nx+1)+M+1]
-		for i, v := range col {
-			row[i] += v
-		}
+	du = du[:M+1]
+	for i, v := range col {
+		du[i] += v
 	}
 	for k := range a {
 		ak, bk := a[k], b[k]
 		sn := w.sinTab[k*(M+1) : (k+1)*(M+1)]
-		if gt != nil {
+		if dt != nil {
+			dt = dt[:M+1]
 			for i, v := range sn {
-				gt[gidx(vert, nx, i, r)] += bk * v
+				dt[i] += bk * v
 			}
 		}
-		if gs != nil {
+		if ds != nil {
+			ds = ds[:M+1]
 			al := ak * lam0 * float64(k+1)
 			for i, v := range w.cosTab[k*(M+1) : (k+1)*(M+1)] {
-				gs[gidx(vert, nx, i, r)] += al * v
+				ds[i] += al * v
 			}
 		}
 	}

@@ -3,6 +3,7 @@ package series
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"testing"
 
 	"edgewise/solver/problem"
@@ -13,6 +14,19 @@ import (
 // for u, 1e-6 relative to the largest gradient for the derivatives (the
 // per-row truncation keeps terms by their size in u).
 func TestGridMatchesAt(t *testing.T) {
+	defer func(m int) { maxTab = m }(maxTab)
+	for name, p := range gridCases() {
+		for _, mt := range []int{512, 3} { // tables, then mostly rotations
+			maxTab = mt
+			testGridAgainstAt(t, name, p)
+		}
+	}
+}
+
+// gridCases are the grid tests' problems: value edges only, wide (the
+// sine pairs) and tall with a jump at every corner, and mixed kinds with
+// a source (the separable products).
+func gridCases() map[string]*problem.Problem {
 	cases := map[string]*problem.Problem{
 		"values with jumps":              valueBox(2, 1, 0, 50, 100, 0),
 		"values, all corners jump, tall": valueBox(0.5, 1.7, 10, 50, 100, -3),
@@ -23,13 +37,7 @@ func TestGridMatchesAt(t *testing.T) {
 	mixed.Edges[problem.Top] = problem.Edge{Kind: problem.Flux, F: func(s float64) float64 { return s * s }}
 	mixed.Edges[problem.Left] = problem.Edge{Kind: problem.Value, F: problem.Const(5)}
 	cases["mixed"] = mixed
-	defer func(m int) { maxTab = m }(maxTab)
-	for name, p := range cases {
-		for _, mt := range []int{512, 3} { // tables, then mostly rotations
-			maxTab = mt
-			testGridAgainstAt(t, name, p)
-		}
-	}
+	return cases
 }
 
 func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
@@ -66,6 +74,39 @@ func testGridAgainstAt(t *testing.T, name string, p *problem.Problem) {
 				}
 				if math.Abs(b-ux[k]) > 1e-6*gmax || math.Abs(c-uy[k]) > 1e-6*gmax {
 					t.Fatalf("%s %dx%d node (%d,%d): grid grad (%g,%g), At (%g,%g)", name, nx, ny, i, j, ux[k], uy[k], b, c)
+				}
+			}
+		}
+	}
+}
+
+// The grid's rows and columns are shared among the workers; every node
+// must get its additions in the same order whatever their number, so the
+// grid is the same bit for bit on one processor and on several (the sine
+// pairs both ways, with rows summed by transforms near the loaded edges
+// and from the tables farther in; the pieces; the separable products).
+func TestGridSameOnAnyWorkers(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
+	for name, p := range gridCases() {
+		s := mustSolve(t, p, Options{})
+		for _, sz := range [][2]int{{256, 128}, {77, 201}, {3, 2}} {
+			nx, ny := sz[0], sz[1]
+			n := (nx + 1) * (ny + 1)
+			var want [3][]float64
+			for _, procs := range []int{1, 2, 3, 5} {
+				runtime.GOMAXPROCS(procs)
+				got := [3][]float64{make([]float64, n), make([]float64, n), make([]float64, n)}
+				s.Grid(nx, ny, got[0], got[1], got[2])
+				if procs == 1 {
+					want = got
+					continue
+				}
+				for a := range got {
+					for k := range got[a] {
+						if math.Float64bits(got[a][k]) != math.Float64bits(want[a][k]) {
+							t.Fatalf("%s %dx%d on %d processors: array %d node %d is %v, on one %v", name, nx, ny, procs, a, k, got[a][k], want[a][k])
+						}
+					}
 				}
 			}
 		}

@@ -14,7 +14,18 @@ import (
 // TestGridMatchesReference): the same series, summed term by term and node
 // by node.
 
-var refWork gridWork
+var refWork refGridWork
+
+// refGridWork is gridWork with the single set of row buffers the
+// reference used.
+type refGridWork struct {
+	gridWork
+	col        []float64
+	a, b       []float64
+	fa, fb, fc []float64
+	dst        *fourier.DST
+	dct        *fourier.DCT
+}
 
 const refMaxTab = 512
 

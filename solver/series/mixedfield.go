@@ -51,6 +51,7 @@ func stretchMean(f func(float64) float64, a, b float64, cuts []float64) float64 
 		}
 	}
 	pts = append(pts, b)
+	meanX, meanW := meanRule()
 	sum := 0.0
 	for k := 0; k+1 < len(pts); k++ {
 		lo, hi := pts[k], pts[k+1]
@@ -63,11 +64,20 @@ func stretchMean(f func(float64) float64, a, b float64, cuts []float64) float64 
 	return sum / (b - a)
 }
 
-var meanX, meanW = func() ([]float64, []float64) {
-	x, w := make([]float64, 48), make([]float64, 48)
-	gauss.Legendre(x, w, -1, 1)
-	return x, w
-}()
+// meanRule returns stretchMean's 48-node Gauss-Legendre rule, made on
+// first use rather than when every program linking the engine starts.
+func meanRule() (x, w []float64) {
+	meanOnce.Do(func() {
+		meanNodes, meanWeights = make([]float64, 48), make([]float64, 48)
+		gauss.Legendre(meanNodes, meanWeights, -1, 1)
+	})
+	return meanNodes, meanWeights
+}
+
+var (
+	meanOnce               sync.Once
+	meanNodes, meanWeights []float64
+)
 
 // mixedField is the solution of a problem with mixed edges: the inner
 // problem's series plus the family members.
