@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -64,9 +65,9 @@ func TestSolvePrintsResult(t *testing.T) {
 	}
 }
 
-// -csv writes over an existing file in place and cuts it to the new
-// length: whatever was there before (longer, shorter, empty), the file
-// is the one a run writes where there was none.
+// -csv over an existing file: whatever was there before (longer,
+// shorter, empty), the file is the one a run writes where there was none,
+// and no temporary file is left beside it.
 func TestSolveCSVOverExistingFile(t *testing.T) {
 	dir := t.TempDir()
 	proj := filepath.Join(dir, "p.json")
@@ -100,6 +101,57 @@ func TestSolveCSVOverExistingFile(t *testing.T) {
 			t.Errorf("over %d bytes: %d bytes written, want the %d of a new file", len(before), len(got), len(want))
 		}
 	}
+	if left, _ := filepath.Glob(filepath.Join(dir, ".*.part")); len(left) > 0 {
+		t.Errorf("temporary files left: %v", left)
+	}
+}
+
+// A run that fails half way through writing the CSV over an existing
+// file leaves no file of that name and no temporary file: never the new
+// numbers' head over the old ones' tail.
+func TestSolveCSVFailureLeavesNoMixedFile(t *testing.T) {
+	dir := t.TempDir()
+	proj := filepath.Join(dir, "p.json")
+	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "old.csv")
+	if err := os.WriteFile(out, bytes.Repeat([]byte("9,9,9\n"), 10000), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	keep := csvSink
+	defer func() { csvSink = keep }()
+	csvSink = func(f *os.File) io.Writer { return &failAfter{w: f, left: 2000} }
+	var o, e bytes.Buffer
+	if st := run([]string{"-grid", "16", "-csv", out, proj}, nil, &o, &e); st == 0 {
+		t.Errorf("the run succeeded although its CSV could not be written")
+	}
+	if _, err := os.Stat(out); !os.IsNotExist(err) {
+		got, _ := os.ReadFile(out)
+		t.Errorf("after the failed write %s holds %d bytes (%.40q...)", out, len(got), got)
+	}
+	if left, _ := filepath.Glob(filepath.Join(dir, ".*.part")); len(left) > 0 {
+		t.Errorf("temporary files left: %v", left)
+	}
+	if !strings.Contains(e.String(), "disk full") {
+		t.Errorf("stderr %q does not say why", e.String())
+	}
+}
+
+// failAfter writes its first left bytes, then fails.
+type failAfter struct {
+	w    io.Writer
+	left int
+}
+
+func (f *failAfter) Write(b []byte) (int, error) {
+	if len(b) > f.left {
+		n, _ := f.w.Write(b[:f.left])
+		f.left = 0
+		return n, errors.New("disk full (test)")
+	}
+	f.left -= len(b)
+	return f.w.Write(b)
 }
 
 func TestSolveBadInput(t *testing.T) {
