@@ -24,12 +24,20 @@ const square = `{"schema":"edgewise/1","physics":"heat","width":1,"height":1,"co
  "left":{"kind":"value","expr":"0"},"right":{"kind":"value","expr":"0"}},
  "probes":[{"x":0.5,"y":0.5,"label":"centre"}]}`
 
-func TestSolvePrintsResult(t *testing.T) {
-	dir := t.TempDir()
-	proj := filepath.Join(dir, "p.json")
+// squareIn writes the square project into a new temporary folder and
+// returns the folder and the project's path.
+func squareIn(t *testing.T) (dir, proj string) {
+	t.Helper()
+	dir = t.TempDir()
+	proj = filepath.Join(dir, "p.json")
 	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
 		t.Fatal(err)
 	}
+	return dir, proj
+}
+
+func TestSolvePrintsResult(t *testing.T) {
+	dir, proj := squareIn(t)
 	csvPath := filepath.Join(dir, "field.csv")
 	var out, errb bytes.Buffer
 	if st := run([]string{"-grid", "8", "-csv", csvPath, proj}, nil, &out, &errb); st != 0 {
@@ -69,11 +77,7 @@ func TestSolvePrintsResult(t *testing.T) {
 // shorter, empty), the file is the one a run writes where there was none,
 // and no temporary file is left beside it.
 func TestSolveCSVOverExistingFile(t *testing.T) {
-	dir := t.TempDir()
-	proj := filepath.Join(dir, "p.json")
-	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	dir, proj := squareIn(t)
 	write := func(path string) []byte {
 		t.Helper()
 		var out, errb bytes.Buffer
@@ -110,11 +114,7 @@ func TestSolveCSVOverExistingFile(t *testing.T) {
 // file leaves no file of that name and no temporary file: never the new
 // numbers' head over the old ones' tail.
 func TestSolveCSVFailureLeavesNoMixedFile(t *testing.T) {
-	dir := t.TempDir()
-	proj := filepath.Join(dir, "p.json")
-	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	dir, proj := squareIn(t)
 	out := filepath.Join(dir, "old.csv")
 	if err := os.WriteFile(out, bytes.Repeat([]byte("9,9,9\n"), 10000), 0o644); err != nil {
 		t.Fatal(err)
@@ -289,11 +289,7 @@ func BenchmarkRefuseHugeInput(b *testing.B) {
 // line of the square with the top at 1 and the other edges at 0, the value
 // at the centre is 1/4 (exact by symmetry and superposition).
 func TestSolveProfile(t *testing.T) {
-	dir := t.TempDir()
-	proj := filepath.Join(dir, "p.json")
-	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	dir, proj := squareIn(t)
 	path := filepath.Join(dir, "profile.csv")
 	var out, errb bytes.Buffer
 	if st := run([]string{"-profile", path, "-line", "0.5,0,0.5,1", proj}, nil, &out, &errb); st != 0 {
@@ -317,11 +313,7 @@ func TestSolveProfile(t *testing.T) {
 // -cpuprofile writes a profile (a gzipped protocol buffer) beside the
 // usual result; a path that cannot be created is one line naming the flag.
 func TestCPUProfile(t *testing.T) {
-	dir := t.TempDir()
-	proj := filepath.Join(dir, "p.json")
-	if err := os.WriteFile(proj, []byte(square), 0o644); err != nil {
-		t.Fatal(err)
-	}
+	dir, proj := squareIn(t)
 	prof := filepath.Join(dir, "cpu.prof")
 	var out, errb bytes.Buffer
 	if st := run([]string{"-cpuprofile", prof, "-grid", "8", proj}, nil, &out, &errb); st != 0 {

@@ -352,18 +352,7 @@ func TestMixedManufactured(t *testing.T) {
 		if err != nil {
 			t.Fatalf("case %d%s: %v", n, desc, err)
 		}
-		lo, hi, e, ex, ey := math.Inf(1), math.Inf(-1), 0.0, 0.0, 0.0
-		for i := 0; i <= 12; i++ {
-			for j := 0; j <= 12; j++ {
-				x, y := W*float64(i)/12, H*float64(j)/12
-				u, _, _ := f.At(x, y)
-				w, _, _ := exact(x, y)
-				lo, hi = min(lo, w), max(hi, w)
-				if math.Abs(u-w) > e {
-					e, ex, ey = math.Abs(u-w), x, y
-				}
-			}
-		}
+		e, lo, hi, ex, ey := latticeError(f, exact, W, H, 12, 12)
 		worst = max(worst, e/(hi-lo))
 		if e > f.ErrorEstimate() || e > 1e-6*(hi-lo) {
 			mf := f.(*mixedField)
@@ -550,16 +539,7 @@ func TestMixedFluxReachesValueCorner(t *testing.T) {
 		}
 		pr.Edges[problem.Top] = problem.Edge{Kind: parts[0].Kind, F: parts[0].F, Parts: parts}
 		f := solveMixedTest(t, pr)
-		lo, hi, worst := math.Inf(1), math.Inf(-1), 0.0
-		for i := 0; i <= 30; i++ {
-			for j := 0; j <= 10; j++ {
-				x, y := W*float64(i)/30, H*float64(j)/10
-				u, _, _ := f.At(x, y)
-				w, _, _ := exact(x, y)
-				lo, hi = min(lo, w), max(hi, w)
-				worst = max(worst, math.Abs(u-w))
-			}
-		}
+		worst, lo, hi, _, _ := latticeError(f, exact, W, H, 30, 10)
 		notConverged := false
 		for _, w := range f.Warnings() {
 			notConverged = notConverged || w.Code == problem.NotConverged
@@ -595,4 +575,23 @@ func TestMixedFluxReachesValueCorner(t *testing.T) {
 			t.Errorf("%+v: not converged %v, worst error %.3g (%.2g of the range), estimate %.3g", c, notConverged, worst, worst/(hi-lo), f.ErrorEstimate())
 		}
 	}
+}
+
+// latticeError compares f with exact on the (nx+1) x (ny+1) nodes of a
+// lattice over the W x H rectangle: the largest difference, where it is,
+// and the exact field's range there.
+func latticeError(f Field, exact func(x, y float64) (u, ux, uy float64), W, H float64, nx, ny int) (worst, lo, hi, wx, wy float64) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for i := 0; i <= nx; i++ {
+		for j := 0; j <= ny; j++ {
+			x, y := W*float64(i)/float64(nx), H*float64(j)/float64(ny)
+			u, _, _ := f.At(x, y)
+			w, _, _ := exact(x, y)
+			lo, hi = min(lo, w), max(hi, w)
+			if d := math.Abs(u - w); d > worst {
+				worst, wx, wy = d, x, y
+			}
+		}
+	}
+	return worst, lo, hi, wx, wy
 }
