@@ -227,10 +227,10 @@
     const text = JSON.stringify(project);
     let later = null;
     if (check) {
-      // the cross-check starts once the picture is on screen: in the
+      // the cross-check is asked for once the picture is drawn: in the
       // engine's first seconds the browser is still compiling the engine's
       // code, and the check's work would take the processor from the
-      // picture's drawing (afterPaint)
+      // picture's drawing
       solve.checkPending = true;
       solve.checked = new Promise((resolve) => { later = resolve; });
     } else {
@@ -238,7 +238,7 @@
     }
     lastSolve = { text, solve };
     store.solved(solve);
-    if (later) afterPaint(() => later(checkLater(solve, check, project)));
+    if (later) later(checkLater(solve, check, project));
     if (text === meantText) store.meant(solve);
     const total = performance.now() - t0;
     setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms." + outsideNote(project));
@@ -250,18 +250,6 @@
       if (!check) root.dataset.firstCheckAt = root.dataset.firstPictureAt;
     }
     return result;
-  }
-
-  // afterPaint runs fn once the frame being drawn has been painted: in a
-  // task after the next animation frame, or after 200 ms where no frames
-  // come (a hidden tab).
-  function afterPaint(fn) {
-    let done = false;
-    const go = () => {
-      if (!done) { done = true; fn(); }
-    };
-    requestAnimationFrame(() => setTimeout(go, 0));
-    setTimeout(go, 200);
   }
 
   // markStale says whether the numbers on show belong to other inputs
