@@ -22,13 +22,7 @@ const square = `{"schema":"edgewise/1","physics":"generic","width":1,"height":1,
 // The wrapper works: a call through JavaScript returns the result JSON and
 // the field as Float64Arrays of the grid's size.
 func TestSolveThroughJS(t *testing.T) {
-	if err := register(); err != nil {
-		t.Fatal(err)
-	}
-	fn, err := safejs.Global().Get("edgewise_solve")
-	if err != nil {
-		t.Fatal(err)
-	}
+	fn := engineFunc(t, "solve")
 	reply, err := fn.Invoke(square, 8, 8)
 	if err != nil {
 		t.Fatal(err)
@@ -77,6 +71,19 @@ func TestErrorReply(t *testing.T) {
 	if _, err := solveText("{not json", solver.Options{}, 0); err == nil {
 		t.Errorf("reply = %v, want an error", r)
 	}
+}
+
+// engineFunc registers the engine's functions and returns edgewise_<name>.
+func engineFunc(t *testing.T, name string) safejs.Value {
+	t.Helper()
+	if err := register(); err != nil {
+		t.Fatal(err)
+	}
+	fn, err := safejs.Global().Get("edgewise_" + name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return fn
 }
 
 func mustGet(t *testing.T, v safejs.Value, key string) safejs.Value {
@@ -247,13 +254,7 @@ func boolInt(b bool) int {
 // same result as the full one but for the accuracy's cross-check figures,
 // which it leaves null without a reason; the full solve then carries them.
 func TestSolveWithoutCrossCheck(t *testing.T) {
-	if err := register(); err != nil {
-		t.Fatal(err)
-	}
-	fn, err := safejs.Global().Get("edgewise_solve")
-	if err != nil {
-		t.Fatal(err)
-	}
+	fn := engineFunc(t, "solve")
 	result := func(noCheck bool) map[string]any {
 		reply, err := fn.Invoke(square, 40, 40, 0, noCheck)
 		if err != nil {

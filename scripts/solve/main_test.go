@@ -39,17 +39,14 @@ func squareIn(t *testing.T) (dir, proj string) {
 func TestSolvePrintsResult(t *testing.T) {
 	dir, proj := squareIn(t)
 	csvPath := filepath.Join(dir, "field.csv")
-	var out, errb bytes.Buffer
-	if st := run([]string{"-grid", "8", "-csv", csvPath, proj}, nil, &out, &errb); st != 0 {
-		t.Fatalf("exit %d, stderr %q", st, errb.String())
-	}
+	out := runOK(t, "-grid", "8", "-csv", csvPath, proj)
 	var r struct {
 		Schema string
 		Probes []struct{ Value float64 }
 		Grid   struct{ Nx, Ny int }
 	}
-	if err := json.Unmarshal(out.Bytes(), &r); err != nil {
-		t.Fatalf("stdout is not JSON: %v\n%s", err, out.String())
+	if err := json.Unmarshal([]byte(out), &r); err != nil {
+		t.Fatalf("stdout is not JSON: %v\n%s", err, out)
 	}
 	// Exact identity: a square with one edge at 1 and three at 0 is 1/4 at
 	// the centre.
@@ -80,10 +77,7 @@ func TestSolveCSVOverExistingFile(t *testing.T) {
 	dir, proj := squareIn(t)
 	write := func(path string) []byte {
 		t.Helper()
-		var out, errb bytes.Buffer
-		if st := run([]string{"-grid", "16", "-csv", path, proj}, nil, &out, &errb); st != 0 {
-			t.Fatalf("exit %d, stderr %q", st, errb.String())
-		}
+		runOK(t, "-grid", "16", "-csv", path, proj)
 		data, err := os.ReadFile(path)
 		if err != nil {
 			t.Fatal(err)
@@ -291,10 +285,7 @@ func BenchmarkRefuseHugeInput(b *testing.B) {
 func TestSolveProfile(t *testing.T) {
 	dir, proj := squareIn(t)
 	path := filepath.Join(dir, "profile.csv")
-	var out, errb bytes.Buffer
-	if st := run([]string{"-profile", path, "-line", "0.5,0,0.5,1", proj}, nil, &out, &errb); st != 0 {
-		t.Fatalf("exit %d, stderr %q", st, errb.String())
-	}
+	runOK(t, "-profile", path, "-line", "0.5,0,0.5,1", proj)
 	data, err := os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
@@ -315,20 +306,16 @@ func TestSolveProfile(t *testing.T) {
 func TestCPUProfile(t *testing.T) {
 	dir, proj := squareIn(t)
 	prof := filepath.Join(dir, "cpu.prof")
-	var out, errb bytes.Buffer
-	if st := run([]string{"-cpuprofile", prof, "-grid", "8", proj}, nil, &out, &errb); st != 0 {
-		t.Fatalf("exit %d, stderr %q", st, errb.String())
-	}
+	out := runOK(t, "-cpuprofile", prof, "-grid", "8", proj)
 	data, err := os.ReadFile(prof)
 	if err != nil || len(data) < 2 || data[0] != 0x1f || data[1] != 0x8b {
 		t.Fatalf("profile: %d bytes, %v", len(data), err)
 	}
-	if !strings.Contains(out.String(), `"schema":"edgewise-result/1"`) {
-		t.Errorf("no result with -cpuprofile: %q", out.String())
+	if !strings.Contains(out, `"schema":"edgewise-result/1"`) {
+		t.Errorf("no result with -cpuprofile: %q", out)
 	}
-	out.Reset()
-	errb.Reset()
-	if st := run([]string{"-cpuprofile", filepath.Join(dir, "no", "such", "dir", "x"), proj}, nil, &out, &errb); st != 1 ||
+	var errb bytes.Buffer
+	if st := run([]string{"-cpuprofile", filepath.Join(dir, "no", "such", "dir", "x"), proj}, nil, io.Discard, &errb); st != 1 ||
 		!strings.HasPrefix(errb.String(), "-cpuprofile: ") || strings.Count(errb.String(), "\n") != 1 {
 		t.Errorf("bad path: exit %d, stderr %q", st, errb.String())
 	}

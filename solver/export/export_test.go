@@ -155,14 +155,7 @@ func TestFieldCSVWithoutGradient(t *testing.T) {
 	f := demoField()
 	f.Ux, f.Uy = nil, nil
 	f.Units = Units{}
-	var b bytes.Buffer
-	if err := FieldCSV(&b, f); err != nil {
-		t.Fatal(err)
-	}
-	recs, err := csv.NewReader(&b).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	recs := fieldRecords(t, f)
 	if got := strings.Join(recs[0], ","); got != "x,y,value" {
 		t.Errorf("header %q, want x,y,value", got)
 	}
@@ -317,14 +310,7 @@ func TestFieldCSVUnitConductivity(t *testing.T) {
 		for i, v := range special {
 			f.Ux[3*i], f.Uy[3*i+1] = v, -v
 		}
-		var b bytes.Buffer
-		if err := FieldCSV(&b, f); err != nil {
-			t.Fatal(err)
-		}
-		recs, err := csv.NewReader(&b).ReadAll()
-		if err != nil {
-			t.Fatal(err)
-		}
+		recs := fieldRecords(t, f)
 		text := func(x float64) string { return string(appendNum(nil, x)) }
 		for r, rec := range recs[1:] {
 			want := []string{text(-f.Kx * f.Ux[r]), text(-f.Ky * f.Uy[r])}
@@ -661,4 +647,18 @@ func TestLargeRasterDecodes(t *testing.T) {
 			t.Errorf("column %v: %d %d %d %d, want %d %d %d opaque", c.x, r2>>8, g2>>8, b2>>8, a>>8, r, g, b)
 		}
 	}
+}
+
+// fieldRecords writes f as the field CSV and reads it back as records.
+func fieldRecords(t *testing.T, f *Field) [][]string {
+	t.Helper()
+	var b bytes.Buffer
+	if err := FieldCSV(&b, f); err != nil {
+		t.Fatal(err)
+	}
+	recs, err := csv.NewReader(&b).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return recs
 }

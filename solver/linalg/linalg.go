@@ -105,18 +105,9 @@ func MinNorm(a []float64, rows, cols int, b []float64, rcond float64) []float64 
 					continue
 				}
 				rotated = true
-				zeta := (beta - alpha) / (2 * gamma)
-				t := math.Copysign(1, zeta) / (math.Abs(zeta) + math.Sqrt(1+zeta*zeta))
-				c := 1 / math.Sqrt(1+t*t)
-				s := c * t
-				for i := 0; i < rows; i++ {
-					up, uq := u[i*cols+p], u[i*cols+q]
-					u[i*cols+p], u[i*cols+q] = c*up-s*uq, s*up+c*uq
-				}
-				for i := 0; i < cols; i++ {
-					vp, vq := v[i*cols+p], v[i*cols+q]
-					v[i*cols+p], v[i*cols+q] = c*vp-s*vq, s*vp+c*vq
-				}
+				c, s := jacobiAngle((beta - alpha) / (2 * gamma))
+				rotateColumns(u, rows, cols, p, q, c, s)
+				rotateColumns(v, cols, cols, p, q, c, s)
 			}
 		}
 		if !rotated {
@@ -190,25 +181,15 @@ func SymEigen(a []float64, n int) (vals, q []float64) {
 				}
 				rotated = true
 				app, arr := m[p*n+p], m[r*n+r]
-				// the angle that zeroes m[p][r] (the smaller root of
-				// t^2 + 2 theta t - 1 = 0, for stability)
-				theta := (arr - app) / (2 * apr)
-				t := math.Copysign(1, theta) / (math.Abs(theta) + math.Sqrt(1+theta*theta))
-				c := 1 / math.Sqrt(1+t*t)
-				s := c * t
-				for k := 0; k < n; k++ {
-					mkp, mkr := m[k*n+p], m[k*n+r]
-					m[k*n+p], m[k*n+r] = c*mkp-s*mkr, s*mkp+c*mkr
-				}
+				// the angle that zeroes m[p][r]
+				c, s := jacobiAngle((arr - app) / (2 * apr))
+				rotateColumns(m, n, n, p, r, c, s)
 				for k := 0; k < n; k++ {
 					mpk, mrk := m[p*n+k], m[r*n+k]
 					m[p*n+k], m[r*n+k] = c*mpk-s*mrk, s*mpk+c*mrk
 				}
 				m[p*n+r], m[r*n+p] = 0, 0
-				for k := 0; k < n; k++ {
-					qkp, qkr := q[k*n+p], q[k*n+r]
-					q[k*n+p], q[k*n+r] = c*qkp-s*qkr, s*qkp+c*qkr
-				}
+				rotateColumns(q, n, n, p, r, c, s)
 			}
 		}
 		if !rotated {
@@ -220,4 +201,22 @@ func SymEigen(a []float64, n int) (vals, q []float64) {
 		vals[i] = m[i*n+i]
 	}
 	return vals, q
+}
+
+// jacobiAngle returns the cosine and sine of the Jacobi rotation for
+// theta = (a_qq - a_pp) / (2 a_pq): t the smaller root of
+// t^2 + 2 theta t - 1 = 0 (for stability), c = 1/sqrt(1 + t^2), s = c t.
+func jacobiAngle(theta float64) (c, s float64) {
+	t := math.Copysign(1, theta) / (math.Abs(theta) + math.Sqrt(1+theta*theta))
+	c = 1 / math.Sqrt(1+t*t)
+	return c, c * t
+}
+
+// rotateColumns turns columns p and q of the row-major matrix a (rows x
+// stride) by the rotation (c, s): a_p, a_q <- c a_p - s a_q, s a_p + c a_q.
+func rotateColumns(a []float64, rows, stride, p, q int, c, s float64) {
+	for i := 0; i < rows; i++ {
+		ap, aq := a[i*stride+p], a[i*stride+q]
+		a[i*stride+p], a[i*stride+q] = c*ap-s*aq, s*ap+c*aq
+	}
 }

@@ -44,14 +44,7 @@ func cornerGradients(t *testing.T, k, tol float64) {
 				u, ux, uy = exact(x, a*y)
 				return u, ux, a * uy
 			})
-			bs, err := FindBreaks(p)
-			if err != nil {
-				t.Fatal(err)
-			}
-			f, err := SolveBreaks(p, bs, Options{})
-			if err != nil {
-				t.Fatal(err)
-			}
+			f := solveForTest(t, p)
 			for _, c := range [][2]float64{{0, 0}, {1.3, 0}, {1.3, 0.7}, {0, 0.7}} {
 				_, ux, uy := f.At(c[0], c[1])
 				_, ex, ey := exact(c[0], a*c[1])

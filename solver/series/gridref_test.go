@@ -266,14 +266,7 @@ func at(s []float64, k int) float64 {
 // busy machine).
 func BenchmarkMixedGrid513(b *testing.B) {
 	pr := benchMixedProblem()
-	breaks, err := FindBreaks(pr)
-	if err != nil {
-		b.Fatal(err)
-	}
-	f, err := SolveBreaks(pr, breaks, Options{})
-	if err != nil {
-		b.Fatal(err)
-	}
+	f := solveForTest(b, pr)
 	u, ux, uy := make([]float64, 513*513), make([]float64, 513*513), make([]float64, 513*513)
 	for _, c := range []struct {
 		name string

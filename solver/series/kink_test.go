@@ -289,14 +289,7 @@ func TestValueKinkOnEdge(t *testing.T) {
 	p.Edges[problem.Right] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
 	p.Edges[problem.Top] = problem.Edge{Kind: problem.Value, F: problem.Const(0)}
 	p.Edges[problem.Left] = problem.Edge{Kind: problem.Flux, F: problem.Const(0)}
-	bs, err := FindBreaks(p)
-	if err != nil {
-		t.Fatal(err)
-	}
-	f, err := SolveBreaks(p, bs, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	f := solveForTest(t, p)
 	est := f.ErrorEstimate()
 	for _, s := range []float64{0.1, 0.25, 0.2501, 0.5, 0.9} {
 		u, _, _ := f.At(s, 0)

@@ -50,14 +50,7 @@ func eachManufactured(t *testing.T, step int, check func(kinds [4]problem.Kind, 
 		for kc := 0; kc < 81; kc += step {
 			p := &problem.Problem{W: 1.3, H: 0.7, Kx: 2, Ky: 2}
 			kinds := manufacturedEdges(p, kc, hcs, exact)
-			bs, err := FindBreaks(p)
-			if err != nil {
-				t.Fatal(err)
-			}
-			f, err := SolveBreaks(p, bs, Options{})
-			if err != nil {
-				t.Fatal(err)
-			}
+			f := solveForTest(t, p)
 			check(kinds, p, f, exact)
 		}
 	}

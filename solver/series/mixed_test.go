@@ -46,14 +46,7 @@ func TestMixedTwoStrips(t *testing.T) {
 	pr.Edges[problem.Top] = partsEdge([]float64{0.3, 0.7}, []float64{0, 1, 0}, []bool{false, true, false})
 	pr.Edges[problem.Left] = problem.Edge{Kind: problem.Flux, F: konst(0)}
 	pr.Edges[problem.Right] = problem.Edge{Kind: problem.Flux, F: konst(0)}
-	breaks, err := FindBreaks(pr)
-	if err != nil {
-		t.Fatal(err)
-	}
-	f, err := SolveBreaks(pr, breaks, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	f := solveForTest(t, pr)
 	worst := 0.0
 	for _, xy := range [][2]float64{{0.5, 0.3}, {0.1, 0.1}, {0.9, 0.5}, {0.35, 0.05}, {0.5, 0.59}, {0.25, 0.0}} {
 		u, _, _ := f.At(xy[0], xy[1])
@@ -74,8 +67,9 @@ func TestMixedTwoStrips(t *testing.T) {
 	}
 }
 
-// solveMixedTest solves pr through FindBreaks and SolveBreaks.
-func solveMixedTest(t *testing.T, pr *problem.Problem) Field {
+// solveForTest solves pr through FindBreaks and SolveBreaks with the
+// default options, failing the test or benchmark on an error.
+func solveForTest(t testing.TB, pr *problem.Problem) Field {
 	t.Helper()
 	breaks, err := FindBreaks(pr)
 	if err != nil {
@@ -109,7 +103,7 @@ func TestMixedMotz(t *testing.T) {
 	pr.Edges[problem.Bottom] = partsEdge([]float64{1}, []float64{0, 0}, []bool{true, false})
 	pr.Edges[problem.Right] = problem.Edge{Kind: problem.Value, F: konst(500)}
 	pr.Edges[problem.Top], pr.Edges[problem.Left] = insulatedEdge(), insulatedEdge()
-	f := solveMixedTest(t, pr)
+	f := solveForTest(t, pr)
 	mf := f.(*mixedField)
 	fm := mf.ms.edges[0].fam
 	// u = x_0 ((s - 1)/half)^(1/2) + x_1 ((s - 1)/half)^(3/2) + smooth
@@ -159,7 +153,7 @@ func TestMixedOrthotropicStrips(t *testing.T) {
 	pr.Edges[problem.Bottom] = partsEdge([]float64{0.8, 1.5}, []float64{0, 10, 0}, []bool{false, true, false})
 	pr.Edges[problem.Left] = partsEdge([]float64{0.3, 0.7}, []float64{0, 30, 0}, []bool{false, true, false})
 	pr.Edges[problem.Top], pr.Edges[problem.Right] = insulatedEdge(), insulatedEdge()
-	f := solveMixedTest(t, pr)
+	f := solveForTest(t, pr)
 	worst := 0.0
 	for _, xy := range [][2]float64{{0.5, 0.5}, {1.5, 0.2}, {0.2, 0.9}, {1.9, 0.99}, {0.01, 0.5}, {1.2, 0.001}} {
 		u, _, _ := f.At(xy[0], xy[1])
@@ -208,7 +202,7 @@ func TestMixedLargeH(t *testing.T) {
 		pr.Edges[problem.Bottom] = partsEdge([]float64{0.2, 0.5}, []float64{0, 0, 0}, []bool{false, true, false})
 		pr.Edges[problem.Top] = c.top
 		pr.Edges[problem.Left], pr.Edges[problem.Right] = insulatedEdge(), insulatedEdge()
-		f := solveMixedTest(t, pr)
+		f := solveForTest(t, pr)
 		bottom := PartsOf(f, pr, problem.Bottom)
 		got := -bottom[1].Flow
 		rel := math.Abs(got-want) / want
@@ -247,14 +241,7 @@ func BenchmarkMixedSolve513(b *testing.B) {
 					responses.put("", nil)
 				}
 				pr := benchMixedProblem()
-				breaks, err := FindBreaks(pr)
-				if err != nil {
-					b.Fatal(err)
-				}
-				f, err := SolveBreaks(pr, breaks, Options{})
-				if err != nil {
-					b.Fatal(err)
-				}
+				f := solveForTest(b, pr)
 				f.Grid(512, 512, u, ux, uy)
 			}
 		})
@@ -397,14 +384,14 @@ func TestMixedResponsesKept(t *testing.T) {
 		return v
 	}
 	responses.put("", nil)
-	solveMixedTest(t, build(12, 10)) // fills the cache
-	kept := at(solveMixedTest(t, build(15, 10)))
+	solveForTest(t, build(12, 10)) // fills the cache
+	kept := at(solveForTest(t, build(15, 10)))
 	if responses.get(responses.key) == nil {
 		t.Fatal("no responses kept")
 	}
 	key := responses.key
 	responses.put("", nil)
-	fresh := at(solveMixedTest(t, build(15, 10)))
+	fresh := at(solveForTest(t, build(15, 10)))
 	if responses.key != key {
 		t.Errorf("the same structure gave another key")
 	}
@@ -413,7 +400,7 @@ func TestMixedResponsesKept(t *testing.T) {
 			t.Errorf("point %d: %.15g with kept responses, %.15g from scratch", i, kept[i], fresh[i])
 		}
 	}
-	solveMixedTest(t, build(15, 11))
+	solveForTest(t, build(15, 11))
 	if responses.key == key {
 		t.Errorf("a part that ends elsewhere kept the key")
 	}
@@ -432,7 +419,7 @@ func TestFamilyArea(t *testing.T) {
 		{Kind: problem.Convection, F: konst(3), Hc: konst(2)}}}
 	pr.Edges[problem.Right] = right
 	pr.Edges[problem.Top] = insulatedEdge()
-	mf := solveMixedTest(t, pr).(*mixedField)
+	mf := solveForTest(t, pr).(*mixedField)
 	exact, quad := mf.familyArea(), mf.familyAreaByQuadrature()
 	t.Logf("family area %.15g exact, %.15g by quadrature", exact, quad)
 	if math.Abs(exact-quad) > 1e-9*max(1, math.Abs(quad)) {
@@ -456,7 +443,7 @@ func TestMixedManyParts(t *testing.T) {
 	}
 	pr.Edges[problem.Top] = partsEdge(ends, values, isValue)
 	pr.Edges[problem.Bottom], pr.Edges[problem.Left], pr.Edges[problem.Right] = insulatedEdge(), insulatedEdge(), insulatedEdge()
-	f := solveMixedTest(t, pr)
+	f := solveForTest(t, pr)
 	if mf := f.(*mixedField); mf.ms.n > 3*mixedMaxUnknowns {
 		t.Errorf("%d unknowns", mf.ms.n)
 	}
@@ -538,7 +525,7 @@ func TestMixedFluxReachesValueCorner(t *testing.T) {
 			}
 		}
 		pr.Edges[problem.Top] = problem.Edge{Kind: parts[0].Kind, F: parts[0].F, Parts: parts}
-		f := solveMixedTest(t, pr)
+		f := solveForTest(t, pr)
 		worst, lo, hi, _, _ := latticeError(f, exact, W, H, 30, 10)
 		notConverged := false
 		for _, w := range f.Warnings() {
