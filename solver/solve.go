@@ -121,12 +121,23 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 		out.Result.Cautions = []string{CautionsWithheld, physics.Deferral}
 	}
 	out.Result.chooseColour()
-	for _, v := range out.U {
-		if v-v != 0 {
-			return nil, project.Errorf("", "the solution is not finite; please report this project")
-		}
+	if !allFinite(out.U) {
+		return nil, project.Errorf("", "the solution is not finite; please report this project")
 	}
 	return out, nil
+}
+
+// allFinite says whether every value is finite. It is a function of its
+// own, not inlined, to keep the loop out of Solve's code (see wasmcost.go).
+//
+//go:noinline
+func allFinite(u []float64) bool {
+	for _, v := range u {
+		if v-v != 0 {
+			return false
+		}
+	}
+	return true
 }
 
 func grow(b []float64, n int) []float64 {
