@@ -40,7 +40,9 @@
       early.taken = true;
       return { w: early.worker, heard: early.heard };
     }
-    const text = document.getElementById("ew-wasm"); // the single file
+    // the single file: the engine's text, written in parts (scripts/bundle)
+    const parts = document.getElementsByClassName("ew-wasm");
+    const text = parts.length ? Array.from(parts, (e) => e.textContent).join("") : "";
     let w;
     if (text) {
       const src = document.getElementById("ew-worker").textContent;
@@ -49,7 +51,7 @@
       w = new Worker("worker.js");
     }
     if (engineModule) w.postMessage({ type: "init", module: engineModule });
-    else w.postMessage(text ? { type: "init", text: text.textContent } : { type: "init" });
+    else w.postMessage(text ? { type: "init", text } : { type: "init" });
     return { w, heard: [] };
   }
 

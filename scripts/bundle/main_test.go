@@ -57,7 +57,7 @@ func TestBundle(t *testing.T) {
 	// the worker starts before anything but the policy: the worker's
 	// source, the script that starts it, the engine, the script that sends
 	// it, then the page's own head and body
-	order := []string{`http-equiv="Content-Security-Policy"`, `id="ew-worker">`, "new Worker(", `id="ew-wasm">`, `type: "init"`, "<style>", "<body>", `id="ew-demo"`, "const s = "}
+	order := []string{`http-equiv="Content-Security-Policy"`, `id="ew-worker">`, "new Worker(", `class="ew-wasm">`, `type: "init"`, "<style>", "<body>", `id="ew-demo"`, "const s = "}
 	at := 0
 	for i, s := range order {
 		j := strings.Index(html[at:], s)
@@ -86,11 +86,18 @@ func TestBundle(t *testing.T) {
 		t.Errorf("policy too loose: %s", csp[1])
 	}
 	// the engine round-trips through base 85 and gzip
-	w := regexp.MustCompile(`<script type="application/octet-stream" id="ew-wasm">([^<]*)</script>`).FindStringSubmatch(html)
-	if w == nil {
+	// (in parts, each no longer than enginePart, read in order)
+	var text strings.Builder
+	for _, w := range regexp.MustCompile(`<script type="application/octet-stream" class="ew-wasm">([^<]*)</script>`).FindAllStringSubmatch(html, -1) {
+		if len(w[1]) > enginePart {
+			t.Errorf("an engine part of %d characters (at most %d)", len(w[1]), enginePart)
+		}
+		text.WriteString(w[1])
+	}
+	if text.Len() == 0 {
 		t.Fatal("no engine block")
 	}
-	zr, err := gzip.NewReader(bytes.NewReader(decode85(w[1])))
+	zr, err := gzip.NewReader(bytes.NewReader(decode85(text.String())))
 	if err != nil {
 		t.Fatal(err)
 	}
