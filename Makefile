@@ -12,7 +12,7 @@ GOJSEXEC  := $(GOROOT)/lib/wasm/go_js_wasm_exec
 RELEASE   ?= $(shell git describe --tags --always --dirty 2>/dev/null || echo unknown)
 NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
 
-.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist sizes size-baseline size-parts bench bench-browser fuzz clean
+.PHONY: all build run test vet test-native test-wasm test-fuzz test-browser chromium dist sizes size-baseline size-parts tiering bench bench-browser fuzz clean
 
 all: build
 
@@ -135,6 +135,11 @@ size-baseline:
 size-parts:
 	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-w' -o $${TMPDIR:-/tmp}/edgewise-parts.wasm ./wasm
 	$(GO) run ./scripts/wasmsize -funcs 20 $${TMPDIR:-/tmp}/edgewise-parts.wasm
+
+## tiering: the engine's functions the browser's optimizing compiler takes up during the demo's first solve (Node)
+tiering:
+	GOOS=js GOARCH=wasm $(GO) build -trimpath -o $${TMPDIR:-/tmp}/edgewise-named.wasm ./wasm
+	GOROOT_WASM=$(GOROOT)/lib/wasm node scripts/tiering/tiering.js $${TMPDIR:-/tmp}/edgewise-named.wasm site/demo.json
 
 ## bench: the Go benchmarks
 bench:
