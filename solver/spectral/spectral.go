@@ -48,6 +48,48 @@ func Solve(pr *problem.Problem, nx, ny int) (*Field, error) {
 	ly := newLine(ny, pr.H, pr.Ky, &e[problem.Bottom], &e[problem.Top])
 	f := &Field{W: pr.W, H: pr.H, x: lx, y: ly, u: make([]float64, (nx+1)*(ny+1))}
 	// the held nodes, and the loads of the free ones
+	b, err := f.loads(pr)
+	if err != nil {
+		return nil, err
+	}
+	fx, fy := lx.free(), ly.free()
+	// B of the free nodes, less what the held nodes of their row and
+	// column put on them
+	mx, my := len(fx), len(fy)
+	c := f.freeLoads(b, fx, fy)
+	lamx, qx := lx.eigen(fx)
+	lamy, qy := ly.eigen(fy)
+	// C <- Qx^T C Qy, divide, and back
+	c = mulT(qx, mx, c, my)    // Qx^T C: mx x my
+	c = mul(c, mx, my, qy, my) // (Qx^T C) Qy
+	floats := !lx.held[0] && !lx.held[1] && !ly.held[0] && !ly.held[1] &&
+		!(e[problem.Left].Kind == problem.Convection && e[problem.Left].Hc > 0) &&
+		!(e[problem.Right].Kind == problem.Convection && e[problem.Right].Hc > 0) &&
+		!(e[problem.Bottom].Kind == problem.Convection && e[problem.Bottom].Hc > 0) &&
+		!(e[problem.Top].Kind == problem.Convection && e[problem.Top].Hc > 0)
+	divide(c, lamx, lamy, floats)
+	c = mul(qx, mx, mx, c, my) // Qx C
+	c = mulBT(c, mx, my, qy)   // (Qx C) Qy^T
+	f.scatter(c, fx, fy)
+	if floats {
+		f.Floats = true
+		subtract(f.u, f.Mean())
+	}
+	return f, nil
+}
+
+// The loops of Solve are functions of their own, not inlined, so that the
+// browser does not optimize the whole of Solve for them (see the package
+// doc of edgewise/solver, "Loops in functions of their own").
+
+// loads returns the loads of the nodes (the source's, and the flux and
+// convection edges') and puts the values of the value edges into f.u; the
+// first non-finite datum is the error.
+//
+//go:noinline
+func (f *Field) loads(pr *problem.Problem) ([]float64, error) {
+	lx, ly := f.x, f.y
+	nx, ny := lx.n, ly.n
 	row := nx + 1
 	b := make([]float64, len(f.u))
 	for j := 0; j <= ny; j++ {
@@ -56,42 +98,51 @@ func Solve(pr *problem.Problem, nx, ny int) (*Field, error) {
 		}
 	}
 	var bad error
-	data := func(side problem.Side, s float64) float64 {
-		v, err := pr.Eval(side, s)
-		if err != nil && bad == nil {
-			bad = err
-		}
-		return v
-	}
-	load := func(side problem.Side, k int, s, w float64) {
-		ed := &e[side]
-		switch ed.Kind {
-		case problem.Value:
-			f.u[k] = data(side, s)
-		case problem.Flux:
-			b[k] += data(side, s) * w
-		case problem.Convection:
-			b[k] += ed.Hc * data(side, s) * w
-		}
-	}
 	// value edges along y first, so that at a corner the edge along x
 	// (left, right) has the last word, as for every other node of it
 	for i := 0; i <= nx; i++ {
-		load(problem.Bottom, i, lx.s[i], lx.w[i])
-		load(problem.Top, ny*row+i, lx.s[i], lx.w[i])
+		f.load(pr, b, &bad, problem.Bottom, i, lx.s[i], lx.w[i])
+		f.load(pr, b, &bad, problem.Top, ny*row+i, lx.s[i], lx.w[i])
 	}
 	for j := 0; j <= ny; j++ {
-		load(problem.Left, j*row, ly.s[j], ly.w[j])
-		load(problem.Right, j*row+nx, ly.s[j], ly.w[j])
+		f.load(pr, b, &bad, problem.Left, j*row, ly.s[j], ly.w[j])
+		f.load(pr, b, &bad, problem.Right, j*row+nx, ly.s[j], ly.w[j])
 	}
-	if bad != nil {
-		return nil, bad
+	return b, bad
+}
+
+// load takes the datum of side at s into node k (weight w); the first
+// error is kept in *bad.
+func (f *Field) load(pr *problem.Problem, b []float64, bad *error, side problem.Side, k int, s, w float64) {
+	ed := &pr.Edges[side]
+	if ed.Kind != problem.Value && ed.Kind != problem.Flux && ed.Kind != problem.Convection {
+		return
 	}
-	fx, fy := lx.free(), ly.free()
-	// B of the free nodes, less what the held nodes of their row and
-	// column put on them
-	mx, my := len(fx), len(fy)
-	c := make([]float64, mx*my) // index p*my + q: x-major for the products below
+	v, err := pr.Eval(side, s)
+	if err != nil && *bad == nil {
+		*bad = err
+	}
+	switch ed.Kind {
+	case problem.Value:
+		f.u[k] = v
+	case problem.Flux:
+		b[k] += v * w
+	case problem.Convection:
+		b[k] += ed.Hc * v * w
+	}
+}
+
+// freeLoads returns the loads of the free nodes fx x fy (index p*len(fy)+q),
+// less what the held nodes of their row and column put on them, scaled by
+// the inverse square root of their weights.
+//
+//go:noinline
+func (f *Field) freeLoads(b []float64, fx, fy []int) []float64 {
+	lx, ly := f.x, f.y
+	nx, ny := lx.n, ly.n
+	row := nx + 1
+	my := len(fy)
+	c := make([]float64, len(fx)*my) // index p*my + q: x-major for the products
 	for q, j := range fy {
 		for p, i := range fx {
 			v := b[j*row+i]
@@ -108,16 +159,15 @@ func Solve(pr *problem.Problem, nx, ny int) (*Field, error) {
 			c[p*my+q] = v / math.Sqrt(lx.w[i]*ly.w[j])
 		}
 	}
-	lamx, qx := lx.eigen(fx)
-	lamy, qy := ly.eigen(fy)
-	// C <- Qx^T C Qy, divide, and back
-	c = mulT(qx, mx, c, my)    // Qx^T C: mx x my
-	c = mul(c, mx, my, qy, my) // (Qx^T C) Qy
-	floats := !lx.held[0] && !lx.held[1] && !ly.held[0] && !ly.held[1] &&
-		!(e[problem.Left].Kind == problem.Convection && e[problem.Left].Hc > 0) &&
-		!(e[problem.Right].Kind == problem.Convection && e[problem.Right].Hc > 0) &&
-		!(e[problem.Bottom].Kind == problem.Convection && e[problem.Bottom].Hc > 0) &&
-		!(e[problem.Top].Kind == problem.Convection && e[problem.Top].Hc > 0)
+	return c
+}
+
+// divide divides mode (p, q) of c by lamx[p] + lamy[q]; when the field
+// floats (no held value, no convection) the constant mode is set to 0.
+//
+//go:noinline
+func divide(c, lamx, lamy []float64, floats bool) {
+	my := len(lamy)
 	big := 0.0
 	for _, l := range lamx {
 		big = max(big, math.Abs(l))
@@ -125,7 +175,7 @@ func Solve(pr *problem.Problem, nx, ny int) (*Field, error) {
 	for _, l := range lamy {
 		big = max(big, math.Abs(l))
 	}
-	for p := range mx {
+	for p := range lamx {
 		for q := range my {
 			d := lamx[p] + lamy[q]
 			if floats && math.Abs(d) <= 1e-11*big {
@@ -135,21 +185,30 @@ func Solve(pr *problem.Problem, nx, ny int) (*Field, error) {
 			c[p*my+q] /= d
 		}
 	}
-	c = mul(qx, mx, mx, c, my) // Qx C
-	c = mulBT(c, mx, my, qy)   // (Qx C) Qy^T
+}
+
+// scatter puts the free nodes' values (c scaled back by the square root
+// of their weights) into f.u.
+//
+//go:noinline
+func (f *Field) scatter(c []float64, fx, fy []int) {
+	lx, ly := f.x, f.y
+	row := lx.n + 1
+	my := len(fy)
 	for q, j := range fy {
 		for p, i := range fx {
 			f.u[j*row+i] = c[p*my+q] / math.Sqrt(lx.w[i]*ly.w[j])
 		}
 	}
-	if floats {
-		f.Floats = true
-		m := f.Mean()
-		for k := range f.u {
-			f.u[k] -= m
-		}
+}
+
+// subtract takes m from every value.
+//
+//go:noinline
+func subtract(u []float64, m float64) {
+	for k := range u {
+		u[k] -= m
 	}
-	return f, nil
 }
 
 // newLine builds one direction of n intervals on [0, L] with conductivity
@@ -163,6 +222,32 @@ func newLine(n int, L, k float64, lo, hi *problem.Edge) *line {
 	}
 	ln.s[0], ln.s[n] = 0, L
 	// D_ij = P_n(t_i) / (P_n(t_j) (t_i - t_j)), diagonal by the row sums
+	d := derivative(t)
+	// S_ik = sum_q w_q D_qi D_qk, times 2/L for the map from [-1, 1]
+	stiffness(ln.a, w, d, k*2/L)
+	for end, ed := range [2]*problem.Edge{lo, hi} {
+		at := end * n
+		switch ed.Kind {
+		case problem.Value:
+			ln.held[end] = true
+		case problem.Convection:
+			ln.a[at*(n+1)+at] += ed.Hc
+		}
+	}
+	ln.bary = barycentric(t)
+	return ln
+}
+
+// The loops of newLine are functions of their own, not inlined (see
+// loads).
+
+// derivative returns the GLL differentiation matrix on the nodes t of
+// [-1, 1]: D_ij = P_n(t_i) / (P_n(t_j) (t_i - t_j)), the diagonal by the
+// row sums.
+//
+//go:noinline
+func derivative(t []float64) []float64 {
+	n := len(t) - 1
 	pn := make([]float64, n+1)
 	for i, ti := range t {
 		pn[i], _ = legendre(n, ti)
@@ -178,28 +263,31 @@ func newLine(n int, L, k float64, lo, hi *problem.Edge) *line {
 		}
 		d[i*(n+1)+i] = -sum
 	}
-	// S_ik = sum_q w_q D_qi D_qk, times 2/L for the map from [-1, 1]
-	scale := k * 2 / L
+	return d
+}
+
+// stiffness sets a to S_ik = sum_q w_q D_qi D_qk times scale.
+//
+//go:noinline
+func stiffness(a, w, d []float64, scale float64) {
+	n := len(w) - 1
 	for i := 0; i <= n; i++ {
 		for kk := i; kk <= n; kk++ {
 			s := 0.0
 			for q := 0; q <= n; q++ {
 				s += w[q] * d[q*(n+1)+i] * d[q*(n+1)+kk]
 			}
-			ln.a[i*(n+1)+kk], ln.a[kk*(n+1)+i] = s*scale, s*scale
+			a[i*(n+1)+kk], a[kk*(n+1)+i] = s*scale, s*scale
 		}
 	}
-	for end, ed := range [2]*problem.Edge{lo, hi} {
-		at := end * n
-		switch ed.Kind {
-		case problem.Value:
-			ln.held[end] = true
-		case problem.Convection:
-			ln.a[at*(n+1)+at] += ed.Hc
-		}
-	}
-	// barycentric weights 1/prod(t_j - t_k), scaled to 1 at their largest
-	ln.bary = make([]float64, n+1)
+}
+
+// barycentric returns the barycentric weights 1/prod(t_j - t_k) of the
+// nodes t, scaled to 1 at their largest.
+//
+//go:noinline
+func barycentric(t []float64) []float64 {
+	bary := make([]float64, len(t))
 	big := 0.0
 	for j := range t {
 		p := 1.0
@@ -208,13 +296,13 @@ func newLine(n int, L, k float64, lo, hi *problem.Edge) *line {
 				p *= t[j] - t[kk]
 			}
 		}
-		ln.bary[j] = 1 / p
-		big = max(big, math.Abs(ln.bary[j]))
+		bary[j] = 1 / p
+		big = max(big, math.Abs(bary[j]))
 	}
-	for j := range ln.bary {
-		ln.bary[j] /= big
+	for j := range bary {
+		bary[j] /= big
 	}
-	return ln
+	return bary
 }
 
 // free returns the indices of the nodes that hold no value.
@@ -347,25 +435,34 @@ func (f *Field) Grid(nx, ny int, dst []float64) []float64 {
 	// interpolate along y first: t[j][i'] over the x nodes i'
 	t := make([]float64, row)
 	for j := 0; j <= ny; j++ {
-		cy := f.y.interp(min(f.H, float64(j)*f.H/float64(ny)))
-		clear(t)
-		for l, wl := range cy {
-			if wl == 0 {
-				continue
-			}
-			for i := range t {
-				t[i] += wl * f.u[l*row+i]
-			}
-		}
-		for i, c := range cx {
-			s := 0.0
-			for k, v := range c {
-				s += v * t[k]
-			}
-			dst[j*(nx+1)+i] = s
-		}
+		f.gridRow(dst[j*(nx+1):(j+1)*(nx+1)], f.y.interp(min(f.H, float64(j)*f.H/float64(ny))), cx, t)
 	}
 	return dst
+}
+
+// gridRow fills one row of the grid: the field interpolated along y with
+// the weights cy into t, then along x with the weights cx[i] into out[i].
+// A function of its own, not inlined (see loads).
+//
+//go:noinline
+func (f *Field) gridRow(out, cy []float64, cx [][]float64, t []float64) {
+	row := f.x.n + 1
+	clear(t)
+	for l, wl := range cy {
+		if wl == 0 {
+			continue
+		}
+		for i := range t {
+			t[i] += wl * f.u[l*row+i]
+		}
+	}
+	for i, c := range cx {
+		s := 0.0
+		for k, v := range c {
+			s += v * t[k]
+		}
+		out[i] = s
+	}
 }
 
 // Mean returns the mean of the field over the rectangle (GLL rule).
