@@ -57,6 +57,9 @@
         EW.fill(p);
         performance.mark("ew:form");
         root.dataset.formAt = performance.now().toFixed(1);
+        // the boot's load need not fill the inputs again with the same
+        // project (solving.js)
+        EW.firstFilled = JSON.stringify(JSON.parse(EW.jsonText(p)));
       }
     } catch (e) { /* the boot below says what went wrong */ }
   }

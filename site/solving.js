@@ -458,7 +458,12 @@
       throw e;
     }
     if (!out.newest) return JSON.parse(out.reply.result);
-    EW.fill(obj);
+    // the inputs already show this project when the page filled them
+    // before the engine started (app.js) and nothing was typed since:
+    // filling them again cost the first picture 25-50 ms
+    const shown = EW.firstFilled === JSON.stringify(obj) && !store.project();
+    EW.firstFilled = null;
+    if (!shown) EW.fill(obj);
     store.edited(obj);
     previews(obj);
     meantText = JSON.stringify(obj);
