@@ -262,36 +262,36 @@ func (c *compiler) readings(args []*node) int {
 // the stack needs as many slots as the program's height.
 //
 // The loop and the most frequent instructions stay small; the others run
-// in runRest and runLogic, so that the browser optimizes little code when
-// a formula is evaluated at many points (see the package doc of
-// edgewise/solver, Loops in functions of their own).
+// in runRest, runLogic and runMore, so that the browser optimizes little
+// code when a formula is evaluated at many points (see the package doc
+// of edgewise/solver, Loops in functions of their own).
 func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
 	sp, top := 0, 0.0
 	for i := range prog {
 		in := &prog[i]
 		switch in.op {
-		case opConst:
+		case opConst, opVar:
 			st[sp] = top
 			sp++
-			top = in.k
-		case opVar:
-			st[sp] = top
-			sp++
-			top = vals[in.n]
+			if in.op == opConst {
+				top = in.k
+			} else {
+				top = vals[in.n]
+			}
 		case opNeg:
 			top = -top
-		case opAdd:
+		case opAdd, opSub, opMul, opDiv:
 			sp--
-			top = st[sp] + top
-		case opSub:
-			sp--
-			top = st[sp] - top
-		case opMul:
-			sp--
-			top = st[sp] * top
-		case opDiv:
-			sp--
-			top = st[sp] / top
+			switch a := st[sp]; in.op {
+			case opAdd:
+				top = a + top
+			case opSub:
+				top = a - top
+			case opMul:
+				top = a * top
+			default:
+				top = a / top
+			}
 		case opAddK:
 			top += in.k
 		case opSubK:
@@ -315,37 +315,43 @@ func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
 
 // runRest executes for run a function of one argument, a power or an
 // operation with a variable, on the stack st[1:sp] and top, and returns
-// the new sp and top; the other instructions go on to runLogic. It is not
-// inlined, to keep run small (see run).
+// the new sp and top; the other instructions go on to runLogic. It and
+// the functions after it are not inlined, to keep each small (see run).
 //
 //go:noinline
 func runRest(in *instr, tabs []table, vals []float64, st []float64, sp int, top float64) (int, float64) {
 	switch in.op {
 	case opFn1:
 		top = fn1[in.n](top)
-	case opAddV:
-		top += vals[in.n]
-	case opSubV:
-		top -= vals[in.n]
-	case opMulV:
-		top *= vals[in.n]
-	case opDivV:
-		top /= vals[in.n]
-	case opPow:
-		sp--
-		top = math.Pow(st[sp], top)
-	case opPowK:
-		top = math.Pow(top, in.k)
-	case opRPowK:
-		top = math.Pow(in.k, top)
+	case opAddV, opSubV, opMulV, opDivV:
+		switch b := vals[in.n]; in.op {
+		case opAddV:
+			top += b
+		case opSubV:
+			top -= b
+		case opMulV:
+			top *= b
+		default:
+			top /= b
+		}
+	case opPow, opPowK, opRPowK:
+		a, b := top, in.k // opPowK
+		switch in.op {
+		case opPow:
+			sp--
+			a, b = st[sp], top
+		case opRPowK:
+			a, b = in.k, top
+		}
+		top = math.Pow(a, b)
 	default:
 		return runLogic(in, tabs, st, sp, top)
 	}
 	return sp, top
 }
 
-// runLogic executes for runRest the comparisons, when, min, max, atan2,
-// rise and readings.
+// runLogic executes for runRest the comparisons and when; the other
+// instructions go on to runMore.
 //
 //go:noinline
 func runLogic(in *instr, tabs []table, st []float64, sp int, top float64) (int, float64) {
@@ -363,22 +369,39 @@ func runLogic(in *instr, tabs []table, st []float64, sp int, top float64) (int, 
 		default:
 			top = math.NaN()
 		}
-	case opMin:
+	default:
+		return runMore(in, tabs, st, sp, top)
+	}
+	return sp, top
+}
+
+// runMore executes for runLogic min, max, atan2, rise and readings.
+//
+//go:noinline
+func runMore(in *instr, tabs []table, st []float64, sp int, top float64) (int, float64) {
+	switch in.op {
+	case opMin, opMax, opAtan2:
 		sp--
-		top = min(st[sp], top) // NaN if either is NaN
-	case opMax:
-		sp--
-		top = max(st[sp], top)
-	case opAtan2:
-		sp--
-		top = math.Atan2(st[sp], top)
+		switch a := st[sp]; in.op {
+		case opMin:
+			top = min(a, top) // NaN if either is NaN
+		case opMax:
+			top = max(a, top)
+		default:
+			top = math.Atan2(a, top)
+		}
 	case opRise:
 		sp -= 2
 		top = rise(st[sp], st[sp+1], top)
 	case opReadings:
 		top = tabs[in.n].at(top)
 	default:
-		panic(fmt.Sprintf("expr: bad instruction %d", in.op))
+		badInstr(in.op)
 	}
 	return sp, top
+}
+
+// badInstr panics on an instruction that does not exist (a bug).
+func badInstr(o op) {
+	panic(fmt.Sprintf("expr: bad instruction %d", o))
 }
