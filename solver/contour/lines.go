@@ -47,31 +47,31 @@ func rowLines(dst, row, up []float64, fx, y0, y1, level float64) []float64 {
 	}
 	for i := range len(row) - 1 {
 		v00, v10, v11, v01 := row[i], row[i+1], up[i+1], up[i]
-		idx := left
+		right := 0
 		if v10 >= level {
-			idx |= 2
+			right |= 2
 		}
 		if v11 >= level {
-			idx |= 4
+			right |= 4
 		}
-		left = (idx>>1)&1 | (idx<<1)&8 // right corners become the next cell's left ones
+		idx := left | right
+		left = (right>>1)&1 | (right<<1)&8 // right corners become the next cell's left ones
 		if idx == 0 || idx == 15 {
 			continue // includes cells whose NaN corners all compare false
 		}
 		if v00 != v00 || v10 != v10 || v11 != v11 || v01 != v01 {
 			continue // NaN corner
 		}
-		dst = cellLines(dst, idx, float64(i)*fx, float64(i+1)*fx, y0, y1, [4]float64{v00, v10, v11, v01}, level)
+		dst = cellLines(dst, idx, float64(i)*fx, float64(i+1)*fx, y0, y1, v00, v10, v11, v01, level)
 	}
 	return dst
 }
 
 // cellLines appends the segments of the cell [x0, x1] x [y0, y1] of class
-// idx with corner values v (00, 10, 11, 01).
+// idx with corner values v00, v10, v11, v01.
 //
 //go:noinline
-func cellLines(dst []float64, idx int, x0, x1, y0, y1 float64, v [4]float64, level float64) []float64 {
-	v00, v10, v11, v01 := v[0], v[1], v[2], v[3]
+func cellLines(dst []float64, idx int, x0, x1, y0, y1, v00, v10, v11, v01, level float64) []float64 {
 	// Crossing points on the four edges, interpolated from the
 	// lower-index node: bottom (00-10), right (10-11), top (01-11),
 	// left (00-01).
@@ -89,18 +89,17 @@ func cellLines(dst []float64, idx int, x0, x1, y0, y1 float64, v [4]float64, lev
 		ex[3], ey[3] = x0, y0+(level-v00)/(v01-v00)*(y1-y0)
 	}
 	if idx == 5 || idx == 10 {
-		return saddle(dst, idx, &ex, &ey, v, level)
+		return saddle(dst, idx, &ex, &ey, 0.25*(v00+v10+v11+v01) >= level)
 	}
 	a, b := cut[idx][0], cut[idx][1]
 	return seg(dst, ex[a], ey[a], ex[b], ey[b])
 }
 
 // saddle appends the two segments of a saddle cell (class 5 or 10): they
-// cut off the corners unlike the centre.
+// cut off the corners unlike the centre, high or not.
 //
 //go:noinline
-func saddle(dst []float64, idx int, ex, ey *[4]float64, v [4]float64, level float64) []float64 {
-	centreHigh := 0.25*(v[0]+v[1]+v[2]+v[3]) >= level
+func saddle(dst []float64, idx int, ex, ey *[4]float64, centreHigh bool) []float64 {
 	if (idx == 5) == centreHigh {
 		// cut corners 10 (edges 0,1) and 01 (edges 2,3)
 		dst = seg(dst, ex[0], ey[0], ex[1], ey[1])

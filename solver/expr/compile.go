@@ -306,8 +306,10 @@ func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
 			top = in.k / top
 		case opSquare:
 			top *= top
+		case opReadings:
+			top = tabs[in.n].at(top)
 		default:
-			sp, top = runRest(in, tabs, vals, st, sp, top)
+			sp, top = runRest(in, vals, st, sp, top)
 		}
 	}
 	return top
@@ -319,7 +321,7 @@ func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
 // the functions after it are not inlined, to keep each small (see run).
 //
 //go:noinline
-func runRest(in *instr, tabs []table, vals []float64, st []float64, sp int, top float64) (int, float64) {
+func runRest(in *instr, vals []float64, st []float64, sp int, top float64) (int, float64) {
 	switch in.op {
 	case opFn1:
 		top = fn1[in.n](top)
@@ -345,7 +347,7 @@ func runRest(in *instr, tabs []table, vals []float64, st []float64, sp int, top 
 		}
 		top = math.Pow(a, b)
 	default:
-		return runLogic(in, tabs, st, sp, top)
+		return runLogic(in, st, sp, top)
 	}
 	return sp, top
 }
@@ -354,7 +356,7 @@ func runRest(in *instr, tabs []table, vals []float64, st []float64, sp int, top 
 // instructions go on to runMore.
 //
 //go:noinline
-func runLogic(in *instr, tabs []table, st []float64, sp int, top float64) (int, float64) {
+func runLogic(in *instr, st []float64, sp int, top float64) (int, float64) {
 	switch in.op {
 	case opLT, opLE, opGT, opGE:
 		sp--
@@ -370,15 +372,15 @@ func runLogic(in *instr, tabs []table, st []float64, sp int, top float64) (int, 
 			top = math.NaN()
 		}
 	default:
-		return runMore(in, tabs, st, sp, top)
+		return runMore(in, st, sp, top)
 	}
 	return sp, top
 }
 
-// runMore executes for runLogic min, max, atan2, rise and readings.
+// runMore executes for runLogic min, max, atan2 and rise.
 //
 //go:noinline
-func runMore(in *instr, tabs []table, st []float64, sp int, top float64) (int, float64) {
+func runMore(in *instr, st []float64, sp int, top float64) (int, float64) {
 	switch in.op {
 	case opMin, opMax, opAtan2:
 		sp--
@@ -393,8 +395,6 @@ func runMore(in *instr, tabs []table, st []float64, sp int, top float64) (int, f
 	case opRise:
 		sp -= 2
 		top = rise(st[sp], st[sp+1], top)
-	case opReadings:
-		top = tabs[in.n].at(top)
 	default:
 		badInstr(in.op)
 	}
