@@ -142,8 +142,6 @@ func orthogonalize(u, v []float64, rows, cols int) bool {
 
 // columnProducts returns the products u_p.u_p, u_q.u_q and u_p.u_q of
 // columns p and q of u (rows x cols).
-//
-//go:noinline
 func columnProducts(u []float64, rows, cols, p, q int) (alpha, beta, gamma float64) {
 	for i := 0; i < rows; i++ {
 		up, uq := u[i*cols+p], u[i*cols+q]
@@ -204,11 +202,8 @@ func SymEigen(a []float64, n int) (vals, q []float64) {
 	m := symmetric(a, n)
 	q = identity(n)
 	scale := maxAbs(m)
-	tiny := 1e-15 * scale
-	for sweep := 0; sweep < 60 && scale > 0; sweep++ {
-		if !diagonalize(m, q, n, tiny) {
-			break
-		}
+	if scale > 0 {
+		diagonalize(m, q, n, 1e-15*scale)
 	}
 	return diagonal(m, n), q
 }
@@ -238,30 +233,34 @@ func maxAbs(m []float64) float64 {
 	return scale
 }
 
-// diagonalize makes one sweep of the cyclic Jacobi method over the
-// off-diagonal elements of the symmetric n x n matrix m above tiny,
-// turning q's columns alike, and reports whether it rotated any.
+// diagonalize rotates away, sweep after sweep of the cyclic Jacobi
+// method, the off-diagonal elements of the symmetric n x n matrix m above
+// tiny, turning q's columns alike.
 //
 //go:noinline
-func diagonalize(m, q []float64, n int, tiny float64) bool {
-	rotated := false
-	for p := 0; p < n-1; p++ {
-		for r := p + 1; r < n; r++ {
-			apr := m[p*n+r]
-			if math.Abs(apr) <= tiny {
-				continue
+func diagonalize(m, q []float64, n int, tiny float64) {
+	for sweep := 0; sweep < 60; sweep++ {
+		rotated := false
+		for p := 0; p < n-1; p++ {
+			for r := p + 1; r < n; r++ {
+				apr := m[p*n+r]
+				if math.Abs(apr) <= tiny {
+					continue
+				}
+				rotated = true
+				app, arr := m[p*n+p], m[r*n+r]
+				// the angle that zeroes m[p][r]
+				c, s := jacobiAngle((arr - app) / (2 * apr))
+				rotateColumns(m, n, n, p, r, c, s)
+				rotateRows(m, n, p, r, c, s)
+				m[p*n+r], m[r*n+p] = 0, 0
+				rotateColumns(q, n, n, p, r, c, s)
 			}
-			rotated = true
-			app, arr := m[p*n+p], m[r*n+r]
-			// the angle that zeroes m[p][r]
-			c, s := jacobiAngle((arr - app) / (2 * apr))
-			rotateColumns(m, n, n, p, r, c, s)
-			rotateRows(m, n, p, r, c, s)
-			m[p*n+r], m[r*n+p] = 0, 0
-			rotateColumns(q, n, n, p, r, c, s)
+		}
+		if !rotated {
+			return
 		}
 	}
-	return rotated
 }
 
 // diagonal returns the diagonal of the n x n matrix m.
@@ -286,8 +285,6 @@ func jacobiAngle(theta float64) (c, s float64) {
 
 // rotateColumns turns columns p and q of the row-major matrix a (rows x
 // stride) by the rotation (c, s): a_p, a_q <- c a_p - s a_q, s a_p + c a_q.
-//
-//go:noinline
 func rotateColumns(a []float64, rows, stride, p, q int, c, s float64) {
 	for i := 0; i < rows; i++ {
 		ap, aq := a[i*stride+p], a[i*stride+q]
@@ -297,8 +294,6 @@ func rotateColumns(a []float64, rows, stride, p, q int, c, s float64) {
 
 // rotateRows turns rows p and r of the n x n matrix m by the rotation
 // (c, s): m_p, m_r <- c m_p - s m_r, s m_p + c m_r.
-//
-//go:noinline
 func rotateRows(m []float64, n, p, r int, c, s float64) {
 	for k := 0; k < n; k++ {
 		mpk, mrk := m[p*n+k], m[r*n+k]
