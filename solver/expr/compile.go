@@ -261,10 +261,11 @@ func (c *compiler) readings(args []*node) int {
 // the values below it (st[0] takes the empty top of the first push), so
 // the stack needs as many slots as the program's height.
 //
-// The loop and the most frequent instructions stay small; the others run
-// in runRest, runLogic and runMore, so that the browser optimizes little
-// code when a formula is evaluated at many points (see the package doc
-// of edgewise/solver, Loops in functions of their own).
+// The loop and the most frequent instructions stay small (readings too:
+// a table look-up is short, and a call more made it a fifth slower); the
+// others run in runRest, runLogic and runMore, so that the browser
+// optimizes little code when a formula is evaluated at many points (see
+// the package doc of edgewise/solver, Loops in functions of their own).
 func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
 	sp, top := 0, 0.0
 	for i := range prog {
