@@ -151,49 +151,92 @@ func flowFunction(pr *problem.Problem, r *Result, out *Output) (psi []float64, l
 	prev, v := 0, 0.0
 	for t := 0; t < len(nodes); {
 		side := sides[t]
-		// the run of steps along this side
-		end := t
-		for end < len(nodes) && sides[end] == side {
-			end++
-		}
+		end := runEnd(sides, t) // the run of steps along this side
 		h := hx
 		if side == problem.Left || side == problem.Right {
 			h = hy
 		}
-		start, acc := v, make([]float64, 0, end-t)
-		sum, q0 := 0.0, leaving(prev, side)
-		for u := t; u < end; u++ {
-			q1 := leaving(nodes[u], side)
-			sum += (q0 + q1) / 2 * h
-			acc = append(acc, sum)
-			q0 = q1
-		}
+		start, acc := v, trapezoidSums(leaving, side, prev, nodes[t:end], h)
 		corr := edgeCorrection(pr, r, side, acc, func(u int) float64 { return nodeS(side, nodes[t+u], nx, hx, hy) })
-		for u := t; u < end; u++ {
-			val := start + acc[u-t] + corr(u-t)
-			if u < len(nodes)-1 { // the last node is (0, 0): psi stays 0 there (the closure is the balance)
-				psi[nodes[u]] = val
-				lo, hi = min(lo, val), max(hi, val)
-			}
-			v = val
-		}
+		v, lo, hi = setSide(psi, nodes, t, end, start, acc, corr, v, lo, hi)
 		prev, t = nodes[end-1], end
 	}
-	// inside: up each column from the bottom, matching the top
-	for i := 1; i < nx; i++ {
-		col := psi[i]
-		acc := make([]float64, ny+1)
-		acc[0] = col
-		for j := 1; j <= ny; j++ {
-			k0, k1 := (j-1)*(nx+1)+i, j*(nx+1)+i
-			acc[j] = acc[j-1] - pr.Kx*(out.Ux[k0]+out.Ux[k1])/2*hy
-		}
-		miss := psi[ny*(nx+1)+i] - acc[ny]
-		for j := 1; j < ny; j++ {
-			psi[j*(nx+1)+i] = acc[j] + miss*float64(j)/float64(ny)
-		}
-	}
+	interior(psi, pr.Kx, out.Ux, nx, ny, hy)
 	return psi, lo, hi
+}
+
+// The loops of flowFunction run in small functions of their own, so that
+// the browser optimizes little code for a large grid (see the package
+// doc, Loops in functions of their own).
+
+// runEnd returns the end of the run of steps along the side of step t.
+//
+//go:noinline
+func runEnd(sides []problem.Side, t int) int {
+	end := t
+	for end < len(sides) && sides[end] == sides[t] {
+		end++
+	}
+	return end
+}
+
+// trapezoidSums returns the trapezoid sums, step h, of the flow leaving
+// through side at the nodes from prev on, one sum for each of nodes.
+//
+//go:noinline
+func trapezoidSums(leaving func(k int, side problem.Side) float64, side problem.Side, prev int, nodes []int, h float64) []float64 {
+	acc := make([]float64, 0, len(nodes))
+	sum, q0 := 0.0, leaving(prev, side)
+	for _, k := range nodes {
+		q1 := leaving(k, side)
+		sum += (q0 + q1) / 2 * h
+		acc = append(acc, sum)
+		q0 = q1
+	}
+	return acc
+}
+
+// setSide sets psi at the boundary nodes[t:end] of one side from start,
+// the sums acc and the correction corr, and returns the last value and
+// the smallest and largest so far.
+//
+//go:noinline
+func setSide(psi []float64, nodes []int, t, end int, start float64, acc []float64, corr func(u int) float64, v, lo, hi float64) (float64, float64, float64) {
+	for u := t; u < end; u++ {
+		val := start + acc[u-t] + corr(u-t)
+		if u < len(nodes)-1 { // the last node is (0, 0): psi stays 0 there (the closure is the balance)
+			psi[nodes[u]] = val
+			lo, hi = min(lo, val), max(hi, val)
+		}
+		v = val
+	}
+	return v, lo, hi
+}
+
+// interior sets psi inside: up each column from the bottom by the
+// trapezoid rule on kx times the gradient ux, matching the top.
+//
+//go:noinline
+func interior(psi []float64, kx float64, ux []float64, nx, ny int, hy float64) {
+	acc := make([]float64, ny+1)
+	for i := 1; i < nx; i++ {
+		column(psi, acc, kx, ux, i, nx, ny, hy)
+	}
+}
+
+// column sets psi inside column i; acc is room for ny+1 values.
+//
+//go:noinline
+func column(psi, acc []float64, kx float64, ux []float64, i, nx, ny int, hy float64) {
+	acc[0] = psi[i]
+	for j := 1; j <= ny; j++ {
+		k0, k1 := (j-1)*(nx+1)+i, j*(nx+1)+i
+		acc[j] = acc[j-1] - kx*(ux[k0]+ux[k1])/2*hy
+	}
+	miss := psi[ny*(nx+1)+i] - acc[ny]
+	for j := 1; j < ny; j++ {
+		psi[j*(nx+1)+i] = acc[j] + miss*float64(j)/float64(ny)
+	}
 }
 
 // nodeS is the place along side of grid node k.

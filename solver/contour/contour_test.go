@@ -329,3 +329,89 @@ func BenchmarkLinesJoin(b *testing.B) {
 		}
 	}
 }
+
+// joinByMap is Join written plainly with a map of slices: the reference
+// for the hash table of Join.
+func joinByMap(segs []float64) [][]float64 {
+	n := len(segs) / 4
+	if n == 0 {
+		return nil
+	}
+	minX, minY, maxX, maxY := extent(segs)
+	q := 1e-9 * math.Max(maxX-minX, maxY-minY)
+	if !(q > 0) {
+		q = 1e-300
+	}
+	key := func(x, y float64) [2]int64 {
+		return [2]int64{int64(math.Round((x - minX) / q)), int64(math.Round((y - minY) / q))}
+	}
+	ends := map[[2]int64][]int{}
+	used := make([]bool, n)
+	for e := range 2 * n {
+		k := key(segs[2*e], segs[2*e+1])
+		ends[k] = append(ends[k], e)
+	}
+	for s := range n {
+		used[s] = key(segs[4*s], segs[4*s+1]) == key(segs[4*s+2], segs[4*s+3])
+	}
+	grow := func(line []float64) []float64 {
+		for {
+			found := false
+			for _, e := range ends[key(line[len(line)-2], line[len(line)-1])] {
+				if s := e / 2; !used[s] {
+					used[s], found = true, true
+					o := 1 - e%2
+					line = append(line, segs[4*s+2*o], segs[4*s+2*o+1])
+					break
+				}
+			}
+			if !found {
+				return line
+			}
+		}
+	}
+	var lines [][]float64
+	for s := range n {
+		if used[s] {
+			continue
+		}
+		used[s] = true
+		fwd := grow([]float64{segs[4*s], segs[4*s+1], segs[4*s+2], segs[4*s+3]})
+		if key(fwd[0], fwd[1]) == key(fwd[len(fwd)-2], fwd[len(fwd)-1]) {
+			fwd[len(fwd)-2], fwd[len(fwd)-1] = fwd[0], fwd[1]
+		} else if back := grow([]float64{fwd[2], fwd[3], fwd[0], fwd[1]}); len(back) > 4 {
+			var line []float64
+			for k := len(back) - 2; k >= 4; k -= 2 {
+				line = append(line, back[k], back[k+1])
+			}
+			fwd = append(line, fwd...)
+		}
+		lines = append(lines, fwd)
+	}
+	return lines
+}
+
+// Join gives the polylines of joinByMap, bit for bit: for isolines, and
+// for segments between a few lattice points, where many ends meet at one
+// point, segments repeat and some have both ends at one point.
+func TestJoinMatchesMap(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 11)) // seeded
+	var cases [][]float64
+	u := grid(40, 30, 2, 1, func(x, y float64) float64 { return math.Sin(5*x)*math.Cos(7*y) + 0.3*x })
+	for _, c := range Levels(-1, 1.6, 9) {
+		cases = append(cases, Lines(nil, u, 40, 30, 2, 1, c))
+	}
+	for range 50 {
+		segs := make([]float64, 4*(1+rng.IntN(60)))
+		for k := range segs {
+			segs[k] = float64(rng.IntN(4)) * 0.25
+		}
+		cases = append(cases, segs)
+	}
+	for i, segs := range cases {
+		got, want := Join(segs), joinByMap(segs)
+		if fmt.Sprint(got) != fmt.Sprint(want) {
+			t.Errorf("case %d: Join gives %v, want %v", i, got, want)
+		}
+	}
+}

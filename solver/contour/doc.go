@@ -14,7 +14,7 @@
 // value are cut off. Cells with a NaN corner are skipped, so lines stop at
 // missing data. Segments of zero length (a line through a node) are dropped.
 //
-// Join links the segments into polylines through a map keyed on endpoints
+// Join links the segments into polylines through a hash table keyed on endpoints
 // rounded to a small fraction of the drawing's extent; LabelSpots picks a
 // point and a direction on each long enough polyline for a text label.
 package contour

@@ -255,95 +255,154 @@ func (c *compiler) readings(args []*node) int {
 	return len(c.tabs) - 1
 }
 
-// run executes prog on the stack st and returns the value left on top.
+// run executes prog with the stack st and returns the value it leaves.
 // Folding and Eval share it, so a folded constant is exactly what Eval
-// would have computed.
+// would have computed. The top of the stack lives in top; st[1:sp] hold
+// the values below it (st[0] takes the empty top of the first push), so
+// the stack needs as many slots as the program's height.
+//
+// The loop and the most frequent instructions stay small (readings too:
+// a table look-up is short, and a call more made it a fifth slower); the
+// others run in runRest, runLogic and runMore, so that the browser
+// optimizes little code when a formula is evaluated at many points (see
+// the package doc of edgewise/solver, Loops in functions of their own).
 func run(prog []instr, tabs []table, vals []float64, st []float64) float64 {
-	sp := -1
+	sp, top := 0, 0.0
 	for i := range prog {
 		in := &prog[i]
 		switch in.op {
-		case opConst:
+		case opConst, opVar:
+			st[sp] = top
 			sp++
-			st[sp] = in.k
-		case opVar:
-			sp++
-			st[sp] = vals[in.n]
-		case opNeg:
-			st[sp] = -st[sp]
-		case opAdd:
-			sp--
-			st[sp] += st[sp+1]
-		case opSub:
-			sp--
-			st[sp] -= st[sp+1]
-		case opMul:
-			sp--
-			st[sp] *= st[sp+1]
-		case opDiv:
-			sp--
-			st[sp] /= st[sp+1]
-		case opPow:
-			sp--
-			st[sp] = math.Pow(st[sp], st[sp+1])
-		case opAddK:
-			st[sp] += in.k
-		case opSubK:
-			st[sp] -= in.k
-		case opRSubK:
-			st[sp] = in.k - st[sp]
-		case opMulK:
-			st[sp] *= in.k
-		case opDivK:
-			st[sp] /= in.k
-		case opRDivK:
-			st[sp] = in.k / st[sp]
-		case opPowK:
-			st[sp] = math.Pow(st[sp], in.k)
-		case opRPowK:
-			st[sp] = math.Pow(in.k, st[sp])
-		case opAddV:
-			st[sp] += vals[in.n]
-		case opSubV:
-			st[sp] -= vals[in.n]
-		case opMulV:
-			st[sp] *= vals[in.n]
-		case opDivV:
-			st[sp] /= vals[in.n]
-		case opSquare:
-			st[sp] *= st[sp]
-		case opFn1:
-			st[sp] = fn1[in.n](st[sp])
-		case opAtan2:
-			sp--
-			st[sp] = math.Atan2(st[sp], st[sp+1])
-		case opMin:
-			sp--
-			st[sp] = min(st[sp], st[sp+1]) // NaN if either is NaN
-		case opMax:
-			sp--
-			st[sp] = max(st[sp], st[sp+1])
-		case opLT, opLE, opGT, opGE:
-			sp--
-			st[sp] = cmp(in.op, st[sp], st[sp+1])
-		case opSelect:
-			sp -= 2
-			switch st[sp] {
-			case 1:
-				st[sp] = st[sp+1]
-			case 0:
-				st[sp] = st[sp+2]
-			default:
-				st[sp] = math.NaN()
+			if in.op == opConst {
+				top = in.k
+			} else {
+				top = vals[in.n]
 			}
-		case opRise:
-			sp -= 2
-			st[sp] = rise(st[sp], st[sp+1], st[sp+2])
+		case opNeg:
+			top = -top
+		case opAdd, opSub, opMul, opDiv:
+			sp--
+			switch a := st[sp]; in.op {
+			case opAdd:
+				top = a + top
+			case opSub:
+				top = a - top
+			case opMul:
+				top = a * top
+			default:
+				top = a / top
+			}
+		case opAddK:
+			top += in.k
+		case opSubK:
+			top -= in.k
+		case opRSubK:
+			top = in.k - top
+		case opMulK:
+			top *= in.k
+		case opDivK:
+			top /= in.k
+		case opRDivK:
+			top = in.k / top
+		case opSquare:
+			top *= top
 		case opReadings:
-			st[sp] = tabs[in.n].at(st[sp])
+			top = tabs[in.n].at(top)
 		default:
-			panic(fmt.Sprintf("expr: bad instruction %d", in.op))
+			sp, top = runRest(in, vals, st, sp, top)
 		}
 	}
-	return st[0]
+	return top
+}
+
+// runRest executes for run a function of one argument, a power or an
+// operation with a variable, on the stack st[1:sp] and top, and returns
+// the new sp and top; the other instructions go on to runLogic. It and
+// the functions after it are not inlined, to keep each small (see run).
+//
+//go:noinline
+func runRest(in *instr, vals []float64, st []float64, sp int, top float64) (int, float64) {
+	switch in.op {
+	case opFn1:
+		top = fn1[in.n](top)
+	case opAddV, opSubV, opMulV, opDivV:
+		switch b := vals[in.n]; in.op {
+		case opAddV:
+			top += b
+		case opSubV:
+			top -= b
+		case opMulV:
+			top *= b
+		default:
+			top /= b
+		}
+	case opPow, opPowK, opRPowK:
+		a, b := top, in.k // opPowK
+		switch in.op {
+		case opPow:
+			sp--
+			a, b = st[sp], top
+		case opRPowK:
+			a, b = in.k, top
+		}
+		top = math.Pow(a, b)
+	default:
+		return runLogic(in, st, sp, top)
+	}
+	return sp, top
+}
+
+// runLogic executes for runRest the comparisons and when; the other
+// instructions go on to runMore.
+//
+//go:noinline
+func runLogic(in *instr, st []float64, sp int, top float64) (int, float64) {
+	switch in.op {
+	case opLT, opLE, opGT, opGE:
+		sp--
+		top = cmp(in.op, st[sp], top)
+	case opSelect:
+		sp -= 2
+		switch st[sp] {
+		case 1:
+			top = st[sp+1]
+		case 0:
+			// top is the value otherwise
+		default:
+			top = math.NaN()
+		}
+	default:
+		return runMore(in, st, sp, top)
+	}
+	return sp, top
+}
+
+// runMore executes for runLogic min, max, atan2 and rise.
+//
+//go:noinline
+func runMore(in *instr, st []float64, sp int, top float64) (int, float64) {
+	switch in.op {
+	case opMin, opMax, opAtan2:
+		sp--
+		switch a := st[sp]; in.op {
+		case opMin:
+			top = min(a, top) // NaN if either is NaN
+		case opMax:
+			top = max(a, top)
+		default:
+			top = math.Atan2(a, top)
+		}
+	case opRise:
+		sp -= 2
+		top = rise(st[sp], st[sp+1], top)
+	default:
+		badInstr(in.op)
+	}
+	return sp, top
+}
+
+// badInstr panics on an instruction that does not exist (a bug).
+func badInstr(o op) {
+	panic(fmt.Sprintf("expr: bad instruction %d", o))
 }

@@ -458,6 +458,39 @@ func TestDeepStack(t *testing.T) {
 	}
 }
 
+// TestFullStack evaluates programs up to and past a full small stack (run
+// keeps the top of the stack apart and st[0] takes the empty top of the
+// first push): the sums are added in the same order as the program adds
+// them, so the value is exact.
+func TestFullStack(t *testing.T) {
+	x, y, s := at[0], at[1], at[2]
+	for _, inner := range []struct {
+		src string
+		v   float64
+	}{{"x", x}, {"when(x < y, rise(x, y, s), y)", rise(x, y, s)}} {
+		full := false
+		for n := 1; n <= smallStack+2; n++ {
+			src := strings.Repeat("x + (", n) + inner.src + strings.Repeat(")", n)
+			e := mustCompile(t, src)
+			need := stackNeed(e.prog)
+			full = full || need == smallStack
+			if e.small != (need <= smallStack) {
+				t.Errorf("%s: small stack %v for a height of %d", src, e.small, need)
+			}
+			want := inner.v
+			for range n {
+				want = x + want
+			}
+			if got := e.Eval(at); got != want {
+				t.Errorf("%s = %v, want %v", src, got, want)
+			}
+		}
+		if !full {
+			t.Errorf("no program with %s filled the small stack exactly", inner.src)
+		}
+	}
+}
+
 // TestConcurrentEval is meant for -race: one Expr, many goroutines.
 func TestConcurrentEval(t *testing.T) {
 	e := mustCompile(t, "readings(s, 0, 1, 0.5, 3) + when(x < 0.5, sin(x), cos(x))")

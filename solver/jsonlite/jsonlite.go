@@ -249,66 +249,83 @@ func (p *parser) number() Number {
 func (p *parser) str() string {
 	p.i++ // opening quote
 	var out []byte
-	for {
-		if p.i >= len(p.s) {
-			p.fail("text in quotes is not closed")
-		}
+	for p.i < len(p.s) {
 		c := p.s[p.i]
 		switch {
 		case c == '"':
 			p.i++
 			return string(out)
-		case c < 0x20:
-			p.fail("control character in text (write \\n or \\t)")
-		case c == '\\':
+		case c >= 0x20 && c != '\\' && c < utf8.RuneSelf:
+			out = append(out, c)
 			p.i++
-			if p.i >= len(p.s) {
-				p.fail("text in quotes is not closed")
-			}
-			e := p.s[p.i]
-			p.i++
-			switch e {
-			case '"', '\\', '/':
-				out = append(out, e)
-			case 'b':
-				out = append(out, '\b')
-			case 'f':
-				out = append(out, '\f')
-			case 'n':
-				out = append(out, '\n')
-			case 'r':
-				out = append(out, '\r')
-			case 't':
-				out = append(out, '\t')
-			case 'u':
-				r := p.hex4()
-				if utf16.IsSurrogate(r) {
-					// a pair makes one character; a lone half is U+FFFD and
-					// what follows it is read on its own
-					pair := utf8.RuneError
-					if p.i+1 < len(p.s) && p.s[p.i] == '\\' && p.s[p.i+1] == 'u' {
-						at := p.i
-						p.i += 2
-						if pair = utf16.DecodeRune(r, p.hex4()); pair == utf8.RuneError {
-							p.i = at
-						}
-					}
-					r = pair
-				}
-				out = utf8.AppendRune(out, r)
-			default:
-				p.i -= 2
-				p.fail("unknown escape %q after a backslash", rune(e))
-			}
 		default:
-			r, size := utf8.DecodeRune(p.s[p.i:])
-			if r == utf8.RuneError && size == 1 {
-				p.fail("text is not valid UTF-8")
-			}
-			out = append(out, p.s[p.i:p.i+size]...)
-			p.i += size
+			out = p.strSpecial(out, c)
 		}
 	}
+	p.fail("text in quotes is not closed")
+	return ""
+}
+
+// strSpecial reads for str the character at p.i that is not plain ASCII
+// (an escape, a control character or a multi-byte one), appends it to out
+// and returns out. It is a function of its own to keep the loop of str
+// small (see the package doc of edgewise/solver, Loops in functions of
+// their own).
+//
+//go:noinline
+func (p *parser) strSpecial(out []byte, c byte) []byte {
+	switch {
+	case c < 0x20:
+		p.fail("control character in text (write \\n or \\t)")
+	case c == '\\':
+		p.i++
+		if p.i >= len(p.s) {
+			p.fail("text in quotes is not closed")
+		}
+		e := p.s[p.i]
+		p.i++
+		switch e {
+		case '"', '\\', '/':
+			out = append(out, e)
+		case 'b':
+			out = append(out, '\b')
+		case 'f':
+			out = append(out, '\f')
+		case 'n':
+			out = append(out, '\n')
+		case 'r':
+			out = append(out, '\r')
+		case 't':
+			out = append(out, '\t')
+		case 'u':
+			r := p.hex4()
+			if utf16.IsSurrogate(r) {
+				// a pair makes one character; a lone half is U+FFFD and
+				// what follows it is read on its own
+				pair := utf8.RuneError
+				if p.i+1 < len(p.s) && p.s[p.i] == '\\' && p.s[p.i+1] == 'u' {
+					at := p.i
+					p.i += 2
+					if pair = utf16.DecodeRune(r, p.hex4()); pair == utf8.RuneError {
+						p.i = at
+					}
+				}
+				r = pair
+			}
+			out = utf8.AppendRune(out, r)
+		default:
+			p.i -= 2
+			p.fail("unknown escape %q after a backslash", rune(e))
+		}
+	default:
+		r, size := utf8.DecodeRune(p.s[p.i:])
+		if r == utf8.RuneError && size == 1 {
+			p.fail("text is not valid UTF-8")
+		}
+		out = append(out, p.s[p.i:p.i+size]...)
+		p.i += size
+	}
+	return out
 }
 
 func (p *parser) hex4() rune {
@@ -444,37 +461,52 @@ const hexDigits = "0123456789abcdef"
 func appendString(b []byte, s string) []byte {
 	b = append(b, '"')
 	for i := 0; i < len(s); {
-		c := s[i]
-		if c < utf8.RuneSelf {
-			switch {
-			case c == '"' || c == '\\':
-				b = append(b, '\\', c)
-			case c == '\n':
-				b = append(b, '\\', 'n')
-			case c == '\r':
-				b = append(b, '\\', 'r')
-			case c == '\t':
-				b = append(b, '\\', 't')
-			case c < 0x20 || c == '<' || c == '>' || c == '&':
-				b = append(b, '\\', 'u', '0', '0', hexDigits[c>>4], hexDigits[c&0xF])
-			default:
-				b = append(b, c)
-			}
+		if c := s[i]; c >= 0x20 && c < utf8.RuneSelf && c != '"' && c != '\\' && c != '<' && c != '>' && c != '&' {
+			b = append(b, c)
 			i++
 			continue
 		}
-		r, size := utf8.DecodeRuneInString(s[i:])
-		switch {
-		case r == utf8.RuneError && size == 1:
-			b = append(b, `\ufffd`...)
-		case r == '\u2028' || r == '\u2029':
-			b = append(b, '\\', 'u', '2', '0', '2', hexDigits[r&0xF])
-		default:
-			b = append(b, s[i:i+size]...)
-		}
-		i += size
+		b, i = appendSpecial(b, s, i)
 	}
 	return append(b, '"')
+}
+
+// appendSpecial writes for appendString the character at s[i] that needs
+// care (escaped, or more than one byte) and returns b and the index after
+// it. It is a function of its own to keep the loop of appendString small
+// (see the package doc of edgewise/solver, Loops in functions of their
+// own).
+//
+//go:noinline
+func appendSpecial(b []byte, s string, i int) ([]byte, int) {
+	c := s[i]
+	if c < utf8.RuneSelf {
+		switch {
+		case c == '"' || c == '\\':
+			b = append(b, '\\', c)
+		case c == '\n':
+			b = append(b, '\\', 'n')
+		case c == '\r':
+			b = append(b, '\\', 'r')
+		case c == '\t':
+			b = append(b, '\\', 't')
+		case c < 0x20 || c == '<' || c == '>' || c == '&':
+			b = append(b, '\\', 'u', '0', '0', hexDigits[c>>4], hexDigits[c&0xF])
+		default:
+			b = append(b, c)
+		}
+		return b, i + 1
+	}
+	r, size := utf8.DecodeRuneInString(s[i:])
+	switch {
+	case r == utf8.RuneError && size == 1:
+		b = append(b, `\ufffd`...)
+	case r == '\u2028' || r == '\u2029':
+		b = append(b, '\\', 'u', '2', '0', '2', hexDigits[r&0xF])
+	default:
+		b = append(b, s[i:i+size]...)
+	}
+	return b, i + size
 }
 
 // Value writes a tree that Parse returned (objects, arrays, strings,

@@ -85,37 +85,79 @@ func MinNorm(a []float64, rows, cols int, b []float64, rcond float64) []float64 
 	// until all columns of U are orthogonal; then a = U V^T with the
 	// column norms of U the singular values.
 	u := append([]float64(nil), a...)
-	v := make([]float64, cols*cols)
-	for j := 0; j < cols; j++ {
-		v[j*cols+j] = 1
-	}
-	const eps = 1e-15
+	v := identity(cols)
 	for sweep := 0; sweep < 60; sweep++ {
-		rotated := false
-		for p := 0; p < cols-1; p++ {
-			for q := p + 1; q < cols; q++ {
-				alpha, beta, gamma := 0.0, 0.0, 0.0
-				for i := 0; i < rows; i++ {
-					up, uq := u[i*cols+p], u[i*cols+q]
-					alpha += up * up
-					beta += uq * uq
-					gamma += up * uq
-				}
-				if gamma == 0 || math.Abs(gamma) <= eps*math.Sqrt(alpha*beta) {
-					continue
-				}
-				rotated = true
-				c, s := jacobiAngle((beta - alpha) / (2 * gamma))
-				rotateColumns(u, rows, cols, p, q, c, s)
-				rotateColumns(v, cols, cols, p, q, c, s)
-			}
-		}
-		if !rotated {
+		if !orthogonalize(u, v, rows, cols) {
 			break
 		}
 	}
-	sigma := make([]float64, cols)
-	smax := 0.0
+	sigma, smax := columnNorms(u, rows, cols)
+	x := make([]float64, cols)
+	for j, sj := range sigma {
+		if sj == 0 || sj <= rcond*smax {
+			continue
+		}
+		addComponent(x, u, v, rows, cols, j, sj, b)
+	}
+	return x
+}
+
+// The loops of MinNorm and SymEigen run in small functions of their own,
+// so that the browser optimizes little code while they run (see the
+// package doc of edgewise/solver, Loops in functions of their own).
+
+// identity returns the n x n identity matrix.
+//
+//go:noinline
+func identity(n int) []float64 {
+	q := make([]float64, n*n)
+	for i := 0; i < n; i++ {
+		q[i*n+i] = 1
+	}
+	return q
+}
+
+// orthogonalize makes one sweep of the one-sided Jacobi method over the
+// pairs of columns of u (rows x cols), turning v's columns alike, and
+// reports whether it rotated any pair.
+//
+//go:noinline
+func orthogonalize(u, v []float64, rows, cols int) bool {
+	const eps = 1e-15
+	rotated := false
+	for p := 0; p < cols-1; p++ {
+		for q := p + 1; q < cols; q++ {
+			alpha, beta, gamma := columnProducts(u, rows, cols, p, q)
+			if gamma == 0 || math.Abs(gamma) <= eps*math.Sqrt(alpha*beta) {
+				continue
+			}
+			rotated = true
+			c, s := jacobiAngle((beta - alpha) / (2 * gamma))
+			rotateColumns(u, rows, cols, p, q, c, s)
+			rotateColumns(v, cols, cols, p, q, c, s)
+		}
+	}
+	return rotated
+}
+
+// columnProducts returns the products u_p.u_p, u_q.u_q and u_p.u_q of
+// columns p and q of u (rows x cols).
+func columnProducts(u []float64, rows, cols, p, q int) (alpha, beta, gamma float64) {
+	for i := 0; i < rows; i++ {
+		up, uq := u[i*cols+p], u[i*cols+q]
+		alpha += up * up
+		beta += uq * uq
+		gamma += up * uq
+	}
+	return alpha, beta, gamma
+}
+
+// columnNorms returns the norms of the columns of u (rows x cols) and the
+// largest of them.
+//
+//go:noinline
+func columnNorms(u []float64, rows, cols int) (sigma []float64, smax float64) {
+	sigma = make([]float64, cols)
 	for j := range sigma {
 		s := 0.0
 		for i := 0; i < rows; i++ {
@@ -124,22 +166,23 @@ func MinNorm(a []float64, rows, cols int, b []float64, rcond float64) []float64 
 		sigma[j] = math.Sqrt(s)
 		smax = math.Max(smax, sigma[j])
 	}
-	x := make([]float64, cols)
-	for j, sj := range sigma {
-		if sj == 0 || sj <= rcond*smax {
-			continue
-		}
-		// (u_j . b) / sigma_j, with u_j = U[:, j] / sigma_j
-		dot := 0.0
-		for i := 0; i < rows; i++ {
-			dot += u[i*cols+j] * b[i]
-		}
-		f := dot / (sj * sj)
-		for i := range x {
-			x[i] += v[i*cols+j] * f
-		}
+	return sigma, smax
+}
+
+// addComponent adds to x the part of MinNorm's solution along singular
+// value sj, column j of u and v.
+//
+//go:noinline
+func addComponent(x, u, v []float64, rows, cols, j int, sj float64, b []float64) {
+	// (u_j . b) / sigma_j, with u_j = U[:, j] / sigma_j
+	dot := 0.0
+	for i := 0; i < rows; i++ {
+		dot += u[i*cols+j] * b[i]
 	}
-	return x
+	f := dot / (sj * sj)
+	for i := range x {
+		x[i] += v[i*cols+j] * f
+	}
 }
 
 // SymEigen returns the eigenvalues of the symmetric n x n matrix a and its
@@ -156,22 +199,47 @@ func SymEigen(a []float64, n int) (vals, q []float64) {
 	if len(a) != n*n {
 		panic("linalg: SymEigen needs an n x n matrix")
 	}
+	m := symmetric(a, n)
+	q = identity(n)
+	scale := maxAbs(m)
+	if scale > 0 {
+		diagonalize(m, q, n, 1e-15*scale)
+	}
+	return diagonal(m, n), q
+}
+
+// symmetric returns the symmetric n x n matrix whose upper triangle is
+// that of a.
+//
+//go:noinline
+func symmetric(a []float64, n int) []float64 {
 	m := make([]float64, n*n)
 	for i := 0; i < n; i++ {
 		for j := i; j < n; j++ {
 			m[i*n+j], m[j*n+i] = a[i*n+j], a[i*n+j]
 		}
 	}
-	q = make([]float64, n*n)
-	for i := 0; i < n; i++ {
-		q[i*n+i] = 1
-	}
+	return m
+}
+
+// maxAbs returns the largest magnitude in m (0 for none).
+//
+//go:noinline
+func maxAbs(m []float64) float64 {
 	scale := 0.0
 	for _, v := range m {
 		scale = math.Max(scale, math.Abs(v))
 	}
-	tiny := 1e-15 * scale
-	for sweep := 0; sweep < 60 && scale > 0; sweep++ {
+	return scale
+}
+
+// diagonalize rotates away, sweep after sweep of the cyclic Jacobi
+// method, the off-diagonal elements of the symmetric n x n matrix m above
+// tiny, turning q's columns alike.
+//
+//go:noinline
+func diagonalize(m, q []float64, n int, tiny float64) {
+	for sweep := 0; sweep < 60; sweep++ {
 		rotated := false
 		for p := 0; p < n-1; p++ {
 			for r := p + 1; r < n; r++ {
@@ -184,23 +252,26 @@ func SymEigen(a []float64, n int) (vals, q []float64) {
 				// the angle that zeroes m[p][r]
 				c, s := jacobiAngle((arr - app) / (2 * apr))
 				rotateColumns(m, n, n, p, r, c, s)
-				for k := 0; k < n; k++ {
-					mpk, mrk := m[p*n+k], m[r*n+k]
-					m[p*n+k], m[r*n+k] = c*mpk-s*mrk, s*mpk+c*mrk
-				}
+				rotateRows(m, n, p, r, c, s)
 				m[p*n+r], m[r*n+p] = 0, 0
 				rotateColumns(q, n, n, p, r, c, s)
 			}
 		}
 		if !rotated {
-			break
+			return
 		}
 	}
-	vals = make([]float64, n)
+}
+
+// diagonal returns the diagonal of the n x n matrix m.
+//
+//go:noinline
+func diagonal(m []float64, n int) []float64 {
+	vals := make([]float64, n)
 	for i := range vals {
 		vals[i] = m[i*n+i]
 	}
-	return vals, q
+	return vals
 }
 
 // jacobiAngle returns the cosine and sine of the Jacobi rotation for
@@ -218,5 +289,14 @@ func rotateColumns(a []float64, rows, stride, p, q int, c, s float64) {
 	for i := 0; i < rows; i++ {
 		ap, aq := a[i*stride+p], a[i*stride+q]
 		a[i*stride+p], a[i*stride+q] = c*ap-s*aq, s*ap+c*aq
+	}
+}
+
+// rotateRows turns rows p and r of the n x n matrix m by the rotation
+// (c, s): m_p, m_r <- c m_p - s m_r, s m_p + c m_r.
+func rotateRows(m []float64, n, p, r int, c, s float64) {
+	for k := 0; k < n; k++ {
+		mpk, mrk := m[p*n+k], m[r*n+k]
+		m[p*n+k], m[r*n+k] = c*mpk-s*mrk, s*mpk+c*mrk
 	}
 }
