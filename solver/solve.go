@@ -128,7 +128,8 @@ func (s *Solver) Solve(p *project.Project, opt Options) (*Output, error) {
 }
 
 // allFinite says whether every value is finite. It is a function of its
-// own, not inlined, to keep the loop out of Solve's code (see wasmcost.go).
+// own, not inlined, to keep the loop out of Solve's code (see the
+// package doc, "Loops in functions of their own").
 //
 //go:noinline
 func allFinite(u []float64) bool {
