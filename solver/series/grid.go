@@ -334,23 +334,8 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 		// e_k = sum_(n>=k) c_n C(n,k) (i eta)^(n-k), and P' = sum_k (k+1) e_(k+1) X^k,
 		// so the row takes real polynomials in X (as gridPiecesFast)
 		rh := real(prho)
-		eta := complex(0, rh*(y-imag(pz0)))
-		var e [6]complex128
-		for k := 0; k <= 5; k++ {
-			pw := complex(1, 0)
-			for n := k; n <= 5; n++ {
-				e[k] += poly[n] * complex(binom6[n][k], 0) * pw
-				pw *= eta
-			}
-		}
 		var cu, cx, cyy [6]float64
-		for k := 0; k <= 5; k++ {
-			cu[k] = real(e[k])
-			if k < 5 {
-				cx[k] = rh * float64(k+1) * real(e[k+1])
-				cyy[k] = -rh * float64(k+1) * imag(e[k+1])
-			}
-		}
+		rowPolyCoeffs(poly, complex(0, rh*(y-imag(pz0))), rh, &cu, &cx, &cyy)
 		polyRowReal(&q, urow, uxrow, uyrow, hx, rh, real(pz0), cy, gy, &cu, &cx, &cyy)
 	} else {
 		polyRowComplex(&q, urow, uxrow, uyrow, poly, hx, y, cy, gy, pz0, prho)
@@ -373,6 +358,31 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 			continue
 		}
 		logPolyRow(cr, lrow, urow, uxrow, uyrow, hx, y, back, conj, grad)
+	}
+}
+
+// rowPolyCoeffs sets the coefficients of u (cu) and of its gradient (cx,
+// cyy) in powers of X on a row with zeta = X + eta, eta = i rh (y -
+// Im pz0), from those of the smooth polynomial in zeta (piecesRow). It is a function of its own, not inlined, to keep its loop out of a
+// large function (see the package doc of edgewise/solver, Loops in
+// functions of their own).
+//
+//go:noinline
+func rowPolyCoeffs(poly *[6]complex128, eta complex128, rh float64, cu, cx, cyy *[6]float64) {
+	var e [6]complex128
+	for k := 0; k <= 5; k++ {
+		pw := complex(1, 0)
+		for n := k; n <= 5; n++ {
+			e[k] += poly[n] * complex(binom6[n][k], 0) * pw
+			pw *= eta
+		}
+	}
+	for k := 0; k <= 5; k++ {
+		cu[k] = real(e[k])
+		if k < 5 {
+			cx[k] = rh * float64(k+1) * real(e[k+1])
+			cyy[k] = -rh * float64(k+1) * imag(e[k+1])
+		}
 	}
 }
 
@@ -1016,6 +1026,14 @@ func (p *subsPass) chunk(r0, r1 int, buf *rowBuf) {
 	if p.grad {
 		buf.cs, buf.ct = grow(buf.cs, gridChunk*(M+1)), grow(buf.ct, gridChunk*(M+1))
 	}
+	nmax := 0 // the most terms a row can keep
+	if p.near != nil {
+		nmax = p.near.n
+	}
+	if p.far != nil {
+		nmax = max(nmax, p.far.n)
+	}
+	buf.a, buf.b, buf.al = grow(buf.a, nmax), grow(buf.b, nmax), grow(buf.al, nmax)
 	for r := r0; r < r1; r++ {
 		p.row(r, (r-r0)*(M+1), buf)
 	}
@@ -1049,8 +1067,7 @@ func (p *subsPass) row(r, o int, buf *rowBuf) {
 	if n == 0 {
 		return
 	}
-	buf.a, buf.b, buf.al = grow(buf.a, n), grow(buf.b, n), grow(buf.al, n)
-	a, b, al := buf.a, buf.b, buf.al
+	a, b, al := buf.a[:n], buf.b[:n], buf.al[:n]
 	clear(a)
 	clear(b)
 	if near != nil {
@@ -1235,6 +1252,11 @@ func sumTerms4Grad(cu, cs, ct, x, c, a, al, b []float64) {
 	}
 }
 
+// addRow adds src to dst. It is a function of its own, not inlined, to
+// keep its loop out of a larger function (see the package doc of
+// edgewise/solver, Loops in functions of their own); so is addRow2.
+//
+//go:noinline
 func addRow(dst, src []float64) {
 	src = src[:len(dst)]
 	for i := range dst {
@@ -1243,6 +1265,8 @@ func addRow(dst, src []float64) {
 }
 
 // addRow2 adds p a + q b to dst.
+//
+//go:noinline
 func addRow2(dst, a, b []float64, p, q float64) {
 	a, b = a[:len(dst)], b[:len(dst)]
 	for i := range dst {

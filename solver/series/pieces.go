@@ -31,7 +31,11 @@ type piece struct {
 	corner int // corner index for corner pieces, -1 for smooth ones
 }
 
-// ipow returns z^n for n >= 0 by repeated multiplication.
+// ipow returns z^n for n >= 0 by repeated multiplication. It is a
+// function of its own, not inlined, to keep its loop out of piece.f (see
+// the package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
 func ipow(z complex128, n int) complex128 {
 	r := complex(1, 0)
 	for ; n > 0; n-- {

@@ -225,15 +225,20 @@ func projectNodes(b *basis.Basis, r func(s float64) float64, xs, ws, dst []float
 			continue
 		}
 		if b.Uniform {
-			// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
-			sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
-			ds, dc := math.Sincos(math.Pi * s / b.L)
-			addRotated(dst, wr, sn, cs, ds, dc)
+			addNode(b, s, wr, dst)
 			continue
 		}
 		nodes, wrs = append(nodes, s), append(wrs, wr)
 	}
 	return nodes, wrs
+}
+
+// addNode adds wr X_i(s) to dst[i] (i < len(dst)) for a uniform basis b:
+// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L, by rotation.
+func addNode(b *basis.Basis, s, wr float64, dst []float64) {
+	sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
+	ds, dc := math.Sincos(math.Pi * s / b.L)
+	addRotated(dst, wr, sn, cs, ds, dc)
 }
 
 // divideTerms divides d[i] by norm[i]. It is a function of its own, not
@@ -382,16 +387,7 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 	cut := sp.rowTerms(t, 0)
 	var xs, dxs []float64
 	if s == 0 || s == sp.L {
-		end := 0
-		if s == sp.L {
-			end = 1
-		}
-		sp.endOnce[end].Do(func() {
-			x, dx := make([]float64, sp.n), make([]float64, sp.n)
-			sp.b.Row(s, 0, sp.n, x, dx) // the same recurrence: Row's prefix
-			sp.endX[end] = [2][]float64{x, dx}
-		})
-		xs, dxs = sp.endX[end][0], sp.endX[end][1]
+		xs, dxs = sp.endRow(s)
 	}
 	if len(xs) < cut {
 		var xb, dxb [128]float64
@@ -409,6 +405,21 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 		qa, qb = math.Exp(-math.Pi/sp.L*t), math.Exp(-math.Pi/sp.L*(2*sp.D-t))
 	}
 	return sp.sumAt(xs[:cut], dxs[:cut], t, uniform, qa, qb)
+}
+
+// endRow returns X_i(s) and X_i'(s) for all the terms at an end s = 0
+// or s = L, made once.
+func (sp *sub) endRow(s float64) (xs, dxs []float64) {
+	end := 0
+	if s == sp.L {
+		end = 1
+	}
+	sp.endOnce[end].Do(func() {
+		x, dx := make([]float64, sp.n), make([]float64, sp.n)
+		sp.b.Row(s, 0, sp.n, x, dx) // the same recurrence: Row's prefix
+		sp.endX[end] = [2][]float64{x, dx}
+	})
+	return sp.endX[end][0], sp.endX[end][1]
 }
 
 // sumAt returns u, du/ds, du/dt at t from the terms' X_i(s) in xs and
