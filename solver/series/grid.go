@@ -645,9 +645,9 @@ func (s *Solution) fastGradRow(j, nx int, hx, y float64, ux, uy []float64, poly 
 	}
 }
 
-// rowY fills a[i] = Y_i(t) (coefficient included) and b[i] = dY_i/dt for
-// the first n terms of sp.
-func (sp *sub) rowY(t float64, n int, a, b []float64, add bool, sign float64) {
+// rowY adds Y_i(t) (coefficient included) to a[i] and sign dY_i/dt to
+// b[i] for the first n terms of sp.
+func (sp *sub) rowY(t float64, n int, a, b []float64, sign float64) {
 	for i := 0; i < n; i++ {
 		var y, dy float64
 		if sp.zero && i == 0 {
@@ -662,12 +662,8 @@ func (sp *sub) rowY(t float64, n int, a, b []float64, add bool, sign float64) {
 			y = sp.A[i]*ea + sp.B[i]*eb
 			dy = lam * (sp.B[i]*eb - sp.A[i]*ea)
 		}
-		if add {
-			a[i] += y
-			b[i] += sign * dy
-		} else {
-			a[i], b[i] = y, sign*dy
-		}
+		a[i] += y
+		b[i] += sign * dy
 	}
 }
 
@@ -780,8 +776,8 @@ func (p *sinePass) row(sb *sineBuf, r int, du, ds, dt []float64) {
 	a, b := sb.a[:n], sb.b[:n]
 	clear(a)
 	clear(b)
-	s1.rowY(t1, n1, a, b, true, 1)
-	s2.rowY(t2, n2, a, b, true, -1)
+	s1.rowY(t1, n1, a, b, 1)
+	s2.rowY(t2, n2, a, b, -1)
 	if n <= tabTerms {
 		p.s.sineRow(sb, M, a, b, lam0, du, ds, dt)
 		return
@@ -1071,10 +1067,10 @@ func (p *subsPass) row(r, o int, buf *rowBuf) {
 	clear(a)
 	clear(b)
 	if near != nil {
-		near.rowY(t1, n1, a, b, true, 1)
+		near.rowY(t1, n1, a, b, 1)
 	}
 	if far != nil {
-		far.rowY(t2, n2, a, b, true, -1)
+		far.rowY(t2, n2, a, b, -1)
 	}
 	mulTerms(al, a, sp.b.Lambda)
 	sumRow(sp, p.hs, p.xtab, p.ctab, p.nt, a, b, al, cu, cs, ct)
