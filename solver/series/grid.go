@@ -336,9 +336,9 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 		rh := real(prho)
 		var cu, cx, cyy [6]float64
 		rowPolyCoeffs(poly, complex(0, rh*(y-imag(pz0))), rh, &cu, &cx, &cyy)
-		polyRowReal(&q, urow, uxrow, uyrow, hx, rh, real(pz0), cy, gy, &cu, &cx, &cyy)
+		polyRowReal(q, urow, uxrow, uyrow, hx, rh, real(pz0), cy, gy, &cu, &cx, &cyy)
 	} else {
-		polyRowComplex(&q, urow, uxrow, uyrow, poly, hx, y, cy, gy, pz0, prho)
+		polyRowComplex(q, urow, uxrow, uyrow, poly, hx, y, cy, gy, pz0, prho)
 	}
 	for k := range on {
 		cr := &on[k]
@@ -393,7 +393,7 @@ func rowPolyCoeffs(poly *[6]complex128, eta complex128, rh float64, cu, cx, cyy 
 // of edgewise/solver, Loops in functions of their own).
 //
 //go:noinline
-func polyRowReal(q *quadratic, urow, uxrow, uyrow []float64, hx, rh, x0, cy, gy float64, cu, cx, cyy *[6]float64) {
+func polyRowReal(q quadratic, urow, uxrow, uyrow []float64, hx, rh, x0, cy, gy float64, cu, cx, cyy *[6]float64) {
 	for i := range urow {
 		x := float64(i) * hx
 		X := rh * (x - x0)
@@ -411,7 +411,7 @@ func polyRowReal(q *quadratic, urow, uxrow, uyrow []float64, hx, rh, x0, cy, gy 
 // by Horner's rule in zeta = prho (z - pz0).
 //
 //go:noinline
-func polyRowComplex(q *quadratic, urow, uxrow, uyrow []float64, poly *[6]complex128, hx, y, cy, gy float64, pz0, prho complex128) {
+func polyRowComplex(q quadratic, urow, uxrow, uyrow []float64, poly *[6]complex128, hx, y, cy, gy float64, pz0, prho complex128) {
 	grad := uxrow != nil || uyrow != nil
 	for i := range urow {
 		x := float64(i) * hx
@@ -446,10 +446,10 @@ func polyRowComplex(q *quadratic, urow, uxrow, uyrow []float64, poly *[6]complex
 //go:noinline
 func angleRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
 	nx := len(urow) - 1
-	b0 := cr.b[0]
+	b0, rho, z0 := cr.b[0], cr.rho, cr.z0
 	for i := range urow {
 		x := float64(i) * hx
-		zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
+		zc := rho * complex(x-real(z0), y-imag(z0))
 		if zc == 0 {
 			continue // the corner node: Grid sets it from At
 		}
@@ -464,7 +464,7 @@ func angleRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx
 		urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
 		if grad {
 			r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
-			g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * cr.rho
+			g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * rho
 			if uxrow != nil {
 				uxrow[i] += real(g)
 			}
@@ -482,9 +482,10 @@ func angleRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx
 func logPolyRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
 	nx := len(urow) - 1
 	b0, b1, b2, b3 := cr.b[0], cr.b[1], cr.b[2], cr.b[3]
+	rho, z0 := cr.rho, cr.z0
 	for i := range urow {
 		x := float64(i) * hx
-		zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
+		zc := rho * complex(x-real(z0), y-imag(z0))
 		if zc == 0 {
 			continue // the corner node: Grid sets it from At
 		}
@@ -506,7 +507,7 @@ func logPolyRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, 
 				r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
 				d += b0 * complex(real(zc)/r2, -imag(zc)/r2)
 			}
-			g := d * cr.rho
+			g := d * rho
 			if uxrow != nil {
 				uxrow[i] += real(g)
 			}
