@@ -222,8 +222,7 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 // range of the values; it stops at the first value that is not finite or
 // beyond MaxData and returns its index i (else i = -1). It is a function
 // of its own, not inlined, to keep its loop out of a large function (see
-// the package doc of edgewise/solver, Loops in functions of their own);
-// so are countUp and bisect.
+// the package doc of edgewise/solver, Loops in functions of their own).
 //
 //go:noinline
 func sampleEdge(f func(float64) float64, v []float64, L float64) (lo, hi float64, i int) {
@@ -239,6 +238,8 @@ func sampleEdge(f func(float64) float64, v []float64, L float64) (lo, hi float64
 }
 
 // countUp sets idx[i] = i.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func countUp(idx []int) {
@@ -250,6 +251,8 @@ func countUp(idx []int) {
 // bisect narrows [a, b] (f(a) = fa, f(b) = fb) breakBisections times
 // to the half where f changes most. When f is not finite at a midpoint m
 // it returns at once with a = b = m, fa = fb = f(m).
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func bisect(f func(float64) float64, a, b, fa, fb float64) (float64, float64, float64, float64) {

@@ -409,6 +409,8 @@ func polyRowReal(q quadratic, urow, uxrow, uyrow []float64, hx, rh, x0, cy, gy f
 
 // polyRowComplex is polyRowReal for a complex scale prho: the polynomial
 // by Horner's rule in zeta = prho (z - pz0).
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func polyRowComplex(q quadratic, urow, uxrow, uyrow []float64, poly *[6]complex128, hx, y, cy, gy float64, pz0, prho complex128) {
@@ -477,6 +479,8 @@ func angleRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx
 
 // logPolyRow is angleRow for a corner's (b0 + b1 zeta + b2 zeta^2 + b3
 // zeta^3) log zeta.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func logPolyRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
@@ -1089,6 +1093,8 @@ func mulTerms(d, a, l []float64) {
 }
 
 // addRows adds the sums of rows r0 to r1-1 to the grid rows.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func (p *subsPass) addRows(r0, r1 int, buf *rowBuf) {
@@ -1198,6 +1204,8 @@ func addScaled(d, x []float64, c float64) {
 
 // addRotated adds a sin(theta + i delta) to cu_i, from (sn, cn) =
 // (sin, cos) theta and (ds, dc) = (sin, cos) delta by rotation.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func addRotated(cu []float64, a, sn, cn, ds, dc float64) {
@@ -1209,6 +1217,8 @@ func addRotated(cu []float64, a, sn, cn, ds, dc float64) {
 
 // addRotatedGrad is addRotated adding al cos(theta + i delta) to cs and
 // b sin(theta + i delta) to ct as well.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func addRotatedGrad(cu, cs, ct []float64, a, al, b, sn, cn, ds, dc float64) {
@@ -1251,7 +1261,7 @@ func sumTerms4Grad(cu, cs, ct, x, c, a, al, b []float64) {
 
 // addRow adds src to dst. It is a function of its own, not inlined, to
 // keep its loop out of a larger function (see the package doc of
-// edgewise/solver, Loops in functions of their own); so is addRow2.
+// edgewise/solver, Loops in functions of their own).
 //
 //go:noinline
 func addRow(dst, src []float64) {
@@ -1262,6 +1272,8 @@ func addRow(dst, src []float64) {
 }
 
 // addRow2 adds p a + q b to dst.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func addRow2(dst, a, b []float64, p, q float64) {

@@ -349,6 +349,8 @@ func (sp *sub) tailDiff(n int) float64 {
 // tailSumUniform returns the sum of the terms n/2..n-1 at the loaded edge
 // at s for a uniform basis (lambda_i = lambda_0 + i pi/L): by rotation
 // from term n/2.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func (sp *sub) tailSumUniform(s float64, n int) float64 {
@@ -364,6 +366,8 @@ func (sp *sub) tailSumUniform(s float64, n int) float64 {
 }
 
 // tailSumRow is tailSumUniform with the terms' X_i(s) in row.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func (sp *sub) tailSumRow(row []float64, n int) float64 {
@@ -565,8 +569,7 @@ func robinProject(b *basis.Basis, s, w, dst []float64) {
 // and rs, rc to those of pi s/L, and returns sum_j w_j sn_j
 // (robinProject's first term). It is a function of its own, not inlined,
 // to keep its loop out of a large function (see the package doc of
-// edgewise/solver, Loops in functions of their own). So are robinAfresh
-// and robinStep.
+// edgewise/solver, Loops in functions of their own).
 //
 //go:noinline
 func robinStart(b *basis.Basis, s, w, sn, cs, rs, rc []float64) float64 {
@@ -581,6 +584,8 @@ func robinStart(b *basis.Basis, s, w, sn, cs, rs, rc []float64) float64 {
 
 // robinAfresh sets sn, cs to the sine and cosine of lam s + phi at the
 // nodes s and returns sum_j w_j sn_j.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func robinAfresh(lam, phi float64, s, w, sn, cs []float64) float64 {
@@ -594,6 +599,8 @@ func robinAfresh(lam, phi float64, s, w, sn, cs []float64) float64 {
 
 // robinStep rotates sn, cs at the nodes s by (rs, rc) and the small angle
 // dl s + dp, and returns the two halves of sum_j w_j sn_j (even and odd j).
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func robinStep(dl, dp float64, s, w, sn, cs, rs, rc []float64) (sum, sum2 float64) {

@@ -179,6 +179,8 @@ func (b *Basis) Row(s float64, lo, hi int, x, dx []float64) {
 // rowUniform is Row's loop for a basis of evenly spaced terms, lam their
 // eigenvalues, (sn, cs) the sine and cosine of the first at s, (rs, rc)
 // those of pi s/L.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func rowUniform(lam []float64, sn, cs, rs, rc float64, x, dx []float64) {
@@ -194,6 +196,8 @@ func rowUniform(lam []float64, sn, cs, rs, rc float64, x, dx []float64) {
 }
 
 // rowSteps is Row's loop for a basis whose terms are not evenly spaced.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
 //
 //go:noinline
 func (b *Basis) rowSteps(s float64, lo, hi int, sn, cs, rs, rc float64, x, dx []float64) {
