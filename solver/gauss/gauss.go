@@ -81,23 +81,33 @@ func newRule(n int) *rule {
 			continue
 		}
 		x := (1 - 1/(8*fn*fn) + 1/(8*fn*fn*fn)) * math.Cos(math.Pi*(4*float64(k)-1)/(4*fn+2))
-		// Newton converges quadratically from this guess: once a step is
-		// below 1e-10 the next one is at the rounding level; take it and
-		// stop (the cap only guards against a guess gone astray)
-		for it := 0; it < 20; it++ {
-			p, d := legendre(n, x)
-			dx := p / d
-			x -= dx
-			if math.Abs(dx) < 1e-10 {
-				p, d = legendre(n, x)
-				x -= p / d
-				break
-			}
-		}
+		x = newton(n, x)
 		r.x[i], r.w[i] = x, weight(n, x)
 		r.x[n-1-i], r.w[n-1-i] = -x, r.w[i]
 	}
 	return r
+}
+
+// newton returns the root of P_n near the guess x. Newton converges
+// quadratically from newRule's guess: once a step is below 1e-10 the next
+// one is at the rounding level; take it and stop (the cap only guards
+// against a guess gone astray). It is a function of its own, not inlined,
+// to keep its loop out of a larger function (see the package doc of
+// edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func newton(n int, x float64) float64 {
+	for it := 0; it < 20; it++ {
+		p, d := legendre(n, x)
+		dx := p / d
+		x -= dx
+		if math.Abs(dx) < 1e-10 {
+			p, d = legendre(n, x)
+			x -= p / d
+			break
+		}
+	}
+	return x
 }
 
 // legendre returns P_n(x) and P_n'(x) for |x| < 1.

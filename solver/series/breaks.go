@@ -169,16 +169,12 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 	}
 	L := p.Length(side)
 	v := make([]float64, breakSamples+1)
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for i := range v {
-		v[i] = e.F(L * float64(i) / breakSamples)
-		if v[i]-v[i] != 0 {
-			return nil, &problem.NonFiniteError{Side: side, S: L * float64(i) / breakSamples}
-		}
-		if math.Abs(v[i]) > MaxData {
-			return nil, &DataRangeError{Side: side, S: L * float64(i) / breakSamples, V: v[i]}
-		}
-		lo, hi = min(lo, v[i]), max(hi, v[i])
+	lo, hi, i := sampleEdge(e.F, v, L)
+	if i >= 0 && v[i]-v[i] != 0 {
+		return nil, &problem.NonFiniteError{Side: side, S: L * float64(i) / breakSamples}
+	}
+	if i >= 0 {
+		return nil, &DataRangeError{Side: side, S: L * float64(i) / breakSamples, V: v[i]}
 	}
 	if hi-lo <= 0 {
 		return nil, nil
@@ -187,9 +183,7 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 		return nil, &PoleError{Side: side, S: s0}
 	}
 	idx := make([]int, breakSamples)
-	for i := range idx {
-		idx[i] = i
-	}
+	countUp(idx)
 	sort.Slice(idx, func(a, b int) bool {
 		return math.Abs(v[idx[a]+1]-v[idx[a]]) > math.Abs(v[idx[b]+1]-v[idx[b]])
 	})
@@ -201,21 +195,10 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 		if size <= 1e-6*(hi-lo) {
 			break
 		}
-		for k := 0; k < breakBisections && b-a > 0; k++ {
-			m := (a + b) / 2
-			if m <= a || m >= b {
-				break
-			}
-			fm := e.F(m)
-			if fm-fm != 0 {
-				// infinite where the data change most: a pole hit exactly
-				return nil, &PoleError{Side: side, S: m}
-			}
-			if math.Abs(fm-fa) >= math.Abs(fb-fm) {
-				b, fb = m, fm
-			} else {
-				a, fa = m, fm
-			}
+		a, b, fa, fb = bisect(e.F, a, b, fa, fb)
+		if fa-fa != 0 || fb-fb != 0 {
+			// infinite where the data change most: a pole hit exactly
+			return nil, &PoleError{Side: side, S: a}
 		}
 		s0 := (a + b) / 2
 		if a >= 1e-9*L && b <= L*(1-1e-9) && isPole(e.F, s0, L) {
@@ -233,6 +216,62 @@ func edgeBreaks(p *problem.Problem, side problem.Side) ([]Break, error) {
 		}
 	}
 	return append(out, edgeKinks(e.F, side, v, L, hi-lo, out)...), nil
+}
+
+// sampleEdge sets v[i] = f(L i / breakSamples) in turn and returns the
+// range of the values; it stops at the first value that is not finite or
+// beyond MaxData and returns its index i (else i = -1). It is a function
+// of its own, not inlined, to keep its loop out of a large function (see
+// the package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func sampleEdge(f func(float64) float64, v []float64, L float64) (lo, hi float64, i int) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for i := range v {
+		v[i] = f(L * float64(i) / breakSamples)
+		if v[i]-v[i] != 0 || math.Abs(v[i]) > MaxData {
+			return lo, hi, i
+		}
+		lo, hi = min(lo, v[i]), max(hi, v[i])
+	}
+	return lo, hi, -1
+}
+
+// countUp sets idx[i] = i.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func countUp(idx []int) {
+	for i := range idx {
+		idx[i] = i
+	}
+}
+
+// bisect narrows [a, b] (f(a) = fa, f(b) = fb) breakBisections times
+// to the half where f changes most. When f is not finite at a midpoint m
+// it returns at once with a = b = m, fa = fb = f(m).
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func bisect(f func(float64) float64, a, b, fa, fb float64) (float64, float64, float64, float64) {
+	for k := 0; k < breakBisections && b-a > 0; k++ {
+		m := (a + b) / 2
+		if m <= a || m >= b {
+			break
+		}
+		fm := f(m)
+		if fm-fm != 0 {
+			return m, m, fm, fm
+		}
+		if math.Abs(fm-fa) >= math.Abs(fb-fm) {
+			b, fb = m, fm
+		} else {
+			a, fa = m, fm
+		}
+	}
+	return a, b, fa, fb
 }
 
 // Kinks: a sample whose second difference stands out from those two

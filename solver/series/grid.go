@@ -334,60 +334,14 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 		// e_k = sum_(n>=k) c_n C(n,k) (i eta)^(n-k), and P' = sum_k (k+1) e_(k+1) X^k,
 		// so the row takes real polynomials in X (as gridPiecesFast)
 		rh := real(prho)
-		eta := complex(0, rh*(y-imag(pz0)))
-		var e [6]complex128
-		for k := 0; k <= 5; k++ {
-			pw := complex(1, 0)
-			for n := k; n <= 5; n++ {
-				e[k] += poly[n] * complex(binom6[n][k], 0) * pw
-				pw *= eta
-			}
-		}
 		var cu, cx, cyy [6]float64
-		for k := 0; k <= 5; k++ {
-			cu[k] = real(e[k])
-			if k < 5 {
-				cx[k] = rh * float64(k+1) * real(e[k+1])
-				cyy[k] = -rh * float64(k+1) * imag(e[k+1])
-			}
-		}
-		x0 := real(pz0)
-		for i := range urow {
-			x := float64(i) * hx
-			X := rh * (x - x0)
-			urow[i] += q.A*x*x + q.B*x + cy + ((((cu[5]*X+cu[4])*X+cu[3])*X+cu[2])*X+cu[1])*X + cu[0]
-			if uxrow != nil {
-				uxrow[i] += 2*q.A*x + q.B + (((cx[4]*X+cx[3])*X+cx[2])*X+cx[1])*X + cx[0]
-			}
-			if uyrow != nil {
-				uyrow[i] += -gy + (((cyy[4]*X+cyy[3])*X+cyy[2])*X+cyy[1])*X + cyy[0]
-			}
-		}
+		rowPolyCoeffs(poly, complex(0, rh*(y-imag(pz0))), rh, &cu, &cx, &cyy)
+		polyRowReal(q, urow, uxrow, uyrow, hx, rh, real(pz0), cy, gy, &cu, &cx, &cyy)
 	} else {
-		for i := range urow {
-			x := float64(i) * hx
-			z := prho * complex(x-real(pz0), y-imag(pz0))
-			pv := poly[5]
-			pd := complex(0, 0)
-			for n := 4; n >= 0; n-- {
-				if grad {
-					pd = pd*z + pv
-				}
-				pv = pv*z + poly[n]
-			}
-			urow[i] += q.A*x*x + q.B*x + cy + real(pv)
-			if grad {
-				g := complex(2*q.A*x+q.B, gy) + pd*prho // u_x - i u_y
-				if uxrow != nil {
-					uxrow[i] += real(g)
-				}
-				if uyrow != nil {
-					uyrow[i] -= imag(g)
-				}
-			}
-		}
+		polyRowComplex(q, urow, uxrow, uyrow, poly, hx, y, cy, gy, pz0, prho)
 	}
-	for _, cr := range on {
+	for k := range on {
+		cr := &on[k]
 		// log zeta_c on this row: the table's row j (corners 0, 1) or
 		// ny - j (2, 3), read backwards for corners 1 and 2, and
 		// i pi/2 + conj(...) for corners 1 and 3
@@ -398,53 +352,171 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 		lrow := w.logs[lr*(nx+1) : (lr+1)*(nx+1)]
 		back := cr.c == 1 || cr.c == 2
 		conj := cr.c == 1 || cr.c == 3
-		b0, b1, b2, b3 := cr.b[0], cr.b[1], cr.b[2], cr.b[3]
-		for i := range urow {
-			x := float64(i) * hx
-			zc := cr.rho * complex(x-real(cr.z0), y-imag(cr.z0))
-			if zc == 0 {
-				continue // the corner node: Grid sets it from At
-			}
-			ii := i
-			if back {
-				ii = nx - i
-			}
-			l := lrow[ii]
-			if conj {
-				l = complex(real(l), math.Pi/2-imag(l))
-			}
-			if b1 == 0 && b2 == 0 && b3 == 0 {
-				// b0 log zeta alone (an angle function when b0 is imaginary)
-				urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
-				if grad {
-					r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
-					g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * cr.rho
-					if uxrow != nil {
-						uxrow[i] += real(g)
-					}
-					if uyrow != nil {
-						uyrow[i] -= imag(g)
-					}
-				}
-				continue
-			}
-			pl := b0 + zc*(b1+zc*(b2+zc*b3))
-			urow[i] += real(pl * l)
+		if cr.b[1] == 0 && cr.b[2] == 0 && cr.b[3] == 0 {
+			// b0 log zeta alone (an angle function when b0 is imaginary)
+			angleRow(cr, lrow, urow, uxrow, uyrow, hx, y, back, conj, grad)
+			continue
+		}
+		logPolyRow(cr, lrow, urow, uxrow, uyrow, hx, y, back, conj, grad)
+	}
+}
+
+// rowPolyCoeffs sets the coefficients of u (cu) and of its gradient (cx,
+// cyy) in powers of X on a row with zeta = X + eta, eta = i rh (y -
+// Im pz0), from those of the smooth polynomial in zeta (piecesRow). It is a function of its own, not inlined, to keep its loop out of a
+// large function (see the package doc of edgewise/solver, Loops in
+// functions of their own).
+//
+//go:noinline
+func rowPolyCoeffs(poly *[6]complex128, eta complex128, rh float64, cu, cx, cyy *[6]float64) {
+	var e [6]complex128
+	for k := 0; k <= 5; k++ {
+		pw := complex(1, 0)
+		for n := k; n <= 5; n++ {
+			e[k] += poly[n] * complex(binom6[n][k], 0) * pw
+			pw *= eta
+		}
+	}
+	for k := 0; k <= 5; k++ {
+		cu[k] = real(e[k])
+		if k < 5 {
+			cx[k] = rh * float64(k+1) * real(e[k+1])
+			cyy[k] = -rh * float64(k+1) * imag(e[k+1])
+		}
+	}
+}
+
+// polyRowReal adds the quadratic q and the smooth polynomial, in real
+// powers of X = rh (x - x0) with coefficients cu (cx, cyy for the
+// gradient), on a row of piecesRow. It is a function of its own, not
+// inlined, to keep its loop out of a large function (see the package doc
+// of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func polyRowReal(q quadratic, urow, uxrow, uyrow []float64, hx, rh, x0, cy, gy float64, cu, cx, cyy *[6]float64) {
+	for i := range urow {
+		x := float64(i) * hx
+		X := rh * (x - x0)
+		urow[i] += q.A*x*x + q.B*x + cy + ((((cu[5]*X+cu[4])*X+cu[3])*X+cu[2])*X+cu[1])*X + cu[0]
+		if uxrow != nil {
+			uxrow[i] += 2*q.A*x + q.B + (((cx[4]*X+cx[3])*X+cx[2])*X+cx[1])*X + cx[0]
+		}
+		if uyrow != nil {
+			uyrow[i] += -gy + (((cyy[4]*X+cyy[3])*X+cyy[2])*X+cyy[1])*X + cyy[0]
+		}
+	}
+}
+
+// polyRowComplex is polyRowReal for a complex scale prho: the polynomial
+// by Horner's rule in zeta = prho (z - pz0).
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func polyRowComplex(q quadratic, urow, uxrow, uyrow []float64, poly *[6]complex128, hx, y, cy, gy float64, pz0, prho complex128) {
+	grad := uxrow != nil || uyrow != nil
+	for i := range urow {
+		x := float64(i) * hx
+		z := prho * complex(x-real(pz0), y-imag(pz0))
+		pv := poly[5]
+		pd := complex(0, 0)
+		for n := 4; n >= 0; n-- {
 			if grad {
-				// d/dzeta (pl log zeta) = pl' log zeta + pl/zeta, with
-				// b0/zeta = b0 conj(zeta)/|zeta|^2
-				d := (b1+zc*(2*b2+3*zc*b3))*l + b1 + zc*(b2+zc*b3)
-				if b0 != 0 {
-					r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
-					d += b0 * complex(real(zc)/r2, -imag(zc)/r2)
-				}
-				g := d * cr.rho
-				if uxrow != nil {
-					uxrow[i] += real(g)
-				}
-				if uyrow != nil {
-					uyrow[i] -= imag(g)
-				}
+				pd = pd*z + pv
+			}
+			pv = pv*z + poly[n]
+		}
+		urow[i] += q.A*x*x + q.B*x + cy + real(pv)
+		if grad {
+			g := complex(2*q.A*x+q.B, gy) + pd*prho // u_x - i u_y
+			if uxrow != nil {
+				uxrow[i] += real(g)
+			}
+			if uyrow != nil {
+				uyrow[i] -= imag(g)
+			}
+		}
+	}
+}
+
+// angleRow adds a corner's b0 log zeta (an angle function when b0 is
+// imaginary), its logarithm from lrow (read backwards when back, i pi/2 +
+// conj(...) when conj), on a row y of piecesRow. It is a function of its
+// own, not inlined, to keep its loop out of a large function (see the
+// package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func angleRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
+	nx := len(urow) - 1
+	b0, rho, z0 := cr.b[0], cr.rho, cr.z0
+	for i := range urow {
+		x := float64(i) * hx
+		zc := rho * complex(x-real(z0), y-imag(z0))
+		if zc == 0 {
+			continue // the corner node: Grid sets it from At
+		}
+		ii := i
+		if back {
+			ii = nx - i
+		}
+		l := lrow[ii]
+		if conj {
+			l = complex(real(l), math.Pi/2-imag(l))
+		}
+		urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
+		if grad {
+			r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+			g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * rho
+			if uxrow != nil {
+				uxrow[i] += real(g)
+			}
+			if uyrow != nil {
+				uyrow[i] -= imag(g)
+			}
+		}
+	}
+}
+
+// logPolyRow is angleRow for a corner's (b0 + b1 zeta + b2 zeta^2 + b3
+// zeta^3) log zeta.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func logPolyRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
+	nx := len(urow) - 1
+	b0, b1, b2, b3 := cr.b[0], cr.b[1], cr.b[2], cr.b[3]
+	rho, z0 := cr.rho, cr.z0
+	for i := range urow {
+		x := float64(i) * hx
+		zc := rho * complex(x-real(z0), y-imag(z0))
+		if zc == 0 {
+			continue // the corner node: Grid sets it from At
+		}
+		ii := i
+		if back {
+			ii = nx - i
+		}
+		l := lrow[ii]
+		if conj {
+			l = complex(real(l), math.Pi/2-imag(l))
+		}
+		pl := b0 + zc*(b1+zc*(b2+zc*b3))
+		urow[i] += real(pl * l)
+		if grad {
+			// d/dzeta (pl log zeta) = pl' log zeta + pl/zeta, with
+			// b0/zeta = b0 conj(zeta)/|zeta|^2
+			d := (b1+zc*(2*b2+3*zc*b3))*l + b1 + zc*(b2+zc*b3)
+			if b0 != 0 {
+				r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+				d += b0 * complex(real(zc)/r2, -imag(zc)/r2)
+			}
+			g := d * rho
+			if uxrow != nil {
+				uxrow[i] += real(g)
+			}
+			if uyrow != nil {
+				uyrow[i] -= imag(g)
 			}
 		}
 	}
@@ -578,9 +650,9 @@ func (s *Solution) fastGradRow(j, nx int, hx, y float64, ux, uy []float64, poly 
 	}
 }
 
-// rowY fills a[i] = Y_i(t) (coefficient included) and b[i] = dY_i/dt for
-// the first n terms of sp.
-func (sp *sub) rowY(t float64, n int, a, b []float64, add bool, sign float64) {
+// rowY adds Y_i(t) (coefficient included) to a[i] and sign dY_i/dt to
+// b[i] for the first n terms of sp.
+func (sp *sub) rowY(t float64, n int, a, b []float64, sign float64) {
 	for i := 0; i < n; i++ {
 		var y, dy float64
 		if sp.zero && i == 0 {
@@ -595,12 +667,8 @@ func (sp *sub) rowY(t float64, n int, a, b []float64, add bool, sign float64) {
 			y = sp.A[i]*ea + sp.B[i]*eb
 			dy = lam * (sp.B[i]*eb - sp.A[i]*ea)
 		}
-		if add {
-			a[i] += y
-			b[i] += sign * dy
-		} else {
-			a[i], b[i] = y, sign*dy
-		}
+		a[i] += y
+		b[i] += sign * dy
 	}
 }
 
@@ -713,8 +781,8 @@ func (p *sinePass) row(sb *sineBuf, r int, du, ds, dt []float64) {
 	a, b := sb.a[:n], sb.b[:n]
 	clear(a)
 	clear(b)
-	s1.rowY(t1, n1, a, b, true, 1)
-	s2.rowY(t2, n2, a, b, true, -1)
+	s1.rowY(t1, n1, a, b, 1)
+	s2.rowY(t2, n2, a, b, -1)
 	if n <= tabTerms {
 		p.s.sineRow(sb, M, a, b, lam0, du, ds, dt)
 		return
@@ -902,99 +970,171 @@ func (s *Solution) gridSubs(near, far *sub, nx, ny int, cut float64, u, ux, uy [
 	}
 	hs := sp.L / float64(M)
 	w := s.gw
-	grad := ux != nil || uy != nil
 	// Tables of X_k and cos(lambda_k s + phi_k) on the nodes for the first
 	// terms (every row uses them); later terms by rotation.
 	nt := min(sp.n, maxTab, tabEntries/(M+1))
 	w.xtab, w.ctab = grow(w.xtab, nt*(M+1)), grow(w.ctab, nt*(M+1))
-	for k := 0; k < nt; k++ {
-		sn, cn := math.Sincos(sp.b.Phi[k])
-		ds, dc := math.Sincos(sp.b.Lambda[k] * hs)
-		xs, cs := w.xtab[k*(M+1):(k+1)*(M+1)], w.ctab[k*(M+1):(k+1)*(M+1)]
+	rotationTables(w.xtab, w.ctab, sp.b.Lambda[:nt], sp.b.Phi[:nt], hs, M)
+	p := &subsPass{near: near, far: far, sp: sp, M: M, rows: rows, nx: nx, nt: nt,
+		hs: hs, cut: cut, vert: vert, grad: ux != nil || uy != nil,
+		xtab: w.xtab, ctab: w.ctab, u: u, ux: ux, uy: uy}
+	// (du/ds, du/dt) to (ux, uy) in the near side's frame (sub.global):
+	// the far side's t runs the other way, hence its sign -1 in rowY
+	p.sx, p.tx, p.sy, p.ty = 1, 0, 0, 1
+	if vert {
+		p.sx, p.tx, p.sy, p.ty = 0, 1, 1, 0
+	}
+	s.gridRows(rows+1, p.chunk)
+}
+
+// rotationTables fills xt and ct, M+1 values per term, with
+// sin(lambda_k s_i + phi_k) and its cosine at s_i = i hs, by rotation.
+// It is a function of its own, not inlined, to keep its loop out of a
+// large function (see the package doc of edgewise/solver, Loops in
+// functions of their own).
+//
+//go:noinline
+func rotationTables(xt, ct, lambda, phi []float64, hs float64, M int) {
+	for k := range phi {
+		sn, cn := math.Sincos(phi[k])
+		ds, dc := math.Sincos(lambda[k] * hs)
+		xs, cs := xt[k*(M+1):(k+1)*(M+1)], ct[k*(M+1):(k+1)*(M+1)]
 		for i := range xs {
 			xs[i], cs[i] = sn, cn
 			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
 		}
 	}
-	// (du/ds, du/dt) to (ux, uy) in the near side's frame (sub.global):
-	// the far side's t runs the other way, hence its sign -1 in rowY
-	sx, tx, sy, ty := 1.0, 0.0, 0.0, 1.0
-	if vert {
-		sx, tx, sy, ty = 0, 1, 1, 0
+}
+
+// subsPass is one pair's summation on the grid (gridSubs): near and far
+// (either may be nil) in the basis of sp, M intervals along each of the
+// rows+1 rows, the first nt terms from the tables xtab and ctab, and
+// (du/ds, du/dt) to (ux, uy) by (sx, tx) and (sy, ty).
+type subsPass struct {
+	near, far, sp   *sub
+	M, rows, nx, nt int
+	hs, cut         float64
+	vert, grad      bool
+	xtab, ctab      []float64
+	u, ux, uy       []float64
+	sx, tx, sy, ty  float64
+}
+
+// chunk sums rows r0 to r1-1 into buf and adds them to the grid.
+func (p *subsPass) chunk(r0, r1 int, buf *rowBuf) {
+	M := p.M
+	buf.cu = grow(buf.cu, gridChunk*(M+1))
+	if p.grad {
+		buf.cs, buf.ct = grow(buf.cs, gridChunk*(M+1)), grow(buf.ct, gridChunk*(M+1))
 	}
-	xtab, ctab := w.xtab, w.ctab
-	s.gridRows(rows+1, func(r0, r1 int, buf *rowBuf) {
-		buf.cu = grow(buf.cu, gridChunk*(M+1))
-		if grad {
-			buf.cs, buf.ct = grow(buf.cs, gridChunk*(M+1)), grow(buf.ct, gridChunk*(M+1))
+	nmax := 0 // the most terms a row can keep
+	if p.near != nil {
+		nmax = p.near.n
+	}
+	if p.far != nil {
+		nmax = max(nmax, p.far.n)
+	}
+	buf.a, buf.b, buf.al = grow(buf.a, nmax), grow(buf.b, nmax), grow(buf.al, nmax)
+	for r := r0; r < r1; r++ {
+		p.row(r, (r-r0)*(M+1), buf)
+	}
+	if !p.vert {
+		p.addRows(r0, r1, buf)
+		return
+	}
+	p.addColumns(r0, r1, buf)
+}
+
+// row sums row r into buf's sums from o on.
+func (p *subsPass) row(r, o int, buf *rowBuf) {
+	M, rows, near, far, sp := p.M, p.rows, p.near, p.far, p.sp
+	cu := buf.cu[o : o+M+1]
+	clear(cu)
+	var cs, ct []float64
+	if p.grad {
+		cs, ct = buf.cs[o:o+M+1], buf.ct[o:o+M+1]
+		clear(cs)
+		clear(ct)
+	}
+	t1, t2 := sp.D*float64(r)/float64(rows), sp.D*float64(rows-r)/float64(rows)
+	n1, n2 := 0, 0
+	if near != nil {
+		n1 = near.rowTerms(t1, p.cut)
+	}
+	if far != nil {
+		n2 = far.rowTerms(t2, p.cut)
+	}
+	n := max(n1, n2)
+	if n == 0 {
+		return
+	}
+	a, b, al := buf.a[:n], buf.b[:n], buf.al[:n]
+	clear(a)
+	clear(b)
+	if near != nil {
+		near.rowY(t1, n1, a, b, 1)
+	}
+	if far != nil {
+		far.rowY(t2, n2, a, b, -1)
+	}
+	mulTerms(al, a, sp.b.Lambda)
+	sumRow(sp, p.hs, p.xtab, p.ctab, p.nt, a, b, al, cu, cs, ct)
+}
+
+// mulTerms sets d_k = a_k l_k for k < len(d). It is a function of its
+// own, not inlined, to keep its loop out of a large function (see the
+// package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func mulTerms(d, a, l []float64) {
+	for k := range d {
+		d[k] = a[k] * l[k]
+	}
+}
+
+// addRows adds the sums of rows r0 to r1-1 to the grid rows.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func (p *subsPass) addRows(r0, r1 int, buf *rowBuf) {
+	M, nx, u, ux, uy := p.M, p.nx, p.u, p.ux, p.uy
+	for r := r0; r < r1; r++ {
+		o, g := (r-r0)*(M+1), r*(nx+1)
+		addRow(u[g:g+M+1], buf.cu[o:o+M+1])
+		if ux != nil {
+			addRow2(ux[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], p.sx, p.tx)
 		}
-		for r := r0; r < r1; r++ {
-			o := (r - r0) * (M + 1)
-			cu := buf.cu[o : o+M+1]
-			clear(cu)
-			var cs, ct []float64
-			if grad {
-				cs, ct = buf.cs[o:o+M+1], buf.ct[o:o+M+1]
-				clear(cs)
-				clear(ct)
-			}
-			t1, t2 := sp.D*float64(r)/float64(rows), sp.D*float64(rows-r)/float64(rows)
-			n1, n2 := 0, 0
-			if near != nil {
-				n1 = near.rowTerms(t1, cut)
-			}
-			if far != nil {
-				n2 = far.rowTerms(t2, cut)
-			}
-			n := max(n1, n2)
-			if n == 0 {
-				continue
-			}
-			buf.a, buf.b, buf.al = grow(buf.a, n), grow(buf.b, n), grow(buf.al, n)
-			a, b, al := buf.a, buf.b, buf.al
-			clear(a)
-			clear(b)
-			if near != nil {
-				near.rowY(t1, n1, a, b, true, 1)
-			}
-			if far != nil {
-				far.rowY(t2, n2, a, b, true, -1)
-			}
-			for k := range al {
-				al[k] = a[k] * sp.b.Lambda[k]
-			}
-			sumRow(sp, hs, xtab, ctab, nt, a, b, al, cu, cs, ct)
+		if uy != nil {
+			addRow2(uy[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], p.sy, p.ty)
 		}
-		if !vert {
-			for r := r0; r < r1; r++ {
-				o, g := (r-r0)*(M+1), r*(nx+1)
-				addRow(u[g:g+M+1], buf.cu[o:o+M+1])
-				if ux != nil {
-					addRow2(ux[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], sx, tx)
-				}
-				if uy != nil {
-					addRow2(uy[g:g+M+1], buf.cs[o:o+M+1], buf.ct[o:o+M+1], sy, ty)
-				}
+	}
+}
+
+// addColumns adds the sums of rows r0 to r1-1 to the grid columns: a
+// column of the grid per row, the chunk's rows next to each other in
+// every grid row. It is a function of its own, not inlined, to keep its
+// loop out of a large function (see the package doc of edgewise/solver,
+// Loops in functions of their own).
+//
+//go:noinline
+func (p *subsPass) addColumns(r0, r1 int, buf *rowBuf) {
+	M, nx, u, ux, uy := p.M, p.nx, p.u, p.ux, p.uy
+	sx, tx, sy, ty := p.sx, p.tx, p.sy, p.ty
+	nr := r1 - r0
+	for i := 0; i <= M; i++ {
+		g := i*(nx+1) + r0
+		for j := 0; j < nr; j++ {
+			o := j*(M+1) + i
+			u[g+j] += buf.cu[o]
+			if ux != nil {
+				ux[g+j] += sx*buf.cs[o] + tx*buf.ct[o]
 			}
-			return
-		}
-		// a column of the grid per row: the chunk's rows are next to each
-		// other in every grid row
-		nr := r1 - r0
-		for i := 0; i <= M; i++ {
-			g := i*(nx+1) + r0
-			for j := 0; j < nr; j++ {
-				o := j*(M+1) + i
-				u[g+j] += buf.cu[o]
-				if ux != nil {
-					ux[g+j] += sx*buf.cs[o] + tx*buf.ct[o]
-				}
-				if uy != nil {
-					uy[g+j] += sy*buf.cs[o] + ty*buf.ct[o]
-				}
+			if uy != nil {
+				uy[g+j] += sy*buf.cs[o] + ty*buf.ct[o]
 			}
 		}
-	})
+	}
 }
 
 // sameBasis reports whether two opposite sub-problems have the same
@@ -1034,36 +1174,59 @@ func sumRow(sp *sub, hs float64, xtab, ctab []float64, nt int, a, b, al, cu, cs,
 	}
 	for ; k < m; k++ {
 		xs := xtab[k*(M+1) : (k+1)*(M+1)]
-		ak, alk, bk := a[k], al[k], b[k]
-		for i, v := range xs {
-			cu[i] += ak * v
-		}
+		addScaled(cu, xs, a[k])
 		if grad {
-			for i, v := range ctab[k*(M+1) : (k+1)*(M+1)] {
-				cs[i] += alk * v
-			}
-			for i, v := range xs {
-				ct[i] += bk * v
-			}
+			addScaled(cs, ctab[k*(M+1):(k+1)*(M+1)], al[k])
+			addScaled(ct, xs, b[k])
 		}
 	}
 	for ; k < n; k++ {
-		ak, alk, bk := a[k], al[k], b[k]
 		sn, cn := math.Sincos(sp.b.Phi[k])
 		ds, dc := math.Sincos(sp.b.Lambda[k] * hs)
 		if !grad {
-			for i := range cu {
-				cu[i] += ak * sn
-				sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
-			}
+			addRotated(cu, a[k], sn, cn, ds, dc)
 			continue
 		}
-		for i := range cu {
-			cu[i] += ak * sn
-			cs[i] += alk * cn
-			ct[i] += bk * sn
-			sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
-		}
+		addRotatedGrad(cu, cs, ct, a[k], al[k], b[k], sn, cn, ds, dc)
+	}
+}
+
+// addScaled adds c x_i to d_i for i < len(x). It is a function of its
+// own, not inlined, to keep its loop out of a large function (see the
+// package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func addScaled(d, x []float64, c float64) {
+	for i, v := range x {
+		d[i] += c * v
+	}
+}
+
+// addRotated adds a sin(theta + i delta) to cu_i, from (sn, cn) =
+// (sin, cos) theta and (ds, dc) = (sin, cos) delta by rotation.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func addRotated(cu []float64, a, sn, cn, ds, dc float64) {
+	for i := range cu {
+		cu[i] += a * sn
+		sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
+	}
+}
+
+// addRotatedGrad is addRotated adding al cos(theta + i delta) to cs and
+// b sin(theta + i delta) to ct as well.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func addRotatedGrad(cu, cs, ct []float64, a, al, b, sn, cn, ds, dc float64) {
+	for i := range cu {
+		cu[i] += a * sn
+		cs[i] += al * cn
+		ct[i] += b * sn
+		sn, cn = sn*dc+cn*ds, cn*dc-sn*ds
 	}
 }
 
@@ -1096,6 +1259,11 @@ func sumTerms4Grad(cu, cs, ct, x, c, a, al, b []float64) {
 	}
 }
 
+// addRow adds src to dst. It is a function of its own, not inlined, to
+// keep its loop out of a larger function (see the package doc of
+// edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
 func addRow(dst, src []float64) {
 	src = src[:len(dst)]
 	for i := range dst {
@@ -1104,6 +1272,10 @@ func addRow(dst, src []float64) {
 }
 
 // addRow2 adds p a + q b to dst.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
 func addRow2(dst, a, b []float64, p, q float64) {
 	a, b = a[:len(dst)], b[:len(dst)]
 	for i := range dst {

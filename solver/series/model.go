@@ -82,14 +82,7 @@ func (m *model) data(e problem.Side, s float64) float64 {
 	}
 	v, err := m.p.Eval(e, so)
 	if err != nil {
-		m.errMu.Lock()
-		if m.err == nil {
-			m.err = err
-		}
-		if m.errs[e] == nil {
-			m.errs[e] = err
-		}
-		m.errMu.Unlock()
+		m.noteErr(e, err)
 		return 0
 	}
 	switch m.kinds[e] {
@@ -102,6 +95,23 @@ func (m *model) data(e problem.Side, s float64) float64 {
 		v *= m.beta[e]
 	}
 	return v
+}
+
+// noteErr keeps err as the first error of the data and of edge e. It is
+// a function of its own, not inlined, to keep this rare path out of data,
+// which runs for every sample (see the package doc of edgewise/solver,
+// Loops in functions of their own).
+//
+//go:noinline
+func (m *model) noteErr(e problem.Side, err error) {
+	m.errMu.Lock()
+	if m.err == nil {
+		m.err = err
+	}
+	if m.errs[e] == nil {
+		m.errs[e] = err
+	}
+	m.errMu.Unlock()
 }
 
 // neighbours returns the edges at s = 0 and s = L of edge e, and the edge

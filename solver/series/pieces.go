@@ -31,7 +31,11 @@ type piece struct {
 	corner int // corner index for corner pieces, -1 for smooth ones
 }
 
-// ipow returns z^n for n >= 0 by repeated multiplication.
+// ipow returns z^n for n >= 0 by repeated multiplication. It is a
+// function of its own, not inlined, to keep its loop out of piece.f (see
+// the package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
 func ipow(z complex128, n int) complex128 {
 	r := complex(1, 0)
 	for ; n > 0; n-- {
@@ -55,26 +59,29 @@ func (p *piece) f(z complex128) (f, d1, d2 complex128) {
 		}
 		zn2 := ipow(z, n-2)
 		return zn2 * z * z, complex(float64(n), 0) * zn2 * z, complex(float64(n*(n-1)), 0) * zn2
-	case logPiece:
-		l := cmplx.Log(z)
-		return l, 1 / z, -1 / (z * z)
-	case zlogPiece:
-		if z == 0 {
+	}
+	if z == 0 {
+		switch p.kind {
+		case zlogPiece:
 			return 0, complex(math.Inf(-1), 0), complex(math.Inf(1), 0)
-		}
-		l := cmplx.Log(z)
-		return z * l, l + 1, 1 / z
-	case z2logPiece:
-		if z == 0 {
+		case z2logPiece:
 			return 0, 0, complex(math.Inf(-1), 0)
-		}
-		l := cmplx.Log(z)
-		return z * z * l, 2*z*l + z, 2*l + 3
-	case z3logPiece:
-		if z == 0 {
+		case z3logPiece:
 			return 0, 0, 0
 		}
-		l := cmplx.Log(z)
+	}
+	// one call of the logarithm for every kind: a smaller function for
+	// the browser to optimize (see the package doc of edgewise/solver,
+	// Loops in functions of their own)
+	l := cmplx.Log(z)
+	switch p.kind {
+	case logPiece:
+		return l, 1 / z, -1 / (z * z)
+	case zlogPiece:
+		return z * l, l + 1, 1 / z
+	case z2logPiece:
+		return z * z * l, 2*z*l + z, 2*l + 3
+	case z3logPiece:
 		return z * z * z * l, 3*z*z*l + z*z, 6*z*l + 5*z
 	}
 	panic("series: bad piece kind")

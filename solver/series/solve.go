@@ -861,25 +861,36 @@ func (s *Solution) flowOf(e problem.Side) (float64, bool) {
 		flow += s.pieces[i].conj(x1, y1) - s.pieces[i].conj(x0, y0)
 	}
 	for _, sp := range s.subs {
-		_, _, opp := neighbours(sp.side)
-		na, nb, _ := neighbours(sp.side)
-		for i := 0; i < sp.n; i++ {
-			iy, d0, dD := sp.intY(i)
-			switch e {
-			case sp.side:
-				flow -= sp.b.Int[i] * d0
-			case opp:
-				flow += sp.b.Int[i] * dD
-			case na:
-				_, dx := sp.b.X(i, 0)
-				flow -= dx * iy
-			case nb:
-				_, dx := sp.b.X(i, sp.L)
-				flow += dx * iy
-			}
-		}
+		flow = sp.addFlow(e, flow)
 	}
 	return m.k * flow, true
+}
+
+// addFlow adds to flow, term by term, sp's part of the flow entering
+// through edge e (before the conductivity). It is a function of its own,
+// not inlined, to keep its loop out of a large function (see the package
+// doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func (sp *sub) addFlow(e problem.Side, flow float64) float64 {
+	_, _, opp := neighbours(sp.side)
+	na, nb, _ := neighbours(sp.side)
+	for i := 0; i < sp.n; i++ {
+		iy, d0, dD := sp.intY(i)
+		switch e {
+		case sp.side:
+			flow -= sp.b.Int[i] * d0
+		case opp:
+			flow += sp.b.Int[i] * dD
+		case na:
+			_, dx := sp.b.X(i, 0)
+			flow -= dx * iy
+		case nb:
+			_, dx := sp.b.X(i, sp.L)
+			flow += dx * iy
+		}
+	}
+	return flow
 }
 
 // At returns the field and its gradient at (x, y) in the original

@@ -108,61 +108,81 @@ func (sp *sub) setTerms(m *model, e, opp problem.Side, c []float64, n int) {
 	sp.B = resize(sp.B, n)
 	sp.e1 = resize(sp.e1, n)
 	sp.zero = false
-	beta, betaO := m.beta[e], m.beta[opp]
-	for i := 0; i < n; i++ {
-		lam := sp.b.Lambda[i]
-		if lam == 0 {
+	sp.foldTerms(m, e, opp, c)
+}
+
+// foldTerms is setTerms' loop over the terms. It is a function of its own,
+// not inlined, to keep its loop out of a large function (see the package
+// doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func (sp *sub) foldTerms(m *model, e, opp problem.Side, c []float64) {
+	for i := 0; i < sp.n; i++ {
+		if sp.b.Lambda[i] == 0 {
 			sp.zero = true
-			z0, z1 := 1.0, betaO
-			if m.kinds[opp] == problem.Value {
-				z0, z1 = 0, 1
-			}
-			var N float64
-			switch m.kinds[e] {
-			case problem.Value:
-				N = z0 + z1*sp.D
-			case problem.Flux:
-				N = z1
-			default:
-				N = z1 + beta*(z0+z1*sp.D)
-			}
-			sp.e1[i] = 1
-			if N == 0 { // all-flux constant mode: fixed later by the mean
-				sp.A[i], sp.B[i] = 0, 0
-				continue
-			}
-			sp.A[i] = c[i] * (z0 + z1*sp.D) / N
-			sp.B[i] = -c[i] * z1 / N
+			sp.zeroTerm(m, e, opp, c, i)
 			continue
 		}
-		var cs, sn float64
-		switch m.kinds[opp] {
-		case problem.Value:
-			cs, sn = 0, 1
-		case problem.Flux:
-			cs, sn = 1, 0
-		default:
-			th := math.Atan2(betaO, lam)
-			sn, cs = math.Sincos(th)
-		}
-		e1 := math.Exp(-lam * sp.D)
-		om := -math.Expm1(-2 * lam * sp.D) // 1 - exp(-2 lambda D)
-		op := 1 + e1*e1
-		val := cs*op + sn*om // (c+s) + (c-s) e2
-		der := lam * (cs*om + sn*op)
-		var N float64
-		switch m.kinds[e] {
-		case problem.Value:
-			N = val
-		case problem.Flux:
-			N = der
-		default:
-			N = der + beta*val
-		}
-		sp.e1[i] = e1
-		sp.A[i] = c[i] * (cs + sn) / N
-		sp.B[i] = c[i] * (cs - sn) / N
+		sp.foldTerm(m, e, opp, c, i)
 	}
+}
+
+// zeroTerm sets the coefficients of term i, of eigenvalue 0.
+func (sp *sub) zeroTerm(m *model, e, opp problem.Side, c []float64, i int) {
+	beta, betaO := m.beta[e], m.beta[opp]
+	z0, z1 := 1.0, betaO
+	if m.kinds[opp] == problem.Value {
+		z0, z1 = 0, 1
+	}
+	var N float64
+	switch m.kinds[e] {
+	case problem.Value:
+		N = z0 + z1*sp.D
+	case problem.Flux:
+		N = z1
+	default:
+		N = z1 + beta*(z0+z1*sp.D)
+	}
+	sp.e1[i] = 1
+	if N == 0 { // all-flux constant mode: fixed later by the mean
+		sp.A[i], sp.B[i] = 0, 0
+		return
+	}
+	sp.A[i] = c[i] * (z0 + z1*sp.D) / N
+	sp.B[i] = -c[i] * z1 / N
+}
+
+// foldTerm sets the coefficients of term i, of eigenvalue not 0.
+func (sp *sub) foldTerm(m *model, e, opp problem.Side, c []float64, i int) {
+	beta, betaO := m.beta[e], m.beta[opp]
+	lam := sp.b.Lambda[i]
+	var cs, sn float64
+	switch m.kinds[opp] {
+	case problem.Value:
+		cs, sn = 0, 1
+	case problem.Flux:
+		cs, sn = 1, 0
+	default:
+		th := math.Atan2(betaO, lam)
+		sn, cs = math.Sincos(th)
+	}
+	e1 := math.Exp(-lam * sp.D)
+	om := -math.Expm1(-2 * lam * sp.D) // 1 - exp(-2 lambda D)
+	op := 1 + e1*e1
+	val := cs*op + sn*om // (c+s) + (c-s) e2
+	der := lam * (cs*om + sn*op)
+	var N float64
+	switch m.kinds[e] {
+	case problem.Value:
+		N = val
+	case problem.Flux:
+		N = der
+	default:
+		N = der + beta*val
+	}
+	sp.e1[i] = e1
+	sp.A[i] = c[i] * (cs + sn) / N
+	sp.B[i] = c[i] * (cs - sn) / N
 }
 
 func resize(s []float64, n int) []float64 {
@@ -182,31 +202,54 @@ func project(b *basis.Basis, r func(s float64) float64, n int, dst []float64, br
 	xs, ws := projectionRule(b.L, n, breaks)
 	// the nodes and weighted data of a basis whose terms are not evenly
 	// spaced, gathered for robinProject
-	var nodes, wrs []float64
+	nodes, wrs := projectNodes(b, r, xs, ws, dst)
+	if len(nodes) > 0 {
+		robinProject(b, nodes, wrs, dst[:n])
+	}
+	divideTerms(dst, b.Norm)
+	return dst
+}
+
+// projectNodes adds w_j r(s_j) X_i(s_j) to dst[i] (i < len(dst)) for the
+// nodes s_j = xs[j] of a uniform basis; for the other bases it returns the
+// nodes and their weighted data w_j r(s_j), both without the zeros, for
+// robinProject. It is a function of its own, not inlined, to keep its loop
+// out of a large function (see the package doc of edgewise/solver, Loops
+// in functions of their own).
+//
+//go:noinline
+func projectNodes(b *basis.Basis, r func(s float64) float64, xs, ws, dst []float64) (nodes, wrs []float64) {
 	for j, s := range xs {
 		wr := ws[j] * r(s)
 		if wr == 0 {
 			continue
 		}
 		if b.Uniform {
-			// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L: rotate.
-			sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
-			ds, dc := math.Sincos(math.Pi * s / b.L)
-			for i := 0; i < n; i++ {
-				dst[i] += wr * sn
-				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
-			}
+			addNode(b, s, wr, dst)
 			continue
 		}
 		nodes, wrs = append(nodes, s), append(wrs, wr)
 	}
-	if len(nodes) > 0 {
-		robinProject(b, nodes, wrs, dst[:n])
+	return nodes, wrs
+}
+
+// addNode adds wr X_i(s) to dst[i] (i < len(dst)) for a uniform basis b:
+// sin(lambda_i s + phi) with lambda_i = lambda_0 + i pi/L, by rotation.
+func addNode(b *basis.Basis, s, wr float64, dst []float64) {
+	sn, cs := math.Sincos(b.Lambda[0]*s + b.Phi[0])
+	ds, dc := math.Sincos(math.Pi * s / b.L)
+	addRotated(dst, wr, sn, cs, ds, dc)
+}
+
+// divideTerms divides d[i] by norm[i]. It is a function of its own, not
+// inlined, to keep its loop out of a large function (see the package doc
+// of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func divideTerms(d, norm []float64) {
+	for i := range d {
+		d[i] /= norm[i]
 	}
-	for i := range dst {
-		dst[i] /= b.Norm[i]
-	}
-	return dst
 }
 
 // projectionRule returns the nodes and weights of the projection of n
@@ -247,52 +290,92 @@ func (sp *sub) tailEstimate(n int) float64 {
 		}
 		return s
 	}
-	env := func(lo, hi int) float64 {
-		m := 0.0
-		for i := lo; i < hi; i++ {
-			m = math.Max(m, a[i])
-		}
-		return m
-	}
-	e2 := env(n/2, n)
+	e2 := maxOf(a[n/2 : n])
 	if e2 == 0 {
 		return 0
 	}
-	e1 := env(n/4, n/2)
+	e1 := maxOf(a[n/4 : n/2])
 	p := 8.0
 	if e1 > 0 {
 		p = math.Log2(e1 / e2)
 	}
 	p = math.Max(1.5, math.Min(p, 8))
 	r := math.Pow(2, 1-p)
+	diff := sp.tailDiff(n)
+	// The sampled maximum may miss a peak between points: never report less
+	// than the largest single dropped-term amplitude.
+	diff = math.Max(diff, e2)
+	return 2 * diff * r / (1 - r)
+}
+
+// maxOf returns the largest of 0 and the values of a. It is a function of
+// its own, not inlined, to keep its loop out of a large function (see the
+// package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func maxOf(a []float64) float64 {
+	m := 0.0
+	for _, v := range a {
+		m = math.Max(m, v)
+	}
+	return m
+}
+
+// tailDiff returns the largest |sum| of the terms n/2..n-1 at the loaded
+// edge over the Chebyshev points of tailEstimate. It is a function of its
+// own, not inlined, to keep its loop out of a large function (see the
+// package doc of edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func (sp *sub) tailDiff(n int) float64 {
 	diff := 0.0
 	var row []float64
 	const np = 128
 	for j := 0; j <= np; j++ {
 		s := sp.L * (1 - math.Cos(math.Pi*float64(j)/np)) / 2
-		sum := 0.0
+		var sum float64
 		if sp.b.Uniform {
-			// lambda_i = lambda_0 + i pi/L: rotate from term n/2.
-			i0 := n / 2
-			sn, cs := math.Sincos(sp.b.Lambda[i0]*s + sp.b.Phi[i0])
-			ds, dc := math.Sincos(math.Pi * s / sp.L)
-			for i := i0; i < n; i++ {
-				sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * sn
-				sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
-			}
+			sum = sp.tailSumUniform(s, n)
 		} else {
 			row = resize(row, n-n/2)
 			sp.b.Row(s, n/2, n, row, nil)
-			for i := n / 2; i < n; i++ {
-				sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * row[i-n/2]
-			}
+			sum = sp.tailSumRow(row, n)
 		}
 		diff = math.Max(diff, math.Abs(sum))
 	}
-	// The sampled maximum may miss a peak between points: never report less
-	// than the largest single dropped-term amplitude.
-	diff = math.Max(diff, e2)
-	return 2 * diff * r / (1 - r)
+	return diff
+}
+
+// tailSumUniform returns the sum of the terms n/2..n-1 at the loaded edge
+// at s for a uniform basis (lambda_i = lambda_0 + i pi/L): by rotation
+// from term n/2.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func (sp *sub) tailSumUniform(s float64, n int) float64 {
+	sum := 0.0
+	i0 := n / 2
+	sn, cs := math.Sincos(sp.b.Lambda[i0]*s + sp.b.Phi[i0])
+	ds, dc := math.Sincos(math.Pi * s / sp.L)
+	for i := i0; i < n; i++ {
+		sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * sn
+		sn, cs = sn*dc+cs*ds, cs*dc-sn*ds
+	}
+	return sum
+}
+
+// tailSumRow is tailSumUniform with the terms' X_i(s) in row.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func (sp *sub) tailSumRow(row []float64, n int) float64 {
+	sum := 0.0
+	for i := n / 2; i < n; i++ {
+		sum += (sp.A[i] + sp.B[i]*sp.e1[i]*sp.e1[i]) * row[i-n/2]
+	}
+	return sum
 }
 
 // expEvery is how often sub.at takes the exponentials afresh on a basis
@@ -308,16 +391,7 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 	cut := sp.rowTerms(t, 0)
 	var xs, dxs []float64
 	if s == 0 || s == sp.L {
-		end := 0
-		if s == sp.L {
-			end = 1
-		}
-		sp.endOnce[end].Do(func() {
-			x, dx := make([]float64, sp.n), make([]float64, sp.n)
-			sp.b.Row(s, 0, sp.n, x, dx) // the same recurrence: Row's prefix
-			sp.endX[end] = [2][]float64{x, dx}
-		})
-		xs, dxs = sp.endX[end][0], sp.endX[end][1]
+		xs, dxs = sp.endRow(s)
 	}
 	if len(xs) < cut {
 		var xb, dxb [128]float64
@@ -329,11 +403,39 @@ func (sp *sub) at(s, t float64) (u, us, ut float64) {
 	}
 	// evenly spaced eigenvalues (lambda_(i+1) - lambda_i = pi/L): between
 	// exact exponentials every expEvery terms, the step factors
-	var qa, qb, ea, eb float64
+	var qa, qb float64
 	uniform := sp.b.Uniform && t != 0 && t != sp.D
 	if uniform {
 		qa, qb = math.Exp(-math.Pi/sp.L*t), math.Exp(-math.Pi/sp.L*(2*sp.D-t))
 	}
+	return sp.sumAt(xs[:cut], dxs[:cut], t, uniform, qa, qb)
+}
+
+// endRow returns X_i(s) and X_i'(s) for all the terms at an end s = 0
+// or s = L, made once.
+func (sp *sub) endRow(s float64) (xs, dxs []float64) {
+	end := 0
+	if s == sp.L {
+		end = 1
+	}
+	sp.endOnce[end].Do(func() {
+		x, dx := make([]float64, sp.n), make([]float64, sp.n)
+		sp.b.Row(s, 0, sp.n, x, dx) // the same recurrence: Row's prefix
+		sp.endX[end] = [2][]float64{x, dx}
+	})
+	return sp.endX[end][0], sp.endX[end][1]
+}
+
+// sumAt returns u, du/ds, du/dt at t from the terms' X_i(s) in xs and
+// X_i'(s) in dxs (at's loop over the terms; qa and qb its step factors
+// when uniform). It is a function of its own, not inlined, to keep its
+// loop out of a large function (see the package doc of edgewise/solver,
+// Loops in functions of their own).
+//
+//go:noinline
+func (sp *sub) sumAt(xs, dxs []float64, t float64, uniform bool, qa, qb float64) (u, us, ut float64) {
+	var ea, eb float64
+	cut := len(xs)
 	for i := 0; i < cut; i++ {
 		x, dx := xs[i], dxs[i]
 		if sp.zero && i == 0 {
@@ -450,43 +552,75 @@ func (sp *sub) intY(i int) (integral, d0, dD float64) {
 func robinProject(b *basis.Basis, s, w, dst []float64) {
 	q := len(s)
 	sn, cs, rs, rc := make([]float64, q), make([]float64, q), make([]float64, q), make([]float64, q)
+	dst[0] += robinStart(b, s, w, sn, cs, rs, rc)
+	for i := 1; i < len(dst); i++ {
+		dl := b.Lambda[i] - b.Lambda[i-1] - math.Pi/b.L
+		dp := b.Phi[i] - b.Phi[i-1]
+		if math.Abs(dl)*b.L+math.Abs(dp) >= 0.02 { // a large step: afresh
+			dst[i] += robinAfresh(b.Lambda[i], b.Phi[i], s, w, sn, cs)
+			continue
+		}
+		sum, sum2 := robinStep(dl, dp, s, w, sn, cs, rs, rc)
+		dst[i] += sum + sum2
+	}
+}
+
+// robinStart sets sn, cs to the sine and cosine of term 0 at the nodes s,
+// and rs, rc to those of pi s/L, and returns sum_j w_j sn_j
+// (robinProject's first term). It is a function of its own, not inlined,
+// to keep its loop out of a large function (see the package doc of
+// edgewise/solver, Loops in functions of their own).
+//
+//go:noinline
+func robinStart(b *basis.Basis, s, w, sn, cs, rs, rc []float64) float64 {
 	sum := 0.0
 	for j, x := range s {
 		sn[j], cs[j] = math.Sincos(b.Lambda[0]*x + b.Phi[0])
 		rs[j], rc[j] = math.Sincos(math.Pi * x / b.L)
 		sum += w[j] * sn[j]
 	}
-	dst[0] += sum
-	for i := 1; i < len(dst); i++ {
-		dl := b.Lambda[i] - b.Lambda[i-1] - math.Pi/b.L
-		dp := b.Phi[i] - b.Phi[i-1]
-		sum := 0.0
-		if math.Abs(dl)*b.L+math.Abs(dp) >= 0.02 { // a large step: afresh
-			for j, x := range s {
-				sn[j], cs[j] = math.Sincos(b.Lambda[i]*x + b.Phi[i])
-				sum += w[j] * sn[j]
-			}
-			dst[i] += sum
-			continue
-		}
-		// Taylor series to t^5 and t^6 (the next terms are below 3e-16 of
-		// them for |t| < 0.02); constants as products, divisions being slow
-		const s3, s5, c2, c4, c6 = 1.0 / 6, 1.0 / 20, 0.5, 1.0 / 12, 1.0 / 30
-		sum2 := 0.0 // two sums, so that the additions overlap
-		for j, x := range s {
-			a, c := sn[j]*rc[j]+cs[j]*rs[j], cs[j]*rc[j]-sn[j]*rs[j]
-			t := dl*x + dp
-			t2 := t * t
-			es := t * (1 - t2*s3*(1-t2*s5))
-			ec := 1 - t2*c2*(1-t2*c4*(1-t2*c6))
-			v, u := a*ec+c*es, c*ec-a*es
-			sn[j], cs[j] = v, u
-			if j&1 == 0 {
-				sum += w[j] * v
-			} else {
-				sum2 += w[j] * v
-			}
-		}
-		dst[i] += sum + sum2
+	return sum
+}
+
+// robinAfresh sets sn, cs to the sine and cosine of lam s + phi at the
+// nodes s and returns sum_j w_j sn_j.
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func robinAfresh(lam, phi float64, s, w, sn, cs []float64) float64 {
+	sum := 0.0
+	for j, x := range s {
+		sn[j], cs[j] = math.Sincos(lam*x + phi)
+		sum += w[j] * sn[j]
 	}
+	return sum
+}
+
+// robinStep rotates sn, cs at the nodes s by (rs, rc) and the small angle
+// dl s + dp, and returns the two halves of sum_j w_j sn_j (even and odd j).
+// Not inlined: see the package doc of edgewise/solver, Loops in
+// functions of their own.
+//
+//go:noinline
+func robinStep(dl, dp float64, s, w, sn, cs, rs, rc []float64) (sum, sum2 float64) {
+	// Taylor series to t^5 and t^6 (the next terms are below 3e-16 of
+	// them for |t| < 0.02); constants as products, divisions being slow
+	const s3, s5, c2, c4, c6 = 1.0 / 6, 1.0 / 20, 0.5, 1.0 / 12, 1.0 / 30
+	// two sums, so that the additions overlap
+	for j, x := range s {
+		a, c := sn[j]*rc[j]+cs[j]*rs[j], cs[j]*rc[j]-sn[j]*rs[j]
+		t := dl*x + dp
+		t2 := t * t
+		es := t * (1 - t2*s3*(1-t2*s5))
+		ec := 1 - t2*c2*(1-t2*c4*(1-t2*c6))
+		v, u := a*ec+c*es, c*ec-a*es
+		sn[j], cs[j] = v, u
+		if j&1 == 0 {
+			sum += w[j] * v
+		} else {
+			sum2 += w[j] * v
+		}
+	}
+	return sum, sum2
 }
