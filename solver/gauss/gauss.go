@@ -156,9 +156,28 @@ func twoSum(a, b float64) (s, e float64) {
 	return s, (a - (s - bb)) + (b - bb)
 }
 
+// twoProd returns p = a*b rounded and its exact error e = a*b - p, by
+// Dekker's product (Veltkamp's split of each factor into halves of 26
+// bits, whose products are exact): the same e as math.FMA(a, b, -p)
+// wherever no partial product overflows or underflows, which holds for
+// the recurrence's numbers (of order 1 down to 1e-20, times integers). In
+// WebAssembly, which has no fused multiply-add, math.FMA is a long
+// software routine: it took most of the time of building a rule there.
+// The conversions keep a compiler from fusing the products.
 func twoProd(a, b float64) (p, e float64) {
 	p = a * b
-	return p, math.FMA(a, b, -p)
+	ah, al := split(a)
+	bh, bl := split(b)
+	e = float64(al*bl) - (((p - float64(ah*bh)) - float64(al*bh)) - float64(ah*bl))
+	return p, e
+}
+
+// split is Veltkamp's split of a into hi + lo, each with at most 26
+// significant bits.
+func split(a float64) (hi, lo float64) {
+	c := float64((1<<27 + 1) * a)
+	hi = c - (c - a)
+	return hi, a - hi
 }
 
 func quick(s, e float64) dd {

@@ -3,6 +3,7 @@ package gauss
 import (
 	"fmt"
 	"math"
+	"math/rand"
 	"testing"
 
 	"gonum.org/v1/gonum/integrate/quad"
@@ -128,5 +129,25 @@ func BenchmarkLegendre(b *testing.B) {
 				Legendre(x, w, 0.1, 0.7)
 			}
 		})
+	}
+}
+
+// Dekker's product gives the exact error of a rounded product, as a fused
+// multiply-add does: the two agree bit for bit on factors across the
+// magnitudes the rules meet (an exact identity; Dekker 1971, Ogita, Rump
+// and Oishi 2005 for the form used). It fails if the split or the order of
+// the partial products is wrong.
+func TestTwoProdMatchesFMA(t *testing.T) {
+	rng := rand.New(rand.NewSource(3))
+	for i := 0; i < 200000; i++ {
+		a := (rng.Float64()*2 - 1) * math.Pow(10, float64(rng.Intn(41)-30))
+		b := (rng.Float64()*2 - 1) * math.Pow(10, float64(rng.Intn(11)-3))
+		if rng.Intn(4) == 0 {
+			b = float64(rng.Intn(600) + 1) // the recurrence's integer factors
+		}
+		p, e := twoProd(a, b)
+		if p != a*b || e != math.FMA(a, b, -p) {
+			t.Fatalf("twoProd(%v, %v) = %v, %v; want %v, %v", a, b, p, e, a*b, math.FMA(a, b, -p))
+		}
 	}
 }
