@@ -200,6 +200,12 @@ func TestPanicBecomesError(t *testing.T) {
 	if !ok || r["ok"] != false || !strings.Contains(r["error"].(string), "boom") {
 		t.Errorf("reply = %v, want an error reply naming the panic", r)
 	}
+	// the calls' one goroutine outlives the panic: the next call answers
+	// (a runner that died with it would leave this call waiting)
+	next := guarded("test", func([]safejs.Value) (map[string]any, error) { return map[string]any{"ok": true}, nil })
+	if r, ok := next(safejs.Value{}, nil).(map[string]any); !ok || r["ok"] != true {
+		t.Errorf("after the panic, reply = %v, want ok", r)
+	}
 }
 
 // The solve reply carries the flow net's flow lines and equipotentials

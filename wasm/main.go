@@ -40,6 +40,7 @@ import (
 	"errors"
 	"fmt"
 	"os"
+	"sync"
 
 	"edgewise/solver"
 	"edgewise/solver/project"
@@ -98,9 +99,58 @@ func expose(name string, f call) error {
 	return safejs.Global().Set(name, fn)
 }
 
+// Every call runs on one long-lived goroutine, runner, not on the
+// goroutine the runtime starts for each call from JavaScript: that one
+// starts with a small stack, which a solve grows several times over,
+// copying it each time (and the copying's table lookups made a large
+// runtime function hot in the browser, see the package doc of
+// edgewise/solver, "Loops in functions of their own"). The runner's stack
+// is grown once before the first call and stays so between calls (a
+// garbage collection may halve it while it idles; it then grows once
+// more). The caller waits for the call to end, so
+// calls still run one at a time, in order.
+var (
+	work    = make(chan func())
+	done    = make(chan struct{})
+	started sync.Once
+)
+
+func runner() {
+	deepen(stackFrames)
+	for f := range work {
+		f()
+		done <- struct{}{}
+	}
+}
+
+// stackFrames frames of deepen make the runner's stack grow to about
+// 256 KB before the first call, while it is shallow and cheap to copy.
+const stackFrames = 8
+
+//go:noinline
+func deepen(n int) byte {
+	var b [32 << 10]byte
+	b[n] = byte(n)
+	if n > 0 {
+		return deepen(n-1) + b[n]
+	}
+	return b[0]
+}
+
 // guarded wraps a call so that an error or a panic inside it becomes an
-// error reply.
+// error reply; the call runs on the runner.
 func guarded(name string, f call) func(safejs.Value, []safejs.Value) any {
+	run := guard(name, f)
+	return func(this safejs.Value, args []safejs.Value) (reply any) {
+		started.Do(func() { go runner() })
+		work <- func() { reply = run(this, args) }
+		<-done
+		return reply
+	}
+}
+
+// guard makes an error or a panic inside f an error reply.
+func guard(name string, f call) func(safejs.Value, []safejs.Value) any {
 	return func(_ safejs.Value, args []safejs.Value) (reply any) {
 		defer func() {
 			if r := recover(); r != nil {
