@@ -352,11 +352,6 @@ func (s *Solution) piecesRow(j, nx, ny int, hx, hy float64, u, ux, uy []float64,
 		lrow := w.logs[lr*(nx+1) : (lr+1)*(nx+1)]
 		back := cr.c == 1 || cr.c == 2
 		conj := cr.c == 1 || cr.c == 3
-		if cr.b[1] == 0 && cr.b[2] == 0 && cr.b[3] == 0 {
-			// b0 log zeta alone (an angle function when b0 is imaginary)
-			angleRow(cr, lrow, urow, uxrow, uyrow, hx, y, back, conj, grad)
-			continue
-		}
 		logPolyRow(cr, lrow, urow, uxrow, uyrow, hx, y, back, conj, grad)
 	}
 }
@@ -439,53 +434,19 @@ func polyRowComplex(q quadratic, urow, uxrow, uyrow []float64, poly *[6]complex1
 	}
 }
 
-// angleRow adds a corner's b0 log zeta (an angle function when b0 is
-// imaginary), its logarithm from lrow (read backwards when back, i pi/2 +
-// conj(...) when conj), on a row y of piecesRow. It is a function of its
-// own, not inlined, to keep its loop out of a large function (see the
-// package doc of edgewise/solver, Loops in functions of their own).
-//
-//go:noinline
-func angleRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
-	nx := len(urow) - 1
-	b0, rho, z0 := cr.b[0], cr.rho, cr.z0
-	for i := range urow {
-		x := float64(i) * hx
-		zc := rho * complex(x-real(z0), y-imag(z0))
-		if zc == 0 {
-			continue // the corner node: Grid sets it from At
-		}
-		ii := i
-		if back {
-			ii = nx - i
-		}
-		l := lrow[ii]
-		if conj {
-			l = complex(real(l), math.Pi/2-imag(l))
-		}
-		urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
-		if grad {
-			r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
-			g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * rho
-			if uxrow != nil {
-				uxrow[i] += real(g)
-			}
-			if uyrow != nil {
-				uyrow[i] -= imag(g)
-			}
-		}
-	}
-}
-
-// logPolyRow is angleRow for a corner's (b0 + b1 zeta + b2 zeta^2 + b3
-// zeta^3) log zeta.
-// Not inlined: see the package doc of edgewise/solver, Loops in
-// functions of their own.
+// logPolyRow adds a corner's (b0 + b1 zeta + b2 zeta^2 + b3 zeta^3) log
+// zeta (b0 log zeta alone, an angle function when b0 is imaginary, when
+// b1 = b2 = b3 = 0), its logarithm from lrow (read backwards when back,
+// i pi/2 + conj(...) when conj), on a row y of piecesRow. It is a
+// function of its own, not inlined, to keep its loop out of a large
+// function (see the package doc of edgewise/solver, Loops in functions of
+// their own).
 //
 //go:noinline
 func logPolyRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, hx, y float64, back, conj, grad bool) {
 	nx := len(urow) - 1
 	b0, b1, b2, b3 := cr.b[0], cr.b[1], cr.b[2], cr.b[3]
+	alone := b1 == 0 && b2 == 0 && b3 == 0
 	rho, z0 := cr.rho, cr.z0
 	for i := range urow {
 		x := float64(i) * hx
@@ -500,6 +461,20 @@ func logPolyRow(cr *logCorner, lrow []complex128, urow, uxrow, uyrow []float64, 
 		l := lrow[ii]
 		if conj {
 			l = complex(real(l), math.Pi/2-imag(l))
+		}
+		if alone {
+			urow[i] += real(b0)*real(l) - imag(b0)*imag(l)
+			if grad {
+				r2 := real(zc)*real(zc) + imag(zc)*imag(zc)
+				g := b0 * complex(real(zc)/r2, -imag(zc)/r2) * rho
+				if uxrow != nil {
+					uxrow[i] += real(g)
+				}
+				if uyrow != nil {
+					uyrow[i] -= imag(g)
+				}
+			}
+			continue
 		}
 		pl := b0 + zc*(b1+zc*(b2+zc*b3))
 		urow[i] += real(pl * l)
