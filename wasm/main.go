@@ -108,7 +108,9 @@ func expose(name string, f call) error {
 // is grown once before the first call and stays so between calls (a
 // garbage collection may halve it while it idles; it then grows once
 // more). The caller waits for the call to end, so
-// calls still run one at a time, in order.
+// calls still run one at a time, in order. A call must therefore never
+// call back into JavaScript that calls the engine again: it would wait
+// for the runner it holds (none does; none calls JavaScript functions).
 var (
 	work    = make(chan func())
 	done    = make(chan struct{})

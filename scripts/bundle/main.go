@@ -245,7 +245,7 @@ func ascii(s string, esc func(*strings.Builder, rune)) string {
 // that moment. Measured in a fresh browser process (5 opens, two rounds
 // each, load 2-4): the worker started its engine at 772 ms (median)
 // against 830-840 ms in one element.
-var enginePart = 65536
+const enginePart = 65536
 
 // escapeScript keeps inline text from closing its <script> element early.
 // startJS is the page's first script: it starts the engine's worker from
