@@ -32,36 +32,17 @@ const now = () => performance.timeOrigin + performance.now();
 at.loaded = now();
 let held = []; // resolvers of the calls waiting for a release
 
-// chunks is a stream of bytes in slices of 64 KiB, handed out as its
-// reader asks, so that gunzip and compiling go slice by slice.
-function chunks(bytes) {
-  let at = 0;
-  return new ReadableStream({
-    pull(ctl) {
-      ctl.enqueue(bytes.subarray(at, at + 65536));
-      at += 65536;
-      if (at >= bytes.length) ctl.close();
-    },
-  });
-}
-
 // compile returns the engine as a WebAssembly.Module, from what "init"
 // brought: the module itself (a restart), the single file's text (base 85
-// of gzip, decoded by edgewiseEngineBytes, which the bundler puts before
-// this file; gunzip and compiling then overlap), or else app.wasm next to
-// this file.
+// of gzip, unpacked by edgewiseEngineBytes, which the bundler puts before
+// this file: scripts/bundle/unpack.go), or else app.wasm next to this
+// file.
 async function compile(msg) {
   if (msg.module) return msg.module;
   if (typeof msg.text === "string") {
-    const gz = self.edgewiseEngineBytes(msg.text);
+    const wasm = self.edgewiseEngineBytes(msg.text);
     at.decoded = now();
-    const wasm = () => chunks(gz).pipeThrough(new DecompressionStream("gzip"));
-    try {
-      return await WebAssembly.compileStreaming(new Response(wasm(), { headers: { "Content-Type": "application/wasm" } }));
-    } catch (e) {
-      // a browser without streaming compilation: the whole bytes
-      return WebAssembly.compile(await new Response(wasm()).arrayBuffer());
-    }
+    return WebAssembly.compile(wasm);
   }
   const url = new URL("app.wasm", self.location.href);
   try {

@@ -2,8 +2,6 @@ package main
 
 import (
 	"bytes"
-	"encoding/base64"
-	"encoding/json"
 	"math/rand/v2"
 	"os/exec"
 	"strings"
@@ -54,62 +52,6 @@ func TestBase85RoundTrip(t *testing.T) {
 		}
 		if got := decode85(enc); !bytes.Equal(got, data) {
 			t.Errorf("round trip of %x gave %x", data, got)
-		}
-	}
-}
-
-// The worker's decoder (decode85JS, run by Node) gives back the bytes
-// encode85 wrote, for every length of the last group, and refuses damaged
-// text.
-func TestDecoderJS(t *testing.T) {
-	node, err := exec.LookPath("node")
-	if err != nil {
-		t.Skip("node is not installed (make test installs nothing for it; the browser tests run the decoder too)")
-	}
-	rng := rand.New(rand.NewPCG(9, 10))
-	var texts []string
-	var want [][]byte
-	for _, n := range []int{0, 1, 2, 3, 4, 5, 6, 7, 8, 9, 65535, 65536, 65537, 300001} {
-		data := make([]byte, n)
-		for i := range data {
-			data[i] = byte(rng.UintN(256))
-		}
-		texts = append(texts, encode85(data))
-		want = append(want, data)
-	}
-	texts = append(texts, "!!!!!!", "ab<cd", "abcd\u00e9")
-	in, _ := json.Marshal(texts)
-	script := decode85JS + `
-const texts = JSON.parse(require("fs").readFileSync(0, "utf8"));
-(async () => {
-  const out = [];
-  for (const s of texts) {
-    try {
-      out.push(Buffer.from(self.edgewiseEngineBytes(" " + s + "\n")).toString("base64"));
-    } catch (e) {
-      out.push("error: " + e.message);
-    }
-  }
-  console.log(JSON.stringify(out));
-})();`
-	cmd := exec.Command(node, "-e", "globalThis.self = globalThis;\n"+script)
-	cmd.Stdin = bytes.NewReader(in)
-	outText, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("node: %v", err)
-	}
-	var got []string
-	if err := json.Unmarshal(outText, &got); err != nil || len(got) != len(texts) {
-		t.Fatalf("node said %.200q (%v)", outText, err)
-	}
-	for i, data := range want {
-		if got[i] != base64.StdEncoding.EncodeToString(data) {
-			t.Errorf("%d bytes: the decoder gave back %.40q", len(data), got[i])
-		}
-	}
-	for i, s := range texts[len(want):] {
-		if g := got[len(want)+i]; g != "error: the embedded engine is damaged" {
-			t.Errorf("damaged text %q: %.60q, want an error", s, g)
 		}
 	}
 }

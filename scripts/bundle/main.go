@@ -12,15 +12,15 @@
 //   - every <link rel="stylesheet" href="X"> becomes an inline <style>, and
 //     every <script src="X"></script> an inline <script>;
 //   - right after the policy, before anything else: the worker's source
-//     (wasm_exec.js, the base-85 decoder, worker.js) in
+//     (wasm_exec.js, the engine's unpacker (unpack.go), worker.js) in
 //     <script type="text/plain" id="ew-worker">; a script (startJS) that
 //     starts the worker from a Blob URL made from that source; the engine,
 //     gzip-compressed and base-85-encoded (base85.go), in consecutive
 //     <script type="application/octet-stream" class="ew-wasm"> elements
 //     of at most enginePart characters; and a script
-//     (sendJS) that sends the engine's text to the worker, which decodes,
-//     gunzips and compiles it as one stream while the browser reads the
-//     rest of the page (site/engine.js takes the worker over);
+//     (sendJS) that sends the engine's text to the worker, which unpacks
+//     and compiles it while the browser reads the rest of the page
+//     (site/engine.js takes the worker over);
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks",
 //     the physics table (physics.json) in one with id="ew-physics";
@@ -155,8 +155,12 @@ func Bundle(dir string) ([]byte, error) {
 	// the engine first, right after the policy, which must come before any
 	// script: the worker starts before the browser reads the engine's
 	// text, and gets the text as soon as it is read
+	unpack, err := unpackJS()
+	if err != nil {
+		return nil, fmt.Errorf("unpack.wat: %w", err)
+	}
 	var early strings.Builder
-	early.WriteString("\n" + `<script type="text/plain" id="ew-worker">` + escapeScript(asciiJS(execJS+"\n"+decode85JS+"\n"+workerJS)) + "</script>\n")
+	early.WriteString("\n" + `<script type="text/plain" id="ew-worker">` + escapeScript(asciiJS(execJS+"\n"+unpack+"\n"+workerJS)) + "</script>\n")
 	early.WriteString("<script>" + startJS + "</script>\n")
 	text85 := encode85(gz.Bytes())
 	for i := 0; i < len(text85); i += enginePart {
