@@ -60,6 +60,8 @@
         // the boot's load need not fill the inputs again with the same
         // project (solving.js)
         EW.firstFilled = JSON.stringify(JSON.parse(EW.jsonText(p)));
+        // and the engine may solve it as soon as it is up (solving.js)
+        solving.askEarly(JSON.parse(EW.firstFilled));
       }
     } catch (e) { /* the boot below says what went wrong */ }
   }

@@ -30,8 +30,8 @@ const recordFirstSolve = `(() => {
   };
 })()`
 
-// The first picture is drawn before its cross-check: the results say the
-// cross-check is pending (never a difference not yet measured), and then
+// The first picture is drawn before its cross-check, from the solve asked
+// for before the engine was up: the results say the cross-check is pending (never a difference not yet measured), and then
 // show the difference that the full solve of the same project gives.
 func TestFirstPictureBeforeCrossCheck(t *testing.T) {
 	bothPages(t, func(t *testing.T, url string) {
@@ -46,6 +46,12 @@ func TestFirstPictureBeforeCrossCheck(t *testing.T) {
 		// the statement too: the check is running, not "was not run"
 		if st, _ := first["statement"].(string); !strings.Contains(st, "is running") || strings.Contains(st, "No independent check") {
 			t.Errorf("with the first picture the accuracy statement says %q, want that the check is running", st)
+		}
+		// the first solve was asked for once: the page's first request took
+		// the reply of the one sent as soon as the form was filled
+		// (solving.js, askEarly), none was sent again
+		if n := eval[int](t, tb, `performance.getEntriesByName("ew:solve-asked").length`); n != 1 {
+			t.Errorf("the first picture asked for %d first solves, want 1 (the early one taken)", n)
 		}
 		tb.waitFor(t, `document.documentElement.dataset.firstCheckAt !== undefined`, "the first picture's cross-check")
 		got := eval[[]any](t, tb, `(async () => {
