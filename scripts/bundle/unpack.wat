@@ -20,6 +20,11 @@
 ;; crc per slice from the script): the browser optimizes a WebAssembly
 ;; function only for its next call.
 ;;
+;; In codes, the bit buffer (32 bits) is refilled by one 4-byte read: it
+;; takes the whole bytes that fit and leaves 24 to 31 bits in it (the
+;; bits above them are the next byte's first bits again, so a later read
+;; of that byte ORs in the same bits).
+;;
 ;; Huffman codes are decoded by a table of the next 10 bits (a symbol with
 ;; a code of up to 10 bits in one look) and else bit by bit over the counts
 ;; of codes of each length, as in the canonical decoding of RFC 1951 3.2.2.
@@ -360,16 +365,11 @@
     block $fail
       block $done
         loop $next
-          ;; 15 bits for a literal/length code
-          block $full
-            loop $fill
-              local.get $bc i32.const 15 i32.ge_u br_if $full
-              local.get $bb local.get $in i32.load8_u local.get $bc i32.shl i32.or local.set $bb
-              local.get $in i32.const 1 i32.add local.set $in
-              local.get $bc i32.const 8 i32.add local.set $bc
-              br $fill
-            end
-          end
+          ;; 24 bits at least in the buffer (refill): a literal/length
+          ;; code takes 15 at most
+          local.get $bb local.get $in i32.load align=1 local.get $bc i32.shl i32.or local.set $bb
+          local.get $in i32.const 3 local.get $bc i32.const 3 i32.shr_u i32.sub i32.add local.set $in
+          local.get $bc i32.const 24 i32.or local.set $bc
           ;; the 10-bit table here, the rest in decode
           local.get $bb i32.const 1023 i32.and i32.const 1 i32.shl i32.load16_u offset=3072
           local.tee $e i32.eqz
@@ -387,24 +387,19 @@
             br $next
           end
           local.get $sym i32.const 256 i32.eq br_if $done
-          ;; a length: its base and up to 5 extra bits
+          ;; a length: its base and up to 5 extra bits, after a refill
+          ;; (the distance's code, 15 bits at most, is in the same 24)
           local.get $sym i32.const 257 i32.sub local.tee $sym
           i32.const 29 i32.ge_u br_if $fail
-          block $full2
-            loop $fill2
-              local.get $bc i32.const 20 i32.ge_u br_if $full2
-              local.get $bb local.get $in i32.load8_u local.get $bc i32.shl i32.or local.set $bb
-              local.get $in i32.const 1 i32.add local.set $in
-              local.get $bc i32.const 8 i32.add local.set $bc
-              br $fill2
-            end
-          end
+          local.get $bb local.get $in i32.load align=1 local.get $bc i32.shl i32.or local.set $bb
+          local.get $in i32.const 3 local.get $bc i32.const 3 i32.shr_u i32.sub i32.add local.set $in
+          local.get $bc i32.const 24 i32.or local.set $bc
           local.get $sym i32.const 2 i32.shl local.tee $sym i32.load offset=384 local.set $n
           local.get $sym i32.load offset=256
           local.get $bb i32.const 1 local.get $n i32.shl i32.const 1 i32.sub i32.and i32.add local.set $len
           local.get $bb local.get $n i32.shr_u local.set $bb
           local.get $bc local.get $n i32.sub local.set $bc
-          ;; the distance's code (the 15 bits are there: 20 less 5 at most)
+          ;; the distance's code
           local.get $bb i32.const 1023 i32.and i32.const 1 i32.shl i32.load16_u offset=5888
           local.tee $e i32.eqz
           if
@@ -415,16 +410,10 @@
           local.get $bc local.get $n i32.sub local.set $bc
           local.get $e i32.const 4 i32.shr_u local.tee $sym
           i32.const 30 i32.ge_u br_if $fail
-          ;; and up to 13 extra bits
-          block $full3
-            loop $fill3
-              local.get $bc i32.const 13 i32.ge_u br_if $full3
-              local.get $bb local.get $in i32.load8_u local.get $bc i32.shl i32.or local.set $bb
-              local.get $in i32.const 1 i32.add local.set $in
-              local.get $bc i32.const 8 i32.add local.set $bc
-              br $fill3
-            end
-          end
+          ;; and, after a refill, up to 13 extra bits
+          local.get $bb local.get $in i32.load align=1 local.get $bc i32.shl i32.or local.set $bb
+          local.get $in i32.const 3 local.get $bc i32.const 3 i32.shr_u i32.sub i32.add local.set $in
+          local.get $bc i32.const 24 i32.or local.set $bc
           local.get $sym i32.const 2 i32.shl local.tee $sym i32.load offset=640 local.set $n
           local.get $sym i32.load offset=512
           local.get $bb i32.const 1 local.get $n i32.shl i32.const 1 i32.sub i32.and i32.add local.set $dist
