@@ -456,34 +456,21 @@ func (m *watModule) code(fn *watFunc) ([]byte, error) {
 				return nil, &watError{t.pos, "no enclosing label " + t.text}
 			}
 			b = uleb(b, uint64(depth))
-		case immLocal:
+		case immLocal, immGlobal, immFunc:
+			// a name: of a local (or parameter), a global or a function
+			names, what := fn.names, "local"
+			if op.imm == immGlobal {
+				names, what = m.globalIdx, "global"
+			} else if op.imm == immFunc {
+				names, what = m.funcIdx, "function"
+			}
 			t, err := next()
 			if err != nil {
 				return nil, err
 			}
-			k, ok := fn.names[t.text]
+			k, ok := names[t.text]
 			if !ok {
-				return nil, &watError{t.pos, "no local " + t.text}
-			}
-			b = uleb(b, uint64(k))
-		case immGlobal:
-			t, err := next()
-			if err != nil {
-				return nil, err
-			}
-			k, ok := m.globalIdx[t.text]
-			if !ok {
-				return nil, &watError{t.pos, "no global " + t.text}
-			}
-			b = uleb(b, uint64(k))
-		case immFunc:
-			t, err := next()
-			if err != nil {
-				return nil, err
-			}
-			k, ok := m.funcIdx[t.text]
-			if !ok {
-				return nil, &watError{t.pos, "no function " + t.text}
+				return nil, &watError{t.pos, "no " + what + " " + t.text}
 			}
 			b = uleb(b, uint64(k))
 		case immI32, immI64:
