@@ -1,9 +1,14 @@
 package e2e
 
 import (
+	"context"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
+	"github.com/chromedp/chromedp"
 )
 
 // The served page opens with the demo project solved and drawn, and asks
@@ -75,4 +80,50 @@ func TestOfflineFile(t *testing.T) {
 	if len(reqs) == 0 {
 		t.Errorf("no requests recorded at all: the request log does not work")
 	}
+}
+
+// With JavaScript off the page shows its inputs and a note that says why
+// nothing is solved (the body is otherwise hidden until the last script
+// shows it); with JavaScript on there is no such note.
+func TestWithoutJavaScript(t *testing.T) {
+	bothPages(t, func(t *testing.T, url string) {
+		tb := newTab(t)
+		if err := chromedp.Do(tb.ctx, chromedp.Func(func(ctx context.Context, tg *chromedp.Target) error {
+			_, err := cdp.Call(ctx, tg, emulation.SetScriptExecutionDisabled, emulation.SetScriptExecutionDisabledParams{Value: true})
+			return err
+		})); err != nil {
+			t.Fatal(err)
+		}
+		if err := chromedp.Do(tb.ctx, chromedp.Navigate(url)); err != nil {
+			t.Fatal(err)
+		}
+		got := eval[[]any](t, tb, `(() => {
+		  const note = document.querySelector("p.noscript");
+		  const form = document.getElementById("inputs");
+		  return [getComputedStyle(document.body).display, note ? note.textContent : "", note ? note.getBoundingClientRect().height : 0,
+		    form ? form.getBoundingClientRect().height : 0, document.documentElement.dataset.solved || ""];
+		})()`)
+		if got[0] == "none" {
+			t.Errorf("with JavaScript off the page is blank (body display none)")
+		}
+		if note, _ := got[1].(string); !strings.Contains(note, "JavaScript") {
+			t.Errorf("with JavaScript off the page says %q, want a note about JavaScript", note)
+		}
+		if h, _ := got[2].(float64); h <= 0 {
+			t.Errorf("the note about JavaScript takes no room: %v", got[2])
+		}
+		if h, _ := got[3].(float64); h <= 0 {
+			t.Errorf("the inputs are not shown with JavaScript off: %v", got[3])
+		}
+		if got[4] != "" {
+			t.Errorf("something solved with JavaScript off: %v", got[4])
+		}
+		tb.shot(t, "no-javascript-"+pageName(url))
+
+		on := newTab(t)
+		on.open(t, url)
+		if n := eval[int](t, on, `document.querySelectorAll("p.noscript").length`); n != 0 {
+			t.Errorf("with JavaScript on the page shows %d notes about JavaScript", n)
+		}
+	})
 }
