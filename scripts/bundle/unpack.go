@@ -59,7 +59,7 @@ self.edgewiseEngineBytes = function (text) {
     }
     const gzEnd = o - pad;
     // the gzip member (RFC 1952): header, deflate stream, CRC-32 and size
-    let b = new Uint8Array(x.mem.buffer);
+    const b = new Uint8Array(x.mem.buffer);
     if (gzEnd - IN < 18 || b[IN] !== 0x1f || b[IN + 1] !== 0x8b || b[IN + 2] !== 8) throw damaged();
     const flags = b[IN + 3];
     let at = IN + 10;

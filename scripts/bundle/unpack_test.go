@@ -155,9 +155,9 @@ func sha(b []byte) string {
 }
 
 // The worker's unpacker gives back exactly what was packed, from the
-// streams of Go's compress/gzip at every level and of Node's zlib with
-// each of its strategies, with white space around the text and every
-// length of the last base-85 group.
+// streams of Go's compress/gzip at every level (one with every optional
+// header field) and of Node's zlib with each of its strategies, with white
+// space around the text and every length of the last base-85 group.
 func TestUnpackJS(t *testing.T) {
 	data := unpackData()
 	var names, texts []string
@@ -171,7 +171,31 @@ func TestUnpackJS(t *testing.T) {
 			want = append(want, fmt.Sprintf("%s, gzip level %d", name, level))
 		}
 	}
+	// a gzip header with the optional fields (RFC 1952 2.3.1: FEXTRA,
+	// FNAME, FCOMMENT), which the script skips
+	var named bytes.Buffer
+	zw, _ := gzip.NewWriterLevel(&named, flate.BestCompression)
+	zw.Name, zw.Comment, zw.Extra = "app.wasm", "the engine", []byte("ew\x04\x00abcd")
+	zw.Write(data["text"])
+	if err := zw.Close(); err != nil {
+		t.Fatal(err)
+	}
+	texts = append(texts, encode85(named.Bytes()))
+	// the premise: every length of the last base-85 group comes up (a
+	// whole group, or 2, 3 or 4 digits for 1, 2 or 3 bytes)
+	lasts := map[int]bool{}
+	for _, s := range texts {
+		lasts[len(strings.TrimSpace(s))%5] = true
+	}
+	for _, r := range []int{0, 2, 3, 4} {
+		if !lasts[r] {
+			t.Fatalf("no text ends in a group of %d digits (the data must be changed)", r)
+		}
+	}
 	fromTexts, fromZlib := runUnpack(t, texts, raws)
+	if got := fromTexts[len(texts)-1][0]; got != sha(data["text"]) {
+		t.Errorf("a gzip header with a name, a comment and extra data: %s, want the data back", got)
+	}
 	k := 0
 	for i, name := range names {
 		for range 5 {
