@@ -8,7 +8,7 @@ import (
 	"testing"
 )
 
-// decode85 is the Go twin of the page's decoder, for the round trip.
+// decode85 is the Go twin of the worker's decoder (dec85 in unpack.wat), for the round trip.
 func decode85(s string) []byte {
 	var out []byte
 	for i := 0; i < len(s); i += 5 {
