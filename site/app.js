@@ -72,7 +72,7 @@
   function warmFonts() {
     const ctx = document.createElement("canvas").getContext("2d");
     if (!ctx) return;
-    for (const font of ["600 11px system-ui, sans-serif", "11px system-ui, sans-serif", "10.5px system-ui, sans-serif", "10px system-ui, sans-serif"]) {
+    for (const font of ["600 11px system-ui, sans-serif", "11px system-ui, sans-serif"]) {
       ctx.font = font;
       ctx.fillText("0123456789.,−×⁰¹²³ T1 W/m²", 0, 12);
     }

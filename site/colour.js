@@ -75,7 +75,7 @@
   // A value label is a small upright box in paper colour with a thin ink
   // edge, never rotated and never bold: isoline labels on the picture and
   // the end values of the colour bar share it.
-  const TAG_FONT = "10.5px system-ui, sans-serif";
+  const TAG_FONT = "11px system-ui, sans-serif";
   const TAG_H = 15;
 
   // tagSize returns the box a tag of this text takes: {w, h}.

@@ -271,7 +271,7 @@
     const ctx = EW.sizeCanvas(c, cssW, cssH);
     ctx.fillStyle = "#f1eee6";
     ctx.fillRect(0, 0, cssW, cssH);
-    ctx.font = "10px system-ui, sans-serif";
+    ctx.font = "11px system-ui, sans-serif";
     ctx.fillStyle = "#5b5f68";
     if (failed || !s || s.length < 2) {
       ctx.textBaseline = "middle";

@@ -170,7 +170,8 @@
 
   EW.store.on("solved", () => {
     const S = EW.store.last();
-    EW.show(S);
+    if (S.drawn) S.drawn = false; // the first picture, drawn ahead (solving.js load)
+    else EW.show(S);
     render(S);
     renderCautions(S.result);
   });

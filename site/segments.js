@@ -308,7 +308,7 @@
     const ctx = EW.sizeCanvas(c, cssW, cssH);
     ctx.fillStyle = "#f1eee6";
     ctx.fillRect(0, 0, cssW, cssH);
-    ctx.font = "10px system-ui, sans-serif";
+    ctx.font = "11px system-ui, sans-serif";
     ctx.fillStyle = "#5b5f68";
     ctx.textBaseline = "middle";
     if (!r.ok || !r.parts.length) {

@@ -86,8 +86,10 @@ func editBench(b *testing.B, tb *tab, id, what string) {
 // BenchmarkFirstPicture opens the offline file (dist/edgewise.html, the
 // demo) and measures, inside the page, the time from the page's start to
 // the inputs filled, to the engine's first answer (decoded, compiled,
-// started) and to the first picture on screen (the demo solved and drawn),
-// and when the first picture's cross-check came in. It reports the
+// started) and to the first picture on screen (the demo solved and drawn,
+// and the frame that shows it drawn by the browser: the page marks it from
+// a task posted in that frame's callback, which runs after the frame's
+// layout and paint), and when the first picture's cross-check came in. It reports the
 // medians; the target for the picture is 1 s. Each open is a first open: a
 // fresh browser context, so a new renderer process with nothing compiled
 // and nothing stored (in one process the browser keeps the engine's

@@ -143,3 +143,67 @@ func TestFullCheckReplacesFirstPicture(t *testing.T) {
 	}
 	tb.noErrors(t)
 }
+
+// recordFirstFrame notes, when the store first tells that a solve is in
+// (after the results are written), whether the first picture's frame had
+// been drawn by then, and whether the picture was on the canvas.
+const recordFirstFrame = `(() => {
+  try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}
+  window.frameSeen = null;
+  document.addEventListener("edgewise:solved", () => {
+    if (window.frameSeen) return;
+    const drawn = performance.getEntriesByName("ew:picture-drawn")[0];
+    const shown = performance.getEntriesByName("ew:first-picture")[0];
+    window.frameSeen = { drawn: drawn ? drawn.startTime : -1, shown: shown ? shown.startTime : -1,
+      at: document.documentElement.dataset.firstPictureAt || "" };
+  });
+})()`
+
+// The first picture goes on screen before the page lays out the rest of
+// the reply (results, probes, notes): its frame is drawn, and marked, by
+// the time the store says the solve is in. A new browser process took
+// 0.15-0.35 s to lay those out; the picture waited for them before.
+func TestFirstPictureOnScreenBeforeResults(t *testing.T) {
+	bothPages(t, func(t *testing.T, url string) {
+		tb := newTab(t)
+		tb.beforeScripts(t, recordFirstFrame)
+		tb.open(t, url)
+		got := eval[map[string]any](t, tb, `window.frameSeen`)
+		drawn, _ := got["drawn"].(float64)
+		shown, _ := got["shown"].(float64)
+		if drawn <= 0 || shown < drawn || got["at"] == "" {
+			t.Errorf("when the results came in: picture drawn at %v ms, its frame at %v ms, firstPictureAt %q; want both before, the frame after the drawing", got["drawn"], got["shown"], got["at"])
+		}
+		// the picture itself is the solve the results describe
+		if n := eval[int](t, tb, `window.edgewiseInternal.last() ? window.edgewiseInternal.last().nx : 0`); n <= 0 {
+			t.Errorf("no solve in the store after the first picture")
+		}
+		tb.noErrors(t)
+	})
+}
+
+// The page's text keeps to its type scale (style.css: four sizes, two
+// weights, no italics). Each size, weight or face is a font the browser
+// looks up in a new process; 34 of them cost the first picture about
+// 0.3 s on this machine.
+func TestTypeScale(t *testing.T) {
+	tb := newTab(t)
+	tb.beforeScripts(t, `try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}`)
+	tb.open(t, "file://"+filepath.Join(root, "dist", "edgewise.html"))
+	tb.waitFor(t, `document.documentElement.dataset.firstCheckAt !== undefined`, "the first picture's cross-check")
+	odd := eval[[]string](t, tb, `(() => {
+	  const sizes = new Set(["12px", "14px", "16px", "20px"]), weights = new Set(["400", "600"]), out = new Set();
+	  for (const el of document.querySelectorAll("body *")) {
+	    if (!el.getClientRects().length) continue; // not shown
+	    let text = ["INPUT", "SELECT", "TEXTAREA", "BUTTON"].includes(el.tagName);
+	    for (const n of el.childNodes) if (n.nodeType === 3 && n.textContent.trim()) text = true;
+	    if (!text) continue;
+	    const cs = getComputedStyle(el);
+	    if (!sizes.has(cs.fontSize) || !weights.has(cs.fontWeight) || cs.fontStyle !== "normal")
+	      out.add(el.tagName.toLowerCase() + (el.className ? "." + String(el.className).replace(/ /g, ".") : "") + ": " + cs.fontSize + " " + cs.fontWeight + " " + cs.fontStyle);
+	  }
+	  return [...out]; })()`)
+	if len(odd) > 0 {
+		t.Errorf("text outside the type scale (sizes 12, 14, 16, 20 px; weights 400, 600; no italics):\n  %s", strings.Join(odd, "\n  "))
+	}
+}
