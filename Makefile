@@ -16,9 +16,10 @@ NATIVE    := $(shell $(GO) list ./... | grep -v /scripts/e2e)
 
 all: build
 
-## build: the engine as WebAssembly next to the page, with the matching wasm_exec.js
-## and the published check cases (testdata/checks.json) for the page's checks panel
-build: site/app.wasm site/wasm_exec.js site/checks.json site/physics.json
+## build: the engine as WebAssembly next to the page, with the matching wasm_exec.js,
+## the published check cases (testdata/checks.json) for the page's checks panel,
+## and the physics and colour tables the page reads
+build: site/app.wasm site/wasm_exec.js site/checks.json site/physics.json site/colours.json
 
 site/checks.json: $(wildcard testdata/checks.json)
 	@if [ -f testdata/checks.json ]; then cp testdata/checks.json $@; else echo '{"cases": []}' > $@; fi
@@ -26,6 +27,11 @@ site/checks.json: $(wildcard testdata/checks.json)
 # the physics table (names, units, labels, hints) as the page reads it
 site/physics.json: $(wildcard solver/physics/*.go solver/physics/examples/*.json solver/jsonlite/*.go scripts/physicsjson/*.go)
 	$(GO) run ./scripts/physicsjson -o $@
+
+# the engine's two colour maps as tables, so that the page draws with the
+# engine's colours without a call to it
+site/colours.json: $(wildcard solver/colour/*.go scripts/colourjson/*.go)
+	$(GO) run ./scripts/colourjson -o $@
 
 site/app.wasm: $(shell find solver wasm -name '*.go' -not -name '*_test.go') go.mod go.sum
 	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags='-s -w -X edgewise/solver/report.Release=$(RELEASE)' -o $@ ./wasm
@@ -158,4 +164,4 @@ fuzz: FUZZTIME = 2m
 endif
 
 clean:
-	rm -rf dist site/app.wasm site/wasm_exec.js site/checks.json site/physics.json
+	rm -rf dist site/app.wasm site/wasm_exec.js site/checks.json site/physics.json site/colours.json

@@ -82,14 +82,13 @@
   // form is filled meanwhile.
   setTimeout(async () => {
     performance.mark("ew:boot");
-    const colours = engine.call("colours", 256);
-    colours.catch(() => {});
+    const up = engine.ready(); // the engine starts at once
+    up.catch(() => {});
     await firstForm();
     warmFonts();
     try {
-      const [, c] = await Promise.all([EW.loadPhysics(), colours]);
-      EW.colours = c.value;
-      root.dataset.engineAt = performance.now().toFixed(1); // the engine's first answer (benchmark)
+      await Promise.all([EW.loadPhysics(), EW.loadColours(), up]);
+      root.dataset.engineAt = performance.now().toFixed(1); // the engine up (benchmark)
     } catch (e) {
       solving.setStatus(e.message, "error");
       return;

@@ -1,8 +1,10 @@
 // edgewise page: colours. The colour scale of the picture is the engine's
 // (result.colour: which map and over what range, from the Go rule
 // colour.Choose, the same for the SVG, the PNG and the report), drawn with
-// the engine's colour tables (EW.colours, from edgewise_colours). Entry
-// point: EW.colour = {scale(result, mode), paint(canvas, S, scale),
+// the engine's colour tables (EW.colours: colours.json, which the build
+// writes from the engine's colour package, inline in the single file).
+// Entry points: EW.loadColours() -> Promise (once, before the first
+// picture), EW.colour = {scale(result, mode), paint(canvas, S, scale),
 // legend(canvas, scale, box, horizontal, units, levels)}, and EW.tag, the
 // boxed value label the picture and the colour bar share.
 "use strict";
@@ -11,6 +13,30 @@
   const INK = "#1b2029";
   const PAPER = "#fbfaf6";
   EW.colours = null; // {sequential, diverging: Uint8Array(3n), n, names: {sequential, diverging}}
+
+  // loadColours reads the tables: inline in the single file, else
+  // fetched. Tables that do not read leave the grey ramp below (scale), and
+  // the promise says why.
+  let loadingColours = null;
+  EW.loadColours = function () {
+    if (!loadingColours) {
+      loadingColours = (async () => {
+        const inline = document.getElementById("ew-colours");
+        let doc;
+        if (inline) doc = JSON.parse(inline.textContent);
+        else {
+          const resp = await fetch("colours.json");
+          if (!resp.ok) throw new Error("the colour tables (colours.json) could not be read: " + resp.status);
+          doc = await resp.json();
+        }
+        const n = doc && doc.n;
+        const ok = (t) => Array.isArray(t) && t.length === 3 * n;
+        if (!(n >= 2) || !ok(doc.sequential) || !ok(doc.diverging)) throw new Error("the colour tables (colours.json) are not whole");
+        EW.colours = { n, sequential: Uint8Array.from(doc.sequential), diverging: Uint8Array.from(doc.diverging), names: doc.names || {} };
+      })();
+    }
+    return loadingColours;
+  };
 
   // table returns the engine's table of the map with this name, or of
   // this kind ("sequential", "diverging").

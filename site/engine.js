@@ -2,7 +2,7 @@
 //
 //   EW.engine.call(fn, ...args) -> Promise<{value, ms}>
 //
-// runs the Go function edgewise_<fn> in the worker. restart(reason) stops
+// (and EW.engine.ready() -> Promise, when the engine is up) runs the Go function edgewise_<fn> in the worker. restart(reason) stops
 // the worker (the only real cancel of a running solve) and starts a fresh
 // one. Every call settles: with the engine's reply, or rejected with
 // {message, cancelled: true} when the worker it waits on (running or still
@@ -157,6 +157,9 @@
   EW.engine = {
     call,
     restart,
+    // ready resolves when the current worker's engine is up (it starts
+    // one when there is none) and rejects when it failed to start
+    ready: () => (starting || start()).then(() => true),
     state: () => ({ restarts, held: heldIds.size }),
     hold(o) {
       holdNext.fn = (o && o.fn) || "solve";

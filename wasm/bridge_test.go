@@ -9,7 +9,6 @@ import (
 	"testing"
 
 	"edgewise/solver"
-	"edgewise/solver/colour"
 
 	"github.com/hack-pad/safejs"
 )
@@ -132,31 +131,6 @@ func TestSolveIsolines(t *testing.T) {
 	last, _ := ends.Index(ne - 1)
 	if n, _ := last.Int(); n != ns || ns == 0 || ns%4 != 0 {
 		t.Errorf("segments: %d numbers, last end %d; want a non-empty multiple of 4 matching the last end", ns, n)
-	}
-}
-
-// The colour tables are the colour package's own, 3 bytes per colour.
-func TestColoursThroughJS(t *testing.T) {
-	if err := register(); err != nil {
-		t.Fatal(err)
-	}
-	fn, _ := safejs.Global().Get("edgewise_colours")
-	reply, err := fn.Invoke(16)
-	if err != nil {
-		t.Fatal(err)
-	}
-	for name, m := range map[string][]uint8{"sequential": colour.Sequential.Table(16), "diverging": colour.Diverging.Table(16)} {
-		arr := mustGet(t, reply, name)
-		n, _ := arr.Length()
-		if n != len(m) {
-			t.Fatalf("%s has %d bytes, want %d", name, n, len(m))
-		}
-		for k := range m {
-			v, _ := arr.Index(k)
-			if b, _ := v.Int(); b != int(m[k]) {
-				t.Fatalf("%s[%d] = %d, want %d", name, k, b, m[k])
-			}
-		}
 	}
 }
 

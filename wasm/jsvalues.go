@@ -27,22 +27,6 @@ func stringArg(args []safejs.Value, i int, what string, optional bool) (string, 
 	return s, nil
 }
 
-// uint8Array copies b into a new JavaScript Uint8Array.
-func uint8Array(b []byte) (safejs.Value, error) {
-	ctor, err := safejs.Global().Get("Uint8Array")
-	if err != nil {
-		return safejs.Value{}, err
-	}
-	arr, err := ctor.New(len(b))
-	if err != nil {
-		return safejs.Value{}, err
-	}
-	if _, err := safejs.CopyBytesToJS(arr, b); err != nil {
-		return safejs.Value{}, err
-	}
-	return arr, nil
-}
-
 // float64Array copies s into a new JavaScript Float64Array in one block copy.
 func float64Array(s []float64) (safejs.Value, error) {
 	ctor, err := safejs.Global().Get("Float64Array")

@@ -5,7 +5,6 @@
 // (the table calls) and never returns:
 //
 //	edgewise_solve(projectJSON string, nx, ny, levels number, noCheck bool) -> reply
-//	edgewise_colours(n number) -> {ok, sequential, diverging: Uint8Array(3n), names}
 //	edgewise_preview(projectJSON string, side string, n number) -> {ok, s, v: Float64Array}
 //	edgewise_export(kind, projectJSON, optionsJSON) -> {ok, text, name, mime}
 //	    kind: "field-csv" | "probes-csv" | "edges-csv" | "svg"; options (all optional):
@@ -62,7 +61,6 @@ type call func(args []safejs.Value) (map[string]any, error)
 // calls are the functions the bridge registers, as edgewise_<name>.
 var calls = map[string]call{
 	"solve":    solveCall,
-	"colours":  coloursCall,
 	"preview":  previewCall,
 	"export":   exportCall,
 	"report":   reportCall,

@@ -11,35 +11,11 @@ import (
 	"fmt"
 
 	"edgewise/solver"
-	"edgewise/solver/colour"
 	"edgewise/solver/problem"
 	"edgewise/solver/project"
 
 	"github.com/hack-pad/safejs"
 )
-
-// coloursCall returns the two colour maps as tables of n colours (default
-// 256), so that the page, the SVG and the PNG share one design.
-func coloursCall(args []safejs.Value) (map[string]any, error) {
-	n := 256
-	if len(args) >= 1 {
-		if v, err := args[0].Int(); err == nil && v >= 2 && v <= 4096 {
-			n = v
-		}
-	}
-	seq, err := uint8Array(colour.Sequential.Table(n))
-	if err != nil {
-		return nil, err
-	}
-	div, err := uint8Array(colour.Diverging.Table(n))
-	if err != nil {
-		return nil, err
-	}
-	return map[string]any{
-		"ok": true, "n": n, "sequential": seq, "diverging": div,
-		"names": map[string]any{"sequential": colour.Sequential.Name(), "diverging": colour.Diverging.Name()},
-	}, nil
-}
 
 // previewCall samples one edge's formula (the ambient for a convection
 // edge) at n+1 points along it, for the page's small profile plot.

@@ -23,7 +23,8 @@
 //     (site/engine.js takes the worker over);
 //   - the demo project sits in <script type="application/json" id="ew-demo">,
 //     the published check cases (checks.json) in one with id="ew-checks",
-//     the physics table (physics.json) in one with id="ew-physics";
+//     the physics table (physics.json) in one with id="ew-physics", and the
+//     colour tables (colours.json) in one with id="ew-colours";
 //   - the Content-Security-Policy meta tag is replaced by csp.Offline: the
 //     inline scripts and styles by their SHA-256 hashes, the worker from
 //     blob:, WebAssembly, and nothing from any address.
@@ -143,6 +144,10 @@ func Bundle(dir string) ([]byte, error) {
 	if err != nil {
 		return nil, fmt.Errorf("%w (run make build first)", err)
 	}
+	colourTables, err := read("colours.json")
+	if err != nil {
+		return nil, fmt.Errorf("%w (run make build first)", err)
+	}
 	var gz bytes.Buffer
 	zw, _ := gzip.NewWriterLevel(&gz, gzip.BestCompression)
 	if _, err := zw.Write(wasm); err != nil {
@@ -175,6 +180,7 @@ func Bundle(dir string) ([]byte, error) {
 	extra.WriteString(`<script type="application/json" id="ew-demo">` + escapeScript(asciiJS(demo)) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-checks">` + escapeScript(asciiJS(checks)) + "</script>\n")
 	extra.WriteString(`<script type="application/json" id="ew-physics">` + escapeScript(asciiJS(physicsTable)) + "</script>\n")
+	extra.WriteString(`<script type="application/json" id="ew-colours">` + escapeScript(asciiJS(colourTables)) + "</script>\n")
 	i := strings.LastIndex(html, "</body>")
 	if i < 0 {
 		return nil, fmt.Errorf("index.html has no </body>")

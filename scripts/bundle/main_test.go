@@ -39,6 +39,7 @@ var site = map[string]string{
 	"demo.json":    `{"title": "</script> W/m²"}`,
 	"checks.json":  `{"cases": []}`,
 	"physics.json": `{"physics": [{"id": "</script>"}]}`,
+	"colours.json": `{"n": 2, "names": {"sequential": "</script>"}}`,
 }
 
 func TestBundle(t *testing.T) {
@@ -50,9 +51,9 @@ func TestBundle(t *testing.T) {
 	if strings.Contains(html, `src="`) || strings.Contains(html, `href="style.css"`) {
 		t.Errorf("an outside script or stylesheet is left")
 	}
-	// the only </script> sequences are the real closing tags: 8 blocks
-	if n := strings.Count(html, "</script"); n != 8 {
-		t.Errorf("%d </script sequences, want 8 (app, worker, demo, checks, physics, engine, and the scripts that start the worker and send it the engine)", n)
+	// the only </script> sequences are the real closing tags: 9 blocks
+	if n := strings.Count(html, "</script"); n != 9 {
+		t.Errorf("%d </script sequences, want 9 (app, worker, demo, checks, physics, colours, engine, and the scripts that start the worker and send it the engine)", n)
 	}
 	// the worker starts before anything but the policy: the worker's
 	// source, the script that starts it, the engine, the script that sends
@@ -107,6 +108,9 @@ func TestBundle(t *testing.T) {
 	}
 	if !strings.Contains(html, `<script type="application/json" id="ew-physics">{"physics": [{"id": "<\/script>"}]}</script>`) {
 		t.Errorf("the physics table is not inlined as data")
+	}
+	if !strings.Contains(html, `<script type="application/json" id="ew-colours">{"n": 2, "names": {"sequential": "<\/script>"}}</script>`) {
+		t.Errorf("the colour tables are not inlined as data")
 	}
 	// ASCII only, every other character escaped in its own language
 	for i := 0; i < len(html); i++ {

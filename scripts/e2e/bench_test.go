@@ -16,9 +16,11 @@ import (
 
 // BenchmarkEditToPicture types one-key edits into the right edge's formula
 // of the demo project (default grid) and measures, inside the page, the
-// time from the key going down to the redrawn picture (the page's
-// "edgewise:solved" event, sent after the canvas is drawn). It reports the
-// median over the edits; the target is 100 ms or less. `make
+// time from the key going down to the redrawn picture on screen: the page's
+// "edgewise:solved" event, sent after the canvas is drawn, and then the
+// frame that shows it drawn by the browser (a task posted in that frame's
+// callback runs after its layout and paint). It reports the median over
+// the edits, on screen (the target is 100 ms or less) and drawn. `make
 // bench-browser` runs it with 20 edits.
 func BenchmarkEditToPicture(b *testing.B) {
 	tb := newTab(b)
@@ -43,13 +45,15 @@ func BenchmarkEditToPictureSegments(b *testing.B) {
 // reports the median and largest time from the key to the redrawn picture.
 func editBench(b *testing.B, tb *tab, id, what string) {
 	eval[bool](b, tb, `(() => {
-	  window.benchTimes = []; window.benchEngine = []; window.benchT0 = 0;
+	  window.benchTimes = []; window.benchDrawn = []; window.benchT0 = 0;
 	  const inp = document.getElementById(`+strconv.Quote(id)+`);
 	  inp.addEventListener("keydown", () => { window.benchT0 = performance.now(); }, true);
 	  document.addEventListener("edgewise:solved", () => {
-	    if (!window.benchT0) return;
-	    window.benchTimes.push(performance.now() - window.benchT0);
+	    const t0 = window.benchT0;
+	    if (!t0) return;
 	    window.benchT0 = 0;
+	    window.benchDrawn.push(performance.now() - t0);
+	    requestAnimationFrame(() => setTimeout(() => window.benchTimes.push(performance.now() - t0), 0));
 	  });
 	  return true; })()`)
 	base := eval[string](b, tb, `document.getElementById(`+strconv.Quote(id)+`).value`)
@@ -72,15 +76,20 @@ func editBench(b *testing.B, tb *tab, id, what string) {
 	}
 	b.StopTimer()
 	times := eval[[]float64](b, tb, `window.benchTimes`)
-	sort.Float64s(times)
-	median := times[len(times)/2]
-	if len(times)%2 == 0 {
-		median = (times[len(times)/2-1] + times[len(times)/2]) / 2
+	drawn := eval[[]float64](b, tb, `window.benchDrawn`)
+	median := func(v []float64) float64 {
+		sort.Float64s(v)
+		if len(v)%2 == 0 {
+			return (v[len(v)/2-1] + v[len(v)/2]) / 2
+		}
+		return v[len(v)/2]
 	}
-	b.ReportMetric(median, "ms/edit-median")
+	m, md := median(times), median(drawn)
+	b.ReportMetric(m, "ms/edit-median")
 	b.ReportMetric(times[len(times)-1], "ms/edit-max")
+	b.ReportMetric(md, "ms/edit-drawn-median")
 	status := eval[string](b, tb, `document.getElementById("status").textContent`)
-	b.Logf("%s %q, %d edits: median %.1f ms, min %.1f, max %.1f; last: %s", what, base, len(times), median, times[0], times[len(times)-1], status)
+	b.Logf("%s %q, %d edits: on screen median %.1f ms, min %.1f, max %.1f; drawn median %.1f ms; last: %s", what, base, len(times), m, times[0], times[len(times)-1], md, status)
 }
 
 // BenchmarkFirstPicture opens the offline file (dist/edgewise.html, the

@@ -64,6 +64,20 @@ func TestMain(m *testing.M) {
 		chromedp.Flag("allow-file-access-from-files", false),
 		chromedp.WindowSize(1280, 860),
 	)
+	if os.Getenv("EDGEWISE_OMNIBOX_POPUP") == "" {
+		// Chromium loads a page of its own, the omnibox popup (a WebUI
+		// page), into every new window. The tests and BenchmarkFirstPicture
+		// open each page in a new window (a fresh browser context: a new
+		// renderer process with nothing compiled or stored), and that page
+		// then took 0.7 s of processor time during every open, on one of
+		// this machine's two cores, the first picture coming 0.4-0.5 s
+		// later. A file a user opens goes into a tab of a browser already
+		// running, whose window loaded its popup long before; so it is off
+		// here. EDGEWISE_OMNIBOX_POPUP=1 keeps it (to measure an open that
+		// comes with a new window). The first two features are
+		// chromedp's default list, which this flag replaces.
+		opts = append(opts, chromedp.Flag("disable-features", "Translate,BlinkGenPropertyTrees,WebUIOmniboxPopup,WebUIOmniboxAimPopup,WebUIOmniboxFullPopup"))
+	}
 	if f := os.Getenv("EDGEWISE_JS_FLAGS"); f != "" {
 		// an experiment with the browser's JavaScript engine (benchmarks
 		// only: a page cannot set these)

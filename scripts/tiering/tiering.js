@@ -35,7 +35,6 @@ function child(wasmFile, projectFile) {
     const go = new Go();
     const inst = await WebAssembly.instantiate(await WebAssembly.compile(fs.readFileSync(wasmFile)), go.importObject);
     go.run(inst);
-    globalThis.edgewise_colours(256); // the page's first call
     const t = performance.now();
     const r = globalThis.edgewise_solve(fs.readFileSync(projectFile, "utf8"), 0, 0, 12, true);
     const ms = performance.now() - t;
