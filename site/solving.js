@@ -272,21 +272,19 @@
     setStatus("Solved: " + r.nx + " × " + r.ny + " grid, engine " + ms.toFixed(0) + " ms, on screen after " + total.toFixed(0) + " ms." + outsideNote(project));
     root.dataset.solved = String(Number(root.dataset.solved || 0) + 1);
     if (!root.dataset.firstPictureAt && !firstFrame) {
-      firstFrame = afterFrame().then(() => markFirstPicture(check));
+      firstFrame = frameDrawn().then(() => markFirstPicture(check));
     }
     return result;
   }
 
-  // afterFrame resolves once the browser has drawn the next frame: the
-  // picture is on screen (a task posted from a frame's callback runs after
-  // that frame's layout and paint). A page the browser does not draw (a
-  // hidden tab) waits at most 100 ms.
-  const afterFrame = () => new Promise((resolve) => {
-    const done = () => { clearTimeout(timer); resolve(); };
-    const timer = setTimeout(resolve, 100);
-    requestAnimationFrame(() => setTimeout(done, 0));
-  });
-  let firstFrame = null; // the first picture's frame, once it is drawn
+  // frameDrawn resolves once the browser has drawn the next frame: what
+  // was drawn before is on screen (a task posted from a frame's callback
+  // runs after that frame's layout and paint). A page the browser does not
+  // draw (a hidden tab) has no frames: FRAME_WAIT_MS is as long as the
+  // page's first load waits for one.
+  const frameDrawn = () => new Promise((resolve) => requestAnimationFrame(() => setTimeout(resolve, 0)));
+  const FRAME_WAIT_MS = 250;
+  let firstFrame = null; // the first picture's frame, marked once it is drawn
   // markFirstPicture notes when the page's first picture was on screen,
   // in ms from the page's start (the browser benchmark reads it), and
   // its cross-check with it when it came with the picture (no check to
@@ -514,8 +512,8 @@
       EW.show(drawn);
       drawn.drawn = true; // results.js does not draw it again
       performance.mark("ew:picture-drawn");
-      firstFrame = afterFrame().then(() => markFirstPicture(out.check));
-      await firstFrame;
+      firstFrame = frameDrawn().then(() => markFirstPicture(out.check));
+      await Promise.race([firstFrame, new Promise((resolve) => setTimeout(resolve, FRAME_WAIT_MS))]);
       if (out.gen !== gen) return drawn.result;
     }
     // the inputs already show this project when the page filled them
