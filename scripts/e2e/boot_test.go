@@ -8,9 +8,11 @@ import (
 )
 
 // recordFirstSolve keeps, for every page the tab opens, what the results
-// said about the cross-check when the first picture was drawn, and what
-// each worker's "init" message brought (the engine's text, a compiled
-// module, or nothing: fetch app.wasm).
+// said about the cross-check when the first picture was drawn, when the
+// picture was drawn and when its frame was (the marks as they stood when
+// the store said the solve was in), and what each worker's "init" message
+// brought (the engine's text, a compiled module, or nothing: fetch
+// app.wasm).
 const recordFirstSolve = `(() => {
   try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}
   window.bootSeen = { inits: [] };
@@ -20,6 +22,12 @@ const recordFirstSolve = `(() => {
     window.bootSeen.firstCheck = row ? row.textContent : "(no row)";
     window.bootSeen.statement = (document.getElementById("res-accuracy") || {}).textContent || "";
     window.bootSeen.pending = window.edgewiseInternal.last().checkPending === true;
+    // by then the picture was drawn, and its frame too
+    const drawn = performance.getEntriesByName("ew:picture-drawn")[0];
+    const shown = performance.getEntriesByName("ew:first-picture")[0];
+    window.bootSeen.drawn = drawn ? drawn.startTime : -1;
+    window.bootSeen.shown = shown ? shown.startTime : -1;
+    window.bootSeen.at = document.documentElement.dataset.firstPictureAt || "";
   });
   const W = window.Worker;
   window.Worker = class extends W {
@@ -31,8 +39,13 @@ const recordFirstSolve = `(() => {
 })()`
 
 // The first picture is drawn before its cross-check, from the solve asked
-// for before the engine was up: the results say the cross-check is pending (never a difference not yet measured), and then
-// show the difference that the full solve of the same project gives.
+// for before the engine was up: the results say the cross-check is pending
+// (never a difference not yet measured), and then show the difference that
+// the full solve of the same project gives. The picture goes on screen
+// before the page lays out the rest of the reply (results, probes, notes):
+// its frame is drawn, and marked, by the time the store says the solve is
+// in (a new browser process took 0.15-0.35 s to lay those out, and the
+// picture waited for them before).
 func TestFirstPictureBeforeCrossCheck(t *testing.T) {
 	bothPages(t, func(t *testing.T, url string) {
 		tb := newTab(t)
@@ -50,6 +63,11 @@ func TestFirstPictureBeforeCrossCheck(t *testing.T) {
 		// the first solve was asked for once: the page's first request took
 		// the reply of the one sent as soon as the form was filled
 		// (solving.js, askEarly), none was sent again
+		drawn, _ := first["drawn"].(float64)
+		shown, _ := first["shown"].(float64)
+		if drawn <= 0 || shown < drawn || first["at"] == "" {
+			t.Errorf("when the results came in: picture drawn at %v ms, its frame at %v ms, firstPictureAt %q; want both before, the frame after the drawing", first["drawn"], first["shown"], first["at"])
+		}
 		if n := eval[int](t, tb, `performance.getEntriesByName("ew:solve-asked").length`); n != 1 {
 			t.Errorf("the first picture asked for %d first solves, want 1 (the early one taken)", n)
 		}
@@ -142,44 +160,6 @@ func TestFullCheckReplacesFirstPicture(t *testing.T) {
 		t.Errorf("after a full solve that differs: cautions %v, pending %v, cross-check %v, row %q", got[0], got[1], got[2], got[3])
 	}
 	tb.noErrors(t)
-}
-
-// recordFirstFrame notes, when the store first tells that a solve is in
-// (after the results are written), whether the first picture's frame had
-// been drawn by then, and whether the picture was on the canvas.
-const recordFirstFrame = `(() => {
-  try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}
-  window.frameSeen = null;
-  document.addEventListener("edgewise:solved", () => {
-    if (window.frameSeen) return;
-    const drawn = performance.getEntriesByName("ew:picture-drawn")[0];
-    const shown = performance.getEntriesByName("ew:first-picture")[0];
-    window.frameSeen = { drawn: drawn ? drawn.startTime : -1, shown: shown ? shown.startTime : -1,
-      at: document.documentElement.dataset.firstPictureAt || "" };
-  });
-})()`
-
-// The first picture goes on screen before the page lays out the rest of
-// the reply (results, probes, notes): its frame is drawn, and marked, by
-// the time the store says the solve is in. A new browser process took
-// 0.15-0.35 s to lay those out; the picture waited for them before.
-func TestFirstPictureOnScreenBeforeResults(t *testing.T) {
-	bothPages(t, func(t *testing.T, url string) {
-		tb := newTab(t)
-		tb.beforeScripts(t, recordFirstFrame)
-		tb.open(t, url)
-		got := eval[map[string]any](t, tb, `window.frameSeen`)
-		drawn, _ := got["drawn"].(float64)
-		shown, _ := got["shown"].(float64)
-		if drawn <= 0 || shown < drawn || got["at"] == "" {
-			t.Errorf("when the results came in: picture drawn at %v ms, its frame at %v ms, firstPictureAt %q; want both before, the frame after the drawing", got["drawn"], got["shown"], got["at"])
-		}
-		// the picture itself is the solve the results describe
-		if n := eval[int](t, tb, `window.edgewiseInternal.last() ? window.edgewiseInternal.last().nx : 0`); n <= 0 {
-			t.Errorf("no solve in the store after the first picture")
-		}
-		tb.noErrors(t)
-	})
 }
 
 // The page's text keeps to its type scale (style.css: four sizes, two
