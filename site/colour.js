@@ -15,8 +15,8 @@
   EW.colours = null; // {sequential, diverging: Uint8Array(3n), n, names: {sequential, diverging}}
 
   // loadColours reads the tables: inline in the single file, else
-  // fetched. Tables that do not read leave the grey ramp below (scale), and
-  // the promise says why.
+  // fetched. When they do not read, it rejects with why (the boot shows
+  // it) and EW.colours stays null (scale then draws a grey ramp).
   let loadingColours = null;
   EW.loadColours = function () {
     if (!loadingColours) {

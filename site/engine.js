@@ -1,8 +1,9 @@
-// edgewise page: the engine in its Web Worker. One entry point,
+// edgewise page: the engine in its Web Worker. Entry points,
 //
 //   EW.engine.call(fn, ...args) -> Promise<{value, ms}>
+//   EW.engine.ready() -> Promise, settled when the engine is up
 //
-// (and EW.engine.ready() -> Promise, when the engine is up) runs the Go function edgewise_<fn> in the worker. restart(reason) stops
+// call runs the Go function edgewise_<fn> in the worker. restart(reason) stops
 // the worker (the only real cancel of a running solve) and starts a fresh
 // one. Every call settles: with the engine's reply, or rejected with
 // {message, cancelled: true} when the worker it waits on (running or still
