@@ -94,16 +94,18 @@ func editBench(b *testing.B, tb *tab, id, what string) {
 
 // BenchmarkFirstPicture opens the offline file (dist/edgewise.html, the
 // demo) and measures, inside the page, the time from the page's start to
-// the inputs filled, to the engine's first answer (decoded, compiled,
-// started) and to the first picture on screen (the demo solved and drawn,
-// and the frame that shows it drawn by the browser: the page marks it from
-// a task posted in that frame's callback, which runs after the frame's
-// layout and paint), and when the first picture's cross-check came in. It reports the
+// the inputs filled, to the engine up (unpacked, compiled, started) and to
+// the first picture on screen (the demo solved and drawn, and the frame
+// that shows it drawn by the browser: the page marks it from a task posted
+// in that frame's callback, which runs after the frame's layout and
+// paint), and when the first picture's cross-check came in. It reports the
 // medians; the target for the picture is 1 s. Each open is a first open: a
 // fresh browser context, so a new renderer process with nothing compiled
 // and nothing stored (in one process the browser keeps the engine's
 // compiled code from one open to the next, and the numbers would be those
-// of a second open). `make bench-browser` runs it 5 times; it logs the
+// of a second open); the browser runs without the page of its own it would
+// load into each new window (browser_test.go, EDGEWISE_OMNIBOX_POPUP).
+// `make bench-browser` runs it 5 times; it logs the
 // median of every step of the start (the page's performance marks).
 // EDGEWISE_OFFLINE_FILE names another build of the file to measure (an
 // absolute path), for a comparison run by run.
