@@ -5,6 +5,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
+
+	"github.com/chromedp/chromedp"
 )
 
 // recordFirstSolve keeps, for every page the tab opens, what the results
@@ -186,4 +189,30 @@ func TestTypeScale(t *testing.T) {
 	if len(odd) > 0 {
 		t.Errorf("text outside the type scale (sizes 12, 14, 16, 20 px; weights 400, 600; no italics):\n  %s", strings.Join(odd, "\n  "))
 	}
+}
+
+// A page the browser does not draw (a tab in the background has no frames)
+// still takes its first project whole: the first load waits a while for
+// the picture's frame, then writes the results anyway; the first picture
+// is counted on screen only when a frame shows it.
+func TestFirstLoadWithoutFrames(t *testing.T) {
+	tb := newTab(t)
+	tb.beforeScripts(t, `(() => {
+	  try { localStorage.removeItem("edgewise.autosave.1"); } catch (e) {}
+	  window.requestAnimationFrame = () => 0; // no frame ever comes
+	})()`)
+	if _, err := chromedp.Run(tb.ctx, chromedp.Navigate("file://"+filepath.Join(root, "dist", "edgewise.html"))); err != nil {
+		t.Fatal(err)
+	}
+	// polled by time: the usual polling waits for frames
+	if _, err := chromedp.Run(tb.ctx, chromedp.Poll[bool](`document.getElementById("res-max") !== null && Number(document.documentElement.dataset.solved || 0) >= 1`,
+		chromedp.WithPollingInterval(50*time.Millisecond), chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		t.Fatalf("without frames the first project's results did not come: %v", err)
+	}
+	got := eval[[]any](t, tb, `[document.documentElement.dataset.firstPictureAt || "", performance.getEntriesByName("ew:picture-drawn").length,
+	  window.edgewiseInternal.last() ? window.edgewiseInternal.last().project.title : ""]`)
+	if got[0] != "" || got[1] != float64(1) || got[2] == "" {
+		t.Errorf("without frames: firstPictureAt %q (want none), picture drawn %v times (want 1), solve in the store %q", got[0], got[1], got[2])
+	}
+	tb.noErrors(t)
 }
