@@ -364,12 +364,15 @@
       return;
     }
     // debounce only while keys come very fast (key repeat, a burst of
-    // events); otherwise solve at once. While a solve runs, request()
-    // keeps only the newest edit waiting, so slow solves coalesce edits too.
+    // events); otherwise solve at once, in this task: the worker then
+    // solves while the browser draws the typed character (a timer would
+    // wait for that frame, 10-15 ms). While a solve runs, request() keeps
+    // only the newest edit waiting, so slow solves coalesce edits too.
     const t0 = performance.now();
     const burst = t0 - lastEditAt < QUIET_MS;
     lastEditAt = t0;
-    editTimer = setTimeout(() => solveEdit(project, t0), burst ? DEBOUNCE_MS : 0);
+    if (burst) editTimer = setTimeout(() => solveEdit(project, t0), DEBOUNCE_MS);
+    else solveEdit(project, t0);
   }
   EW.edited = edited;
 
