@@ -99,6 +99,10 @@
   function render(S) {
     const r = S.result, u = S.units || {};
     const box = byId("results");
+    // the trades' answers (answers.js) sit in this box too: a new solve
+    // writes them again after this, but the first picture's cross-check
+    // writes only this part again, and they must stay
+    const answers = byId("answers");
     box.replaceChildren();
     const vu = EW.conv(u, "value").unit, L = EW.conv(u, "length").unit;
     const len = (v) => EW.num(EW.dv(u, "length", v), 4);
@@ -155,6 +159,7 @@
       for (const w of warnings) ul.append(el("li", { "data-code": w.code || null, text: w.text }));
       box.append(el("h3", { text: "Notes from the engine" }), ul);
     }
+    if (answers) box.append(answers);
   }
 
   function renderCautions(r) {

@@ -89,6 +89,11 @@ func TestFirstPictureBeforeCrossCheck(t *testing.T) {
 		if strings.Contains(row, "pending") || strings.Contains(row, "not done") || got[4] == "" {
 			t.Errorf("the cross-check row says %q after the check", row)
 		}
+		// the results written again with the check keep the trades'
+		// answers the first picture showed (they were lost once)
+		if a := eval[string](t, tb, `(document.getElementById("answers") || {}).textContent || ""`); !strings.Contains(a, "Flow net") {
+			t.Errorf("after the cross-check the answers say %.80q, want the demo's (its flow net among them)", a)
+		}
 		tb.noErrors(t)
 	})
 }
