@@ -176,6 +176,13 @@ func (tb *tab) open(t testing.TB, u string) {
 		t.Fatalf("open %s: %v", u, err)
 	}
 	tb.waitSolved(t, 1)
+	// and settled: the first picture's cross-check follows it, and the
+	// results written again then move what stands below them (a click
+	// aimed at a button there before that could land elsewhere)
+	settled := `(() => { const S = window.edgewiseInternal && window.edgewiseInternal.last(); return !S || S.checkPending !== true; })()`
+	if _, err := chromedp.Run(tb.ctx, chromedp.Poll[bool](settled, chromedp.WithPollingTimeout(60*time.Second))); err != nil {
+		t.Fatalf("open %s: the first picture's cross-check did not come: %v", u, err)
+	}
 }
 
 // waitSolved waits until the page reports n solves (data-solved on <html>).
